@@ -1,0 +1,3 @@
+module tempstack
+
+go 1.26

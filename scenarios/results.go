@@ -1,0 +1,136 @@
+package scenarios
+
+// Results is everything one run of a scenario produces. It is defined once
+// here and passed unchanged to the JSON writer, the CSV writer and the
+// report (package charts). JSON keys follow the output contract of
+// DESIGN.md: core keys are never renamed; new keys may be added.
+//
+// Units are in the key names (…_m, …_h, …_C, …_W_m2K); inside Go the
+// fields hold the same values in those same units, converted from SI at the
+// end of a run.
+type Results struct {
+	Title        string  `json:"title"`
+	Kind         string  `json:"kind"`                    // "wall" or "ground"
+	ScenarioFile string  `json:"scenario_file,omitempty"` // as given on the command line, or "(embedded demo)"
+	Orientation  string  `json:"orientation,omitempty"`   // wall kind: wall | roof | floor
+	Layers       []Layer `json:"layers"`
+
+	Steady   Steady           `json:"steady"`
+	Periodic []PeriodicResult `json:"periodic"`
+
+	// Simulation and Frost are filled by later stages; nil when not run.
+	Simulation *Simulation `json:"simulation,omitempty"`
+	Frost      *Frost      `json:"frost,omitempty"`
+
+	Warnings []string `json:"warnings,omitempty"`
+
+	// Series holds the chart data; large, so it is kept out of results.json.
+	Series Series `json:"-"`
+}
+
+// Layer describes one layer as it was used in the run, outside (or surface)
+// first.
+type Layer struct {
+	Name                     string  `json:"name"`
+	Material                 string  `json:"material,omitempty"` // library key, empty for inline properties
+	Source                   string  `json:"source,omitempty"`   // where the property values come from
+	Thickness_m              float64 `json:"thickness_m"`
+	Conductivity_W_mK        float64 `json:"conductivity_W_mK,omitempty"`
+	Density_kg_m3            float64 `json:"density_kg_m3,omitempty"`
+	SpecificHeat_J_kgK       float64 `json:"specific_heat_J_kgK,omitempty"`
+	Resistance_m2K_W         float64 `json:"resistance_m2K_W"`              // d/lambda, or the air-layer resistance
+	PenetrationDepth_m       float64 `json:"penetration_depth_m,omitempty"` // at the first analysis period
+	Diffusivity_m2_s         float64 `json:"diffusivity_m2_s,omitempty"`
+	Effusivity_Ws05_m2K      float64 `json:"effusivity_W_s05_m2K,omitempty"`
+	Freezing                 bool    `json:"freezing,omitempty"`
+	ConductivityFrozen_W_mK  float64 `json:"conductivity_frozen_W_mK,omitempty"`
+	HeatCapacityFrozen_J_m3K float64 `json:"heat_capacity_frozen_J_m3K,omitempty"`
+	LatentHeat_J_m3          float64 `json:"latent_heat_J_m3,omitempty"`
+	FreezingPoint_C          float64 `json:"freezing_point_C,omitempty"`
+}
+
+// Steady is the steady-state (ISO 6946) result.
+type Steady struct {
+	UValue_W_m2K             float64 `json:"u_value_W_m2K"`
+	ThermalResistance_m2K_W  float64 `json:"thermal_resistance_m2K_W"` // surface to surface, layers only
+	TotalResistance_m2K_W    float64 `json:"total_resistance_m2K_W"`   // including both surface resistances
+	InsideSurfaceResistance  float64 `json:"inside_surface_resistance_m2K_W"`
+	OutsideSurfaceResistance float64 `json:"outside_surface_resistance_m2K_W"`
+}
+
+// PeriodicResult holds the ISO 13786 properties for one period.
+type PeriodicResult struct {
+	Period_h                        float64 `json:"period_h"`
+	DecrementFactor                 float64 `json:"decrement_factor"` // |Y12| / U
+	TimeShift_h                     float64 `json:"time_shift_h"`     // inside lags outside, in [0, period) unless unwrapped
+	TimeShiftUnwrapped_h            float64 `json:"time_shift_unwrapped_h"`
+	PeriodicTransmittance_W_m2K     float64 `json:"periodic_transmittance_W_m2K"`
+	InsideAdmittance_W_m2K          float64 `json:"inside_admittance_W_m2K"`
+	InsideAdmittanceLead_h          float64 `json:"inside_admittance_lead_h"`
+	OutsideAdmittance_W_m2K         float64 `json:"outside_admittance_W_m2K"`
+	OutsideAdmittanceLead_h         float64 `json:"outside_admittance_lead_h"`
+	InsideArealHeatCapacity_kJ_m2K  float64 `json:"inside_areal_heat_capacity_kJ_m2K"`
+	OutsideArealHeatCapacity_kJ_m2K float64 `json:"outside_areal_heat_capacity_kJ_m2K"`
+}
+
+// Simulation is the transient finite-volume result.
+type Simulation struct {
+	Duration_h                 float64         `json:"duration_h"`
+	Step_h                     float64         `json:"step_h"`
+	Cells                      int             `json:"cells"`
+	EnergyBalanceRelativeError float64         `json:"energy_balance_relative_error"`
+	SpinUpCycles               int             `json:"spin_up_cycles"`
+	Probes                     []Probe         `json:"probes"`
+	PeriodicCheck              []PeriodicCheck `json:"periodic_check,omitempty"`
+}
+
+// Probe summarises the simulated temperature at one depth.
+type Probe struct {
+	Depth_m float64 `json:"depth_m"`
+	Min_C   float64 `json:"min_C"`
+	Max_C   float64 `json:"max_C"`
+	Mean_C  float64 `json:"mean_C"`
+}
+
+// PeriodicCheck sets the simulated (fitted) periodic properties beside the
+// exact ones.
+type PeriodicCheck struct {
+	Period_h             float64 `json:"period_h"`
+	DecrementFactor      float64 `json:"decrement_factor"`
+	TimeShift_h          float64 `json:"time_shift_h"`
+	ExactDecrementFactor float64 `json:"exact_decrement_factor"`
+	ExactTimeShift_h     float64 `json:"exact_time_shift_h"`
+}
+
+// Frost is the frost-depth result of a ground scenario.
+type Frost struct {
+	FreezingIndex_Cd        float64 `json:"freezing_index_Cd"`
+	MaxFrostDepth_m         float64 `json:"max_frost_depth_m"`
+	StefanDepth_m           float64 `json:"stefan_depth_m"`
+	ModifiedBerggrenDepth_m float64 `json:"modified_berggren_depth_m"`
+}
+
+// Series is chart data: curves over time, over depth and over period.
+// Every slice pair has equal lengths. Temperatures in degC, heat flux in
+// W/m2 (positive from outside to inside), positions in m from the outside.
+type Series struct {
+	// One period (the first analysis period) of the exact periodic steady state.
+	CycleTime_h           []float64
+	CycleOutsideAir_C     []float64 // outside environment (air or sol-air) temperature
+	CycleOutsideSurface_C []float64
+	CycleInsideSurface_C  []float64
+	CycleInsideAir_C      []float64
+	CycleInsideFlux_W_m2  []float64 // heat flux into the room at the inside surface
+
+	// Envelope of the exact periodic state across the construction.
+	ProfilePosition_m []float64
+	ProfileMin_C      []float64
+	ProfileMean_C     []float64
+	ProfileMax_C      []float64
+	Interfaces_m      []float64 // layer boundaries, including 0 and the total thickness
+
+	// Frequency response, periods from 1 h to 1 year.
+	ResponsePeriod_h    []float64
+	ResponseDecrement   []float64
+	ResponseTimeShift_h []float64 // unwrapped lag
+}
