@@ -133,4 +133,30 @@ type Series struct {
 	ResponsePeriod_h    []float64
 	ResponseDecrement   []float64
 	ResponseTimeShift_h []float64 // unwrapped lag
+
+	// Transient simulation, sampled at the output step. Probes_C[i] belongs
+	// to ProbeDepth_m[i]. Empty when no simulation ran.
+	SimTime_h           []float64
+	SimOutsideAir_C     []float64 // outside (surface) environment temperature
+	SimOutsideSurface_C []float64
+	SimInsideSurface_C  []float64
+	SimOutsideFlux_W_m2 []float64 // at the outside surface, positive inward (+x)
+	SimInsideFlux_W_m2  []float64 // at the inside surface, positive inward (+x)
+	ProbeDepth_m        []float64
+	Probes_C            [][]float64
+	FrostDepth_m        []float64 // deepest frozen position at each sample, 0 when unfrozen (ground)
+	ThawDepth_m         []float64 // depth thawed from the surface in a frozen column (ground), 0 when none
+
+	// Envelope of the simulated temperatures against depth (ground: the
+	// last simulated year).
+	SimProfilePosition_m []float64
+	SimProfileMin_C      []float64
+	SimProfileMean_C     []float64
+	SimProfileMax_C      []float64
+
+	// Step response of the outside surface (touch and floor-warmth
+	// questions): numerical curve against the half-space closed form.
+	StepTime_s             []float64
+	StepFlux_W_m2          []float64 // simulated surface heat flux
+	StepFluxHalfSpace_W_m2 []float64 // closed form, semi-infinite first layer
 }
