@@ -1,0 +1,350 @@
+package ground
+
+import (
+	"math"
+	"testing"
+
+	"tempstack/solver"
+)
+
+func TestStefanHandySpangler(t *testing.T) {
+	// Handy and Spangler, Geotechnical Engineering, 5th ed. 2007, Example
+	// 11.7 [read, REFERENCES section 4]: k_frozen 3.3 W/(m K), L about
+	// 77,000 kJ/m3, 10 days at -5 degC (50 degC day): X = 0.6 m
+	// (0.609 m [derived]).
+	x, err := Stefan(3.3, 77e6, 50)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(x-0.609) > 0.0005 {
+		t.Errorf("Stefan depth %.4f m, want 0.609", x)
+	}
+	// Same example from the soil description (dry unit weight 18.9 kN/m3,
+	// w 12 %): the latent heat from the soil gives 0.608 m, still 0.6 m.
+	s := Soil{Texture: Sand, DryDensity: 18900 / 9.81, WaterContent: 0.12}
+	x2, err := Stefan(3.3, s.LatentHeat(), 50)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(x2-0.6) > 0.01 {
+		t.Errorf("Stefan depth from soil %.4f m, want 0.6", x2)
+	}
+	// Thawing the 0.6 m back with the unfrozen k 2.6 W/(m K) needs 62 degC
+	// day [read].
+	I, err := StefanIndex(2.6, 77e6, 0.6)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(I-62) > 0.5 {
+		t.Errorf("thaw index %.2f degC day, want 62", I)
+	}
+	t.Logf("Example 11.7: X = %.4f m (book 0.6), thaw index %.2f degC day (book 62)", x, I)
+	// Round trip [derived].
+	x3, _ := Stefan(2.6, 77e6, I)
+	if math.Abs(x3-0.6) > 1e-12 {
+		t.Errorf("round trip %g", x3)
+	}
+}
+
+func TestStefanBadInputs(t *testing.T) {
+	bad := [][3]float64{{3.3, 77e6, -1}, {0, 77e6, 50}, {3.3, 0, 50}, {3.3, 77e6, math.NaN()}, {-1, 77e6, 50}}
+	for _, c := range bad {
+		if _, err := Stefan(c[0], c[1], c[2]); err == nil {
+			t.Errorf("Stefan%v: want an error", c)
+		}
+	}
+	if _, err := StefanIndex(2.6, 77e6, -0.1); err == nil {
+		t.Error("StefanIndex at negative depth: want an error")
+	}
+}
+
+func TestBerggrenCoefficient(t *testing.T) {
+	cases := []struct {
+		alpha, mu, lambda, tol float64
+		src                    string
+	}{
+		{0, 0.5, 0.930, 0.0005, "REFERENCES section 4 [derived]"},
+		{1, 0.2, 0.776, 0.0005, "REFERENCES section 4 [derived]"},
+		// alpha = 0 is the one-phase Stefan problem with St = mu:
+		// xi exp(xi^2) erf(xi) = St/sqrt(pi); xi = 0.22002, 0.46479,
+		// 0.62006, 0.80060 for St 0.1, 0.5, 1, 2 (REFERENCES section 4
+		// [derived; textbook tables from memory agree]); lambda =
+		// xi sqrt(2/St).
+		{0, 0.1, 0.22002 * math.Sqrt(20), 2e-5, "one-phase Stefan St 0.1"},
+		{0, 1, 0.62006 * math.Sqrt(2), 2e-5, "one-phase Stefan St 1"},
+		{0, 2, 0.80060, 2e-5, "one-phase Stefan St 2"},
+		// mu -> 0: lambda -> 1 (xi^2 -> mu/2) [derived]. Expanding erf and
+		// erfc for small xi gives sqrt(pi) xi^2 + alpha mu xi = mu sqrt(pi)/2,
+		// so lambda = 1 - alpha sqrt(mu / (2 pi)) + O(mu) [derived]: with
+		// alpha > 0 the approach is as sqrt(mu).
+		{0, 1e-8, 1, 1e-7, "limit mu -> 0"},
+		{3, 1e-8, 1 - 3*math.Sqrt(1e-8/(2*math.Pi)), 1e-7, "limit mu -> 0, alpha 3"},
+		{0.5, 1e-6, 1 - 0.5*math.Sqrt(1e-6/(2*math.Pi)), 2e-6, "limit mu -> 0, alpha 0.5"},
+	}
+	for _, c := range cases {
+		l, xi, err := BerggrenCoefficient(c.alpha, c.mu)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(l-c.lambda) > c.tol {
+			t.Errorf("alpha %g mu %g: lambda %.6f, want %.6f (%s)", c.alpha, c.mu, l, c.lambda, c.src)
+		}
+		// The root satisfies the transcendental equation.
+		f := c.mu*math.Exp(-xi*xi)*(1/math.Erf(xi)-c.alpha/math.Erfc(xi)) - math.SqrtPi*xi
+		if math.Abs(f) > 1e-9*(1+c.mu/xi) {
+			t.Errorf("alpha %g mu %g: residual %g", c.alpha, c.mu, f)
+		}
+		t.Logf("alpha %g mu %g: lambda %.6f (%s, want %.6f)", c.alpha, c.mu, l, c.src, c.lambda)
+	}
+}
+
+func TestBerggrenCoefficientProperties(t *testing.T) {
+	// Properties [derived]: 0 < lambda <= 1; lambda falls as alpha or mu
+	// grows (more sensible heat to remove per unit of latent heat).
+	alphas := []float64{0, 0.25, 0.5, 1, 2, 4, 8, 15}
+	mus := []float64{0.01, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 20, 100}
+	for _, a := range alphas {
+		prev := 1.0 + 1e-12
+		for _, m := range mus {
+			l, _, err := BerggrenCoefficient(a, m)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !(l > 0 && l < prev) {
+				t.Errorf("alpha %g mu %g: lambda %g not in (0, %g)", a, m, l, prev)
+			}
+			prev = l
+		}
+	}
+	for _, m := range mus {
+		prev := 1.0 + 1e-12
+		for _, a := range alphas {
+			l, _, _ := BerggrenCoefficient(a, m)
+			if !(l < prev) {
+				t.Errorf("mu %g alpha %g: lambda %g not below %g", m, a, l, prev)
+			}
+			prev = l
+		}
+	}
+	for _, c := range [][2]float64{{-1, 0.5}, {0, 0}, {0, -1}, {math.NaN(), 1}, {1, math.Inf(1)}} {
+		if _, _, err := BerggrenCoefficient(c[0], c[1]); err == nil {
+			t.Errorf("BerggrenCoefficient%v: want an error", c)
+		}
+	}
+}
+
+// neumannTwoPhase returns the constant m of the two-phase Neumann freezing
+// front X = m sqrt(t) (m/s^0.5) for a half-space initially at Tf + v0 whose
+// surface is held at Tf - vs from t = 0. It solves the Stefan condition in
+// its classical form (Carslaw and Jaeger section 11.2; Lunardini 1981):
+//
+//	kf vs e^(-l^2) / (erf(l) sqrt(pi af)) -
+//	ku v0 e^(-l^2 af/au) / (erfc(l sqrt(af/au)) sqrt(pi au)) = L l sqrt(af)
+//
+// with X = 2 l sqrt(af t), by bisection. It is a test oracle written in a
+// different algebra from BerggrenCoefficient.
+func neumannTwoPhase(kf, ku, cf, cu, latent, vs, v0 float64) float64 {
+	af, au := kf/cf, ku/cu
+	r := math.Sqrt(af / au)
+	h := func(l float64) float64 {
+		return kf*vs*math.Exp(-l*l)/(math.Erf(l)*math.Sqrt(math.Pi*af)) -
+			ku*v0*math.Exp(-l*l*r*r)/(math.Erfc(l*r)*math.Sqrt(math.Pi*au)) -
+			latent*l*math.Sqrt(af)
+	}
+	lo, hi := 1e-9, 5.0
+	for i := 0; i < 200; i++ {
+		mid := 0.5 * (lo + hi)
+		if h(mid) > 0 {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return 2 * 0.5 * (lo + hi) * math.Sqrt(af)
+}
+
+func TestNeumannOracle(t *testing.T) {
+	// The oracle against Lunardini (1981), Heat Transfer in Cold Climates,
+	// with Jumikis (1966) soil data [2nd-hand, REFERENCES section 4]:
+	// m = 3.6 cm/h^0.5 (3.5945 [derived]); X(60 days) = 1.364 m.
+	m := neumannTwoPhase(2.324, 1.860, 1.966e6, 2.862e6, 1.1045e8, 10, 2)
+	cmh := m * 100 * 60
+	if math.Abs(cmh-3.5945) > 0.0005 {
+		t.Errorf("m = %.4f cm/h^0.5, want 3.5945", cmh)
+	}
+	if x := m * math.Sqrt(60*86400); math.Abs(x-1.364) > 0.001 {
+		t.Errorf("X(60 d) = %.4f m, want 1.364", x)
+	}
+}
+
+func freezeLayer(name string, d, kf, ku, cf, cu, latent float64) solver.Layer {
+	return solver.Layer{Name: name, Thickness: d, Conductivity: ku, HeatCapacity: cu,
+		Freeze: &solver.Freezing{LatentHeat: latent, ConductivityFrozen: kf, HeatCapacityFrozen: cf}}
+}
+
+func TestModifiedBerggrenIsNeumann(t *testing.T) {
+	// With equal frozen and unfrozen properties and a surface held vs below
+	// freezing for the whole season over soil starting v0 above it, the
+	// modified Berggren depth is the exact two-phase Neumann front
+	// (REFERENCES section 4: lambda is derived from that solution).
+	cases := []struct{ k, c, L, vs, v0, days float64 }{
+		{2.0, 2.0e6, 1.0e8, 8, 3, 100},
+		{1.2, 2.6e6, 1.4e8, 5, 8, 120},
+		{3.0, 1.8e6, 3.0e7, 15, 0, 150},
+	}
+	for _, c := range cases {
+		in := BerggrenInput{
+			SurfaceIndex: c.vs * c.days,
+			SeasonDays:   c.days,
+			MeanAnnual:   c.v0,
+			Layers:       []solver.Layer{freezeLayer("soil", 1, c.k, c.k, c.c, c.c, c.L)},
+		}
+		r, err := ModifiedBerggren(in)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := neumannTwoPhase(c.k, c.k, c.c, c.c, c.L, c.vs, c.v0) * math.Sqrt(c.days*86400)
+		if math.Abs(r.Depth-want) > 1e-9*want {
+			t.Errorf("%+v: Berggren %.9f m, Neumann %.9f m", c, r.Depth, want)
+		}
+		// The Stefan depth with the same k bounds it from above.
+		xs, _ := Stefan(c.k, c.L, in.SurfaceIndex)
+		if !(r.Depth < xs) || math.Abs(r.Depth-r.Lambda*xs) > 1e-9*xs {
+			t.Errorf("%+v: Berggren %g, lambda %g, Stefan %g", c, r.Depth, r.Lambda, xs)
+		}
+	}
+}
+
+func TestModifiedBerggrenHomogeneous(t *testing.T) {
+	// One soil layer: X = lambda sqrt(2 k F 86400 / L) with k and C the means
+	// of frozen and unfrozen values (REFERENCES section 4).
+	l := freezeLayer("silt", 0.3, 1.8, 1.4, 1.9e6, 2.6e6, 1.0e8)
+	in := BerggrenInput{SurfaceIndex: 900, SeasonDays: 110, MeanAnnual: 6, Layers: []solver.Layer{l}}
+	r, err := ModifiedBerggren(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	vs := 900.0 / 110
+	alpha, mu := 6/vs, 0.5*(1.9e6+2.6e6)*vs/1.0e8
+	lam, _, _ := BerggrenCoefficient(alpha, mu)
+	want := lam * math.Sqrt(2*1.6*900*86400/1.0e8)
+	if math.Abs(r.Alpha-alpha) > 1e-12 || math.Abs(r.Mu-mu) > 1e-12 || math.Abs(r.Lambda-lam) > 1e-12 {
+		t.Errorf("alpha/mu/lambda %g/%g/%g, want %g/%g/%g", r.Alpha, r.Mu, r.Lambda, alpha, mu, lam)
+	}
+	if math.Abs(r.Depth-want) > 1e-10*want {
+		t.Errorf("depth %.10f, want %.10f", r.Depth, want)
+	}
+	if r.Layer != 0 || len(r.Needed) != 1 || math.Abs(r.Needed[0]-900) > 1e-6 {
+		t.Errorf("layer %d needed %v", r.Layer, r.Needed)
+	}
+}
+
+func TestModifiedBerggrenThinLayers(t *testing.T) {
+	// A homogeneous soil split into many thin identical layers gives the
+	// homogeneous answer: the layered sum telescopes to L X^2 / (2 k 86400
+	// lambda^2) [derived].
+	base := freezeLayer("clay", 2, 1.5, 1.2, 2.0e6, 2.8e6, 1.2e8)
+	in := BerggrenInput{SurfaceIndex: 1500, SeasonDays: 140, MeanAnnual: 4, Layers: []solver.Layer{base}}
+	one, err := ModifiedBerggren(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, n := range []int{3, 17, 200} {
+		layers := make([]solver.Layer, n)
+		for i := range layers {
+			layers[i] = base
+			layers[i].Thickness = 3.0 / float64(n)
+		}
+		in.Layers = layers
+		r, err := ModifiedBerggren(in)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(r.Depth-one.Depth) > 1e-9 {
+			t.Errorf("%d layers: depth %.12f, homogeneous %.12f", n, r.Depth, one.Depth)
+		}
+		if r.Layer != int(one.Depth/(3.0/float64(n))) {
+			t.Errorf("%d layers: frost line in layer %d", n, r.Layer)
+		}
+	}
+}
+
+func TestModifiedBerggrenLayered(t *testing.T) {
+	// A dry, well-conducting gravel base over a wet clay: the base's small
+	// latent heat lets frost reach deeper than in clay alone, and not as deep
+	// as in gravel alone [derived: the layered index is bracketed by the
+	// single-soil indices]. The last layer continues downward.
+	gravel := freezeLayer("gravel", 0.5, 2.5, 2.0, 1.6e6, 1.8e6, 2.5e7)
+	clay := freezeLayer("clay", 0.5, 1.5, 1.2, 2.0e6, 2.8e6, 1.2e8)
+	in := BerggrenInput{SurfaceIndex: 800, SeasonDays: 120, MeanAnnual: 5}
+	depth := func(ls ...solver.Layer) BerggrenResult {
+		in.Layers = ls
+		r, err := ModifiedBerggren(in)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r
+	}
+	g, c, gc := depth(gravel), depth(clay), depth(gravel, clay)
+	if !(c.Depth < gc.Depth && gc.Depth < g.Depth) {
+		t.Errorf("clay %g < layered %g < gravel %g fails", c.Depth, gc.Depth, g.Depth)
+	}
+	if gc.Layer != 1 || gc.Depth <= 0.5 || len(gc.Needed) != 2 || gc.Needed[0] >= 800 {
+		t.Errorf("layered result %+v", gc)
+	}
+	// The index needed to freeze through the gravel, by hand: L d (R/2) /
+	// (86400 lambda^2) with R = 0.5/2.25, mu from the gravel alone.
+	vs := 800.0 / 120
+	lam, _, _ := BerggrenCoefficient(5/vs, 1.7e6*vs/2.5e7)
+	want := 2.5e7 * 0.5 * (0.5 / 2.25 / 2) / (86400 * lam * lam)
+	if math.Abs(gc.Needed[0]-want) > 1e-9*want {
+		t.Errorf("index through gravel %g, want %g", gc.Needed[0], want)
+	}
+	t.Logf("gravel alone %.3f m, clay alone %.3f m, gravel on clay %.3f m (gravel frozen through at %.1f K day)",
+		g.Depth, c.Depth, gc.Depth, gc.Needed[0])
+}
+
+func TestModifiedBerggrenBadInputs(t *testing.T) {
+	good := freezeLayer("soil", 1, 2, 2, 2e6, 2e6, 1e8)
+	dry := good
+	dry.Freeze = nil
+	bad := []BerggrenInput{
+		{SurfaceIndex: -100, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{good}},
+		{SurfaceIndex: 0, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{good}},
+		{SurfaceIndex: 500, SeasonDays: 0, MeanAnnual: 5, Layers: []solver.Layer{good}},
+		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: -2, Layers: []solver.Layer{good}},
+		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: 5},
+		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{dry}},
+		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{{Name: "gap", Resistance: 0.2}, good}},
+		{SurfaceIndex: math.NaN(), SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{good}},
+	}
+	for i, in := range bad {
+		if _, err := ModifiedBerggren(in); err == nil {
+			t.Errorf("case %d: want an error", i)
+		}
+	}
+}
+
+func BenchmarkModifiedBerggren(b *testing.B) {
+	l := freezeLayer("silt", 1, 1.8, 1.4, 1.9e6, 2.6e6, 1.0e8)
+	in := BerggrenInput{SurfaceIndex: 900, SeasonDays: 110, MeanAnnual: 6, Layers: []solver.Layer{l}}
+	for b.Loop() {
+		if _, err := ModifiedBerggren(in); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkModifiedBerggrenLayered(b *testing.B) {
+	layers := []solver.Layer{
+		freezeLayer("gravel", 0.3, 2.5, 2.0, 1.6e6, 1.8e6, 2.5e7),
+		freezeLayer("sand", 0.4, 2.2, 1.9, 1.7e6, 2.2e6, 5e7),
+		freezeLayer("clay", 1, 1.5, 1.2, 2.0e6, 2.8e6, 1.2e8),
+	}
+	in := BerggrenInput{SurfaceIndex: 1200, SeasonDays: 130, MeanAnnual: 5, Layers: layers}
+	for b.Loop() {
+		if _, err := ModifiedBerggren(in); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
