@@ -1,0 +1,251 @@
+package ground
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"tempstack/climate"
+)
+
+// The functions here read a sampled temperature series: series[i] is the
+// temperature (degC) that holds for the interval of length step seconds
+// starting at sample i (a daily mean with step 86400, an hourly value with
+// step 3600). Degree-day sums are therefore rectangle sums, which for daily
+// means is the conventional definition of a freezing index (ISO 13793
+// writes F in K h = 24 x the sum of daily degrees below 0 degC [read, via
+// REFERENCES section 4]).
+
+func checkSeries(series []float64, step float64) error {
+	if len(series) == 0 {
+		return errors.New("temperature series is empty")
+	}
+	if !finite(step) || step <= 0 {
+		return fmt.Errorf("time step must be positive, got %g s", step)
+	}
+	for i, v := range series {
+		if !finite(v) {
+			return fmt.Errorf("temperature sample %d is not a finite number", i)
+		}
+	}
+	return nil
+}
+
+// DegreeDaysBelow returns the degree-days below base (degC) of a sampled
+// series, K day: sum of max(0, base - T_i) step / 86400. With base 0 it is
+// the total freezing degree-days of the record (positive).
+func DegreeDaysBelow(series []float64, step, base float64) (float64, error) {
+	if err := checkSeries(series, step); err != nil {
+		return 0, err
+	}
+	var s float64
+	for _, v := range series {
+		if v < base {
+			s += base - v
+		}
+	}
+	return s * step / secondsPerDay, nil
+}
+
+// DegreeDaysAbove returns the degree-days above base (degC), K day:
+// sum of max(0, T_i - base) step / 86400 (a thawing index for base 0).
+func DegreeDaysAbove(series []float64, step, base float64) (float64, error) {
+	if err := checkSeries(series, step); err != nil {
+		return 0, err
+	}
+	var s float64
+	for _, v := range series {
+		if v > base {
+			s += v - base
+		}
+	}
+	return s * step / secondsPerDay, nil
+}
+
+// DaysBelow returns the time the series spends below base, days.
+func DaysBelow(series []float64, step, base float64) (float64, error) {
+	if err := checkSeries(series, step); err != nil {
+		return 0, err
+	}
+	n := 0
+	for _, v := range series {
+		if v < base {
+			n++
+		}
+	}
+	return float64(n) * step / secondsPerDay, nil
+}
+
+// MeanTemperature returns the time mean of the series, degC. For the mean
+// annual temperature of the modified Berggren method pass whole years.
+func MeanTemperature(series []float64) (float64, error) {
+	if err := checkSeries(series, 1); err != nil {
+		return 0, err
+	}
+	var s float64
+	for _, v := range series {
+		s += v
+	}
+	return s / float64(len(series)), nil
+}
+
+// Season is a freezing or thawing season read from the cumulative
+// degree-day curve.
+type Season struct {
+	Index float64 // K day, >= 0: the drop (freezing) or rise (thawing) of the curve
+	Start int     // sample at which the season starts (the curve's turning point)
+	End   int     // sample after the season's last one; End - Start samples
+	Days  float64 // season length, (End - Start) step / 86400
+}
+
+// FreezingSeason reads the freezing season from the cumulative curve of
+// (T - base) degree-days: its index is the largest fall of the curve from a
+// maximum to a later minimum, so thaws inside the winter are netted out (the
+// cumulative-curve definition of a freezing index used in the US Army frost
+// manuals, from memory). The record should start before the winter and end
+// after it. A record that never falls below base gives a zero Season.
+func FreezingSeason(series []float64, step, base float64) (Season, error) {
+	return season(series, step, base, -1, false)
+}
+
+// ThawingSeason is FreezingSeason for the largest rise of the curve.
+func ThawingSeason(series []float64, step, base float64) (Season, error) {
+	return season(series, step, base, +1, false)
+}
+
+// CyclicFreezingSeason is FreezingSeason for a series that is one period of
+// a periodic signal (for example one year sampled from climate.Periodic): the
+// series wraps around, so the season may straddle its end; Start is in
+// [0, len) and End may exceed len (End - len is then the sample of the next
+// period). The season is at most one period long.
+func CyclicFreezingSeason(series []float64, step, base float64) (Season, error) {
+	return season(series, step, base, -1, true)
+}
+
+// CyclicThawingSeason is CyclicFreezingSeason for the thawing season.
+func CyclicThawingSeason(series []float64, step, base float64) (Season, error) {
+	return season(series, step, base, +1, true)
+}
+
+// season finds the largest move of the cumulative curve in direction sign
+// (-1 fall, +1 rise). In the cyclic case the series is taken twice and the
+// span limited to one period, with a sliding-window extremum (monotone
+// deque) so the cost stays linear.
+func season(series []float64, step, base float64, sign float64, cyclic bool) (Season, error) {
+	if err := checkSeries(series, step); err != nil {
+		return Season{}, err
+	}
+	n := len(series)
+	m := n
+	if cyclic {
+		m = 2 * n
+	}
+	// c[k] is the curve after k samples, oriented so that we look for the
+	// largest rise c[j] - c[i], i < j.
+	c := make([]float64, m+1)
+	for k := 0; k < m; k++ {
+		c[k+1] = c[k] + sign*(series[k%n]-base)
+	}
+	span := m
+	if cyclic {
+		span = n
+	}
+	var best Season
+	// deque of indices i with increasing c[i] (candidate minima).
+	dq := make([]int, 0, m+1)
+	for j := 0; j <= m; j++ {
+		for len(dq) > 0 && dq[0] < j-span {
+			dq = dq[1:]
+		}
+		if len(dq) > 0 {
+			i := dq[0]
+			if d := c[j] - c[i]; d > best.Index && (!cyclic || i < n) {
+				best = Season{Index: d, Start: i, End: j}
+			}
+		}
+		for len(dq) > 0 && c[dq[len(dq)-1]] >= c[j] {
+			dq = dq[:len(dq)-1]
+		}
+		dq = append(dq, j)
+	}
+	best.Index *= step / secondsPerDay
+	best.Days = float64(best.End-best.Start) * step / secondsPerDay
+	return best, nil
+}
+
+// Sample returns the values of a periodic signal at t = from, from + step,
+// ... while t < to (seconds), ready for the series functions above.
+func Sample(p climate.Periodic, from, to, step float64) ([]float64, error) {
+	if !finite(from) || !finite(to) || !finite(step) || step <= 0 || to <= from {
+		return nil, fmt.Errorf("sample: need from < to and step > 0, got %g, %g, %g s", from, to, step)
+	}
+	n := int(math.Ceil((to - from) / step))
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = p.At(from + float64(i)*step)
+	}
+	return out, nil
+}
+
+// SineIndices returns the freezing and thawing indices (K day) and the
+// freezing-season length (days) of one period of T(t) = mean +
+// amplitude cos(2 pi t / P), P = periodDays, relative to 0 degC [derived by
+// integrating the cosine over the part of the period below 0 degC]:
+//
+//	theta0 = arccos(-mean / amplitude)   (clamped to [0, pi])
+//	F = (P / pi) (amplitude sin(theta0) - mean (pi - theta0))
+//	I = F + mean P                       (thawing index)
+//	season = P (pi - theta0) / pi
+func SineIndices(mean, amplitude, periodDays float64) (freezing, thawing, seasonDays float64, err error) {
+	if !finite(mean) || !finite(amplitude) || amplitude < 0 || !finite(periodDays) || periodDays <= 0 {
+		return 0, 0, 0, fmt.Errorf("sine indices: need a finite mean, amplitude >= 0 and period > 0, got %g, %g, %g", mean, amplitude, periodDays)
+	}
+	var theta0 float64
+	switch {
+	case mean >= amplitude:
+		return 0, mean * periodDays, 0, nil // never below freezing
+	case mean <= -amplitude:
+		theta0 = 0 // always below freezing
+	default:
+		theta0 = math.Acos(-mean / amplitude)
+	}
+	freezing = periodDays / math.Pi * (amplitude*math.Sin(theta0) - mean*(math.Pi-theta0))
+	freezing = math.Max(0, freezing)
+	thawing = freezing + mean*periodDays
+	return freezing, thawing, periodDays * (math.Pi - theta0) / math.Pi, nil
+}
+
+// FrostClimate is what the frost-depth closed forms need from a climate.
+type FrostClimate struct {
+	AirIndex     float64 // air freezing index, K day (cumulative-curve fall)
+	NFactor      float64 // freezing n-factor applied
+	SurfaceIndex float64 // NFactor x AirIndex, K day
+	SeasonDays   float64 // freezing season length, days (cumulative-curve span)
+	MeanAnnual   float64 // mean temperature of the record, degC
+}
+
+// NewFrostClimate reads a FrostClimate from an air temperature series (one
+// or more whole years, starting before winter) with the freezing n-factor n
+// of the surface (see NFactor). With cyclic true the series is one period of
+// a periodic climate and may start anywhere.
+func NewFrostClimate(series []float64, step, n float64, cyclic bool) (FrostClimate, error) {
+	if !finite(n) || n <= 0 {
+		return FrostClimate{}, fmt.Errorf("n-factor must be positive, got %g", n)
+	}
+	f := FreezingSeason
+	if cyclic {
+		f = CyclicFreezingSeason
+	}
+	s, err := f(series, step, 0)
+	if err != nil {
+		return FrostClimate{}, err
+	}
+	mean, _ := MeanTemperature(series)
+	return FrostClimate{
+		AirIndex:     s.Index,
+		NFactor:      n,
+		SurfaceIndex: n * s.Index,
+		SeasonDays:   s.Days,
+		MeanAnnual:   mean,
+	}, nil
+}
