@@ -1,0 +1,198 @@
+package climate
+
+import (
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+)
+
+func TestDegreeDays(t *testing.T) {
+	// Synthetic values; sums by hand.
+	tests := []struct {
+		name         string
+		v            []float64
+		step, thr    float64
+		below, above float64
+	}{
+		{"daily, 0 degC", []float64{-3, -1, 0, 2, 5}, Day, 0, 4, 7},
+		{"hourly, 0 degC", []float64{-3, -1, 0, 2, 5}, 3600, 0, 4.0 / 24, 7.0 / 24},
+		{"daily, -1.5 degC", []float64{-3, -1, 0, 2, 5}, Day, -1.5, 1.5, 0.5 + 1.5 + 3.5 + 6.5},
+		{"empty", nil, Day, 0, 0, 0},
+	}
+	for _, tc := range tests {
+		b, a := DegreeDays(tc.v, tc.step, tc.thr)
+		if math.Abs(b-tc.below) > 1e-12 || math.Abs(a-tc.above) > 1e-12 {
+			t.Errorf("%s: got %v below, %v above; want %v, %v", tc.name, b, a, tc.below, tc.above)
+		}
+	}
+}
+
+func TestDailyMeans(t *testing.T) {
+	// Synthetic: linear between samples, so a day's mean is the mean of
+	// the interpolant: samples at 06:00 and 18:00 of a line T = t/3600 h
+	// give exact hourly-clock means.
+	var tt, vv []float64
+	for h := 6.0; h <= 24*3+18; h += 12 {
+		tt = append(tt, h*3600)
+		vv = append(vv, h) // T = hour on the axis
+	}
+	first, m, err := DailyMeans(tt, vv)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Whole days inside [06:00 day 0, 18:00 day 3]: days 1 and 2; the
+	// mean of T = h over day k is 24k + 12.
+	if first != 1 || len(m) != 2 || math.Abs(m[0]-36) > 1e-9 || math.Abs(m[1]-60) > 1e-9 {
+		t.Errorf("first %d means %v, want 1 and [36 60]", first, m)
+	}
+	if _, _, err := DailyMeans([]float64{0, 0}, []float64{1, 2}); err == nil {
+		t.Error("repeated time: no error")
+	}
+}
+
+// boxWinter builds one winter year of daily-boundary samples (synthetic):
+// u_j at t = (181 + j) Day, j = 0..365: +5 up to j = 120, -10 for j in
+// 121..240, +5 after. The linear interpolant's daily means are
+// m_d = (u_d + u_{d+1})/2: 5 (d 0..119), -2.5 (d 120), -10 (d 121..239),
+// -2.5 (d 240), 5 (d 241..364).
+func boxWinter(offsetDays, warm, cold float64) (t, v []float64) {
+	for j := 0; j <= 365; j++ {
+		u := warm
+		if j >= 121 && j <= 240 {
+			u = cold
+		}
+		t = append(t, (offsetDays+float64(j))*Day)
+		v = append(v, u)
+	}
+	return t, v
+}
+
+func TestWintersHandChecked(t *testing.T) {
+	tt, vv := boxWinter(181, 5, -10)
+	ws, err := Winters(tt, vv, WinterOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ws) != 1 {
+		t.Fatalf("%d winters, want 1: %+v", len(ws), ws)
+	}
+	w := ws[0]
+	// By hand: the cumulative curve peaks at the start of day 120
+	// (C = 600) and bottoms at the start of day 241 (C = 600 - 2.5 - 1190
+	// - 2.5 = -595): freezing index 1195 degC day over 121 days. The
+	// thaw after it: 124 days at +5 = 620. Mean: (600 - 5 - 1190 + 620)/365.
+	want := Winter{Label: "winter 1", Start: (181 + 120) * Day, End: (181 + 241) * Day, Days: 121,
+		FreezingIndex: 1195, ThawingIndex: 620, MeanTemperature: 25.0 / 365, Complete: true}
+	if w.Label != want.Label || w.Start != want.Start || w.End != want.End || w.Days != want.Days ||
+		math.Abs(w.FreezingIndex-want.FreezingIndex) > 1e-9 || math.Abs(w.ThawingIndex-want.ThawingIndex) > 1e-9 ||
+		math.Abs(w.MeanTemperature-want.MeanTemperature) > 1e-12 || w.Complete != want.Complete || w.ThawComplete {
+		t.Errorf("got  %+v\nwant %+v", w, want)
+	}
+	// The same index from the plain degree-day sum of the daily means.
+	_, m, _ := DailyMeans(tt, vv)
+	if below, _ := DegreeDays(m, Day, 0); math.Abs(below-w.FreezingIndex) > 1e-9 {
+		t.Errorf("degree-day sum %v != freezing index %v", below, w.FreezingIndex)
+	}
+}
+
+func TestWintersSeveralYearsAndCalendar(t *testing.T) {
+	// Synthetic: three box winters (cold -10, -5, -20 degC) one after
+	// another, written as a daily CSV from 1 July 2021 with real dates, so
+	// that 29 Feb 2024 lies in the third winter year.
+	start := time.Date(2021, 7, 1, 0, 0, 0, 0, time.UTC)
+	var b strings.Builder
+	b.WriteString("# invented test data\ndate,t\n")
+	colds := []float64{-10, -5, -20}
+	d := start
+	for y, c := range colds {
+		end := start.AddDate(y+1, 0, 0)
+		j := 0
+		for ; d.Before(end); d = d.AddDate(0, 0, 1) {
+			u := 5.0
+			if j >= 121 && j <= 240 {
+				u = c
+			}
+			b.WriteString(d.Format("2006-01-02") + "," + ftoa(u) + "\n")
+			j++
+		}
+	}
+	b.WriteString(d.Format("2006-01-02") + ",5\n") // closes the last day
+	s, err := ReadCSV(strings.NewReader(b.String()), "winters.csv", CSVOptions{TimeColumn: "date", Columns: []string{"t"}, MaxGap: 25 * time.Hour})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ws, err := s.Winters("t", WinterOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ws) != 3 {
+		t.Fatalf("%d winters, want 3", len(ws))
+	}
+	for i, c := range colds {
+		// By hand as in TestWintersHandChecked: 2 ramp days of (5 + c)/2
+		// and 119 days at c below zero.
+		fi := -(119*c + (5 + c))
+		days := 121.0
+		if c == -5 {
+			// The ramp days average exactly 0 degC and leave C flat;
+			// ties go to the earliest peak and the earliest trough.
+			days = 120
+		}
+		w := ws[i]
+		if math.Abs(w.FreezingIndex-fi) > 1e-9 || w.Days != days || !w.Complete {
+			t.Errorf("winter %d: %+v, want index %v over %v days", i, w, fi, days)
+		}
+		wantStart := start.AddDate(i, 0, 120)
+		if !w.StartTime.Equal(wantStart) {
+			t.Errorf("winter %d starts %v, want %v", i, w.StartTime, wantStart)
+		}
+		wantLabel := []string{"2021/22", "2022/23", "2023/24"}[i]
+		if w.Label != wantLabel {
+			t.Errorf("label %q, want %q", w.Label, wantLabel)
+		}
+	}
+	// Thaw between winters 1 and 2: from the end of winter 1 (start of
+	// day 241 of the 365-day year 2021/22, so 124 days of +5 left) through
+	// the 120 days of +5 before the next winter: 244 days at +5.
+	if got := ws[0].ThawingIndex; math.Abs(got-244*5) > 1e-9 || !ws[0].ThawComplete {
+		t.Errorf("thaw after winter 1 = %v (complete %v), want 1220", got, ws[0].ThawComplete)
+	}
+	if got, err := DesignFreezingIndex(FreezingIndices(ws)); err != nil || math.Abs(got-(1195+595+2395)/3.0) > 1e-9 {
+		t.Errorf("design index %v, %v; want mean of the three", got, err)
+	}
+}
+
+func ftoa(x float64) string { return strconv.FormatFloat(x, 'f', -1, 64) }
+
+func TestDesignFreezingIndex(t *testing.T) {
+	// Synthetic indices (degC day), chronological.
+	tests := []struct {
+		name string
+		in   []float64
+		want float64
+		err  bool
+	}{
+		{"three", []float64{100, 300, 200}, 200, false},
+		{"five", []float64{100, 900, 200, 800, 700}, 800, false},
+		// 32 winters: the two oldest (very cold) fall outside the latest 30.
+		{"latest 30 only", append([]float64{5000, 4000}, seq(30, 10, 10)...), (300 + 290 + 280) / 3.0, false},
+		{"too few", []float64{1, 2}, 0, true},
+		{"negative", []float64{1, -2, 3}, 0, true},
+	}
+	for _, tc := range tests {
+		got, err := DesignFreezingIndex(tc.in)
+		if (err != nil) != tc.err || math.Abs(got-tc.want) > 1e-9 {
+			t.Errorf("%s: got %v, %v; want %v (error %v)", tc.name, got, err, tc.want, tc.err)
+		}
+	}
+}
+
+func seq(n int, a, d float64) []float64 {
+	s := make([]float64, n)
+	for i := range s {
+		s[i] = a + float64(i)*d
+	}
+	return s
+}
