@@ -170,7 +170,8 @@ type BerggrenResult struct {
 // L_avg and C_avg, L_avg the thickness-weighted means over layers 1..n.
 // The indices are summed until the sum passes F_s; inside that layer the
 // frozen part x solves the same expression with d_n = x (and the weighted
-// means taken down to x) by bisection. For identical layers this reduces
+// means taken down to x), by fixed-point iteration on the quadratic in x
+// (bisection as a fallback). For identical layers this reduces
 // exactly to the homogeneous formula. When F_s exceeds the sum for all
 // layers, the last layer is taken to continue downward.
 func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
@@ -222,38 +223,72 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 			}
 		}
 		// The frost line is in layer i: find x with cum + dF(x) = F_s.
-		// dF(x) grows without bound, so double hi until it brackets.
 		rest := in.SurfaceIndex - cum
-		hi := l.Thickness
+		maxX := l.Thickness
 		if i == last {
-			for n := 0; ; n++ {
-				dF, _, _, _, err := needed(l, hi)
-				if err != nil {
-					return BerggrenResult{}, err
-				}
-				if dF >= rest {
-					break
-				}
-				if n > 200 {
-					return BerggrenResult{}, errors.New("berggren: frost depth does not converge")
-				}
-				hi *= 2
-			}
+			maxX = math.Inf(1)
 		}
-		lo := 0.0
-		for n := 0; n < 200 && hi-lo > 1e-13*hi; n++ {
-			mid := 0.5 * (lo + hi)
-			dF, _, _, _, err := needed(l, mid)
+		// Fixed point: for a given lambda, dF(x) = rest is a quadratic in
+		// x, x^2/(2k) + R x = rest 86400 lambda^2 / L, solved in its
+		// cancellation-free form; then lambda is updated for the new depth.
+		// lambda varies slowly with x (only through the weighted means), so
+		// this converges in a few steps; exactly one for a single layer.
+		k := meanConductivity(l)
+		x, ok := math.NaN(), false
+		_, lambda, _, _, err := needed(l, math.Min(maxX, math.Max(l.Thickness, 1e-3)))
+		if err != nil {
+			return BerggrenResult{}, err
+		}
+		for n := 0; n < 50; n++ {
+			q := rest * secondsPerDay * lambda * lambda / l.Freeze.LatentHeat
+			xn := 2 * q / (sumR + math.Sqrt(sumR*sumR+2*q/k))
+			if !(xn > 0 && xn <= maxX) {
+				break
+			}
+			_, lambda, _, _, err = needed(l, xn)
 			if err != nil {
 				return BerggrenResult{}, err
 			}
-			if dF < rest {
-				lo = mid
-			} else {
-				hi = mid
+			if math.Abs(xn-x) <= 1e-14*xn {
+				x, ok = xn, true
+				break
 			}
+			x = xn
 		}
-		x := 0.5 * (lo + hi)
+		if !ok {
+			// Fallback: bisection on dF(x) = rest. dF grows without bound,
+			// so in the last layer double hi until it brackets.
+			hi := l.Thickness
+			if i == last {
+				for n := 0; ; n++ {
+					dF, _, _, _, err := needed(l, hi)
+					if err != nil {
+						return BerggrenResult{}, err
+					}
+					if dF >= rest {
+						break
+					}
+					if n > 200 {
+						return BerggrenResult{}, errors.New("berggren: frost depth does not converge")
+					}
+					hi *= 2
+				}
+			}
+			lo := 0.0
+			for n := 0; n < 200 && hi-lo > 1e-13*hi; n++ {
+				mid := 0.5 * (lo + hi)
+				dF, _, _, _, err := needed(l, mid)
+				if err != nil {
+					return BerggrenResult{}, err
+				}
+				if dF < rest {
+					lo = mid
+				} else {
+					hi = mid
+				}
+			}
+			x = 0.5 * (lo + hi)
+		}
 		dF, lambda, mu, xi, err := needed(l, x)
 		if err != nil {
 			return BerggrenResult{}, err

@@ -289,6 +289,11 @@ func TestModifiedBerggrenLayered(t *testing.T) {
 	if !(c.Depth < gc.Depth && gc.Depth < g.Depth) {
 		t.Errorf("clay %g < layered %g < gravel %g fails", c.Depth, gc.Depth, g.Depth)
 	}
+	for _, r := range []BerggrenResult{g, c, gc} {
+		if n := r.Needed[len(r.Needed)-1]; math.Abs(n-800) > 1e-9*800 {
+			t.Errorf("index needed for the whole depth %g, want 800", n)
+		}
+	}
 	if gc.Layer != 1 || gc.Depth <= 0.5 || len(gc.Needed) != 2 || gc.Needed[0] >= 800 {
 		t.Errorf("layered result %+v", gc)
 	}
@@ -299,6 +304,17 @@ func TestModifiedBerggrenLayered(t *testing.T) {
 	want := 2.5e7 * 0.5 * (0.5 / 2.25 / 2) / (86400 * lam * lam)
 	if math.Abs(gc.Needed[0]-want) > 1e-9*want {
 		t.Errorf("index through gravel %g, want %g", gc.Needed[0], want)
+	}
+	// The partial clay layer, by the documented procedure: x = X - 0.5,
+	// means weighted over 0.5 m gravel + x clay, dF = L2 x (R1 + x/(2 k2)) /
+	// (86400 lambda^2), and F1 + dF = 800.
+	x := gc.Depth - 0.5
+	cAvg := (1.7e6*0.5 + 2.4e6*x) / (0.5 + x)
+	lAvg := (2.5e7*0.5 + 1.2e8*x) / (0.5 + x)
+	lam2, _, _ := BerggrenCoefficient(5/vs, cAvg*vs/lAvg)
+	dF := 1.2e8 * x * (0.5/2.25 + x/(2*1.35)) / (86400 * lam2 * lam2)
+	if math.Abs(gc.Needed[0]+dF-800) > 1e-8 || math.Abs(gc.Lambda-lam2) > 1e-12 {
+		t.Errorf("partial layer: F1 + dF = %g, want 800; lambda %g vs %g", gc.Needed[0]+dF, gc.Lambda, lam2)
 	}
 	t.Logf("gravel alone %.3f m, clay alone %.3f m, gravel on clay %.3f m (gravel frozen through at %.1f K day)",
 		g.Depth, c.Depth, gc.Depth, gc.Needed[0])
