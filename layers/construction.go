@@ -168,34 +168,52 @@ type Layer struct {
 
 // NewLayer makes a layer of the given thickness (m) from the library
 // material key. For an air layer the resistance is AirLayerResistance at
-// that thickness for the material's heat flow direction. An unknown key
-// gives an *UnknownMaterialError with suggestions.
+// that thickness for the material's heat flow direction; thickness 0 keeps
+// the tabulated thickness. An unknown key gives an *UnknownMaterialError
+// with suggestions. The layer is validated.
 func NewLayer(key string, thickness float64) (Layer, error) {
 	m, ok := Lookup(key)
 	if !ok {
 		return Layer{}, &UnknownMaterialError{Key: key, Suggestions: Suggest(key)}
 	}
-	return m.Layer(thickness)
-}
-
-// Layer makes a layer of thickness d (m) of material m. For an air layer
-// the resistance follows from AirLayerResistance at d; d = 0 takes the
-// tabulated thickness ResistanceThickness.
-func (m Material) Layer(d float64) (Layer, error) {
-	l := Layer{Name: m.Name, MaterialKey: m.Key, Source: m.Source, Family: m.Family, Thickness: d}
-	if m.IsResistance() {
-		if d == 0 {
-			l.Thickness = m.ResistanceThickness
+	l := m.Layer()
+	if !(m.IsResistance() && thickness == 0) {
+		if err := l.SetThickness(thickness); err != nil {
+			return Layer{}, err
 		}
-		r, err := AirLayerResistance(l.Thickness, m.HeatFlow)
-		if err != nil {
-			return Layer{}, fmt.Errorf("material %q: %w", m.Key, err)
-		}
-		l.Resistance = r
-	} else {
-		l.Conductivity, l.Density, l.SpecificHeat = m.Conductivity, m.Density, m.SpecificHeat
 	}
 	return l, l.Validate()
+}
+
+// Layer returns a layer of material m with the material's name, key,
+// family, source and properties. A massive layer has Thickness 0: set it
+// with SetThickness (or assign it). An air layer comes at its tabulated
+// thickness ResistanceThickness with the tabulated Resistance.
+func (m Material) Layer() Layer {
+	l := Layer{Name: m.Name, MaterialKey: m.Key, Source: m.Source, Family: m.Family}
+	if m.IsResistance() {
+		l.Thickness, l.Resistance = m.ResistanceThickness, m.Resistance
+		return l
+	}
+	l.Conductivity, l.Density, l.SpecificHeat = m.Conductivity, m.Density, m.SpecificHeat
+	return l
+}
+
+// SetThickness sets the thickness of l to d (m). For an air layer of the
+// library (MaterialKey names an air material) it also sets Resistance to
+// AirLayerResistance(d) for the material's direction of heat flow, and
+// returns that function's error for a thickness outside its table. An
+// explicit resistance should be assigned after SetThickness.
+func (l *Layer) SetThickness(d float64) error {
+	if m, ok := Lookup(l.MaterialKey); ok && m.IsResistance() && l.IsResistance() {
+		r, err := AirLayerResistance(d, m.HeatFlow)
+		if err != nil {
+			return fmt.Errorf("material %q: %w", m.Key, err)
+		}
+		l.Resistance = r
+	}
+	l.Thickness = d
+	return nil
 }
 
 // IsResistance reports whether l is a resistance layer (stores no heat).

@@ -60,7 +60,7 @@ func TestLibrary(t *testing.T) {
 		if m.SpecificHeat < 300 || m.SpecificHeat > 4200 {
 			t.Errorf("%q: specific heat %g J/(kg K) out of range", m.Key, m.SpecificHeat)
 		}
-		if l, err := m.Layer(0.1); err != nil || l.Solver().Validate() != nil {
+		if l, err := NewLayer(m.Key, 0.1); err != nil || l.Solver().Validate() != nil {
 			t.Errorf("%q: 0.1 m layer does not validate: %v", m.Key, err)
 		}
 	}

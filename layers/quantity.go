@@ -303,7 +303,7 @@ func ParseQuantity(s string, kind Kind) (float64, error) {
 			if numberPrefix(rest) > 0 {
 				return 0, fmt.Errorf("%q holds more than one number; write one number with one unit, such as %q", s, info.example)
 			}
-			return 0, fmt.Errorf("unknown unit %q for %s; use %s", rest, info.noun, acceptedUnits(kind))
+			return 0, fmt.Errorf("unknown unit %q for %s; use %s%s", rest, info.noun, acceptedUnits(kind), otherKindHint(kind, rest))
 		}
 		u = info.units[i]
 	}
@@ -312,6 +312,27 @@ func ParseQuantity(s string, kind Kind) (float64, error) {
 		return 0, fmt.Errorf("%q is out of range for %s", s, info.noun)
 	}
 	return out, nil
+}
+
+// otherKindHint says which other kind of quantity unit text belongs to,
+// e.g. `; "m" is a unit of length`, or "" if none.
+func otherKindHint(kind Kind, text string) string {
+	for k := Kind(0); k < numKinds; k++ {
+		if k == kind || twins(k, kind) {
+			continue
+		}
+		if _, ok := lookupUnit(k, text); ok {
+			return fmt.Sprintf(`; %q is a unit of %s`, text, kinds[k].short)
+		}
+	}
+	return ""
+}
+
+// twins reports whether a and b are kinds measured in the same units
+// (Duration and Period; HeatFlux and Irradiance).
+func twins(a, b Kind) bool {
+	pair := func(x, y Kind) bool { return a == x && b == y || a == y && b == x }
+	return pair(Duration, Period) || pair(HeatFlux, Irradiance)
 }
 
 // lookupUnit finds the unit written as text for kind: exact canonical

@@ -178,7 +178,9 @@ func TestParseQuantityErrors(t *testing.T) {
 		{"5 m", Conductivity, `unknown unit "m" for a thermal conductivity; use W/(m K), mW/(m K), Btu in/(h ft2 F) or Btu/(h ft F)`},
 		{"3 MW/m2", HeatFlux, `unknown unit "MW/m2" for a heat flux; use W/m2 or mW/m2`},
 		{"3 mw/m2", HeatFlux, "unknown unit"},
-		{"1.8 MJ/m3", VolumetricHeatCapacity, "unknown unit"},
+		{"1.8 MJ/m3", VolumetricHeatCapacity, `use J/(m3 K), kJ/(m3 K) or MJ/(m3 K); "MJ/m3" is a unit of latent heat per volume`},
+		{"5 m", Conductivity, `"m" is a unit of length`},
+		{"20 °C", Resistance, `"°C" is a unit of temperature`},
 		{"10 months", Duration, `use h, s, min, d, w or y`},
 		{"5 m", Duration, "unknown unit"}, // minute or month? neither: ambiguous
 		{"12 pct", Fraction, "use a bare fraction or %"},
