@@ -7,70 +7,62 @@ import (
 	"tempstack/climate"
 )
 
-func TestDegreeDaysHand(t *testing.T) {
-	// Daily means (degC), worked by hand [derived]: below 0: 2 + 4 + 3 = 9
-	// K day; above 0: 5 + 3 + 1 + 2 + 6 = 17; 3 days below. Cumulative
-	// curve 0, 5, 8, 6, 2, 3, 0, 2, 8: largest fall 8 -> 0 over samples
-	// 2..6 (index 8 K day, 4 days, the 1 degC day inside netted out);
-	// largest rise 8 (0 -> 8 over the first two days).
+func TestCyclicSeasonHand(t *testing.T) {
+	// Daily means (degC) as one period, worked by hand [derived]: 3 days
+	// below 0. Cumulative curve 0, 5, 8, 6, 2, 3, 0, 2, 8 (then repeating
+	// from 8): largest fall 8 -> 0 over samples 2..6 (index 8 K day, 4
+	// days, the 1 degC day inside netted out). Largest rise over the wrap:
+	// samples 6, 7, 0, 1 give 2 + 6 + 5 + 3 = 16 K day in 4 days.
 	s := []float64{5, 3, -2, -4, 1, -3, 2, 6}
 	day := 86400.0
-	if v, _ := DegreeDaysBelow(s, day, 0); v != 9 {
-		t.Errorf("below %g", v)
-	}
-	if v, _ := DegreeDaysAbove(s, day, 0); v != 17 {
-		t.Errorf("above %g", v)
-	}
 	if v, _ := DaysBelow(s, day, 0); v != 3 {
 		t.Errorf("days below %g", v)
 	}
-	if v, _ := DegreeDaysBelow(s, day, 2); v != 4+6+1+5 {
-		t.Errorf("below base 2: %g", v)
+	if v, _ := DaysBelow(s, 3600, 2.5); v != 5.0/24 {
+		t.Errorf("hours below 2.5: %g days", v)
 	}
-	// Hourly step: 24 hourly samples of -1 degC make 1 K day.
-	h := make([]float64, 24)
-	for i := range h {
-		h[i] = -1
-	}
-	if v, _ := DegreeDaysBelow(h, 3600, 0); math.Abs(v-1) > 1e-15 {
-		t.Errorf("hourly %g", v)
-	}
-	f, err := FreezingSeason(s, day, 0)
+	f, err := CyclicFreezingSeason(s, day, 0)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if f.Index != 8 || f.Start != 2 || f.End != 6 || f.Days != 4 {
 		t.Errorf("freezing season %+v", f)
 	}
-	th, _ := ThawingSeason(s, day, 0)
-	if th.Index != 8 || th.Start != 0 || th.End != 2 {
+	th, _ := CyclicThawingSeason(s, day, 0)
+	if th.Index != 16 || th.Start != 6 || th.End != 10 || th.Days != 4 {
 		t.Errorf("thawing season %+v", th)
 	}
-	// Cyclic: the same record seen as one period of a periodic climate;
-	// the fall 8 -> 0 is still the largest (the wrap adds rises only).
-	c, _ := CyclicFreezingSeason(s, day, 0)
-	if c.Index != 8 || c.Days != 4 {
-		t.Errorf("cyclic freezing season %+v", c)
-	}
-	// Cyclic wrap: a winter straddling the end of the record.
+	// A winter straddling the end of the record: curve 0, -3, -4, 0, 6, 11,
+	// 9, then -3, -4: the fall 11 -> 5 runs from sample 5 over the wrap to
+	// sample 2 of the next period (6 K day, 3 days).
 	w := []float64{-3, -1, 4, 6, 5, -2}
-	c, _ = CyclicFreezingSeason(w, day, 0)
+	c, _ := CyclicFreezingSeason(w, day, 0)
 	if c.Index != 6 || c.Start != 5 || c.End != 8 || c.Days != 3 {
 		t.Errorf("wrapped season %+v", c)
 	}
-	if m, _ := MeanTemperature(w); math.Abs(m-1.5) > 1e-15 {
-		t.Errorf("mean %g", m)
+	// Hourly step: the index scales with the step.
+	c, _ = CyclicFreezingSeason(w, 3600, 0)
+	if math.Abs(c.Index-6.0/24) > 1e-15 {
+		t.Errorf("hourly index %g", c.Index)
+	}
+	// Never below 0: zero season.
+	if z, _ := CyclicFreezingSeason([]float64{1, 2, 3}, day, 0); z != (Season{}) {
+		t.Errorf("warm record %+v", z)
+	}
+	// Always below 0: the whole period, index = sum.
+	if z, _ := CyclicFreezingSeason([]float64{-1, -2, -3}, day, 0); z.Index != 6 || z.Days != 3 {
+		t.Errorf("cold record %+v", z)
 	}
 }
 
 func TestSeriesBadInputs(t *testing.T) {
-	if _, err := DegreeDaysBelow(nil, 86400, 0); err == nil {
+	if _, err := DaysBelow(nil, 86400, 0); err == nil {
 		t.Error("empty series: want an error")
 	}
-	if _, err := DegreeDaysAbove([]float64{1}, 0, 0); err == nil {
+	if _, err := DaysBelow([]float64{1}, 0, 0); err == nil {
 		t.Error("zero step: want an error")
 	}
-	if _, err := FreezingSeason([]float64{1, math.NaN()}, 86400, 0); err == nil {
+	if _, err := CyclicFreezingSeason([]float64{1, math.NaN()}, 86400, 0); err == nil {
 		t.Error("NaN sample: want an error")
 	}
 	if _, err := Sample(climate.Periodic{}, 1, 0, 1); err == nil {
@@ -79,8 +71,11 @@ func TestSeriesBadInputs(t *testing.T) {
 	if _, _, _, err := SineIndices(0, -1, 365); err == nil {
 		t.Error("negative amplitude: want an error")
 	}
-	if _, err := NewFrostClimate([]float64{1, -1}, 86400, 0, false); err == nil {
+	if _, err := PeriodicFrostClimate(climate.Periodic{}, climate.Year, climate.Day, 0); err == nil {
 		t.Error("zero n-factor: want an error")
+	}
+	if _, err := FrostClimateFromWinter(climate.Winter{FreezingIndex: -1}, 1); err == nil {
+		t.Error("negative winter index: want an error")
 	}
 }
 
@@ -99,11 +94,11 @@ func TestSineIndices(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	below, _ := DegreeDaysBelow(series, 3600, 0)
-	above, _ := DegreeDaysAbove(series, 3600, 0)
+	below, above := climate.DegreeDays(series, 3600, 0)
 	s, _ := CyclicFreezingSeason(series, 3600, 0)
-	if math.Abs(below-F) > 1e-3*F || math.Abs(s.Index-F) > 1e-3*F || math.Abs(above-I) > 1e-3*I {
-		t.Errorf("sampled F %g / %g, I %g; closed form F %g, I %g", below, s.Index, above, F, I)
+	ts, _ := CyclicThawingSeason(series, 3600, 0)
+	if math.Abs(below-F) > 1e-3*F || math.Abs(s.Index-F) > 1e-3*F || math.Abs(above-I) > 1e-3*I || math.Abs(ts.Index-I) > 1e-3*I {
+		t.Errorf("sampled F %g / %g, I %g / %g; closed form F %g, I %g", below, s.Index, above, ts.Index, F, I)
 	}
 	if math.Abs(s.Days-days) > 2.0/24 {
 		t.Errorf("season %g days, closed form %g", s.Days, days)
@@ -123,12 +118,42 @@ func TestSineIndices(t *testing.T) {
 	if F2, _, d2, _ := SineIndices(15, 10, 365); F2 != 0 || d2 != 0 {
 		t.Errorf("never frozen: %g %g", F2, d2)
 	}
-	fc, err := NewFrostClimate(series, 3600, 0.5, true)
+	fc, err := PeriodicFrostClimate(p, climate.Year, 3600, 0.5)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if math.Abs(fc.SurfaceIndex-0.5*fc.AirIndex) > 1e-12 || math.Abs(fc.MeanAnnual-mean) > 1e-9 || math.Abs(fc.AirIndex-F) > 1e-3*F {
+	if math.Abs(fc.SurfaceIndex-0.5*fc.AirIndex) > 1e-12 || fc.MeanAnnual != mean || math.Abs(fc.AirIndex-F) > 1e-3*F ||
+		math.Abs(fc.SeasonDays-days) > 2.0/24 {
 		t.Errorf("frost climate %+v", fc)
+	}
+	// The same climate as a measured daily record of three years read by
+	// climate.Winters: the complete winters carry the same index.
+	tt := make([]float64, 3*365*24)
+	vv := make([]float64, len(tt))
+	for i := range tt {
+		tt[i] = float64(i) * 3600
+		vv[i] = p.At(tt[i])
+	}
+	ws, err := climate.Winters(tt, vv, climate.WinterOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, w := range ws {
+		if !w.Complete {
+			continue
+		}
+		n++
+		fw, err := FrostClimateFromWinter(w, 0.5)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(fw.AirIndex-F) > 2e-3*F || math.Abs(fw.SeasonDays-days) > 1.01 || math.Abs(fw.MeanAnnual-mean) > 0.05 {
+			t.Errorf("winter %s: %+v, closed form F %g, %g days", w.Label, fw, F, days)
+		}
+	}
+	if n == 0 {
+		t.Error("no complete winter in three years")
 	}
 }
 

@@ -79,12 +79,12 @@ func ExampleBerggrenCoefficient() {
 }
 
 // Freezing index and season from a periodic air temperature.
-func ExampleNewFrostClimate() {
+func ExamplePeriodicFrostClimate() {
 	air := climate.Periodic{Mean: 5, Harmonics: []climate.Harmonic{
 		{Period: climate.Year, Amplitude: 13, Peak: 205 * climate.Day},
 	}}
-	series, _ := ground.Sample(air, 0, climate.Year, climate.Day)
-	fc, _ := ground.NewFrostClimate(series, climate.Day, 0.7, true)
+	bare, _ := ground.NFactor("bare-soil")
+	fc, _ := ground.PeriodicFrostClimate(air, climate.Year, climate.Day, bare.Freezing)
 	fmt.Printf("air index %.0f K day, surface %.0f K day, season %.0f days, mean %.1f degC\n",
 		fc.AirIndex, fc.SurfaceIndex, fc.SeasonDays, fc.MeanAnnual)
 	F, _, days, _ := ground.SineIndices(5, 13, 365)

@@ -6,15 +6,17 @@ import (
 	"math"
 
 	"tempstack/climate"
+	"tempstack/solver"
 )
 
 // The functions here read a sampled temperature series: series[i] is the
 // temperature (degC) that holds for the interval of length step seconds
 // starting at sample i (a daily mean with step 86400, an hourly value with
-// step 3600). Degree-day sums are therefore rectangle sums, which for daily
-// means is the conventional definition of a freezing index (ISO 13793
-// writes F in K h = 24 x the sum of daily degrees below 0 degC [read, via
-// REFERENCES section 4]).
+// step 3600). Degree-day sums are rectangle sums, as climate.DegreeDays;
+// for measured multi-year records use climate.Winters and
+// FrostClimateFromWinter. What is here serves periodic climates: the
+// freezing season of one period that may straddle the end of the record,
+// the closed form for a cosine, and the inputs of the Berggren method.
 
 func checkSeries(series []float64, step float64) error {
 	if len(series) == 0 {
@@ -31,37 +33,6 @@ func checkSeries(series []float64, step float64) error {
 	return nil
 }
 
-// DegreeDaysBelow returns the degree-days below base (degC) of a sampled
-// series, K day: sum of max(0, base - T_i) step / 86400. With base 0 it is
-// the total freezing degree-days of the record (positive).
-func DegreeDaysBelow(series []float64, step, base float64) (float64, error) {
-	if err := checkSeries(series, step); err != nil {
-		return 0, err
-	}
-	var s float64
-	for _, v := range series {
-		if v < base {
-			s += base - v
-		}
-	}
-	return s * step / secondsPerDay, nil
-}
-
-// DegreeDaysAbove returns the degree-days above base (degC), K day:
-// sum of max(0, T_i - base) step / 86400 (a thawing index for base 0).
-func DegreeDaysAbove(series []float64, step, base float64) (float64, error) {
-	if err := checkSeries(series, step); err != nil {
-		return 0, err
-	}
-	var s float64
-	for _, v := range series {
-		if v > base {
-			s += v - base
-		}
-	}
-	return s * step / secondsPerDay, nil
-}
-
 // DaysBelow returns the time the series spends below base, days.
 func DaysBelow(series []float64, step, base float64) (float64, error) {
 	if err := checkSeries(series, step); err != nil {
@@ -76,19 +47,6 @@ func DaysBelow(series []float64, step, base float64) (float64, error) {
 	return float64(n) * step / secondsPerDay, nil
 }
 
-// MeanTemperature returns the time mean of the series, degC. For the mean
-// annual temperature of the modified Berggren method pass whole years.
-func MeanTemperature(series []float64) (float64, error) {
-	if err := checkSeries(series, 1); err != nil {
-		return 0, err
-	}
-	var s float64
-	for _, v := range series {
-		s += v
-	}
-	return s / float64(len(series)), nil
-}
-
 // Season is a freezing or thawing season read from the cumulative
 // degree-day curve.
 type Season struct {
@@ -98,69 +56,53 @@ type Season struct {
 	Days  float64 // season length, (End - Start) step / 86400
 }
 
-// FreezingSeason reads the freezing season from the cumulative curve of
-// (T - base) degree-days: its index is the largest fall of the curve from a
-// maximum to a later minimum, so thaws inside the winter are netted out (the
-// cumulative-curve definition of a freezing index used in the US Army frost
-// manuals, from memory). The record should start before the winter and end
-// after it. A record that never falls below base gives a zero Season.
-func FreezingSeason(series []float64, step, base float64) (Season, error) {
-	return season(series, step, base, -1, false)
-}
-
-// ThawingSeason is FreezingSeason for the largest rise of the curve.
-func ThawingSeason(series []float64, step, base float64) (Season, error) {
-	return season(series, step, base, +1, false)
-}
-
-// CyclicFreezingSeason is FreezingSeason for a series that is one period of
-// a periodic signal (for example one year sampled from climate.Periodic): the
-// series wraps around, so the season may straddle its end; Start is in
-// [0, len) and End may exceed len (End - len is then the sample of the next
-// period). The season is at most one period long.
+// CyclicFreezingSeason reads the freezing season of a series that is one
+// period of a periodic signal (for example one year sampled from a
+// climate.Periodic) from the cumulative curve of (T - base) degree-days:
+// the index is the largest fall of the curve from a maximum to a later
+// minimum, so thaws inside the winter are netted out (the cumulative-curve
+// definition of the US Army frost manuals, from memory; the same
+// definition as climate.Winters). The series wraps around, so the season
+// may straddle its end: Start is in [0, len) and End may exceed len (End -
+// len is then a sample of the next period). The season is at most one
+// period long; a series never below base gives a zero Season.
 func CyclicFreezingSeason(series []float64, step, base float64) (Season, error) {
-	return season(series, step, base, -1, true)
+	return season(series, step, base, -1)
 }
 
-// CyclicThawingSeason is CyclicFreezingSeason for the thawing season.
+// CyclicThawingSeason is CyclicFreezingSeason for the thawing season: the
+// largest rise of the curve.
 func CyclicThawingSeason(series []float64, step, base float64) (Season, error) {
-	return season(series, step, base, +1, true)
+	return season(series, step, base, +1)
 }
 
 // season finds the largest move of the cumulative curve in direction sign
-// (-1 fall, +1 rise). In the cyclic case the series is taken twice and the
-// span limited to one period, with a sliding-window extremum (monotone
+// (-1 fall, +1 rise) over a periodic series: the series is taken twice and
+// the span limited to one period, with a sliding-window minimum (monotone
 // deque) so the cost stays linear.
-func season(series []float64, step, base float64, sign float64, cyclic bool) (Season, error) {
+func season(series []float64, step, base float64, sign float64) (Season, error) {
 	if err := checkSeries(series, step); err != nil {
 		return Season{}, err
 	}
 	n := len(series)
-	m := n
-	if cyclic {
-		m = 2 * n
-	}
+	m := 2 * n
 	// c[k] is the curve after k samples, oriented so that we look for the
-	// largest rise c[j] - c[i], i < j.
+	// largest rise c[j] - c[i], i < j <= i + n.
 	c := make([]float64, m+1)
 	for k := 0; k < m; k++ {
 		c[k+1] = c[k] + sign*(series[k%n]-base)
 	}
-	span := m
-	if cyclic {
-		span = n
-	}
 	var best Season
-	// deque of indices i with increasing c[i] (candidate minima).
-	dq := make([]int, 0, m+1)
+	dq := make([]int, 0, m+1) // indices with increasing c: window minima
 	for j := 0; j <= m; j++ {
-		for len(dq) > 0 && dq[0] < j-span {
+		for len(dq) > 0 && dq[0] < j-n {
 			dq = dq[1:]
 		}
-		if len(dq) > 0 {
-			i := dq[0]
-			if d := c[j] - c[i]; d > best.Index && (!cyclic || i < n) {
-				best = Season{Index: d, Start: i, End: j}
+		// A season starting at i >= n repeats one starting at i - n,
+		// already seen: keep Start in [0, n).
+		if len(dq) > 0 && dq[0] < n {
+			if i := dq[0]; c[j]-c[i] > best.Index {
+				best = Season{Index: c[j] - c[i], Start: i, End: j}
 			}
 		}
 		for len(dq) > 0 && c[dq[len(dq)-1]] >= c[j] {
@@ -224,28 +166,52 @@ type FrostClimate struct {
 	MeanAnnual   float64 // mean temperature of the record, degC
 }
 
-// NewFrostClimate reads a FrostClimate from an air temperature series (one
-// or more whole years, starting before winter) with the freezing n-factor n
-// of the surface (see NFactor). With cyclic true the series is one period of
-// a periodic climate and may start anywhere.
-func NewFrostClimate(series []float64, step, n float64, cyclic bool) (FrostClimate, error) {
+// PeriodicFrostClimate reads a FrostClimate from a periodic air
+// temperature p of the given period (s; climate.Year for an annual climate)
+// sampled every step seconds (climate.Day for daily means), with the
+// freezing n-factor n of the surface (see NFactor). The mean annual
+// temperature is p.Mean.
+func PeriodicFrostClimate(p climate.Periodic, period, step, n float64) (FrostClimate, error) {
 	if !finite(n) || n <= 0 {
 		return FrostClimate{}, fmt.Errorf("n-factor must be positive, got %g", n)
 	}
-	f := FreezingSeason
-	if cyclic {
-		f = CyclicFreezingSeason
-	}
-	s, err := f(series, step, 0)
+	series, err := Sample(p, 0, period, step)
 	if err != nil {
 		return FrostClimate{}, err
 	}
-	mean, _ := MeanTemperature(series)
+	s, err := CyclicFreezingSeason(series, step, 0)
+	if err != nil {
+		return FrostClimate{}, err
+	}
 	return FrostClimate{
 		AirIndex:     s.Index,
 		NFactor:      n,
 		SurfaceIndex: n * s.Index,
 		SeasonDays:   s.Days,
-		MeanAnnual:   mean,
+		MeanAnnual:   p.Mean,
 	}, nil
+}
+
+// FrostClimateFromWinter turns one winter of a measured record (see
+// climate.Winters) into a FrostClimate with the freezing n-factor n.
+func FrostClimateFromWinter(w climate.Winter, n float64) (FrostClimate, error) {
+	if !finite(n) || n <= 0 {
+		return FrostClimate{}, fmt.Errorf("n-factor must be positive, got %g", n)
+	}
+	if !finite(w.FreezingIndex) || w.FreezingIndex < 0 {
+		return FrostClimate{}, fmt.Errorf("winter %s: freezing index %g is not a degree-day total >= 0", w.Label, w.FreezingIndex)
+	}
+	return FrostClimate{
+		AirIndex:     w.FreezingIndex,
+		NFactor:      n,
+		SurfaceIndex: n * w.FreezingIndex,
+		SeasonDays:   w.Days,
+		MeanAnnual:   w.MeanTemperature,
+	}, nil
+}
+
+// Berggren returns the BerggrenInput for this climate over the given soil
+// layers (surface first).
+func (f FrostClimate) Berggren(layers []solver.Layer) BerggrenInput {
+	return BerggrenInput{SurfaceIndex: f.SurfaceIndex, SeasonDays: f.SeasonDays, MeanAnnual: f.MeanAnnual, Layers: layers}
 }
