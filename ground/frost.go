@@ -21,8 +21,9 @@ const secondsPerDay = 86400.0
 // with k the conductivity of the layer the heat crosses (W/(m K)): the
 // frozen conductivity for frost depth, the unfrozen one for thaw depth;
 // I the surface freezing (thawing) index, K day, >= 0; L the latent heat,
-// J/m3, > 0 (Stefan 1891; Handy and Spangler, Geotechnical Engineering,
-// 5th ed., section 11 on frost). Stefan's depth is an upper bound of the
+// J/m3, > 0 (Stefan 1891, from memory; the form of REFERENCES section 4 as
+// used in Handy and Spangler, Geotechnical Engineering, 5th ed. 2007,
+// Example 11.7). Stefan's depth is an upper bound of the
 // modified Berggren depth for the same k.
 func Stefan(k, latent, index float64) (float64, error) {
 	if err := checkStefan(k, latent); err != nil {

@@ -215,8 +215,10 @@ func JohansenSolids(t Texture, quartz float64) float64 {
 
 // JohansenDry returns the conductivity of a dry natural soil, W/(m K), from
 // its dry density rho_d (kg/m3), Johansen (1975) as given by Farouki (1981)
-// (form 2nd-hand, quoted identically by several public land-surface codes
-// that cite Farouki; stated accuracy +-20 %):
+// (form 2nd-hand: quoted identically, with the coefficient 0.135, by the
+// DuMux porous-media library documentation and by several land-surface
+// model codes that cite Farouki or the CLM technical note; stated accuracy
+// +-20 %):
 //
 //	k_dry = (0.135 rho_d + 64.7) / (2700 - 0.947 rho_d)
 func JohansenDry(dryDensity float64) float64 {
