@@ -285,8 +285,8 @@ func TestDerivedProperties(t *testing.T) {
 	if b := conc.Effusivity(); math.Abs(b-conc.Conductivity/math.Sqrt(conc.Diffusivity())) > 1e-9 {
 		t.Errorf("effusivity identity: %g", b)
 	}
-	// Contact temperature of two half-spaces (Carslaw and Jaeger 2.15;
-	// REFERENCES section 2 [standard]): a 32 degC hand on 20 degC steel
+	// Contact temperature of two half-spaces (REFERENCES section 2
+	// [standard]): a 32 degC hand on 20 degC steel
 	// or softwood. The hand (b about 1000, common practice) feels steel
 	// near 20.8 degC and softwood near 28.7 degC [derived].
 	soft, _ := NewLayer("softwood", 0.02)

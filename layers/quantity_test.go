@@ -329,8 +329,11 @@ func ExampleParseQuantity() {
 		{"12 %", Fraction},
 	} {
 		v, err := ParseQuantity(in.text, in.kind)
+		if err != nil {
+			fmt.Println(err)
+			continue
+		}
 		fmt.Printf("%-13q %-22v -> %.6g (%s)\n", in.text, in.kind, v, FormatQuantity(v, in.kind))
-		_ = err
 	}
 	_, err := ParseQuantity("105 mmm", Length)
 	fmt.Println(err)
@@ -365,4 +368,27 @@ func BenchmarkParseQuantity(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// FuzzParseQuantity checks that no input panics and that every accepted
+// value is finite and survives a FormatQuantity round trip.
+func FuzzParseQuantity(f *testing.F) {
+	for _, s := range []string{"105 mm", "0.7 W/(m·K)", "-5 °C", "3y", "1e308 ft", "12 %", "NaN", "1,5", "", "°", "1 2"} {
+		f.Add(s, 0)
+		f.Add(s, int(Duration))
+	}
+	f.Fuzz(func(t *testing.T, s string, k int) {
+		kind := Kind(k)
+		v, err := ParseQuantity(s, kind)
+		if err != nil {
+			return
+		}
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			t.Fatalf("ParseQuantity(%q, %v) = %g without error", s, kind, v)
+		}
+		back, err := ParseQuantity(FormatQuantity(v, kind), kind)
+		if err != nil || !closeRel(back, v, 1e-5) && math.Abs(back-v) > 1e-9 {
+			t.Fatalf("round trip of %q (%v): %g -> %q -> %g, %v", s, kind, v, FormatQuantity(v, kind), back, err)
+		}
+	})
 }
