@@ -364,3 +364,49 @@ func BenchmarkModifiedBerggrenLayered(b *testing.B) {
 		}
 	}
 }
+
+func TestModifiedBerggrenMonotoneAndContinuous(t *testing.T) {
+	// Properties [derived]: the frost depth grows with the surface index,
+	// and at the index that freezes exactly through a layer (same mean
+	// surface temperature vs) the depth is the layer's bottom (no jump at
+	// the interface).
+	layers := []solver.Layer{
+		freezeLayer("gravel", 0.3, 2.5, 2.0, 1.6e6, 1.8e6, 2.5e7),
+		freezeLayer("sand", 0.4, 2.2, 1.9, 1.7e6, 2.2e6, 5e7),
+		freezeLayer("clay", 1, 1.5, 1.2, 2.0e6, 2.8e6, 1.2e8),
+	}
+	in := BerggrenInput{SeasonDays: 120, MeanAnnual: 5, Layers: layers}
+	prev := 0.0
+	for F := 25.0; F <= 3000; F *= 1.25 {
+		in.SurfaceIndex = F
+		in.SeasonDays = 40 + F/10 // season and index grow together
+		r, err := ModifiedBerggren(in)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r.Depth <= prev {
+			t.Errorf("F %g: depth %g not above %g", F, r.Depth, prev)
+		}
+		prev = r.Depth
+	}
+	in.SurfaceIndex, in.SeasonDays = 600, 120
+	r, err := ModifiedBerggren(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, f := range r.Needed[:len(r.Needed)-1] {
+		// Same vs = F/t, so alpha and mu are those of the full run.
+		in.SurfaceIndex, in.SeasonDays = f, f*120/600
+		ri, err := ModifiedBerggren(in)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var bottom float64
+		for _, l := range layers[:i+1] {
+			bottom += l.Thickness
+		}
+		if math.Abs(ri.Depth-bottom) > 1e-9 {
+			t.Errorf("index %g (through layer %d): depth %.12f, want %.12f", f, i+1, ri.Depth, bottom)
+		}
+	}
+}
