@@ -1,0 +1,35 @@
+package main
+
+import (
+	"fmt"
+	"io"
+
+	"tempstack/scenarios"
+)
+
+// printSummary prints the headline numbers of a run in plain words.
+func printSummary(w io.Writer, r *scenarios.Results) {
+	fmt.Fprintf(w, "%s (%s)\n", r.Title, r.Kind)
+	if r.Kind == "wall" {
+		fmt.Fprintf(w, "  U = %.3f W/(m2 K), R = %.3f m2 K/W (surface to surface)\n",
+			r.Steady.UValue_W_m2K, r.Steady.ThermalResistance_m2K_W)
+	}
+	for _, p := range r.Periodic {
+		if r.Kind != "wall" {
+			break
+		}
+		fmt.Fprintf(w, "  period %g h: decrement factor %.3f, time shift %.1f h, periodic transmittance %.3f W/(m2 K), admittance inside %.2f W/(m2 K)\n",
+			p.Period_h, p.DecrementFactor, p.TimeShift_h, p.PeriodicTransmittance_W_m2K, p.InsideAdmittance_W_m2K)
+	}
+	if s := r.Simulation; s != nil {
+		fmt.Fprintf(w, "  simulated %g h in steps of %g h on %d cells; energy balance error %.1e\n",
+			s.Duration_h, s.Step_h, s.Cells, s.EnergyBalanceRelativeError)
+	}
+	if f := r.Frost; f != nil {
+		fmt.Fprintf(w, "  frost: freezing index %.0f degC day, simulated depth %.2f m, Stefan %.2f m, modified Berggren %.2f m (estimates; local codes govern)\n",
+			f.FreezingIndex_Cd, f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m)
+	}
+	for _, warn := range r.Warnings {
+		fmt.Fprintf(w, "  note: %s\n", warn)
+	}
+}

@@ -1,0 +1,91 @@
+package scenarios
+
+import (
+	"bytes"
+	"encoding/csv"
+	"math"
+	"strconv"
+)
+
+// CSVFile is one CSV output of a run: UTF-8, comma separated, dot decimal,
+// a header row whose names carry the units.
+type CSVFile struct {
+	Name string
+	Data []byte
+}
+
+// CSVFiles returns the CSV outputs of a run, in a fixed order:
+// periodic.csv (ISO 13786 properties per period), response.csv (frequency
+// response), profile.csv (temperature envelope through the column) and
+// cycle.csv (one period of the exact periodic state), each only when its
+// data exist.
+func CSVFiles(r *Results) []CSVFile {
+	var out []CSVFile
+	if len(r.Periodic) > 0 {
+		rows := [][]float64{}
+		for _, p := range r.Periodic {
+			rows = append(rows, []float64{p.Period_h, p.DecrementFactor, p.TimeShift_h, p.TimeShiftUnwrapped_h,
+				p.PeriodicTransmittance_W_m2K, p.InsideAdmittance_W_m2K, p.InsideAdmittanceLead_h,
+				p.OutsideAdmittance_W_m2K, p.OutsideAdmittanceLead_h,
+				p.InsideArealHeatCapacity_kJ_m2K, p.OutsideArealHeatCapacity_kJ_m2K})
+		}
+		out = append(out, table("periodic.csv", []string{"period_h", "decrement_factor", "time_shift_h", "time_shift_unwrapped_h",
+			"periodic_transmittance_W_m2K", "inside_admittance_W_m2K", "inside_admittance_lead_h",
+			"outside_admittance_W_m2K", "outside_admittance_lead_h",
+			"inside_areal_heat_capacity_kJ_m2K", "outside_areal_heat_capacity_kJ_m2K"}, rows))
+	}
+	s := &r.Series
+	if len(s.ResponsePeriod_h) > 0 {
+		out = append(out, table("response.csv", []string{"period_h", "decrement_factor", "time_shift_unwrapped_h"},
+			columns(s.ResponsePeriod_h, s.ResponseDecrement, s.ResponseTimeShift_h)))
+	}
+	if len(s.ProfilePosition_m) > 0 {
+		out = append(out, table("profile.csv", []string{"position_m", "min_C", "mean_C", "max_C"},
+			columns(s.ProfilePosition_m, s.ProfileMin_C, s.ProfileMean_C, s.ProfileMax_C)))
+	}
+	if len(s.CycleTime_h) > 0 {
+		out = append(out, table("cycle.csv", []string{"time_h", "outside_air_C", "outside_surface_C", "inside_surface_C", "inside_air_C", "inside_heat_flux_W_m2"},
+			columns(s.CycleTime_h, s.CycleOutsideAir_C, s.CycleOutsideSurface_C, s.CycleInsideSurface_C, s.CycleInsideAir_C, s.CycleInsideFlux_W_m2)))
+	}
+	return out
+}
+
+// columns turns equal-length column slices into rows.
+func columns(cols ...[]float64) [][]float64 {
+	if len(cols) == 0 {
+		return nil
+	}
+	rows := make([][]float64, len(cols[0]))
+	for i := range rows {
+		row := make([]float64, len(cols))
+		for j, c := range cols {
+			if i < len(c) {
+				row[j] = c[i]
+			} else {
+				row[j] = math.NaN()
+			}
+		}
+		rows[i] = row
+	}
+	return rows
+}
+
+// table renders a CSV file; NaN and Inf are written as empty cells.
+func table(name string, header []string, rows [][]float64) CSVFile {
+	var b bytes.Buffer
+	w := csv.NewWriter(&b)
+	w.Write(header)
+	rec := make([]string, len(header))
+	for _, row := range rows {
+		for j, v := range row {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				rec[j] = ""
+			} else {
+				rec[j] = strconv.FormatFloat(v, 'g', 10, 64)
+			}
+		}
+		w.Write(rec)
+	}
+	w.Flush()
+	return CSVFile{Name: name, Data: b.Bytes()}
+}

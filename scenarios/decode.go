@@ -1,0 +1,620 @@
+package scenarios
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+
+	"tempstack/climate"
+	"tempstack/layers"
+	"tempstack/solver"
+)
+
+// maxFileSize bounds a scenario file; anything larger is surely not one.
+const maxFileSize = 4 << 20
+
+// Load reads and decodes the scenario file at path.
+func Load(path string) (*Scenario, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, &Error{File: path, Msg: cleanOSError(err)}
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, maxFileSize+1))
+	if err != nil {
+		return nil, &Error{File: path, Msg: cleanOSError(err)}
+	}
+	if len(data) > maxFileSize {
+		return nil, &Error{File: path, Msg: fmt.Sprintf("file is larger than %d MiB; is it a scenario file?", maxFileSize>>20)}
+	}
+	return Decode(path, data)
+}
+
+func cleanOSError(err error) string {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return pe.Err.Error()
+	}
+	return err.Error()
+}
+
+var (
+	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis"}
+	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range"}
+	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic"}
+	tempKeys     = []string{"mean", "daily", "annual", "harmonics", "step"}
+	analysisKeys = []string{"periods", "response", "probes"}
+)
+
+// Decode decodes a scenario from data; file names it in error messages.
+func Decode(file string, data []byte) (*Scenario, error) {
+	d := &decoder{file: file}
+	if len(bytes.TrimSpace(data)) == 0 {
+		return nil, &Error{File: file, Msg: "file is empty; start from `tempstack new wall`"}
+	}
+	var doc yaml.Node
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	if err := dec.Decode(&doc); err != nil {
+		return nil, yamlError(file, err)
+	}
+	var extra yaml.Node
+	if err := dec.Decode(&extra); err == nil {
+		return nil, d.errf(&extra, "", "the file holds more than one YAML document (a second '---'); a scenario is one document")
+	}
+	if doc.Kind != yaml.DocumentNode || len(doc.Content) == 0 {
+		return nil, &Error{File: file, Msg: "not a YAML mapping"}
+	}
+	top, err := d.object(doc.Content[0], "", topKeys)
+	if err != nil {
+		return nil, err
+	}
+	s := &Scenario{File: file}
+
+	title, ok, err := top.str("title")
+	if err != nil {
+		return nil, err
+	}
+	if !ok || title == "" {
+		return nil, top.missing("title", "a one-line name for the report")
+	}
+	s.Title = title
+	if s.Description, _, err = top.str("description"); err != nil {
+		return nil, err
+	}
+
+	kind, ok, err := top.choice("kind", []string{string(Wall), string(Ground)})
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		return nil, top.missing("kind", "wall or ground")
+	}
+	s.Kind = Kind(kind)
+
+	if err := d.decodeOrientation(top, s); err != nil {
+		return nil, err
+	}
+	if err := d.decodeLayers(top, s); err != nil {
+		return nil, err
+	}
+	if err := d.decodeSides(top, s); err != nil {
+		return nil, err
+	}
+	if err := d.decodeAnalysis(top, s); err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+// yamlError turns a yaml.v3 syntax error ("yaml: line 3: ...") into an
+// *Error with the line split out.
+func yamlError(file string, err error) error {
+	msg := err.Error()
+	msg = strings.TrimPrefix(msg, "yaml: ")
+	line := 0
+	if n, _ := fmt.Sscanf(msg, "line %d:", &line); n == 1 {
+		if i := strings.Index(msg, ":"); i >= 0 {
+			msg = strings.TrimSpace(msg[i+1:])
+		}
+	}
+	if te := (*yaml.TypeError)(nil); errors.As(err, &te) && len(te.Errors) > 0 {
+		msg = te.Errors[0]
+	}
+	return &Error{File: file, Line: line, Msg: "not valid YAML: " + msg}
+}
+
+func (d *decoder) decodeOrientation(top *object, s *Scenario) error {
+	word, ok, err := top.choice("orientation", []string{"wall", "roof", "floor"})
+	if err != nil {
+		return err
+	}
+	if ok && s.Kind == Ground {
+		return top.errKey("orientation", "applies to kind: wall only (a ground column is always horizontal)")
+	}
+	if !ok {
+		word = "wall"
+	}
+	o, err := layers.ParseOrientation(word)
+	if err != nil {
+		return top.errKey("orientation", "%v", err)
+	}
+	s.Orientation = o
+	return nil
+}
+
+func (d *decoder) decodeLayers(top *object, s *Scenario) error {
+	items, ok, err := top.list("layers")
+	if err != nil {
+		return err
+	}
+	if !ok || len(items) == 0 {
+		return top.missing("layers", "a list of layers, "+map[Kind]string{Wall: "outside first", Ground: "surface first"}[s.Kind])
+	}
+	for i, n := range items {
+		path := fmt.Sprintf("layers[%d]", i+1)
+		lo, err := d.object(n, path, layerKeys)
+		if err != nil {
+			return err
+		}
+		l, err := d.decodeLayer(lo, s)
+		if err != nil {
+			return err
+		}
+		s.Layers = append(s.Layers, l)
+	}
+	return nil
+}
+
+func (d *decoder) decodeLayer(o *object, s *Scenario) (layers.Layer, error) {
+	var l layers.Layer
+	key, hasMat, err := o.str("material")
+	if err != nil {
+		return l, err
+	}
+	if hasMat {
+		m, ok := layers.Lookup(key)
+		if !ok {
+			msg := fmt.Sprintf("unknown material %q", key)
+			if sug := layers.Suggest(key); len(sug) > 0 {
+				msg += fmt.Sprintf("; did you mean %q?", sug[0])
+			} else {
+				msg += "; `tempstack materials` lists the library"
+			}
+			return l, o.errKey("material", "%s", msg)
+		}
+		l = m.Layer()
+	}
+	if name, ok, err := o.str("name"); err != nil {
+		return l, err
+	} else if ok {
+		l.Name = name
+	}
+
+	if d, ok, err := o.positive("thickness", layers.Length); err != nil {
+		return l, err
+	} else if ok {
+		if err := l.SetThickness(d); err != nil {
+			return l, o.errKey("thickness", "%v", err)
+		}
+	}
+	fields := []struct {
+		key  string
+		kind layers.Kind
+		dst  *float64
+	}{
+		{"conductivity", layers.Conductivity, &l.Conductivity},
+		{"density", layers.Density, &l.Density},
+		{"specific_heat", layers.SpecificHeat, &l.SpecificHeat},
+		{"resistance", layers.Resistance, &l.Resistance},
+	}
+	for _, f := range fields {
+		v, ok, err := o.positive(f.key, f.kind)
+		if err != nil {
+			return l, err
+		}
+		if ok {
+			*f.dst = v
+			if f.key != "resistance" && hasMat {
+				l.Source = "given in the scenario (overrides the library value)"
+			}
+		}
+	}
+	if !hasMat && !o.has("resistance") {
+		if l.Name == "" {
+			l.Name = fmt.Sprintf("layer %d", len(s.Layers)+1)
+		}
+		for _, k := range []string{"conductivity", "density", "specific_heat"} {
+			if !o.has(k) {
+				return l, o.missing(k, "a layer without a library material needs conductivity, density and specific_heat (or a material key)")
+			}
+		}
+		l.Source = "given in the scenario"
+	}
+	if !hasMat && o.has("resistance") {
+		if o.has("conductivity") || o.has("density") || o.has("specific_heat") {
+			return l, o.errKey("resistance", "a resistance layer (air gap, membrane) has no conductivity, density or specific_heat")
+		}
+		if l.Name == "" {
+			l.Name = "air layer"
+		}
+		l.Source = "given in the scenario"
+	}
+	if !o.has("thickness") && l.Resistance == 0 {
+		return l, o.missing("thickness", `e.g. "105 mm" or 0.105 (m)`)
+	}
+
+	if err := d.decodeFreezing(o, &l); err != nil {
+		return l, err
+	}
+	if err := l.Validate(); err != nil {
+		return l, &Error{File: d.file, Line: o.node.Line, Key: o.path, Msg: err.Error()}
+	}
+	return l, nil
+}
+
+func (d *decoder) decodeFreezing(o *object, l *layers.Layer) error {
+	keys := []string{"latent_heat", "conductivity_frozen", "specific_heat_frozen", "freezing_point", "freezing_range"}
+	any := false
+	for _, k := range keys {
+		any = any || o.has(k)
+	}
+	if !any {
+		return nil
+	}
+	if !o.has("latent_heat") {
+		return o.missing("latent_heat", "freezing keys need the latent heat of the layer's water, J/m3 of layer (e.g. dry density x water content x 334 kJ/kg)")
+	}
+	lh, _, err := o.positive("latent_heat", layers.LatentHeatVolumetric)
+	if err != nil {
+		return err
+	}
+	f := &layerFreeze{Latent: lh, Conductivity: l.Conductivity, SpecificHeat: l.SpecificHeat}
+	if v, ok, err := o.positive("conductivity_frozen", layers.Conductivity); err != nil {
+		return err
+	} else if ok {
+		f.Conductivity = v
+	}
+	if v, ok, err := o.positive("specific_heat_frozen", layers.SpecificHeat); err != nil {
+		return err
+	} else if ok {
+		f.SpecificHeat = v
+	}
+	if v, ok, err := o.quantity("freezing_point", layers.Temperature); err != nil {
+		return err
+	} else if ok {
+		f.Point = v
+	}
+	if v, ok, err := o.nonNegative("freezing_range", layers.TemperatureDifference); err != nil {
+		return err
+	} else if ok {
+		f.Range = v
+	}
+	if l.Resistance > 0 && l.Thickness == 0 {
+		return o.errKey("latent_heat", "a resistance layer cannot freeze")
+	}
+	f.apply(l)
+	return nil
+}
+
+func (d *decoder) decodeSides(top *object, s *Scenario) error {
+	outKey, inKey := "outside", "inside"
+	wrongOut, wrongIn := "surface", "bottom"
+	if s.Kind == Ground {
+		outKey, inKey, wrongOut, wrongIn = wrongOut, wrongIn, outKey, inKey
+	}
+	for _, w := range []struct{ wrong, right string }{{wrongOut, outKey}, {wrongIn, inKey}} {
+		if top.has(w.wrong) {
+			return top.errKey(w.wrong, "a %s scenario names this side %q", s.Kind, w.right)
+		}
+	}
+	rsi, rse := layers.SurfaceResistances(s.Orientation)
+	var err error
+	if s.Outside, err = d.decodeSide(top, outKey, s, rse, true); err != nil {
+		return err
+	}
+	if s.Inside, err = d.decodeSide(top, inKey, s, rsi, false); err != nil {
+		return err
+	}
+	return nil
+}
+
+func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR float64, outside bool) (Side, error) {
+	side := Side{Resistance: defaultR}
+	if s.Kind == Ground && outside {
+		side.Resistance = 0
+	}
+	o, ok, err := top.child(key, sideKeys)
+	if err != nil {
+		return side, err
+	}
+	if !ok {
+		if outside {
+			return side, top.missing(key, "the temperature on this side, e.g. temperature: {mean: 10, daily: {amplitude: 8, peak_hour: 15}}")
+		}
+		// Default inside: 20 degC air behind the ISO 6946 resistance.
+		side.Temperature = &Forcing{Periodic: climate.Periodic{Mean: 20}}
+		return side, nil
+	}
+	if v, ok, err := o.nonNegative("resistance", layers.Resistance); err != nil {
+		return side, err
+	} else if ok {
+		side.Resistance = v
+	}
+	n := 0
+	if o.has("temperature") {
+		n++
+		f, err := d.decodeTemperature(o, "temperature")
+		if err != nil {
+			return side, err
+		}
+		side.Temperature = f
+	}
+	if v, ok, err := o.quantity("heat_flux", layers.HeatFlux); err != nil {
+		return side, err
+	} else if ok {
+		n++
+		side.HeatFlux, side.Flux = v, true
+	}
+	if b, ok, err := o.boolean("adiabatic"); err != nil {
+		return side, err
+	} else if ok && b {
+		n++
+		side.Adiabatic = true
+	}
+	switch {
+	case n == 0:
+		return side, o.missing("temperature", "give temperature, heat_flux or adiabatic: true")
+	case n > 1:
+		return side, o.d.errf(o.node, o.path, "give only one of temperature, heat_flux and adiabatic")
+	}
+	if outside && side.Temperature == nil {
+		return side, o.missing("temperature", "the "+key+" side is driven by a temperature")
+	}
+	return side, nil
+}
+
+func (d *decoder) decodeTemperature(parent *object, key string) (*Forcing, error) {
+	f := &Forcing{Line: parent.line(key)}
+	v := parent.values[key]
+	if v.Kind == yaml.ScalarNode {
+		// A bare value: a constant temperature.
+		t, _, err := parent.quantity(key, layers.Temperature)
+		if err != nil {
+			return nil, err
+		}
+		f.Mean = t
+		return f, nil
+	}
+	o, err := d.object(v, join(parent.path, key), tempKeys)
+	if err != nil {
+		return nil, err
+	}
+	if st, ok, err := o.child("step", []string{"from", "to", "at"}); err != nil {
+		return nil, err
+	} else if ok {
+		for _, k := range []string{"mean", "daily", "annual", "harmonics"} {
+			if o.has(k) {
+				return nil, o.errKey(k, "a step forcing stands alone; remove %s or step", k)
+			}
+		}
+		var step Step
+		for _, k := range []string{"from", "to"} {
+			t, ok, err := st.quantity(k, layers.Temperature)
+			if err != nil {
+				return nil, err
+			}
+			if !ok {
+				return nil, st.missing(k, "temperature in degC")
+			}
+			if k == "from" {
+				step.From = t
+			} else {
+				step.To = t
+			}
+		}
+		at, _, err := st.nonNegative("at", layers.Duration)
+		if err != nil {
+			return nil, err
+		}
+		step.At = at
+		f.Step = &step
+		f.Mean = step.From
+		return f, nil
+	}
+	mean, ok, err := o.quantity("mean", layers.Temperature)
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		return nil, o.missing("mean", "the mean temperature, degC")
+	}
+	f.Mean = mean
+	if h, ok, err := d.harmonicBlock(o, "daily", "peak_hour", climate.Day, climate.Day/24); err != nil {
+		return nil, err
+	} else if ok {
+		f.Harmonics = append(f.Harmonics, h)
+	}
+	if h, ok, err := d.harmonicBlock(o, "annual", "peak_day", climate.Year, climate.Day); err != nil {
+		return nil, err
+	} else if ok {
+		f.Harmonics = append(f.Harmonics, h)
+	}
+	if items, ok, err := o.list("harmonics"); err != nil {
+		return nil, err
+	} else if ok {
+		for i, n := range items {
+			ho, err := d.object(n, fmt.Sprintf("%s.harmonics[%d]", o.path, i+1), []string{"period", "amplitude", "peak"})
+			if err != nil {
+				return nil, err
+			}
+			p, ok, err := ho.positive("period", layers.Period)
+			if err != nil {
+				return nil, err
+			}
+			if !ok {
+				return nil, ho.missing("period", `e.g. "12h" or "365d"`)
+			}
+			a, ok, err := ho.nonNegative("amplitude", layers.TemperatureDifference)
+			if err != nil {
+				return nil, err
+			}
+			if !ok {
+				return nil, ho.missing("amplitude", "half the peak-to-peak swing, K")
+			}
+			pk, _, err := ho.nonNegative("peak", layers.Duration)
+			if err != nil {
+				return nil, err
+			}
+			f.Harmonics = append(f.Harmonics, climate.Harmonic{Period: p, Amplitude: a, Peak: pk})
+		}
+	}
+	return f, nil
+}
+
+// harmonicBlock decodes {amplitude, peak_X} where the peak is given in
+// units of unit seconds (hours for daily, days for annual).
+func (d *decoder) harmonicBlock(o *object, key, peakKey string, period, unit float64) (climate.Harmonic, bool, error) {
+	c, ok, err := o.child(key, []string{"amplitude", peakKey})
+	if err != nil || !ok {
+		return climate.Harmonic{}, false, err
+	}
+	a, ok, err := c.nonNegative("amplitude", layers.TemperatureDifference)
+	if err != nil {
+		return climate.Harmonic{}, false, err
+	}
+	if !ok {
+		return climate.Harmonic{}, false, c.missing("amplitude", "half the peak-to-peak swing, K")
+	}
+	h := climate.Harmonic{Period: period, Amplitude: a}
+	if c.has(peakKey) {
+		s, _, err := c.scalar(peakKey)
+		if err != nil {
+			return h, false, err
+		}
+		var x float64
+		if _, err := fmt.Sscan(s, &x); err != nil || strings.ContainsAny(s, " \t") {
+			return h, false, c.errKey(peakKey, "expected a number, got %q", s)
+		}
+		max := period / unit
+		if x < 0 || x > max {
+			return h, false, c.errKey(peakKey, "must lie between 0 and %g, got %g", max, x)
+		}
+		h.Peak = x * unit
+		if peakKey == "peak_day" {
+			// Day numbers count from 1 January = day 1; the peak is taken at noon.
+			h.Peak = (x - 0.5) * unit
+			if h.Peak < 0 {
+				h.Peak += period
+			}
+		}
+	}
+	return h, true, nil
+}
+
+func (d *decoder) decodeAnalysis(top *object, s *Scenario) error {
+	a := &s.Analysis
+	a.Periods = []float64{climate.Day}
+	a.Response = Response{From: 3600, To: climate.Year, Points: 61}
+	if s.Kind == Ground {
+		a.Periods = []float64{climate.Year, climate.Day}
+	}
+	o, ok, err := top.child("analysis", analysisKeys)
+	if err != nil || !ok {
+		return err
+	}
+	if items, ok, err := o.list("periods"); err != nil {
+		return err
+	} else if ok {
+		if len(items) == 0 {
+			return o.errKey("periods", "the list is empty; give at least one period, e.g. [24h]")
+		}
+		a.Periods = nil
+		for i, n := range items {
+			p, err := d.scalarQuantity(n, fmt.Sprintf("analysis.periods[%d]", i+1), layers.Period)
+			if err != nil {
+				return err
+			}
+			if !(p > 0) {
+				return d.errf(n, fmt.Sprintf("analysis.periods[%d]", i+1), "a period must be positive")
+			}
+			a.Periods = append(a.Periods, p)
+		}
+	}
+	if r, ok, err := o.child("response", []string{"from", "to", "points"}); err != nil {
+		return err
+	} else if ok {
+		if v, ok, err := r.positive("from", layers.Period); err != nil {
+			return err
+		} else if ok {
+			a.Response.From = v
+		}
+		if v, ok, err := r.positive("to", layers.Period); err != nil {
+			return err
+		} else if ok {
+			a.Response.To = v
+		}
+		if n, ok, err := r.integer("points"); err != nil {
+			return err
+		} else if ok {
+			if n < 2 || n > 1000 {
+				return r.errKey("points", "must lie between 2 and 1000, got %d", n)
+			}
+			a.Response.Points = n
+		}
+		if a.Response.To <= a.Response.From {
+			return r.errKey("to", "must be longer than from")
+		}
+	}
+	if items, ok, err := o.list("probes"); err != nil {
+		return err
+	} else if ok {
+		for i, n := range items {
+			key := fmt.Sprintf("analysis.probes[%d]", i+1)
+			z, err := d.scalarQuantity(n, key, layers.Length)
+			if err != nil {
+				return err
+			}
+			if z < 0 {
+				return d.errf(n, key, "a probe depth must not be negative")
+			}
+			a.Probes = append(a.Probes, z)
+		}
+	}
+	return nil
+}
+
+func (d *decoder) scalarQuantity(n *yaml.Node, key string, kind layers.Kind) (float64, error) {
+	if n.Kind != yaml.ScalarNode {
+		return 0, d.errf(n, key, "expected a single value, found %s", kindName(n))
+	}
+	v, err := layers.ParseQuantity(n.Value, kind)
+	if err != nil {
+		return 0, d.errf(n, key, "%v", err)
+	}
+	return v, nil
+}
+
+// layerFreeze collects the freezing keys of a layer before they are turned
+// into volumetric values.
+type layerFreeze struct {
+	Latent       float64 // J/m3
+	Conductivity float64 // W/(m K), frozen
+	SpecificHeat float64 // J/(kg K), frozen
+	Point        float64 // degC
+	Range        float64 // K
+}
+
+func (f layerFreeze) apply(l *layers.Layer) {
+	l.Freeze = &solver.Freezing{
+		Point:              f.Point,
+		Range:              f.Range,
+		LatentHeat:         f.Latent,
+		ConductivityFrozen: f.Conductivity,
+		HeatCapacityFrozen: l.Density * f.SpecificHeat,
+	}
+}

@@ -1,0 +1,318 @@
+package scenarios
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"tempstack/climate"
+	"tempstack/layers"
+	"tempstack/solver"
+)
+
+// Run solves a decoded scenario: the steady and exact periodic analyses
+// (and, in later stages, the transient simulation and the frost analysis)
+// and returns the collected results in the units of the output contract.
+func Run(s *Scenario) (*Results, error) {
+	switch s.Kind {
+	case Wall:
+		return runWall(s)
+	}
+	return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
+}
+
+// construction returns the scenario's layers as a construction.
+func (s *Scenario) construction() layers.Construction {
+	return layers.Construction{Layers: s.Layers, Orientation: s.Orientation}
+}
+
+// column returns the solver column of the scenario.
+func (s *Scenario) column() solver.Column {
+	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
+}
+
+func runWall(s *Scenario) (*Results, error) {
+	col := s.column()
+	if err := col.Validate(); err != nil {
+		return nil, &Error{File: s.File, Key: "layers", Msg: err.Error()}
+	}
+	c := s.construction()
+	r := &Results{
+		Title:        s.Title,
+		Kind:         string(s.Kind),
+		ScenarioFile: s.File,
+		Orientation:  s.Orientation.String(),
+	}
+	rsi, rse := s.Inside.Resistance, s.Outside.Resistance
+	r.Steady = Steady{
+		UValue_W_m2K:             c.UValue(rsi, rse),
+		ThermalResistance_m2K_W:  c.ThermalResistance(),
+		TotalResistance_m2K_W:    c.TotalResistance(rsi, rse),
+		InsideSurfaceResistance:  rsi,
+		OutsideSurfaceResistance: rse,
+	}
+	r.Layers = layerResults(s.Layers, s.Analysis.Periods[0])
+
+	for _, p := range s.Analysis.Periods {
+		pp, err := solver.Periodic(col, p)
+		if err != nil {
+			return nil, &Error{File: s.File, Key: "analysis.periods", Msg: err.Error()}
+		}
+		r.Periodic = append(r.Periodic, periodicResult(pp))
+	}
+	if err := wallSeries(s, col, r); err != nil {
+		return nil, err
+	}
+	return r, nil
+}
+
+func layerResults(ls []layers.Layer, period float64) []Layer {
+	out := make([]Layer, len(ls))
+	for i, l := range ls {
+		out[i] = Layer{
+			Name:               l.Name,
+			Material:           l.MaterialKey,
+			Source:             l.Source,
+			Thickness_m:        l.Thickness,
+			Conductivity_W_mK:  l.Conductivity,
+			Density_kg_m3:      l.Density,
+			SpecificHeat_J_kgK: l.SpecificHeat,
+			Resistance_m2K_W:   l.ThermalResistance(),
+		}
+		if l.Conductivity > 0 && l.Density > 0 && l.SpecificHeat > 0 {
+			out[i].PenetrationDepth_m = l.PenetrationDepth(period)
+			out[i].Diffusivity_m2_s = l.Diffusivity()
+			out[i].Effusivity_Ws05_m2K = l.Effusivity()
+		}
+		if f := l.Freeze; f != nil {
+			out[i].Freezing = true
+			out[i].ConductivityFrozen_W_mK = f.ConductivityFrozen
+			out[i].HeatCapacityFrozen_J_m3K = f.HeatCapacityFrozen
+			out[i].LatentHeat_J_m3 = f.LatentHeat
+			out[i].FreezingPoint_C = f.Point
+		}
+	}
+	return out
+}
+
+func periodicResult(p solver.PeriodicProperties) PeriodicResult {
+	return PeriodicResult{
+		Period_h:                        p.Period / 3600,
+		DecrementFactor:                 p.DecrementFactor,
+		TimeShift_h:                     p.TimeShift / 3600,
+		TimeShiftUnwrapped_h:            p.TimeShiftUnwrapped / 3600,
+		PeriodicTransmittance_W_m2K:     p.PeriodicTransmittance,
+		InsideAdmittance_W_m2K:          p.InsideAdmittance,
+		InsideAdmittanceLead_h:          p.InsideAdmittanceLead / 3600,
+		OutsideAdmittance_W_m2K:         p.OutsideAdmittance,
+		OutsideAdmittanceLead_h:         p.OutsideAdmittanceLead / 3600,
+		InsideArealHeatCapacity_kJ_m2K:  p.InsideArealHeatCapacity / 1000,
+		OutsideArealHeatCapacity_kJ_m2K: p.OutsideArealHeatCapacity / 1000,
+	}
+}
+
+// phasorAt returns the complex amplitude of the forcing's component of
+// period p (s), 0 when it has none.
+func phasorAt(f *Forcing, p float64) complex128 {
+	if f == nil || f.Step != nil {
+		return 0
+	}
+	var z complex128
+	for _, h := range f.Harmonics {
+		if math.Abs(h.Period-p) <= 1e-9*p {
+			z += h.Phasor()
+		}
+	}
+	return z
+}
+
+// meanOf returns the mean of a temperature forcing (degC), or def when the
+// side has none.
+func meanOf(f *Forcing, def float64) float64 {
+	if f == nil {
+		return def
+	}
+	return f.Mean
+}
+
+// harmonicSet is the set of distinct periods of both forcings, with their
+// complex amplitudes on each side.
+type harmonicSet struct {
+	periods         []float64
+	outside, inside []complex128
+}
+
+func forcingHarmonics(out, in *Forcing) harmonicSet {
+	var hs harmonicSet
+	add := func(p float64) {
+		for _, q := range hs.periods {
+			if math.Abs(q-p) <= 1e-9*p {
+				return
+			}
+		}
+		hs.periods = append(hs.periods, p)
+	}
+	for _, f := range []*Forcing{out, in} {
+		if f == nil || f.Step != nil {
+			continue
+		}
+		for _, h := range f.Harmonics {
+			add(h.Period)
+		}
+	}
+	for _, p := range hs.periods {
+		hs.outside = append(hs.outside, phasorAt(out, p))
+		hs.inside = append(hs.inside, phasorAt(in, p))
+	}
+	return hs
+}
+
+// wallSeries fills the chart series of a wall: one cycle of the first
+// analysis period, the temperature envelope across the construction and
+// the frequency response.
+func wallSeries(s *Scenario, col solver.Column, r *Results) error {
+	ser := &r.Series
+	P := s.Analysis.Periods[0]
+	tOutMean := meanOf(s.Outside.Temperature, 0)
+	tInMean := meanOf(s.Inside.Temperature, 20)
+	L := col.Thickness()
+
+	// Mean (steady) state.
+	ends := []float64{0, L}
+	steadyT, steadyQ, err := solver.Steady(col, tOutMean, tInMean, ends)
+	if err != nil {
+		return &Error{File: s.File, Msg: err.Error()}
+	}
+
+	// One cycle of the first analysis period.
+	zo, zi := phasorAt(s.Outside.Temperature, P), phasorAt(s.Inside.Temperature, P)
+	if zo == 0 && zi == 0 {
+		zo = 1
+		r.Warnings = append(r.Warnings, fmt.Sprintf(
+			"the outside temperature has no %s swing; the one-period chart shows the response to a 1 K outside swing peaking at t = 0",
+			fmtHours(P)))
+	}
+	th, q, err := solver.Harmonic(col, P, zo, zi, ends)
+	if err != nil {
+		return &Error{File: s.File, Msg: err.Error()}
+	}
+	const n = 97
+	w := 2 * math.Pi / P
+	for k := 0; k < n; k++ {
+		t := P * float64(k) / float64(n-1)
+		e := cmplx.Exp(complex(0, w*t))
+		ser.CycleTime_h = append(ser.CycleTime_h, t/3600)
+		ser.CycleOutsideAir_C = append(ser.CycleOutsideAir_C, tOutMean+real(zo*e))
+		ser.CycleInsideAir_C = append(ser.CycleInsideAir_C, tInMean+real(zi*e))
+		ser.CycleOutsideSurface_C = append(ser.CycleOutsideSurface_C, steadyT[0]+real(th[0]*e))
+		ser.CycleInsideSurface_C = append(ser.CycleInsideSurface_C, steadyT[1]+real(th[1]*e))
+		ser.CycleInsideFlux_W_m2 = append(ser.CycleInsideFlux_W_m2, steadyQ+real(q[1]*e))
+	}
+
+	// Envelope across the construction, all forcing harmonics superposed.
+	xs := profilePositions(col, 160)
+	meanT, _, err := solver.Steady(col, tOutMean, tInMean, xs)
+	if err != nil {
+		return &Error{File: s.File, Msg: err.Error()}
+	}
+	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.Temperature)
+	amps := make([][]complex128, len(hs.periods))
+	for i, p := range hs.periods {
+		amps[i], _, err = solver.Harmonic(col, p, hs.outside[i], hs.inside[i], xs)
+		if err != nil {
+			return &Error{File: s.File, Msg: err.Error()}
+		}
+	}
+	ser.ProfilePosition_m = xs
+	ser.ProfileMean_C = meanT
+	ser.ProfileMin_C, ser.ProfileMax_C = envelope(meanT, hs.periods, amps)
+	ser.Interfaces_m = col.Interfaces()
+
+	// Frequency response.
+	ps := solver.LogPeriods(s.Analysis.Response.From, s.Analysis.Response.To, s.Analysis.Response.Points)
+	resp, err := solver.Response(col, ps)
+	if err != nil {
+		return &Error{File: s.File, Msg: err.Error()}
+	}
+	for _, p := range resp {
+		ser.ResponsePeriod_h = append(ser.ResponsePeriod_h, p.Period/3600)
+		ser.ResponseDecrement = append(ser.ResponseDecrement, p.DecrementFactor)
+		ser.ResponseTimeShift_h = append(ser.ResponseTimeShift_h, p.TimeShiftUnwrapped/3600)
+	}
+	return nil
+}
+
+// profilePositions returns about n positions across the column, including
+// every layer interface (twice where a resistance layer makes a jump is not
+// needed: positions are geometric).
+func profilePositions(col solver.Column, n int) []float64 {
+	L := col.Thickness()
+	var xs []float64
+	for k := 0; k <= n; k++ {
+		xs = append(xs, L*float64(k)/float64(n))
+	}
+	xs = append(xs, col.Interfaces()...)
+	return sortUnique(xs, L*1e-9)
+}
+
+// envelope samples the superposed harmonics over the longest period and
+// returns the minimum and maximum temperature at each position.
+func envelope(mean []float64, periods []float64, amps [][]complex128) (lo, hi []float64) {
+	lo = append([]float64(nil), mean...)
+	hi = append([]float64(nil), mean...)
+	if len(periods) == 0 {
+		return lo, hi
+	}
+	longest, shortest := periods[0], periods[0]
+	for _, p := range periods {
+		longest = math.Max(longest, p)
+		shortest = math.Min(shortest, p)
+	}
+	steps := int(math.Min(24*longest/shortest, 20000))
+	if steps < 48 {
+		steps = 48
+	}
+	rot := make([]complex128, len(periods))
+	for k := 0; k < steps; k++ {
+		t := longest * float64(k) / float64(steps)
+		for i, p := range periods {
+			rot[i] = cmplx.Exp(complex(0, 2*math.Pi*t/p))
+		}
+		for j := range mean {
+			v := mean[j]
+			for i := range periods {
+				v += real(amps[i][j] * rot[i])
+			}
+			lo[j] = math.Min(lo[j], v)
+			hi[j] = math.Max(hi[j], v)
+		}
+	}
+	return lo, hi
+}
+
+func sortUnique(xs []float64, tol float64) []float64 {
+	s := append([]float64(nil), xs...)
+	// insertion sort: small slices
+	for i := 1; i < len(s); i++ {
+		for j := i; j > 0 && s[j] < s[j-1]; j-- {
+			s[j], s[j-1] = s[j-1], s[j]
+		}
+	}
+	out := s[:0]
+	for i, x := range s {
+		if i == 0 || x-out[len(out)-1] > tol {
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+func fmtHours(p float64) string {
+	switch {
+	case math.Abs(p-climate.Day) < 1:
+		return "daily"
+	case math.Abs(p-climate.Year) < 1:
+		return "annual"
+	}
+	return fmt.Sprintf("%g h", p/3600)
+}

@@ -1,0 +1,95 @@
+// Package scenarios reads a tempstack scenario file (YAML), validates it
+// with errors that name file, line and key, turns it into solver inputs,
+// runs the exact periodic analysis (and, where asked, the transient
+// simulation), and collects the Results that the JSON, CSV and HTML writers
+// share.
+//
+// All values inside a Scenario are SI: metres, seconds, degrees Celsius,
+// W/(m K), J/(kg K), kg/m3, m2 K/W, W/m2. The file may give other units as
+// strings ("105 mm", "3y"); a bare number is in the default unit of its key
+// (see README.md, "Scenario file").
+package scenarios
+
+import (
+	"tempstack/climate"
+	"tempstack/layers"
+)
+
+// Kind is the type of scenario.
+type Kind string
+
+// The scenario kinds.
+const (
+	Wall   Kind = "wall"   // a wall, roof or floor between outside and inside air
+	Ground Kind = "ground" // a soil or rock column below a ground surface
+)
+
+// Scenario is a decoded, validated scenario file in SI units.
+type Scenario struct {
+	File        string // as given (for messages)
+	Title       string
+	Description string
+	Kind        Kind
+	Orientation layers.Orientation // wall kind: heat-flow direction for Rsi
+	Layers      []layers.Layer     // outside (ground: surface) first
+
+	Outside Side // wall: outside; ground: the surface
+	Inside  Side // wall: inside; ground: the bottom
+
+	Analysis Analysis
+}
+
+// Side is the boundary on one face of the column.
+type Side struct {
+	// Resistance is the surface resistance in m2 K/W between the surface and
+	// the environment temperature; 0 imposes the temperature on the surface.
+	Resistance float64
+	// Temperature is the environment temperature (degC) behind the
+	// resistance. Nil on a side with a heat flux or adiabatic condition.
+	Temperature *Forcing
+	// HeatFlux, when Flux is true, is the heat flux in W/m2 entering the
+	// column through this face (ground bottom: the geothermal flux, positive
+	// upward into the column).
+	HeatFlux float64
+	Flux     bool
+	// Adiabatic: no heat crosses this face.
+	Adiabatic bool
+}
+
+// Forcing is an environment temperature over time: a mean plus harmonics,
+// optionally replaced by a step change.
+type Forcing struct {
+	climate.Periodic       // mean (degC) and harmonics
+	Step             *Step // non-nil: a step change, Periodic ignored
+	Line             int   // line of the temperature key, for messages
+}
+
+// Step is a sudden change of the environment temperature.
+type Step struct {
+	From, To float64 // degC
+	At       float64 // s after the start of the simulation
+}
+
+// At returns the forcing temperature at time t (s), degC.
+func (f *Forcing) At(t float64) float64 {
+	if f.Step != nil {
+		if t < f.Step.At {
+			return f.Step.From
+		}
+		return f.Step.To
+	}
+	return f.Periodic.At(t)
+}
+
+// Analysis says what to compute.
+type Analysis struct {
+	Periods  []float64 // s, for the exact periodic analysis; default one day
+	Response Response
+	Probes   []float64 // m from the outside (surface)
+}
+
+// Response is the frequency sweep of the periodic analysis.
+type Response struct {
+	From, To float64 // s
+	Points   int
+}
