@@ -152,7 +152,8 @@ var library = []Material{
 	// Insulation. Declared values differ between products: the row is a
 	// starting point, the product's declared value governs.
 	{Key: "mineral-wool", Name: "Mineral wool (stone wool slab)", Family: FamilyInsulation, Conductivity: 0.036, Density: 40, SpecificHeat: 1030, Source: srcISO10456Ins},
-	{Key: "glass-wool", Name: "Mineral wool, glass (20 kg/m3, declared 0.035)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1030, Source: srcDataholz},
+	{Key: "glass-wool", Name: "Glass wool (20 kg/m3)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1030, Source: srcISO10456Ins},
+	{Key: "mineral-wool-light", Name: "Mineral wool batt, declared 0.035 (20 kg/m3)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1030, Source: srcDataholz},
 	{Key: "eps", Name: "Expanded polystyrene (EPS)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1450, Source: srcISO10456Ins},
 	{Key: "xps", Name: "Extruded polystyrene (XPS)", Family: FamilyInsulation, Conductivity: 0.034, Density: 35, SpecificHeat: 1450, Source: srcISO10456Ins},
 	{Key: "pur", Name: "Polyurethane foam board (PUR)", Family: FamilyInsulation, Conductivity: 0.028, Density: 30, SpecificHeat: 1470, Source: srcCIBSE337},
