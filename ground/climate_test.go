@@ -247,3 +247,52 @@ func TestGroundWaveDepths(t *testing.T) {
 		}
 	}
 }
+
+func TestDiffusivityFromHarmonics(t *testing.T) {
+	// A GroundWave with a = 0.45e-6 m2/s (wet clay, Moene and van Dam 2014
+	// Table 2.2 [read]) sampled daily for two years at 0.2 and 1.0 m; the
+	// annual harmonics fitted by climate.FitHarmonics give back a by both
+	// methods [derived: amplitude ratio exp(-dz/d), lag dz/d P/(2 pi)].
+	const a = 0.45e-6
+	w, _ := Kusuda(7, 12, 30*climate.Day, a)
+	var tt, v1, v2 []float64
+	for i := 0; i < 2*365; i++ {
+		ti := float64(i) * climate.Day
+		tt = append(tt, ti)
+		v1 = append(v1, w.Temperature(0.2, ti))
+		v2 = append(v2, w.Temperature(1.0, ti))
+	}
+	p1, _, err := climate.FitHarmonics(tt, v1, []float64{climate.Year})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p2, _, err := climate.FitHarmonics(tt, v2, []float64{climate.Year})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := DiffusivityFromHarmonics(0.2, p1.Harmonics[0], 1.0, p2.Harmonics[0])
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(d.Amplitude-a) > 1e-6*a || math.Abs(d.Phase-a) > 1e-6*a {
+		t.Errorf("diffusivity amplitude %g, phase %g, want %g", d.Amplitude, d.Phase, a)
+	}
+	if math.Abs(d.Lag-w.LagAt(0.8)) > 1 {
+		t.Errorf("lag %g s, want %g", d.Lag, w.LagAt(0.8))
+	}
+	h := climate.Harmonic{Period: climate.Year, Amplitude: 5, Peak: 0}
+	bad := []struct {
+		z1, z2 float64
+		h1, h2 climate.Harmonic
+	}{
+		{1, 0.5, h, climate.Harmonic{Period: climate.Year, Amplitude: 2, Peak: 10}},
+		{0.5, 1, h, climate.Harmonic{Period: climate.Year, Amplitude: 6, Peak: 10}},
+		{0.5, 1, h, climate.Harmonic{Period: climate.Day, Amplitude: 2, Peak: 10}},
+		{0.5, 1, h, climate.Harmonic{Period: climate.Year, Amplitude: 2, Peak: 0}},
+	}
+	for i, c := range bad {
+		if _, err := DiffusivityFromHarmonics(c.z1, c.h1, c.z2, c.h2); err == nil {
+			t.Errorf("case %d: want an error", i)
+		}
+	}
+}
