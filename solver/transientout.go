@@ -1,0 +1,175 @@
+package solver
+
+import "math"
+
+// allocResult prepares the result series of a run.
+func (r *fvRun) allocResult() {
+	ns := r.nSteps/r.every + 1 // the initial state and every sample step
+	if r.nSteps%r.every != 0 {
+		ns++ // the end of the run
+	}
+	p := r.p
+	res := &Result{
+		Mesh:           r.m,
+		Times:          make([]float64, ns),
+		Probes:         append([]float64(nil), p.Probes...),
+		Probe:          make([][]float64, len(p.Probes)),
+		SurfaceOutside: make([]float64, ns),
+		SurfaceInside:  make([]float64, ns),
+		FluxOutside:    make([]float64, ns),
+		FluxInside:     make([]float64, ns),
+		Min:            make([]float64, r.n),
+		Max:            make([]float64, r.n),
+		Mean:           make([]float64, r.n),
+		FrostDepth:     make([]float64, ns),
+		ThawDepth:      make([]float64, ns),
+	}
+	for j := range res.Probe {
+		res.Probe[j] = make([]float64, ns)
+	}
+	for i := range res.Min {
+		res.Min[i] = math.Inf(1)
+		res.Max[i] = math.Inf(-1)
+	}
+	r.res = res
+}
+
+// surfaces returns the surface inflows and the surface temperatures on
+// the column side of the surface resistances for the current state.
+func (r *fvRun) surfaces() (qo, qi, tso, tsi float64) {
+	n := r.n
+	T := r.T
+	qo, qi = r.out.inflow(r.vo, T[0]), r.in.inflow(r.vi, T[n-1])
+	if r.out.kind == Environment && r.out.rb == 0 {
+		tso = r.vo
+	} else {
+		tso = T[0] + qo*(r.rh[0]+r.rf[0])
+	}
+	if r.in.kind == Environment && r.in.rb == 0 {
+		tsi = r.vi
+	} else {
+		tsi = T[n-1] + qi*(r.rh[n-1]+r.rf[n])
+	}
+	return qo, qi, tso, tsi
+}
+
+// sample records sample k at time t.
+func (r *fvRun) sample(k int, t float64) {
+	res := r.res
+	n := r.n
+	T := r.T
+	qo, qi, tso, tsi := r.surfaces()
+	res.Times[k] = t
+	res.SurfaceOutside[k] = tso
+	res.SurfaceInside[k] = tsi
+	res.FluxOutside[k] = qo
+	res.FluxInside[k] = -qi
+	for j, x := range res.Probes {
+		res.Probe[j][k] = r.probe(x, qo, qi, tso, tsi)
+	}
+	mn, mx, mean := res.Min[:n], res.Max[:n], res.Mean[:n]
+	for i, v := range T[:n] {
+		if v < mn[i] {
+			mn[i] = v
+		}
+		if v > mx[i] {
+			mx[i] = v
+		}
+		if k > 0 {
+			mean[i] += v
+		}
+	}
+	res.FrostDepth[k], res.ThawDepth[k] = r.frost(tso)
+}
+
+// probe interpolates the temperature at x linearly between the cell
+// centre and the temperature of the nearer face, which is the linear
+// interpolation between centres inside a layer and follows the
+// conductance ratio across an interface (flux continuity). Surfaces return
+// the surface temperatures.
+func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
+	m, T, n := r.m, r.T, r.n
+	if x <= 0 {
+		return tso
+	}
+	if x >= m.Faces[n] {
+		return tsi
+	}
+	c := m.CellAt(x)
+	xc := m.Centers[c]
+	if x < xc {
+		var tf float64
+		if c == 0 {
+			tf = T[0] + qo*r.rh[0]
+		} else {
+			tf = T[c] + r.gg[c-1]*(T[c-1]-T[c])*r.rh[c]
+		}
+		xf := m.Faces[c]
+		return tf + (T[c]-tf)*(x-xf)/(xc-xf)
+	}
+	var tf float64
+	if c == n-1 {
+		tf = T[c] + qi*r.rh[c]
+	} else {
+		tf = T[c] - r.gg[c]*(T[c]-T[c+1])*r.rh[c]
+	}
+	xf := m.Faces[c+1]
+	return T[c] + (tf-T[c])*(x-xc)/(xf-xc)
+}
+
+// frost returns the frost depth and the thaw depth (m) of the current
+// state; tso is the outside surface temperature.
+func (r *fvRun) frost(tso float64) (frost, thaw float64) {
+	m, T, n, thr := r.m, r.T, r.n, r.thr
+	mushy := func(i int) (phi float64, ok bool) {
+		if k := r.pidx[i]; k >= 0 && r.phases[k].isoTerm && r.phi[i] > 0 && r.phi[i] < 1 {
+			return r.phi[i], true
+		}
+		return 0, false
+	}
+	cross := func(x0, t0, x1, t1, th float64) float64 {
+		if t1 == t0 {
+			return x0
+		}
+		return x0 + (x1-x0)*math.Min(math.Max((th-t0)/(t1-t0), 0), 1)
+	}
+	deep := -1
+	for i := n - 1; i >= 0; i-- {
+		if T[i] <= thr[i] {
+			deep = i
+			break
+		}
+	}
+	switch {
+	case deep < 0:
+		if tso <= thr[0] {
+			frost = cross(0, tso, m.Centers[0], T[0], thr[0])
+		}
+	case deep == n-1:
+		if phi, ok := mushy(deep); ok {
+			frost = m.Faces[deep] + (1-phi)*r.h[deep]
+		} else {
+			frost = m.Faces[n]
+		}
+	default:
+		if phi, ok := mushy(deep); ok {
+			frost = m.Faces[deep] + (1-phi)*r.h[deep]
+		} else {
+			frost = cross(m.Centers[deep], T[deep], m.Centers[deep+1], T[deep+1], thr[deep])
+		}
+	}
+	if deep < 0 || tso <= thr[0] {
+		return frost, 0
+	}
+	top := 0
+	for top < n && T[top] > thr[top] {
+		top++
+	}
+	if phi, ok := mushy(top); ok {
+		return frost, m.Faces[top] + phi*r.h[top]
+	}
+	if top == 0 {
+		return frost, cross(0, tso, m.Centers[0], T[0], thr[0])
+	}
+	return frost, cross(m.Centers[top-1], T[top-1], m.Centers[top], T[top], thr[top])
+}

@@ -1,0 +1,680 @@
+package solver
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// TR-BDF2 constants (Hosea and Shampine 1996): gamma = 2 - sqrt(2) makes
+// the trapezoidal stage over gamma*dt and the BDF2 stage share the matrix
+// M + theta dt A with theta = gamma/2 = (1-gamma)/(2-gamma) = 1 - 1/sqrt(2).
+//
+//	stage 1: M (T* - T^n) = (gamma dt/2) [f(T^n, t_n) + f(T*, t_n + gamma dt)]
+//	stage 2: M [(2-gamma) T^{n+1} - T*/gamma + (1-gamma)^2/gamma T^n] = (1-gamma) dt f(T^{n+1}, t_{n+1})
+//
+// Summing the cells of both stages, the heat entering through the
+// surfaces during the step is dt/(2-gamma) [(q_n + q_*)/2 + (1-gamma) q_{n+1}]:
+// the energy balance integrates the surface fluxes with these weights.
+var (
+	fvGamma = 2 - math.Sqrt2
+	fvTheta = 1 - 1/math.Sqrt2
+	fvC1    = 1 / (fvGamma * (2 - fvGamma))
+	fvC2    = (1 - fvGamma) * (1 - fvGamma) / (fvGamma * (2 - fvGamma))
+	fvW0    = 1 / (2 * (2 - fvGamma))       // weight of q_n and q_* (times dt)
+	fvW1    = (1 - fvGamma) / (2 - fvGamma) // weight of q_{n+1} (times dt)
+)
+
+const (
+	fvMaxIter = 60   // enthalpy iterations per implicit stage
+	fvTolT    = 1e-9 // K, convergence of the enthalpy iteration
+	fvTolK    = 1e-9 // relative change of conductivity at convergence
+)
+
+// fvBC is one surface condition of a run.
+type fvBC struct {
+	kind  BoundaryKind
+	rb    float64 // surface resistance, m2 K/W
+	rface float64 // massless layers on the surface face, m2 K/W
+	fn    func(float64) float64
+	g     float64 // conductance centre -> environment, W/(m2 K), Environment only
+}
+
+// value evaluates the boundary function at t.
+func (b *fvBC) value(t float64) float64 {
+	if b.kind == Adiabatic {
+		return 0
+	}
+	return b.fn(t)
+}
+
+// src is the part of the inflow that does not depend on the cell
+// temperature: inflow = src(v) - g*Tcell.
+func (b *fvBC) src(v float64) float64 {
+	switch b.kind {
+	case Environment:
+		return b.g * v
+	case PrescribedFlux:
+		return v
+	}
+	return 0
+}
+
+// inflow is the heat flux into the column (W/m2) for the boundary value v
+// and the temperature tc of the cell next to the surface.
+func (b *fvBC) inflow(v, tc float64) float64 {
+	switch b.kind {
+	case Environment:
+		return b.g * (v - tc)
+	case PrescribedFlux:
+		return v
+	}
+	return 0
+}
+
+// setG updates the conductance for the half-cell resistance rh.
+func (b *fvBC) setG(rh float64) {
+	if b.kind == Environment {
+		b.g = 1 / (b.rb + b.rface + rh)
+	}
+}
+
+// fvRun is the state and workspace of one transient simulation.
+type fvRun struct {
+	p      *Problem
+	m      *Mesh
+	n      int
+	record bool
+
+	h, invh []float64 // cell widths, m
+	cvol    []float64 // unfrozen volumetric heat capacity, J/(m3 K)
+	capc    []float64 // h*C, J/(m2 K) (linear columns)
+	kc      []float64 // current conductivity, W/(m K)
+	rh      []float64 // h/(2k), m2 K/W
+	rf      []float64 // massless resistance on each face, len n+1
+	gg      []float64 // conductance between centres i and i+1, len n-1
+	thr     []float64 // frost threshold per cell, degC
+
+	out, in fvBC
+
+	nonlinear bool
+	pidx      []int32 // phase index per cell, -1 for none
+	phases    []fvPhase
+
+	// state
+	T, H, phi, slope []float64
+	T0, H0           []float64 // state at the start of the run
+	vo, vi           float64   // boundary values at the current time
+
+	// workspace
+	tn, rhs, lo, di, up, w, tlin, hrhs, hn, hold []float64
+	fac                                          fvSymTridiag
+	facTh                                        float64
+
+	nSteps, every int
+	dtLast        float64
+
+	eOut, eIn, eAbs fvKahan
+	iterations      int
+	unconverged     int
+
+	res *Result
+}
+
+func newFvRun(p *Problem, record bool) (*fvRun, error) {
+	c := p.Column
+	if err := c.Validate(); err != nil {
+		return nil, err
+	}
+	m := p.Mesh
+	if m == nil {
+		var err error
+		if m, err = NewMesh(c, MeshOptions{}); err != nil {
+			return nil, err
+		}
+	}
+	if err := fvCheckMesh(c, m); err != nil {
+		return nil, err
+	}
+	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+	if !finite(p.Start) || !finite(p.Duration) || !finite(p.Step) || !(p.Duration > 0) || !(p.Step > 0) {
+		return nil, errors.New("solver: start, duration and step must be finite, duration and step positive")
+	}
+	if p.Scheme < TRBDF2 || p.Scheme > BackwardEuler {
+		return nil, fmt.Errorf("solver: unknown time scheme %d", p.Scheme)
+	}
+	n := m.Cells()
+	r := &fvRun{p: p, m: m, n: n, record: record}
+	steps := math.Ceil(p.Duration/p.Step - 1e-9)
+	if steps > 1e9 {
+		return nil, fmt.Errorf("solver: %g time steps are too many", steps)
+	}
+	r.nSteps = max(int(steps), 1)
+	r.dtLast = p.Duration - float64(r.nSteps-1)*p.Step
+	r.every = 1
+	if p.SampleEvery != 0 {
+		if !finite(p.SampleEvery) || p.SampleEvery < 0 {
+			return nil, errors.New("solver: sample spacing must be finite and positive")
+		}
+		k := math.Round(p.SampleEvery / p.Step)
+		if k < 1 || math.Abs(k*p.Step-p.SampleEvery) > 1e-6*p.Step {
+			return nil, fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.SampleEvery, p.Step)
+		}
+		r.every = int(math.Min(k, 1e9))
+	}
+	thick := m.Thickness()
+	for _, x := range p.Probes {
+		if !(x >= -1e-12*thick && x <= thick*(1+1e-12)) {
+			return nil, fmt.Errorf("solver: probe at %g m lies outside the column (0 to %g m)", x, thick)
+		}
+	}
+	var err error
+	if r.out, err = fvNewBC("outside", p.Outside, m.FaceResistance[0]); err != nil {
+		return nil, err
+	}
+	if r.in, err = fvNewBC("inside", p.Inside, m.FaceResistance[n]); err != nil {
+		return nil, err
+	}
+
+	alloc := func() []float64 { return make([]float64, n) }
+	r.h, r.invh, r.cvol, r.capc, r.kc, r.rh, r.thr = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
+	r.rf = append([]float64(nil), m.FaceResistance...)
+	r.gg = make([]float64, max(n-1, 0))
+	r.pidx = make([]int32, n)
+	phaseOf := map[int]int32{}
+	for i := 0; i < n; i++ {
+		l := c.Layers[m.Layer[i]]
+		r.h[i] = m.Width(i)
+		r.invh[i] = 1 / r.h[i]
+		r.cvol[i] = l.HeatCapacity
+		r.capc[i] = r.h[i] * l.HeatCapacity
+		r.kc[i] = l.Conductivity
+		r.pidx[i] = -1
+		if l.Freeze != nil {
+			r.nonlinear = true
+			r.thr[i] = l.Freeze.Point
+			k, ok := phaseOf[m.Layer[i]]
+			if !ok {
+				k = int32(len(r.phases))
+				r.phases = append(r.phases, newFvPhase(l))
+				phaseOf[m.Layer[i]] = k
+			}
+			r.pidx[i] = k
+		}
+	}
+	r.T, r.H, r.phi, r.slope, r.T0, r.H0 = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
+	r.tn, r.rhs, r.lo, r.di, r.up, r.w = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
+	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
+
+	// Initial state.
+	switch {
+	case p.InitialEnthalpy != nil:
+		if len(p.InitialEnthalpy) != n {
+			return nil, fmt.Errorf("solver: %d initial enthalpies for %d cells", len(p.InitialEnthalpy), n)
+		}
+		copy(r.H, p.InitialEnthalpy)
+		for i, v := range r.H {
+			if !finite(v) {
+				return nil, fmt.Errorf("solver: initial enthalpy of cell %d is not finite", i)
+			}
+		}
+	case p.Initial != nil || p.InitialFunc != nil:
+		if p.Initial != nil && len(p.Initial) != n {
+			return nil, fmt.Errorf("solver: %d initial temperatures for %d cells", len(p.Initial), n)
+		}
+		for i := range r.H {
+			var t float64
+			if p.Initial != nil {
+				t = p.Initial[i]
+			} else {
+				t = p.InitialFunc(m.Centers[i])
+			}
+			if !finite(t) {
+				return nil, fmt.Errorf("solver: initial temperature of cell %d is not finite", i)
+			}
+			if k := r.pidx[i]; k >= 0 {
+				r.H[i] = r.phases[k].enthalpy(t)
+			} else {
+				r.H[i] = r.cvol[i] * t
+			}
+		}
+	default:
+		return nil, errors.New("solver: no initial state (Initial, InitialFunc or InitialEnthalpy)")
+	}
+	for i := range r.H {
+		r.updateCell(i)
+	}
+	r.updateConductances()
+	return r, nil
+}
+
+// fvNewBC checks b and turns it into the run's form.
+func fvNewBC(side string, b Boundary, rface float64) (fvBC, error) {
+	bc := fvBC{kind: b.Kind, rb: b.Resistance, rface: rface}
+	switch b.Kind {
+	case Environment:
+		if b.Temperature == nil {
+			return bc, fmt.Errorf("solver: %s environment boundary has no temperature function", side)
+		}
+		if !(b.Resistance >= 0) || math.IsInf(b.Resistance, 0) {
+			return bc, fmt.Errorf("solver: %s surface resistance must be finite and not negative", side)
+		}
+		bc.fn = b.Temperature
+	case PrescribedFlux:
+		if b.Flux == nil {
+			return bc, fmt.Errorf("solver: %s flux boundary has no flux function", side)
+		}
+		bc.fn = b.Flux
+	case Adiabatic:
+	default:
+		return bc, fmt.Errorf("solver: unknown %s boundary kind %d", side, int(b.Kind))
+	}
+	return bc, nil
+}
+
+// fvCheckMesh verifies that m was built for c.
+func fvCheckMesh(c Column, m *Mesh) error {
+	n := m.Cells()
+	if n == 0 || len(m.Faces) != n+1 || len(m.Layer) != n || len(m.FaceResistance) != n+1 {
+		return errors.New("solver: mesh is empty or inconsistent")
+	}
+	for i := 0; i < n; i++ {
+		if !(m.Faces[i+1] > m.Faces[i]) {
+			return fmt.Errorf("solver: mesh faces not increasing at cell %d", i)
+		}
+		if li := m.Layer[i]; li < 0 || li >= len(c.Layers) || c.Layers[li].IsResistance() {
+			return fmt.Errorf("solver: mesh cell %d refers to a layer the column does not have", i)
+		}
+	}
+	if d := c.Thickness(); math.Abs(m.Thickness()-d) > 1e-9*d {
+		return fmt.Errorf("solver: mesh thickness %g m differs from the column's %g m", m.Thickness(), d)
+	}
+	return nil
+}
+
+// updateCell derives T, phi, slope and k of cell i from its enthalpy.
+func (r *fvRun) updateCell(i int) {
+	if k := r.pidx[i]; k >= 0 {
+		t, phi, s, kk := r.phases[k].state(r.H[i])
+		r.T[i], r.phi[i], r.slope[i], r.kc[i] = t, phi, s, kk
+	} else {
+		r.T[i] = r.H[i] / r.cvol[i]
+		r.phi[i] = 1
+		r.slope[i] = 1 / r.cvol[i]
+	}
+	r.rh[i] = r.h[i] / (2 * r.kc[i])
+}
+
+// updateConductances recomputes the series conductances from rh and rf.
+func (r *fvRun) updateConductances() {
+	for i := range r.gg {
+		r.gg[i] = 1 / (r.rh[i] + r.rf[i+1] + r.rh[i+1])
+	}
+	r.out.setG(r.rh[0])
+	r.in.setG(r.rh[r.n-1])
+}
+
+// values evaluates both boundary functions at t and checks them.
+func (r *fvRun) values(t float64) (vo, vi float64, err error) {
+	vo, vi = r.out.value(t), r.in.value(t)
+	if math.IsNaN(vo) || math.IsInf(vo, 0) || math.IsNaN(vi) || math.IsInf(vi, 0) {
+		return 0, 0, fmt.Errorf("solver: boundary value not finite at t = %g s", t)
+	}
+	return vo, vi, nil
+}
+
+// account adds the surface inflows of one step with the quadrature weights
+// wa, wb, wc (s) of the scheme to the energy balance.
+func (r *fvRun) account(wa, wb, wc, qoA, qoB, qoC, qiA, qiB, qiC float64) {
+	r.eOut.add(wa*qoA + wb*qoB + wc*qoC)
+	r.eIn.add(wa*qiA + wb*qiB + wc*qiC)
+	r.eAbs.add(wa*(math.Abs(qoA)+math.Abs(qiA)) + wb*(math.Abs(qoB)+math.Abs(qiB)) + wc*(math.Abs(qoC)+math.Abs(qiC)))
+}
+
+// run integrates from the current state over the duration of the problem.
+func (r *fvRun) run() (*Result, error) {
+	p := r.p
+	n := r.n
+	r.eOut, r.eIn, r.eAbs = fvKahan{}, fvKahan{}, fvKahan{}
+	r.iterations, r.unconverged = 0, 0
+	copy(r.T0, r.T)
+	copy(r.H0, r.H)
+	var err error
+	if r.vo, r.vi, err = r.values(p.Start); err != nil {
+		return nil, err
+	}
+	if r.record {
+		r.allocResult()
+		r.sample(0, p.Start)
+	}
+	every := max(r.nSteps/100, 1)
+	k := 1
+	t := p.Start
+	for step := 1; step <= r.nSteps; step++ {
+		t1 := p.Start + float64(step)*p.Step
+		if step == r.nSteps {
+			t1 = p.Start + p.Duration
+		}
+		dt := t1 - t
+		if r.nonlinear {
+			err = r.stepEnthalpy(t, dt)
+		} else {
+			err = r.stepLinear(t, dt)
+		}
+		if err != nil {
+			return nil, err
+		}
+		t = t1
+		if r.record && (step%r.every == 0 || step == r.nSteps) {
+			r.sample(k, t)
+			k++
+		}
+		if p.Progress != nil && (step%every == 0 || step == r.nSteps) {
+			p.Progress(float64(step) / float64(r.nSteps))
+		}
+	}
+	if !r.nonlinear {
+		for i := range r.H {
+			r.H[i] = r.cvol[i] * r.T[i]
+		}
+	}
+	var stored fvKahan
+	for i := 0; i < n; i++ {
+		if r.nonlinear {
+			stored.add(r.h[i] * (r.H[i] - r.H0[i]))
+		} else {
+			stored.add(r.capc[i] * (r.T[i] - r.T0[i]))
+		}
+	}
+	e := EnergyBalance{Stored: stored.value(), InflowOutside: r.eOut.value(), InflowInside: r.eIn.value(), Exchanged: r.eAbs.value()}
+	if e.Exchanged > 0 {
+		e.RelativeError = math.Abs(e.Residual()) / e.Exchanged
+	}
+	res := r.res
+	if res == nil {
+		res = &Result{Mesh: r.m}
+	}
+	res.Energy = e
+	res.Final = append([]float64(nil), r.T...)
+	res.FinalEnthalpy = append([]float64(nil), r.H...)
+	res.Steps = r.nSteps
+	res.Iterations = r.iterations
+	res.Unconverged = r.unconverged
+	if r.record {
+		for i := range res.Mean {
+			if k > 1 {
+				res.Mean[i] /= float64(k - 1)
+			} else {
+				res.Mean[i] = r.T[i]
+			}
+		}
+	}
+	r.res = nil
+	return res, nil
+}
+
+// restart is a no-op kept for clarity: run always starts from the current
+// state.
+func (r *fvRun) restart() {}
+
+// ensureFactor factorises M + th A for the linear scheme.
+func (r *fvRun) ensureFactor(th float64) error {
+	if th == r.facTh && r.fac.dinv != nil {
+		return nil
+	}
+	n := r.n
+	d, e := r.di, r.up[:max(n-1, 0)]
+	for i := 0; i < n; i++ {
+		g := 0.0
+		if i > 0 {
+			g += r.gg[i-1]
+		}
+		if i < n-1 {
+			g += r.gg[i]
+			e[i] = -th * r.gg[i]
+		}
+		d[i] = r.capc[i] + th*g
+	}
+	d[0] += th * r.out.g
+	d[n-1] += th * r.in.g
+	if err := r.fac.factor(d, e); err != nil {
+		return err
+	}
+	r.facTh = th
+	return nil
+}
+
+// stepLinear advances a column without freezing by dt from t.
+func (r *fvRun) stepLinear(t, dt float64) error {
+	n := r.n
+	T, rhs, tn, capc, gg := r.T[:n], r.rhs[:n], r.tn[:n], r.capc[:n], r.gg
+	out, in := &r.out, &r.in
+	vo0, vi0 := r.vo, r.vi
+	qo0, qi0 := out.inflow(vo0, T[0]), in.inflow(vi0, T[n-1])
+
+	// explicit part: rhs = M T + c * (net interior inflow)
+	explicit := func(c float64) {
+		fl := 0.0
+		for i := 0; i < n-1; i++ {
+			fr := gg[i] * (T[i] - T[i+1])
+			rhs[i] = capc[i]*T[i] + c*(fl-fr)
+			fl = fr
+		}
+		rhs[n-1] = capc[n-1]*T[n-1] + c*fl
+	}
+
+	switch r.p.Scheme {
+	case TRBDF2:
+		th := fvTheta * dt
+		if err := r.ensureFactor(th); err != nil {
+			return err
+		}
+		vom, vim, err := r.values(t + fvGamma*dt)
+		if err != nil {
+			return err
+		}
+		vo1, vi1, err := r.values(t + dt)
+		if err != nil {
+			return err
+		}
+		explicit(th)
+		rhs[0] += th * (qo0 + out.src(vom))
+		rhs[n-1] += th * (qi0 + in.src(vim))
+		copy(tn, T)
+		r.fac.solve(rhs) // rhs = T*
+		qom, qim := out.inflow(vom, rhs[0]), in.inflow(vim, rhs[n-1])
+		for i := range T {
+			T[i] = capc[i] * (fvC1*rhs[i] - fvC2*tn[i])
+		}
+		T[0] += th * out.src(vo1)
+		T[n-1] += th * in.src(vi1)
+		r.fac.solve(T)
+		qo1, qi1 := out.inflow(vo1, T[0]), in.inflow(vi1, T[n-1])
+		r.account(fvW0*dt, fvW0*dt, fvW1*dt, qo0, qom, qo1, qi0, qim, qi1)
+		r.vo, r.vi = vo1, vi1
+	case CrankNicolson:
+		th := dt / 2
+		if err := r.ensureFactor(th); err != nil {
+			return err
+		}
+		vo1, vi1, err := r.values(t + dt)
+		if err != nil {
+			return err
+		}
+		explicit(th)
+		rhs[0] += th * (qo0 + out.src(vo1))
+		rhs[n-1] += th * (qi0 + in.src(vi1))
+		r.fac.solve(rhs)
+		copy(T, rhs)
+		qo1, qi1 := out.inflow(vo1, T[0]), in.inflow(vi1, T[n-1])
+		r.account(th, 0, th, qo0, 0, qo1, qi0, 0, qi1)
+		r.vo, r.vi = vo1, vi1
+	case BackwardEuler:
+		if err := r.ensureFactor(dt); err != nil {
+			return err
+		}
+		vo1, vi1, err := r.values(t + dt)
+		if err != nil {
+			return err
+		}
+		for i := range T {
+			T[i] *= capc[i]
+		}
+		T[0] += dt * out.src(vo1)
+		T[n-1] += dt * in.src(vi1)
+		r.fac.solve(T)
+		qo1, qi1 := out.inflow(vo1, T[0]), in.inflow(vi1, T[n-1])
+		r.account(0, 0, dt, 0, 0, qo1, 0, 0, qi1)
+		r.vo, r.vi = vo1, vi1
+	}
+	return nil
+}
+
+// netFlux writes into f the net heat inflow (W/m2) of every cell for the
+// temperatures T and the current conductances, and returns the surface
+// inflows.
+func (r *fvRun) netFlux(T []float64, vo, vi float64, f []float64) (qo, qi float64) {
+	n := r.n
+	qo, qi = r.out.inflow(vo, T[0]), r.in.inflow(vi, T[n-1])
+	fl := qo
+	for i := 0; i < n-1; i++ {
+		fr := r.gg[i] * (T[i] - T[i+1])
+		f[i] = fl - fr
+		fl = fr
+	}
+	f[n-1] = fl + qi
+	return qo, qi
+}
+
+// stepEnthalpy advances a column with freezing layers by dt from t.
+func (r *fvRun) stepEnthalpy(t, dt float64) error {
+	n := r.n
+	H, hrhs, hn, f := r.H[:n], r.hrhs[:n], r.hn[:n], r.tn[:n]
+	vo0, vi0 := r.vo, r.vi
+	switch r.p.Scheme {
+	case TRBDF2:
+		th := fvTheta * dt
+		vom, vim, err := r.values(t + fvGamma*dt)
+		if err != nil {
+			return err
+		}
+		vo1, vi1, err := r.values(t + dt)
+		if err != nil {
+			return err
+		}
+		qo0, qi0 := r.netFlux(r.T, vo0, vi0, f)
+		for i := range H {
+			hn[i] = H[i]
+			hrhs[i] = H[i] + th*r.invh[i]*f[i]
+		}
+		qom, qim := r.implicit(th, vom, vim)
+		for i := range H {
+			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
+		}
+		qo1, qi1 := r.implicit(th, vo1, vi1)
+		r.account(fvW0*dt, fvW0*dt, fvW1*dt, qo0, qom, qo1, qi0, qim, qi1)
+		r.vo, r.vi = vo1, vi1
+	case CrankNicolson:
+		th := dt / 2
+		vo1, vi1, err := r.values(t + dt)
+		if err != nil {
+			return err
+		}
+		qo0, qi0 := r.netFlux(r.T, vo0, vi0, f)
+		for i := range H {
+			hrhs[i] = H[i] + th*r.invh[i]*f[i]
+		}
+		qo1, qi1 := r.implicit(th, vo1, vi1)
+		r.account(th, 0, th, qo0, 0, qo1, qi0, 0, qi1)
+		r.vo, r.vi = vo1, vi1
+	case BackwardEuler:
+		vo1, vi1, err := r.values(t + dt)
+		if err != nil {
+			return err
+		}
+		copy(hrhs, H)
+		qo1, qi1 := r.implicit(dt, vo1, vi1)
+		r.account(0, 0, dt, 0, 0, qo1, 0, 0, qi1)
+		r.vo, r.vi = vo1, vi1
+	}
+	return nil
+}
+
+// implicit solves h_i (H_i - hrhs_i) = th F_i(T(H)) for H, where F_i is
+// the net inflow of cell i with the boundary values vo, vi, starting from
+// the current state. Each iteration linearises T(H) around the current
+// enthalpy (slope dT/dH of the current phase region, or the secant when
+// the last iteration crossed a region boundary), solves the tridiagonal
+// system for the enthalpy change, and then sets the enthalpy from the
+// conservative update H_i = hrhs_i + th/h_i F_i(T_lin) with the linearised
+// temperatures, so that the heat balance of every iteration is exact. It
+// returns the surface inflows of that update.
+func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
+	n := r.n
+	H, T, s, kc := r.H[:n], r.T[:n], r.slope[:n], r.kc[:n]
+	h, invh, hrhs, tlin, hold := r.h[:n], r.invh[:n], r.hrhs[:n], r.tlin[:n], r.hold[:n]
+	lo, di, up, res, w := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n]
+	gg := r.gg
+	for it := 0; ; it++ {
+		r.iterations++
+		// Residual R_i = h_i (hrhs_i - H_i) + th F_i(T) and Jacobian in H.
+		qo, qi = r.netFlux(T, vo, vi, res)
+		for i := 0; i < n; i++ {
+			res[i] = h[i]*(hrhs[i]-H[i]) + th*res[i]
+			gl, gr := 0.0, 0.0
+			if i > 0 {
+				gl = gg[i-1]
+				lo[i] = -th * gl * s[i-1]
+			}
+			if i < n-1 {
+				gr = gg[i]
+				up[i] = -th * gr * s[i+1]
+			}
+			di[i] = h[i] + th*(gl+gr)*s[i]
+		}
+		di[0] += th * r.out.g * s[0]
+		di[n-1] += th * r.in.g * s[n-1]
+		fvThomas(lo, di, up, res, w)
+		for i := 0; i < n; i++ {
+			tlin[i] = T[i] + s[i]*res[i]
+		}
+		// Conservative update from the linearised temperatures.
+		qo, qi = r.netFlux(tlin, vo, vi, res)
+		errT, dk := 0.0, 0.0
+		for i := 0; i < n; i++ {
+			hold[i] = H[i]
+			H[i] = hrhs[i] + th*invh[i]*res[i]
+			if r.pidx[i] < 0 {
+				T[i] = H[i] / r.cvol[i]
+				errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
+				continue
+			}
+			ph := &r.phases[r.pidx[i]]
+			told, kold := T[i], kc[i]
+			r.updateCell(i)
+			errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
+			if kc[i] != kold {
+				dk = math.Max(dk, math.Abs(kc[i]-kold)/kc[i])
+			}
+			if ph.region(H[i]) != ph.region(hold[i]) && H[i] != hold[i] {
+				// Secant slope across the region boundary.
+				s[i] = (T[i] - told) / (H[i] - hold[i])
+			}
+		}
+		if dk > 0 {
+			r.updateConductances()
+		}
+		if errT <= fvTolT && dk <= fvTolK {
+			return qo, qi
+		}
+		if it+1 >= fvMaxIter {
+			r.unconverged++
+			// Leave a consistent state for the next stage.
+			for i := 0; i < n; i++ {
+				r.updateCell(i)
+			}
+			r.updateConductances()
+			return qo, qi
+		}
+	}
+}
