@@ -3,8 +3,10 @@
 // (Kersten and Johansen conductivity models, heat capacity, latent heat),
 // built-in soil and rock presets, surface n-factors, closed-form frost and
 // thaw depth estimates (Stefan, modified Berggren, layered modified
-// Berggren), freezing and thawing indices from sampled temperature series,
-// and the periodic ground temperature of Kusuda and Achenbach.
+// Berggren), freezing seasons and frost-depth inputs of periodic and
+// measured climates (degree-days of records are in package climate), the
+// periodic ground temperature of Kusuda and Achenbach, and the soil
+// diffusivity read from temperature waves measured at two depths.
 //
 // Conventions:
 //   - SI units inside: m, s, kg/m3, W/(m K), J/(m3 K), J/m3, degrees Celsius.
