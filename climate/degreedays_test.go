@@ -196,3 +196,41 @@ func seq(n int, a, d float64) []float64 {
 	}
 	return s
 }
+
+func TestWintersThawSpellAndSouthern(t *testing.T) {
+	// Synthetic box winter (see boxWinter) with a mild spell: u_j = +5 for
+	// j = 170..179. By hand the daily means change on days 169 and 179
+	// (-10 -> -2.5) and 170..178 (-10 -> +5): the fall of the cumulative
+	// curve shrinks by 7.5 + 9*15 + 7.5 = 150 to 1045 degC day, and the
+	// season still runs from day 120 to day 241 (the spell is netted out).
+	tt, vv := boxWinter(181, 5, -10)
+	for j := 170; j <= 179; j++ {
+		vv[j] = 5
+	}
+	ws, err := Winters(tt, vv, WinterOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if w := ws[0]; math.Abs(w.FreezingIndex-1045) > 1e-9 || w.Days != 121 || w.Start != 301*Day {
+		t.Errorf("thaw spell: %+v, want 1045 degC day over 121 days from day 301", w)
+	}
+	// Southern: winter years split at 1 January; the same box placed at
+	// day 0 is one complete winter year with the same index.
+	tt, vv = boxWinter(0, 5, -10)
+	ws, err = Winters(tt, vv, WinterOptions{Southern: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ws) != 1 || math.Abs(ws[0].FreezingIndex-1195) > 1e-9 || !ws[0].Complete || ws[0].Start != 120*Day {
+		t.Errorf("southern: %+v", ws)
+	}
+	// Threshold -10 degC: the cold days sit exactly on it and every other
+	// day is above it, so there is no freezing season.
+	ws, err = Winters(tt, vv, WinterOptions{Southern: true, Threshold: -10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ws[0].FreezingIndex != 0 || ws[0].Days != 0 {
+		t.Errorf("threshold -10: %+v, want no season", ws[0])
+	}
+}

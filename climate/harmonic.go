@@ -4,6 +4,24 @@
 //
 // Time t is in seconds from 1 January 00:00 of the first simulated year; a
 // year is 365 days (8760 h) throughout tempstack.
+//
+// Measured series (ReadCSV) keep their real timestamps: t is the true
+// elapsed time from 1 January 00:00 of the first record's year, so a leap
+// day is a real day on the axis and the 365-day Year of the harmonic model
+// drifts against the calendar by one day per leap year (negligible for
+// annual harmonics). Winters splits seasons at real calendar dates.
+//
+// Units: temperatures in degC (converted from degF or K when read), times
+// in s, irradiance in W/m2, surface coefficients in W/(m2 K), degree-days
+// and freezing or thawing indices in degC day (= K day; multiply by 24 for
+// the K h of ISO 13793).
+//
+// The main entry points: ReadCSV, Series.Resample and Series.At for
+// measured forcing; DegreeDays, DailyMeans, Winters and
+// DesignFreezingIndex for frost indices; GumbelFit and Gumbel.ReturnLevel
+// for return-period freezing indices; FitHarmonics to reduce a record to a
+// Periodic; SolAir, SolAirFunc and SolAirPeriodic with Absorptance for sunlit
+// surfaces; GenerateDemo for an invented demonstration record.
 package climate
 
 import (
