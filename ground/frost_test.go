@@ -410,3 +410,27 @@ func TestModifiedBerggrenMonotoneAndContinuous(t *testing.T) {
 		}
 	}
 }
+
+func TestModifiedBerggrenBisectionFallback(t *testing.T) {
+	// The fallback (bisection on depth) and the fixed point agree.
+	layers := []solver.Layer{
+		freezeLayer("gravel", 0.3, 2.5, 2.0, 1.6e6, 1.8e6, 2.5e7),
+		freezeLayer("clay", 1, 1.5, 1.2, 2.0e6, 2.8e6, 1.2e8),
+	}
+	for _, F := range []float64{20, 300, 2500} {
+		in := BerggrenInput{SurfaceIndex: F, SeasonDays: 120, MeanAnnual: 5, Layers: layers}
+		fast, err := ModifiedBerggren(in)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fixedPointSteps = 0
+		slow, err := ModifiedBerggren(in)
+		fixedPointSteps = 50
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(fast.Depth-slow.Depth) > 1e-10*fast.Depth || fast.Layer != slow.Layer {
+			t.Errorf("F %g: fixed point %.12f (layer %d), bisection %.12f (layer %d)", F, fast.Depth, fast.Layer, slow.Depth, slow.Layer)
+		}
+	}
+}
