@@ -55,7 +55,7 @@ var (
 func Decode(file string, data []byte) (*Scenario, error) {
 	d := &decoder{file: file}
 	if len(bytes.TrimSpace(data)) == 0 {
-		return nil, &Error{File: file, Msg: "file is empty; start from `tempstack new wall`"}
+		return nil, &Error{File: file, Line: 1, Msg: "file is empty; start from `tempstack new wall`"}
 	}
 	var doc yaml.Node
 	dec := yaml.NewDecoder(bytes.NewReader(data))
@@ -152,7 +152,10 @@ func (d *decoder) decodeLayers(top *object, s *Scenario) error {
 	if err != nil {
 		return err
 	}
-	if !ok || len(items) == 0 {
+	if ok && len(items) == 0 {
+		return top.errKey("layers", "the list is empty; give at least one layer")
+	}
+	if !ok {
 		return top.missing("layers", "a list of layers, "+map[Kind]string{Wall: "outside first", Ground: "surface first"}[s.Kind])
 	}
 	for i, n := range items {
