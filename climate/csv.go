@@ -177,6 +177,11 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 	}
 	convs := make([]func(float64) float64, len(o.Columns))
 	for i, c := range o.Columns {
+		for _, d := range o.Columns[:i] {
+			if d == c {
+				return nil, fail(0, c, "column requested twice")
+			}
+		}
 		u := o.Unit
 		if cu, ok := o.ColumnUnits[c]; ok {
 			u = cu

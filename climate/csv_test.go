@@ -59,6 +59,7 @@ func TestReadCSVBadInput(t *testing.T) {
 		{"bad hour", "date,hour,temp\n2020-01-01,7,1\n2020-01-01,25,1\n", CSVOptions{DateColumn: "date", HourColumn: "hour", Columns: []string{"temp"}}, 3, "hour", []string{"cannot read hour"}},
 		{"datetime in date column", "date,hour,temp\n2020-01-01T00:00,7,1\n", CSVOptions{DateColumn: "date", HourColumn: "hour", Columns: []string{"temp"}}, 2, "date", []string{"want a date"}},
 		{"unknown unit", day("2020-01-01T00:00,1\n"), CSVOptions{TimeColumn: "time", Columns: []string{"temp"}, Unit: "R"}, 0, "temp", []string{`unknown unit "R"`}},
+		{"column twice", day("2020-01-01T00:00,1\n"), CSVOptions{TimeColumn: "time", Columns: []string{"temp", "temp"}}, 0, "temp", []string{"requested twice"}},
 		{"no columns", day("2020-01-01T00:00,1\n"), CSVOptions{TimeColumn: "time"}, 0, "", []string{"no value columns"}},
 		{"unbalanced quote", "time,temp\n\"2020-01-01T00:00,1\n", base, 2, "", []string{"obs.csv:"}},
 	}

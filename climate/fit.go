@@ -117,3 +117,17 @@ func FitHarmonics(t, v []float64, periods []float64) (Periodic, Fit, error) {
 	}
 	return out, f, nil
 }
+
+// FitHarmonics fits a mean and one harmonic per period to a column of the
+// series (see the package function FitHarmonics).
+func (s *Series) FitHarmonics(column string, periods []float64) (Periodic, Fit, error) {
+	v, err := s.Value(column)
+	if err != nil {
+		return Periodic{}, Fit{}, err
+	}
+	p, f, err := FitHarmonics(s.T, v, periods)
+	if err != nil {
+		return Periodic{}, Fit{}, fmt.Errorf("%s: column %q: %w", s.Name, column, err)
+	}
+	return p, f, nil
+}

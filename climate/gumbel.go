@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/gonum/stat/distuv"
@@ -33,6 +34,44 @@ const (
 	// table (for example 0.4952 and 0.9496 for n = 10 [memory]).
 	ReducedVariate
 )
+
+// fitMethodKeys are the plain keys of the fit methods, for scenario files
+// and JSON.
+var fitMethodKeys = []string{Moments: "moments", MaxLikelihood: "max-likelihood", ReducedVariate: "reduced-variate"}
+
+// ParseFitMethod returns the method named by key: "moments",
+// "max-likelihood" or "reduced-variate".
+func ParseFitMethod(key string) (FitMethod, error) {
+	k := strings.ToLower(strings.TrimSpace(key))
+	for m, name := range fitMethodKeys {
+		if k == name {
+			return FitMethod(m), nil
+		}
+	}
+	msg := fmt.Sprintf("climate: unknown fit method %q", key)
+	if s := closest(k, fitMethodKeys); s != "" {
+		msg += fmt.Sprintf("; did you mean %q?", s)
+	}
+	return 0, fmt.Errorf("%s (use %s)", msg, strings.Join(fitMethodKeys, ", "))
+}
+
+// MarshalText writes the method's key (see ParseFitMethod).
+func (m FitMethod) MarshalText() ([]byte, error) {
+	if m < 0 || int(m) >= len(fitMethodKeys) {
+		return nil, fmt.Errorf("climate: unknown fit method %d", int(m))
+	}
+	return []byte(fitMethodKeys[m]), nil
+}
+
+// UnmarshalText reads a method key (see ParseFitMethod).
+func (m *FitMethod) UnmarshalText(b []byte) error {
+	v, err := ParseFitMethod(string(b))
+	if err != nil {
+		return err
+	}
+	*m = v
+	return nil
+}
 
 func (m FitMethod) String() string {
 	switch m {

@@ -6,6 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/stat/distuv"
 	"math/rand/v2"
+	"strings"
 )
 
 func TestReducedVariateStatsTable(t *testing.T) {
@@ -150,5 +151,24 @@ func TestGumbelFitErrors(t *testing.T) {
 	}
 	if _, err := GumbelFit([]float64{1, 2, 3}, FitMethod(9)); err == nil {
 		t.Error("unknown method: no error")
+	}
+}
+
+func TestFitMethodKeys(t *testing.T) {
+	for _, m := range []FitMethod{Moments, MaxLikelihood, ReducedVariate} {
+		b, err := m.MarshalText()
+		if err != nil {
+			t.Fatal(err)
+		}
+		var back FitMethod
+		if err := back.UnmarshalText(b); err != nil || back != m {
+			t.Errorf("%v: round trip via %q gave %v, %v", m, b, back, err)
+		}
+	}
+	if _, err := ParseFitMethod("moment"); err == nil || !strings.Contains(err.Error(), `did you mean "moments"`) {
+		t.Errorf("misspelt method: %v", err)
+	}
+	if _, err := FitMethod(7).MarshalText(); err == nil {
+		t.Error("unknown method marshalled")
 	}
 }
