@@ -100,6 +100,8 @@ type CSVError struct {
 	Msg    string
 }
 
+// Error formats the error as "file:line: column "name": message", leaving
+// out the parts that are unknown.
 func (e *CSVError) Error() string {
 	var b strings.Builder
 	b.WriteString(e.File)
@@ -471,7 +473,8 @@ func detectSeparator(br *bufio.Reader, dec rune) (rune, error) {
 	return ',', nil // empty file: reported by the reader
 }
 
-// parseISO reads an ISO 8601 date or date-time: YYYY-MM-DD, optionally
+// parseISO reads an ISO 8601 calendar date or date-time (no week or
+// ordinal dates): YYYY-MM-DD, optionally
 // followed by 'T' or a space and hh, hh:mm, hh:mm:ss or hh:mm:ss.fff, then
 // optionally Z or a UTC offset ±hh, ±hh:mm or ±hhmm. Without a zone the
 // clock time is taken as UTC. Hour 24:00 is accepted as 00:00 of the next

@@ -308,7 +308,9 @@ func FreezingIndices(ws []Winter) []float64 {
 // coldest winters in 30 years" used for pavements (REFERENCES.md section 4
 // [read]). Records shorter than 30 winters use all they have; fewer than
 // three winters is an error. The caller should say how many winters were
-// used: a short record understates the design value.
+// used: a short record understates the design value. Design frost depths
+// are set by local codes and a licensed engineer; this index is an input
+// to their methods, not a substitute.
 func DesignFreezingIndex(indices []float64) (float64, error) {
 	if len(indices) < 3 {
 		return 0, fmt.Errorf("climate: the design freezing index needs at least 3 winters, have %d", len(indices))
