@@ -93,15 +93,20 @@ func (z ScaledMatrix) normalized() ScaledMatrix {
 }
 
 // Value returns exp(LogScale) * M. Entries overflow to infinity when
-// LogScale exceeds about 709; use the scaled form for such matrices.
+// LogScale exceeds about 709 (never NaN: zero real or imaginary parts stay
+// zero); use the scaled form for such matrices.
 func (z ScaledMatrix) Value() Matrix {
-	s := complex(math.Exp(z.LogScale), 0)
+	s := math.Exp(z.LogScale)
+	mul := func(v float64) float64 {
+		if v == 0 {
+			return 0
+		}
+		return v * s
+	}
 	var v Matrix
 	for i := range z.M {
 		for j := range z.M[i] {
-			if z.M[i][j] != 0 {
-				v[i][j] = z.M[i][j] * s
-			}
+			v[i][j] = complex(mul(real(z.M[i][j])), mul(imag(z.M[i][j])))
 		}
 	}
 	return v

@@ -73,6 +73,18 @@ type PeriodicProperties struct {
 // and DampingDepth for such columns.
 var ErrPeriodicHalfSpace = errors.New("solver: a half-space column has no inside surface; use GroundPeriodic for ground columns")
 
+// tmCheckColumn validates c and also rejects infinite surface resistances
+// (Column.Validate accepts them; the periodic solution needs finite ones).
+func tmCheckColumn(c Column) error {
+	if err := c.Validate(); err != nil {
+		return err
+	}
+	if math.IsInf(c.OutsideResistance, 0) || math.IsInf(c.InsideResistance, 0) {
+		return errors.New("solver: surface resistances must be finite")
+	}
+	return nil
+}
+
 // tmCheckPeriod reports a period that is not a finite positive number of seconds.
 func tmCheckPeriod(period float64) error {
 	if !(period > 0) || math.IsInf(period, 0) {
@@ -172,7 +184,7 @@ func tmPhaseStep(e tmElement, period float64, w complex128, yInf bool) float64 {
 // stay finite for layers of any thickness (the matrices are scaled; a
 // transmittance below about 1e-308 W/(m2 K) is returned as 0).
 func Periodic(c Column, period float64) (PeriodicProperties, error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return PeriodicProperties{}, err
 	}
 	if err := tmCheckPeriod(period); err != nil {
@@ -180,9 +192,6 @@ func Periodic(c Column, period float64) (PeriodicProperties, error) {
 	}
 	if c.HalfSpace {
 		return PeriodicProperties{}, ErrPeriodicHalfSpace
-	}
-	if math.IsInf(c.OutsideResistance, 0) || math.IsInf(c.InsideResistance, 0) {
-		return PeriodicProperties{}, errors.New("solver: surface resistances must be finite")
 	}
 	els := tmWallElements(c)
 	z, phi := tmWallMatrix(els, period)

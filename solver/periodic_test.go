@@ -455,3 +455,34 @@ func TestPeriodicErrors(t *testing.T) {
 		t.Errorf("half-space: got %v, want ErrPeriodicHalfSpace", err)
 	}
 }
+
+// TestVeryThickLayerMatrix: the scaled matrix of a layer 1e3 to 1e6
+// penetration depths thick is finite with entries of order 1 and a scale
+// of about xi (entries grow like exp(xi)/2 times lambda k or 1/(lambda k));
+// the plain matrix overflows to infinities but holds no NaN [derived].
+// (det M = exp(-2 xi) is below round-off here; det is checked on moderate
+// layers in TestDetIsOne.)
+func TestVeryThickLayerMatrix(t *testing.T) {
+	for _, xi := range []float64{1e3, 1e4, 1e6} {
+		l := tmWith(tmConcrete, xi*LayerPenetrationDepth(tmConcrete, tmDay))
+		s := LayerMatrixScaled(l, tmDay)
+		for i := range 2 {
+			for j := range 2 {
+				if v := s.M[i][j]; cmplx.IsNaN(v) || cmplx.IsInf(v) || cmplx.Abs(v) > 1+1e-12 {
+					t.Errorf("xi=%g: scaled entry %d%d = %v", xi, i, j, v)
+				}
+			}
+		}
+		if math.Abs(s.LogScale-xi) > 10 {
+			t.Errorf("xi=%g: log scale %g, want about xi", xi, s.LogScale)
+		}
+		z := LayerMatrix(l, tmDay)
+		for i := range 2 {
+			for j := range 2 {
+				if cmplx.IsNaN(z[i][j]) {
+					t.Errorf("xi=%g: LayerMatrix entry %d%d is NaN", xi, i, j)
+				}
+			}
+		}
+	}
+}

@@ -234,7 +234,7 @@ func tmPositions(c Column, x []float64) ([]float64, error) {
 // Method: ISO 13786 transfer matrices with a one-sided sweep per forced
 // side; see the comment at the top of profile.go.
 func Harmonic(c Column, period float64, outside, inside complex128, x []float64) (temp, flux []complex128, err error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return nil, nil, err
 	}
 	if err := tmCheckPeriod(period); err != nil {
@@ -311,7 +311,7 @@ func tmResistanceTo(c Column, x float64) float64 {
 // a geothermal gradient. Positions on a massless layer give the value on
 // its deeper face, as in Harmonic.
 func Steady(c Column, outside, inside float64, x []float64) (temp []float64, flux float64, err error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return nil, 0, err
 	}
 	xs, err := tmPositions(c, x)
@@ -343,7 +343,7 @@ func Steady(c Column, outside, inside float64, x []float64) (temp []float64, flu
 // InsideResistance play no part; for a half-space column x may exceed the
 // thickness. Positions on a massless layer give its deeper face.
 func SteadyWithBottomFlux(c Column, outside, qUp float64, x []float64) ([]float64, error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return nil, err
 	}
 	if math.IsNaN(qUp) || math.IsInf(qUp, 0) {
@@ -400,7 +400,7 @@ type GroundResponse struct {
 // resistance) whose continuous argument is given in closed form (see
 // tmPhaseStep); in the half-space the phase falls by (z - x0)/delta.
 func GroundPeriodic(c Column, period float64, depths []float64) (GroundResponse, error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return GroundResponse{}, err
 	}
 	if err := tmCheckPeriod(period); err != nil {
@@ -463,7 +463,7 @@ func GroundPeriodic(c Column, period float64, depths []float64) (GroundResponse,
 // homogeneous half-space with no surface resistance it is
 // lambda k = sqrt(lambda rho c omega) exp(i pi/4).
 func SurfaceAdmittance(c Column, period float64) (complex128, error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return 0, err
 	}
 	if err := tmCheckPeriod(period); err != nil {
@@ -488,7 +488,7 @@ func SurfaceAdmittance(c Column, period float64) (complex128, error) {
 // amplitude is already below threshold, and an error for a wall column or
 // non-positive threshold.
 func DampingDepth(c Column, period, surfaceAmplitude, threshold float64) (float64, error) {
-	if err := c.Validate(); err != nil {
+	if err := tmCheckColumn(c); err != nil {
 		return 0, err
 	}
 	if err := tmCheckPeriod(period); err != nil {

@@ -403,3 +403,25 @@ func TestProfileErrors(t *testing.T) {
 		t.Error("negative period: no error")
 	}
 }
+
+// TestSurfaceAdmittanceWall: for a wall SurfaceAdmittance is Y22 [derived
+// from the ISO 13786 definition], and infinite surface resistances are
+// rejected.
+func TestSurfaceAdmittanceWall(t *testing.T) {
+	c := tmTabula()
+	p, _ := Periodic(c, tmDay)
+	y, err := SurfaceAdmittance(c, tmDay)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if tmCRel(y, p.Y22) > 1e-12 {
+		t.Errorf("SurfaceAdmittance %v, Y22 %v", y, p.Y22)
+	}
+	c.OutsideResistance = math.Inf(1)
+	if _, err := SurfaceAdmittance(c, tmDay); err == nil {
+		t.Error("infinite Rse: no error")
+	}
+	if _, _, err := Harmonic(c, tmDay, 1, 0, []float64{0}); err == nil {
+		t.Error("infinite Rse: Harmonic gives no error")
+	}
+}
