@@ -93,3 +93,28 @@ func (p *fvPhase) region(h float64) int8 {
 	}
 	return 1
 }
+
+// kink returns the state (T, phi, dT/dH, k) at a kink of T(H), seen from
+// the region next (0 frozen, 1 freezing range, 2 unfrozen): at the enthalpy
+// hp (fully unfrozen at Point) when atHp, else at 0 (fully frozen at
+// Point - Range).
+func (p *fvPhase) kink(atHp bool, next int8) (t, phi, slope, k float64) {
+	if atHp {
+		t, phi, k = p.tp, 1, p.ku
+		switch {
+		case next == 2:
+			slope = 1 / p.cu
+		case !p.isoTerm:
+			slope = 1 / (p.qb + 2*p.qa*p.rng)
+		}
+		return t, phi, slope, k
+	}
+	t, phi, k = p.tl, 0, p.kf
+	switch {
+	case next == 0:
+		slope = 1 / p.cf
+	case !p.isoTerm:
+		slope = 1 / p.qb
+	}
+	return t, phi, slope, k
+}

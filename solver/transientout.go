@@ -117,16 +117,26 @@ func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
 	return T[c] + (tf-T[c])*(x-xc)/(xf-xc)
 }
 
+// frozen reports whether cell i is at or below its freezing point: some
+// ice in a freezing layer (liquid fraction below 1 - 1e-6, so that water
+// resting exactly at its freezing point does not count through round-off),
+// T <= 0 degC in another layer.
+func (r *fvRun) frozen(i int) bool {
+	if r.pidx[i] >= 0 {
+		return r.phi[i] < 1-1e-6
+	}
+	return r.T[i] <= r.thr[i]
+}
+
 // frost returns the frost depth and the thaw depth (m) of the current
-// state; tso is the outside surface temperature.
+// state; tso is the outside surface temperature. In a layer with
+// isothermal freezing the front is placed inside its cell by the frozen
+// fraction (the ice assumed on the cold side, as in enthalpy
+// front tracking); elsewhere the freezing-point isotherm is interpolated
+// linearly between cell centres (or the surface).
 func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 	m, T, n, thr := r.m, r.T, r.n, r.thr
-	mushy := func(i int) (phi float64, ok bool) {
-		if k := r.pidx[i]; k >= 0 && r.phases[k].isoTerm && r.phi[i] > 0 && r.phi[i] < 1 {
-			return r.phi[i], true
-		}
-		return 0, false
-	}
+	iso := func(i int) bool { k := r.pidx[i]; return k >= 0 && r.phases[k].isoTerm }
 	cross := func(x0, t0, x1, t1, th float64) float64 {
 		if t1 == t0 {
 			return x0
@@ -135,41 +145,41 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 	}
 	deep := -1
 	for i := n - 1; i >= 0; i-- {
-		if T[i] <= thr[i] {
+		if r.frozen(i) {
 			deep = i
 			break
 		}
 	}
 	switch {
 	case deep < 0:
-		if tso <= thr[0] {
+		if tso < thr[0] {
 			frost = cross(0, tso, m.Centers[0], T[0], thr[0])
 		}
+	case iso(deep):
+		frost = m.Faces[deep] + (1-r.phi[deep])*r.h[deep]
 	case deep == n-1:
-		if phi, ok := mushy(deep); ok {
-			frost = m.Faces[deep] + (1-phi)*r.h[deep]
-		} else {
-			frost = m.Faces[n]
-		}
+		frost = m.Faces[n]
+	case iso(deep + 1):
+		frost = m.Faces[deep+1]
 	default:
-		if phi, ok := mushy(deep); ok {
-			frost = m.Faces[deep] + (1-phi)*r.h[deep]
-		} else {
-			frost = cross(m.Centers[deep], T[deep], m.Centers[deep+1], T[deep+1], thr[deep])
-		}
+		frost = cross(m.Centers[deep], T[deep], m.Centers[deep+1], T[deep+1], thr[deep])
 	}
 	if deep < 0 || tso <= thr[0] {
 		return frost, 0
 	}
 	top := 0
-	for top < n && T[top] > thr[top] {
+	for top < n && !r.frozen(top) {
 		top++
 	}
-	if phi, ok := mushy(top); ok {
-		return frost, m.Faces[top] + phi*r.h[top]
+	switch {
+	case iso(top):
+		thaw = m.Faces[top] + r.phi[top]*r.h[top]
+	case top == 0:
+		thaw = cross(0, tso, m.Centers[0], T[0], thr[0])
+	case iso(top - 1):
+		thaw = m.Faces[top]
+	default:
+		thaw = cross(m.Centers[top-1], T[top-1], m.Centers[top], T[top], thr[top])
 	}
-	if top == 0 {
-		return frost, cross(0, tso, m.Centers[0], T[0], thr[0])
-	}
-	return frost, cross(m.Centers[top-1], T[top-1], m.Centers[top], T[top], thr[top])
+	return frost, thaw
 }

@@ -108,6 +108,7 @@ type fvRun struct {
 
 	// workspace
 	tn, rhs, lo, di, up, w, tlin, hrhs, hn, hold []float64
+	reg, nclip                                   []int8
 	fac                                          fvSymTridiag
 	facTh                                        float64
 
@@ -205,6 +206,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	r.T, r.H, r.phi, r.slope, r.T0, r.H0 = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.tn, r.rhs, r.lo, r.di, r.up, r.w = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
+	r.reg, r.nclip = make([]int8, n), make([]int8, n)
 
 	// Initial state.
 	switch {
@@ -603,18 +605,29 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 // implicit solves h_i (H_i - hrhs_i) = th F_i(T(H)) for H, where F_i is
 // the net inflow of cell i with the boundary values vo, vi, starting from
 // the current state. Each iteration linearises T(H) around the current
-// enthalpy (slope dT/dH of the current phase region, or the secant when
-// the last iteration crossed a region boundary), solves the tridiagonal
-// system for the enthalpy change, and then sets the enthalpy from the
-// conservative update H_i = hrhs_i + th/h_i F_i(T_lin) with the linearised
-// temperatures, so that the heat balance of every iteration is exact. It
-// returns the surface inflows of that update.
+// enthalpy with the slope dT/dH of the current phase region (Newton on the
+// enthalpy), solves the tridiagonal system for the enthalpy change, and
+// then sets the enthalpy from the conservative update
+// H_i = hrhs_i + th/h_i F_i(T_lin) with the linearised temperatures. A
+// cell whose update crosses a kink of T(H) (the ends of the freezing
+// range) is stopped on the kink and linearised in the region beyond it in
+// the next iteration, which makes the iteration converge where plain Newton
+// would cycle across the kink; the iteration ends only on an unclipped,
+// conservative update, so the energy balance of every accepted stage is
+// exact to round-off. It returns the surface inflows of that update.
 func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	n := r.n
 	H, T, s, kc := r.H[:n], r.T[:n], r.slope[:n], r.kc[:n]
 	h, invh, hrhs, tlin, hold := r.h[:n], r.invh[:n], r.hrhs[:n], r.tlin[:n], r.hold[:n]
 	lo, di, up, res, w := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n]
+	reg, nclip := r.reg[:n], r.nclip[:n]
 	gg := r.gg
+	for i := 0; i < n; i++ {
+		if k := r.pidx[i]; k >= 0 {
+			reg[i] = r.phases[k].region(H[i])
+		}
+		nclip[i] = 0
+	}
 	for it := 0; ; it++ {
 		r.iterations++
 		// Residual R_i = h_i (hrhs_i - H_i) + th F_i(T) and Jacobian in H.
@@ -640,40 +653,54 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		}
 		// Conservative update from the linearised temperatures.
 		qo, qi = r.netFlux(tlin, vo, vi, res)
+		last := it+1 >= fvMaxIter
 		errT, dk := 0.0, 0.0
+		clipped := false
 		for i := 0; i < n; i++ {
 			hold[i] = H[i]
 			H[i] = hrhs[i] + th*invh[i]*res[i]
-			if r.pidx[i] < 0 {
+			k := r.pidx[i]
+			if k < 0 {
 				T[i] = H[i] / r.cvol[i]
 				errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
 				continue
 			}
-			ph := &r.phases[r.pidx[i]]
-			told, kold := T[i], kc[i]
-			r.updateCell(i)
+			ph := &r.phases[k]
+			kold := kc[i]
+			rn := ph.region(H[i])
+			if rn != reg[i] && nclip[i] < 4 && !last {
+				// Stop on the first kink crossed; continue beyond it.
+				next := reg[i] + 1
+				if rn < reg[i] {
+					next = reg[i] - 1
+				}
+				atHp := (rn > reg[i] && reg[i] == 1) || (rn < reg[i] && reg[i] == 2)
+				H[i] = 0
+				if atHp {
+					H[i] = ph.hp
+				}
+				T[i], r.phi[i], s[i], kc[i] = ph.kink(atHp, next)
+				r.rh[i] = h[i] / (2 * kc[i])
+				reg[i] = next
+				nclip[i]++
+				clipped = true
+			} else {
+				r.updateCell(i)
+				reg[i] = rn
+			}
 			errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
 			if kc[i] != kold {
 				dk = math.Max(dk, math.Abs(kc[i]-kold)/kc[i])
-			}
-			if ph.region(H[i]) != ph.region(hold[i]) && H[i] != hold[i] {
-				// Secant slope across the region boundary.
-				s[i] = (T[i] - told) / (H[i] - hold[i])
 			}
 		}
 		if dk > 0 {
 			r.updateConductances()
 		}
-		if errT <= fvTolT && dk <= fvTolK {
+		if !clipped && errT <= fvTolT && dk <= fvTolK {
 			return qo, qi
 		}
-		if it+1 >= fvMaxIter {
+		if last {
 			r.unconverged++
-			// Leave a consistent state for the next stage.
-			for i := 0; i < n; i++ {
-				r.updateCell(i)
-			}
-			r.updateConductances()
 			return qo, qi
 		}
 	}
