@@ -1,0 +1,109 @@
+/* tempstack report: trusted chart functions and chart start-up. Part of the
+   tempstack source; every function a chart option may call is defined in
+   TSFN here, and nothing in a chart option is turned into code except a
+   reference to one of them. */
+var TSFN = (function () {
+  'use strict';
+  function trim(s) {
+    return s.indexOf('.') >= 0 ? s.replace(/0+$/, '').replace(/\.$/, '') : s;
+  }
+  function minus(s) { return s.replace('-', '\u2212'); }
+  function fixed(v, d) {
+    var s = v.toFixed(d);
+    if (/^-0(\.0*)?$/.test(s)) { s = s.slice(1); }
+    return minus(s);
+  }
+  function seconds(v) {
+    var a = Math.abs(v);
+    if (a < 120) { return minus(trim(v.toPrecision(3))) + '\u00a0s'; }
+    if (a < 7200) { return fixed(v / 60, 1) + '\u00a0min'; }
+    if (a < 172800) { return fixed(v / 3600, 1) + '\u00a0h'; }
+    return fixed(v / 86400, 1) + '\u00a0d';
+  }
+  // Units of tooltip values; the keys are the unit codes in the series ids.
+  var UNIT = {
+    degC: function (v) { return fixed(v, 1) + '\u00a0\u00b0C'; },
+    wm2: function (v) { return fixed(v, 1) + '\u00a0W/m\u00b2'; },
+    ratio: function (v) {
+      var a = Math.abs(v);
+      return (a === 0 || a >= 1e-3) ? minus(trim(v.toPrecision(3))) : minus(v.toExponential(2));
+    },
+    h: function (v) { return minus(trim(v.toFixed(2))) + '\u00a0h'; },
+    d: function (v) { return minus(trim(v.toFixed(2))) + '\u00a0d'; },
+    mm: function (v) { return minus(trim(v.toFixed(1))) + '\u00a0mm'; },
+    m: function (v) { return fixed(v, 2) + '\u00a0m'; },
+    s: seconds
+  };
+  function fmt(unit, v) {
+    if (typeof v !== 'number' || !isFinite(v)) { return '\u2013'; }
+    var f = UNIT[unit];
+    return f ? f(v) : String(v);
+  }
+  function esc(s) {
+    return String(s).replace(/[&<>"']/g, function (c) {
+      return {'&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;'}[c];
+    });
+  }
+  // Series ids are "xUnit;yUnit;index", set by the report generator.
+  function units(p) {
+    var u = String(p.seriesId || '').split(';');
+    return {x: u[0], y: u[1]};
+  }
+  // Axis tooltip: the axis value as a heading, then one line per series
+  // with its unit. along is the axis the pointer follows ('x' or 'y').
+  function tip(along) {
+    return function (params) {
+      if (!Array.isArray(params)) { params = [params]; }
+      var head = '', rows = [];
+      params.forEach(function (p) {
+        if (p.seriesType === 'custom') { return; }
+        var u = units(p), v = Array.isArray(p.value) ? p.value : [NaN, NaN];
+        if (!head) { head = fmt(along === 'y' ? u.y : u.x, Number(p.axisValue)); }
+        var val = along === 'y' ? v[0] : v[1];
+        rows.push(p.marker + esc(p.seriesName) + ': <b>' + esc(fmt(along === 'y' ? u.x : u.y, val)) + '</b>');
+      });
+      return '<div style="margin-bottom:2px;color:#57606a">' + esc(head) + '</div>' + rows.join('<br>');
+    };
+  }
+  // renderItem of the min/max band: each data item holds the four corners
+  // (x, y) of one quadrilateral of the band.
+  function band(params, api) {
+    var pts = [];
+    for (var k = 0; k < 4; k++) {
+      var x = api.value(2 * k), y = api.value(2 * k + 1);
+      if (!isFinite(x) || !isFinite(y)) { return null; }
+      pts.push(api.coord([x, y]));
+    }
+    var fill = api.visual('color');
+    return {
+      type: 'polygon',
+      shape: {points: pts},
+      style: {fill: fill, stroke: fill, lineWidth: 0.6}
+    };
+  }
+  return {tipX: tip('x'), tipY: tip('y'), band: band};
+}());
+
+// tsStart draws every chart into its fixed-size box and redraws them at
+// print size while the page is printed.
+function tsStart(list) {
+  'use strict';
+  if (typeof echarts === 'undefined') { return; }
+  var drawn = [];
+  list.forEach(function (c) {
+    var el = document.getElementById(c.id);
+    if (!el) { return; }
+    var chart = echarts.init(el, null, {renderer: 'canvas'});
+    chart.setOption(c.option);
+    drawn.push(chart);
+  });
+  function toPrint() { drawn.forEach(function (c) { c.resize({width: 680, height: 340}); }); }
+  function toScreen() { drawn.forEach(function (c) { c.resize({width: 'auto', height: 'auto'}); }); }
+  window.addEventListener('beforeprint', toPrint);
+  window.addEventListener('afterprint', toScreen);
+  if (window.matchMedia) {
+    var mq = window.matchMedia('print');
+    var onChange = function (e) { if (e.matches) { toPrint(); } else { toScreen(); } };
+    if (mq.addEventListener) { mq.addEventListener('change', onChange); } else if (mq.addListener) { mq.addListener(onChange); }
+  }
+}

@@ -1,0 +1,394 @@
+package charts
+
+import (
+	"fmt"
+
+	ec "github.com/go-echarts/go-echarts/v2/charts"
+	"github.com/go-echarts/go-echarts/v2/opts"
+
+	"tempstack/scenarios"
+)
+
+// Every chart below is built with go-echarts (ec.Line plus, where a
+// min/max band is drawn, one custom series appended to it); none is built
+// as a plain map.
+
+// finish validates the chart and packs it with its id and caption.
+func finish(c *ec.Line, id, caption string, thinned bool) (*chartSpec, error) {
+	o, err := chartOption(c)
+	if err != nil {
+		return nil, err
+	}
+	s := &chartSpec{ID: id, Caption: caption, option: o}
+	if thinned {
+		s.Note = fmt.Sprintf("Long series are drawn with at most %d points per line (the lowest and highest value of each interval are kept); the tables use every value.", maxPoints+2)
+	}
+	return s, nil
+}
+
+// labels names the two sides for the kind of results.
+type sideNames struct {
+	env, outSurf, inSurf, inAir, flux string
+}
+
+func sides(kind string) sideNames {
+	if kind == "ground" {
+		return sideNames{"Surface environment", "Ground surface", "Bottom of the column", "Below the column", "Heat flux at the bottom (+ = downward)"}
+	}
+	return sideNames{"Outside environment", "Outside surface", "Inside surface", "Inside air", "Heat flux into the room"}
+}
+
+// cycleChart: one period of the exact periodic steady state, temperatures
+// on the left axis and the inside heat flux on the right axis.
+func cycleChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.CycleTime_h) == 0 {
+		return nil, nil
+	}
+	span := maxOf(s.CycleTime_h)
+	f, xu, xl := timeAxis(span)
+	period := span
+	if len(r.Periodic) > 0 && finite(r.Periodic[0].Period_h) && r.Periodic[0].Period_h > 0 {
+		period = r.Periodic[0].Period_h
+	}
+	n := sides(r.Kind)
+	c := newChart(idCycle, "One "+periodLabel(period)+" cycle of the periodic steady state", "tipX", 56)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time in the cycle ("+xl+")", " "+xl, 0, num(span*f), false)),
+		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
+	)
+	flux := valueAxisY("Heat flux (W/m²)", "", false)
+	flux.SplitLine = &opts.SplitLine{Show: opts.Bool(false)}
+	c.ExtendYAxis(flux)
+	t := scaled(s.CycleTime_h, f)
+	thinned := false
+	for _, l := range []line{
+		{name: n.env, y: s.CycleOutsideAir_C, color: colVermilion},
+		{name: n.outSurf, y: s.CycleOutsideSurface_C, color: colOrange},
+		{name: n.inSurf, y: s.CycleInsideSurface_C, color: colBlue},
+		{name: n.inAir, y: s.CycleInsideAir_C, color: colSky, dash: "dashed"},
+		{name: n.flux, y: s.CycleInsideFlux_W_m2, color: colPurple, dash: "dotted", yAxis: 1, yUnit: uFlux},
+	} {
+		if len(l.y) == 0 {
+			continue
+		}
+		l.x, l.xUnit = t, xu
+		if l.yUnit == "" {
+			l.yUnit = uDegC
+		}
+		thinned = addLine(c, l) || thinned
+	}
+	caption := "Exact periodic solution over one period of the first analysis period. Temperatures on the left axis; the heat flux (dotted, right axis) is positive into the room."
+	if r.Kind == "ground" {
+		caption = "Exact periodic solution over one period. Temperatures on the left axis; the heat flux at the bottom (dotted, right axis) is positive downward."
+	}
+	return finish(c, idCycle, caption, thinned)
+}
+
+// envelopeChart: minimum, mean and maximum temperature of the periodic
+// state against position through a wall, layer boundaries marked.
+func envelopeChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.ProfilePosition_m) == 0 {
+		return nil, nil
+	}
+	x := scaled(s.ProfilePosition_m, 1000)
+	title := "Temperature range through the construction"
+	if len(r.Periodic) > 0 {
+		title += " (" + periodLabel(r.Periodic[0].Period_h) + " cycle)"
+	}
+	c := newChart(idEnvelope, title, "tipX", 56)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Position from the outside surface (mm)", " mm", num(minOf(x)), num(maxOf(x)), false)),
+		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
+	)
+	addBand(c, "Range (min–max)", x, s.ProfileMin_C, s.ProfileMax_C, false)
+	thinned := addLine(c, line{name: "Maximum", x: x, y: s.ProfileMax_C, xUnit: uMM, yUnit: uDegC, color: colVermilion})
+	thinned = addLine(c, line{name: "Mean", x: x, y: s.ProfileMean_C, xUnit: uMM, yUnit: uDegC, color: colBlack, width: 1.5, dash: "dashed",
+		opts: layerMarks(r, false)}) || thinned
+	thinned = addLine(c, line{name: "Minimum", x: x, y: s.ProfileMin_C, xUnit: uMM, yUnit: uDegC, color: colBlue}) || thinned
+	return finish(c, idEnvelope, "Lowest, mean and highest temperature reached at each position during the cycle (exact periodic solution). Dashed vertical lines are layer boundaries; outside on the left, inside on the right.", thinned)
+}
+
+// layerMarks marks layer boundaries (markLines) and names the layers
+// (markAreas) in a profile chart. depthDown selects horizontal lines in
+// metres for a depth-down chart; otherwise vertical lines in millimetres.
+func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
+	b := r.Series.Interfaces_m
+	if len(b) == 0 {
+		return nil
+	}
+	style := ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+		Symbol:    []string{"none", "none"},
+		LineStyle: &opts.LineStyle{Color: colGrey, Width: 1, Type: "dashed"},
+		Label:     &opts.Label{Show: opts.Bool(false)},
+	})
+	var so []ec.SeriesOpts
+	if depthDown {
+		var items []opts.MarkLineNameYAxisItem
+		for _, z := range b {
+			if v := num(z); v != nil {
+				items = append(items, opts.MarkLineNameYAxisItem{Name: "layer boundary", YAxis: v})
+			}
+		}
+		so = append(so, ec.WithMarkLineNameYAxisItemOpts(items...), style)
+		return so
+	}
+	var items []opts.MarkLineNameXAxisItem
+	for _, x := range b {
+		if v := num(x * 1000); v != nil {
+			items = append(items, opts.MarkLineNameXAxisItem{Name: "layer boundary", XAxis: v})
+		}
+	}
+	so = append(so, ec.WithMarkLineNameXAxisItemOpts(items...), style)
+	// Name the layers when the boundaries match them one to one.
+	if len(b) == len(r.Layers)+1 {
+		var areas [][]opts.MarkAreaData
+		for i, l := range r.Layers {
+			x0, x1 := num(b[i]*1000), num(b[i+1]*1000)
+			if x0 == nil || x1 == nil {
+				continue
+			}
+			fill := "rgba(0,0,0,0)"
+			if i%2 == 1 {
+				fill = "rgba(107,107,107,0.07)"
+			}
+			areas = append(areas, []opts.MarkAreaData{
+				{Name: l.Name, XAxis: x0, MarkAreaStyle: opts.MarkAreaStyle{
+					ItemStyle: &opts.ItemStyle{Color: fill},
+					Label:     &opts.Label{Show: opts.Bool(true), Position: "insideTop", Color: colGrey, FontSize: 11},
+				}},
+				{XAxis: x1},
+			})
+		}
+		so = append(so, ec.WithMarkAreaData(areas...))
+	}
+	return so
+}
+
+// responseChart: decrement factor and time shift against period (log
+// axis), with the day, week and year marked.
+func responseChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.ResponsePeriod_h) == 0 {
+		return nil, nil
+	}
+	p := make([]float64, len(s.ResponsePeriod_h))
+	for i, v := range s.ResponsePeriod_h {
+		p[i] = v
+		if !(v > 0) {
+			p[i] = nan // a log axis has no place for 0 or less
+		}
+	}
+	c := newChart(idResponse, "Decrement factor and time shift against period", "tipX", 56)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Period (h, logarithmic)", " h", num(minOf(p)), num(maxOf(p)), true)),
+		ec.WithYAxisOpts(opts.YAxis{Type: "value", Name: "Decrement factor f", NameLocation: "middle", NameGap: 50,
+			Min: 0, SplitLine: splitLine()}),
+	)
+	shift := valueAxisY("Time shift (h)", " h", false)
+	shift.Scale = opts.Bool(false)
+	shift.Min = 0
+	shift.SplitLine = &opts.SplitLine{Show: opts.Bool(false)}
+	c.ExtendYAxis(shift)
+	var marks []opts.MarkLineNameXAxisItem
+	lo, hi := minOf(p), maxOf(p)
+	for _, m := range []struct {
+		name string
+		h    float64
+	}{{"day", 24}, {"week", 168}, {"year", 8760}} {
+		if m.h >= lo && m.h <= hi {
+			marks = append(marks, opts.MarkLineNameXAxisItem{Name: m.name, XAxis: m.h})
+		}
+	}
+	thinned := addLine(c, line{name: "Decrement factor f = |Y₁₂|/U", x: p, y: s.ResponseDecrement, xUnit: uHour, yUnit: uRatio, color: colBlue,
+		opts: []ec.SeriesOpts{
+			ec.WithMarkLineNameXAxisItemOpts(marks...),
+			ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+				Symbol:    []string{"none", "none"},
+				LineStyle: &opts.LineStyle{Color: colGrey, Width: 1, Type: "dotted"},
+				Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Color: colGrey, Position: "end"},
+			}),
+		}})
+	thinned = addLine(c, line{name: "Time shift", x: p, y: s.ResponseTimeShift_h, xUnit: uHour, yUnit: uHour, color: colVermilion, dash: "dashed", yAxis: 1}) || thinned
+	return finish(c, idResponse, "Exact periodic solution for periods from one hour to one year. The decrement factor (left axis) is the heat-flux swing into the room relative to a massless wall with the same U-value; the time shift (dashed, right axis) is how long that swing lags the outside temperature, counted across whole periods.", thinned)
+}
+
+// probeName labels a probe by its position.
+func probeName(kind string, z float64) string {
+	if kind == "ground" {
+		return "At " + fixed(z, 2) + " m depth"
+	}
+	return "At " + sig(z*1000, 3) + " mm"
+}
+
+// simTempChart: simulated temperatures against time at the surfaces and
+// the probes, with a zoom slider.
+func simTempChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.SimTime_h) == 0 {
+		return nil, nil
+	}
+	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
+	t := scaled(s.SimTime_h, f)
+	n := sides(r.Kind)
+	c := newChart(idSimTemp, "Simulated temperatures", "tipX", 96)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time ("+xl+")", " "+xl, num(minOf(t)), num(maxOf(t)), false)),
+		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
+		ec.WithDataZoomOpts(opts.DataZoom{Type: "slider", XAxisIndex: 0, Start: 0, End: 100}, opts.DataZoom{Type: "inside", XAxisIndex: 0}),
+	)
+	ls := []line{
+		{name: n.env, y: s.SimOutsideAir_C, color: colVermilion, width: 1.2},
+		{name: n.outSurf, y: s.SimOutsideSurface_C, color: colOrange, width: 1.5},
+	}
+	probeCols := []string{colGreen, colSky, colPurple, colBlack, colYellow, colGrey}
+	for i, z := range s.ProbeDepth_m {
+		if i >= len(s.Probes_C) {
+			break
+		}
+		ls = append(ls, line{name: probeName(r.Kind, z), y: s.Probes_C[i], color: probeCols[i%len(probeCols)], width: 1.5, dash: []string{"", "dashed"}[i/len(probeCols)%2]})
+	}
+	ls = append(ls, line{name: n.inSurf, y: s.SimInsideSurface_C, color: colBlue, width: 1.5})
+	thinned := false
+	for _, l := range ls {
+		if len(l.y) == 0 {
+			continue
+		}
+		l.x, l.xUnit, l.yUnit = t, xu, uDegC
+		thinned = addLine(c, l) || thinned
+	}
+	return finish(c, idSimTemp, "Transient finite-volume simulation. Drag the slider or scroll inside the chart to zoom in time; click a legend entry to hide a line.", thinned)
+}
+
+// simFluxChart: simulated heat flux at both surfaces against time.
+func simFluxChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.SimTime_h) == 0 || (len(s.SimOutsideFlux_W_m2) == 0 && len(s.SimInsideFlux_W_m2) == 0) {
+		return nil, nil
+	}
+	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
+	t := scaled(s.SimTime_h, f)
+	n := sides(r.Kind)
+	dir := "inward"
+	if r.Kind == "ground" {
+		dir = "downward"
+	}
+	c := newChart(idSimFlux, "Simulated heat flux at both surfaces", "tipX", 96)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time ("+xl+")", " "+xl, num(minOf(t)), num(maxOf(t)), false)),
+		ec.WithYAxisOpts(valueAxisY("Heat flux (W/m², + = "+dir+")", "", false)),
+		ec.WithDataZoomOpts(opts.DataZoom{Type: "slider", XAxisIndex: 0, Start: 0, End: 100}, opts.DataZoom{Type: "inside", XAxisIndex: 0}),
+	)
+	thinned := false
+	for _, l := range []line{
+		{name: n.outSurf, y: s.SimOutsideFlux_W_m2, color: colOrange, width: 1.5},
+		{name: n.inSurf, y: s.SimInsideFlux_W_m2, color: colBlue, width: 1.5},
+	} {
+		if len(l.y) == 0 {
+			continue
+		}
+		l.x, l.xUnit, l.yUnit = t, xu, uFlux
+		thinned = addLine(c, l) || thinned
+	}
+	return finish(c, idSimFlux, "Heat flux entering the construction at the outside surface and leaving it at the inside surface, both counted positive "+dir+". Their difference is the heat being stored.", thinned)
+}
+
+// groundEnvelopeChart: temperature envelope against depth, depth axis
+// pointing down. The simulated envelope (last simulated year, with latent
+// heat) is drawn when present; the exact periodic envelope otherwise, or
+// as thin dashed lines beside it.
+func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	simOK := len(s.SimProfilePosition_m) > 0
+	exactOK := len(s.ProfilePosition_m) > 0
+	if !simOK && !exactOK {
+		return nil, nil
+	}
+	c := newChart(idGroundEnvelope, "Ground temperature envelope against depth", "tipY", 56)
+	x := valueAxisX("Temperature (°C)", " °C", nil, nil, false)
+	x.Scale = opts.Bool(true)
+	y := valueAxisY("Depth (m)", " m", true)
+	y.Scale = opts.Bool(false)
+	y.Min = 0
+	c.SetGlobalOptions(ec.WithXAxisOpts(x), ec.WithYAxisOpts(y))
+	pos, lo, mid, hi := s.ProfilePosition_m, s.ProfileMin_C, s.ProfileMean_C, s.ProfileMax_C
+	what := "exact periodic solution"
+	if simOK {
+		pos, lo, mid, hi = s.SimProfilePosition_m, s.SimProfileMin_C, s.SimProfileMean_C, s.SimProfileMax_C
+		what = "simulation, last simulated year, latent heat included"
+	}
+	addBand(c, "Range (min–max)", pos, lo, hi, true)
+	marks := layerMarks(r, true)
+	zero := []opts.MarkLineNameXAxisItem{{Name: "0 °C", XAxis: 0}}
+	marks = append(marks, ec.WithMarkLineNameXAxisItemOpts(zero...))
+	if r.Frost != nil && finite(r.Frost.MaxFrostDepth_m) && r.Frost.MaxFrostDepth_m > 0 {
+		marks = append(marks, ec.WithMarkLineNameYAxisItemOpts(opts.MarkLineNameYAxisItem{Name: "simulated max frost depth", YAxis: num(r.Frost.MaxFrostDepth_m)}))
+	}
+	thinned := addLine(c, line{name: "Highest", x: hi, y: pos, xUnit: uDegC, yUnit: uM, color: colVermilion})
+	thinned = addLine(c, line{name: "Mean", x: mid, y: pos, xUnit: uDegC, yUnit: uM, color: colBlack, width: 1.5, dash: "dashed", opts: marks}) || thinned
+	thinned = addLine(c, line{name: "Lowest", x: lo, y: pos, xUnit: uDegC, yUnit: uM, color: colBlue}) || thinned
+	if simOK && exactOK {
+		thinned = addLine(c, line{name: "Highest, exact periodic", x: s.ProfileMax_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colVermilion, width: 1, dash: "dotted"}) || thinned
+		thinned = addLine(c, line{name: "Lowest, exact periodic", x: s.ProfileMin_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colBlue, width: 1, dash: "dotted"}) || thinned
+	}
+	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward. Dashed lines: layer boundaries, 0 °C and the simulated maximum frost depth.", thinned)
+}
+
+// frostChart: frost depth and thaw depth against time, depth pointing
+// down.
+func frostChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.SimTime_h) == 0 || (len(s.FrostDepth_m) == 0 && len(s.ThawDepth_m) == 0) {
+		return nil, nil
+	}
+	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
+	t := scaled(s.SimTime_h, f)
+	c := newChart(idFrost, "Frost depth and thaw depth against time", "tipX", 96)
+	y := valueAxisY("Depth (m)", " m", true)
+	y.Scale = opts.Bool(false)
+	y.Min = 0
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time ("+xl+")", " "+xl, num(minOf(t)), num(maxOf(t)), false)),
+		ec.WithYAxisOpts(y),
+		ec.WithDataZoomOpts(opts.DataZoom{Type: "slider", XAxisIndex: 0, Start: 0, End: 100}, opts.DataZoom{Type: "inside", XAxisIndex: 0}),
+	)
+	thinned := false
+	for _, l := range []line{
+		{name: "Frost depth (deepest frozen point)", y: s.FrostDepth_m, color: colBlue, area: true},
+		{name: "Thaw depth (thawed from the surface)", y: s.ThawDepth_m, color: colOrange, area: true},
+	} {
+		if len(l.y) == 0 {
+			continue
+		}
+		l.x, l.xUnit, l.yUnit = t, xu, uM
+		thinned = addLine(c, l) || thinned
+	}
+	return finish(c, idFrost, "Simulated depth of the freezing front (deepest point at or below the freezing point) and of the thaw front moving down from the surface in a frozen column. Depth increases downward.", thinned)
+}
+
+// stepChart: surface heat flux after a step change of the surface
+// temperature, numerical against the half-space closed form, log time.
+func stepChart(r *scenarios.Results) (*chartSpec, error) {
+	s := r.Series
+	if len(s.StepTime_s) == 0 {
+		return nil, nil
+	}
+	t := make([]float64, len(s.StepTime_s))
+	for i, v := range s.StepTime_s {
+		t[i] = v
+		if !(v > 0) {
+			t[i] = nan
+		}
+	}
+	c := newChart(idStep, "Step response of the outside surface", "tipX", 56)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time after the step (s, logarithmic)", " s", num(minOf(t)), num(maxOf(t)), true)),
+		ec.WithYAxisOpts(valueAxisY("Surface heat flux (W/m²)", "", false)),
+	)
+	thinned := addLine(c, line{name: "Simulated", x: t, y: s.StepFlux_W_m2, xUnit: uSec, yUnit: uFlux, color: colBlue})
+	if len(s.StepFluxHalfSpace_W_m2) > 0 {
+		thinned = addLine(c, line{name: "Half-space closed form", x: t, y: s.StepFluxHalfSpace_W_m2, xUnit: uSec, yUnit: uFlux, color: colVermilion, dash: "dashed"}) || thinned
+	}
+	return finish(c, idStep, "Heat flux through the outside surface after a sudden change of its temperature. The closed form treats the first layer as a semi-infinite solid, q = λ ΔT / √(π a t); the two curves part once the heat reaches the next layer.", thinned)
+}

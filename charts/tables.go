@@ -1,0 +1,330 @@
+package charts
+
+import (
+	"fmt"
+	"math"
+
+	"tempstack/scenarios"
+)
+
+// newTable returns a table whose first column is text and the rest
+// numbers, unless align says otherwise.
+func newTable(caption string, head []string, align ...string) *table {
+	a := make([]string, len(head))
+	for i := range a {
+		a[i] = "num"
+		if i < len(align) && align[i] != "" {
+			a[i] = align[i]
+		}
+	}
+	return &table{Caption: caption, Head: head, Align: a}
+}
+
+// row appends a row, padded or cut to the number of columns.
+func (t *table) row(cells ...string) {
+	r := make([]string, len(t.Head))
+	copy(r, cells)
+	for i := range r {
+		if r[i] == "" {
+			r[i] = dash
+		}
+	}
+	t.Rows = append(t.Rows, r)
+}
+
+// pos formats a positive material property; zero or less means "not
+// given" and prints a dash.
+func pos(v float64, n int) string {
+	if !(v > 0) || !finite(v) {
+		return dash
+	}
+	return sig(v, n)
+}
+
+// component names what the results describe, for sentences.
+func component(r *scenarios.Results) string {
+	switch r.Orientation {
+	case "roof", "floor", "wall":
+		return r.Orientation
+	}
+	return "wall"
+}
+
+// summary writes the plain-words summary at the top of the report.
+func summary(r *scenarios.Results) []string {
+	var out []string
+	if r.Kind == "ground" {
+		if f := r.Frost; f != nil {
+			out = append(out, fmt.Sprintf("With a surface freezing index of %s °C·d, the simulated frost reaches %s m below the surface. The Stefan estimate is %s m and the modified Berggren estimate %s m.",
+				fixed(f.FreezingIndex_Cd, 0), fixed(f.MaxFrostDepth_m, 2), fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2)))
+		}
+		if sim := r.Simulation; sim != nil {
+			for i, p := range sim.Probes {
+				if i == 3 {
+					break
+				}
+				out = append(out, fmt.Sprintf("At %s m depth the simulated ground temperature ranges from %s to %s (mean %s).",
+					fixed(p.Depth_m, 2), degC(p.Min_C), degC(p.Max_C), degC(p.Mean_C)))
+			}
+		}
+		out = append(out, "These are estimates for planning only: the design frost depth is set by local codes and a licensed geotechnical engineer, and measured local frost depths govern.")
+		return out
+	}
+	if len(r.Periodic) == 0 {
+		return []string{"These results hold no periodic analysis."}
+	}
+	p := r.Periodic[0]
+	comp := component(r)
+	out = append(out, fmt.Sprintf("Over a %s cycle, the swing of the heat flow into the room is %s of the swing that a %s with the same U-value but no thermal mass would pass (decrement factor f = |Y₁₂|/U = %s, ISO 13786), and it peaks %s after the outside temperature (time shift).",
+		periodLabel(p.Period_h), percent(p.DecrementFactor), comp, sig(p.DecrementFactor, 3), hours(p.TimeShift_h)))
+	if u := p.TimeShiftUnwrapped_h; finite(u) && finite(p.Period_h) && u >= p.Period_h {
+		out[0] += fmt.Sprintf(" The temperature wave takes %s to cross the %s, more than one period.", hours(u), comp)
+	}
+	out = append(out, fmt.Sprintf("Steady U-value %s W/(m²·K); thermal resistance %s m²·K/W surface to surface.",
+		sig(r.Steady.UValue_W_m2K, 3), sig(r.Steady.ThermalResistance_m2K_W, 3)))
+	s := r.Series
+	if len(s.CycleOutsideAir_C) > 0 && len(s.CycleInsideSurface_C) > 0 {
+		out_ := maxOf(s.CycleOutsideAir_C) - minOf(s.CycleOutsideAir_C)
+		in := maxOf(s.CycleInsideSurface_C) - minOf(s.CycleInsideSurface_C)
+		if finite(out_) && finite(in) {
+			out = append(out, fmt.Sprintf("In the cycle shown below the outside environment temperature ranges over %s K and the inside surface temperature over %s K; that ratio of temperature swings is a different quantity from the decrement factor.",
+				fixed(out_, 1), fixed(in, 1)))
+		}
+	}
+	return out
+}
+
+// layerTable lists the layers, outside (or surface) first.
+func layerTable(r *scenarios.Results) *table {
+	ground := r.Kind == "ground"
+	thick, depth := "Thickness (mm)", "Penetration depth δ (mm)"
+	f := 1000.0
+	if ground {
+		thick, depth, f = "Thickness (m)", "Penetration depth δ (m)", 1
+	}
+	caption := "Layers, outside first"
+	if ground {
+		caption = "Layers, from the surface down"
+	}
+	if len(r.Periodic) > 0 {
+		depth += " at " + periodLabel(r.Periodic[0].Period_h)
+	}
+	t := newTable(caption, []string{"#", "Layer", "Material", thick, "λ (W/(m·K))", "ρ (kg/m³)", "c (J/(kg·K))", "R (m²·K/W)", depth, "Source"},
+		"num", "text", "text", "", "", "", "", "", "", "text")
+	total := 0.0
+	for i, l := range r.Layers {
+		th := dash
+		if l.Thickness_m > 0 && finite(l.Thickness_m) {
+			th = sig(l.Thickness_m*f, 4)
+			total += l.Thickness_m
+		}
+		name := l.Name
+		if name == "" {
+			name = l.Material
+		}
+		pd := dash
+		if l.PenetrationDepth_m > 0 && finite(l.PenetrationDepth_m) {
+			pd = sig(l.PenetrationDepth_m*f, 3)
+		}
+		t.row(fmt.Sprint(i+1), name, l.Material, th, pos(l.Conductivity_W_mK, 3), pos(l.Density_kg_m3, 4),
+			pos(l.SpecificHeat_J_kgK, 4), pos(l.Resistance_m2K_W, 3), pd, l.Source)
+	}
+	if len(r.Layers) > 1 {
+		t.row("", "Total", "", sig(total*f, 4), "", "", "", pos(r.Steady.ThermalResistance_m2K_W, 3), "", "")
+	}
+	t.Notes = append(t.Notes, "λ thermal conductivity, ρ density, c specific heat capacity, R = d/λ thermal resistance, δ = √(λT/(πρc)) periodic penetration depth. A dash means the value is not given or does not apply (an air layer given by its resistance, a half-space).")
+	return t
+}
+
+// frozenTable lists the frozen-state properties of freezing layers.
+func frozenTable(r *scenarios.Results) *block {
+	t := newTable("Freezing layers", []string{"#", "Layer", "λ frozen (W/(m·K))", "C frozen (MJ/(m³·K))", "Latent heat L (MJ/m³)", "Freezing point (°C)"}, "num", "text")
+	for i, l := range r.Layers {
+		if !l.Freezing {
+			continue
+		}
+		t.row(fmt.Sprint(i+1), l.Name, pos(l.ConductivityFrozen_W_mK, 3), pos(l.HeatCapacityFrozen_J_m3K/1e6, 3),
+			pos(l.LatentHeat_J_m3/1e6, 3), fixed(l.FreezingPoint_C, 1))
+	}
+	if len(t.Rows) == 0 {
+		return nil
+	}
+	return &block{Table: t}
+}
+
+// steadyTable gives the steady-state U-value and resistances.
+func steadyTable(r *scenarios.Results) *block {
+	s := r.Steady
+	if r.Kind == "ground" {
+		if !(s.ThermalResistance_m2K_W > 0) {
+			return nil
+		}
+		t := newTable("Steady state", []string{"Quantity", "Value", "Unit"}, "text", "", "text")
+		t.row("Thermal resistance of the column", sig(s.ThermalResistance_m2K_W, 3), "m²·K/W")
+		if s.OutsideSurfaceResistance > 0 {
+			t.row("Surface resistance", sig(s.OutsideSurfaceResistance, 3), "m²·K/W")
+		}
+		return &block{Table: t}
+	}
+	t := newTable("Steady state (ISO 6946)", []string{"Quantity", "Value", "Unit"}, "text", "", "text")
+	t.row("U-value", sig(s.UValue_W_m2K, 3), "W/(m²·K)")
+	t.row("Thermal resistance, surface to surface", sig(s.ThermalResistance_m2K_W, 3), "m²·K/W")
+	t.row("Inside surface resistance Rsi", sig(s.InsideSurfaceResistance, 3), "m²·K/W")
+	t.row("Outside surface resistance Rse", sig(s.OutsideSurfaceResistance, 3), "m²·K/W")
+	t.row("Total resistance, environment to environment", sig(s.TotalResistance_m2K_W, 3), "m²·K/W")
+	return &block{Table: t}
+}
+
+// periodicTable lists the ISO 13786 properties per period.
+func periodicTable(r *scenarios.Results) *block {
+	if len(r.Periodic) == 0 {
+		return nil
+	}
+	in, out := "inside", "outside"
+	if r.Kind == "ground" {
+		in, out = "bottom", "surface"
+	}
+	t := newTable("Periodic properties per period", []string{
+		"Period", "Decrement factor f", "Time shift (h)", "|Y₁₂| (W/(m²·K))",
+		"|Y₁₁| " + in + " (W/(m²·K))", "Lead " + in + " (h)", "|Y₂₂| " + out + " (W/(m²·K))", "Lead " + out + " (h)",
+		"κ₁ " + in + " (kJ/(m²·K))", "κ₂ " + out + " (kJ/(m²·K))"}, "text")
+	var wrapped bool
+	for _, p := range r.Periodic {
+		shift := fixed(p.TimeShift_h, 1)
+		if u := p.TimeShiftUnwrapped_h; finite(u) && math.Abs(u-p.TimeShift_h) > 0.05 {
+			shift += " (" + fixed(u, 1) + ")"
+			wrapped = true
+		}
+		t.row(periodLabel(p.Period_h), sig(p.DecrementFactor, 3), shift, sig(p.PeriodicTransmittance_W_m2K, 3),
+			sig(p.InsideAdmittance_W_m2K, 3), fixed(p.InsideAdmittanceLead_h, 1),
+			sig(p.OutsideAdmittance_W_m2K, 3), fixed(p.OutsideAdmittanceLead_h, 1),
+			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3))
+	}
+	t.Notes = append(t.Notes,
+		"f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance: the swing of heat flow into the room relative to a massless "+component(r)+" with the same U-value. It is not a ratio of surface temperatures.",
+		"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.")
+	if wrapped {
+		t.Notes = append(t.Notes, "A time shift in brackets counts whole periods: it is the full travel time of the wave through the construction.")
+	}
+	return &block{Table: t}
+}
+
+// simTable summarises the transient simulation run.
+func simTable(r *scenarios.Results) *block {
+	s := r.Simulation
+	if s == nil {
+		return nil
+	}
+	t := newTable("Simulation run", []string{"Quantity", "Value"}, "text")
+	t.row("Duration simulated", hours(s.Duration_h))
+	t.row("Time step", sig(s.Step_h, 3)+" h")
+	t.row("Cells", fmt.Sprint(s.Cells))
+	if s.SpinUpCycles > 0 {
+		t.row("Spin-up cycles before recording", fmt.Sprint(s.SpinUpCycles))
+	}
+	t.row("Energy balance, relative error", sig(s.EnergyBalanceRelativeError, 2))
+	t.Notes = append(t.Notes, "Energy balance: heat in through both surfaces minus the change of stored heat (sensible and latent), relative to the heat that passed; round-off size means energy is conserved.")
+	return &block{Table: t}
+}
+
+// checkTable sets the periodic properties fitted from the simulation
+// beside the exact ones.
+func checkTable(r *scenarios.Results) *block {
+	if r.Simulation == nil || len(r.Simulation.PeriodicCheck) == 0 {
+		return nil
+	}
+	t := newTable("Simulation against the exact periodic solution", []string{
+		"Period", "f simulated", "f exact", "Difference", "Time shift simulated (h)", "Time shift exact (h)", "Difference (h)"}, "text")
+	for _, c := range r.Simulation.PeriodicCheck {
+		d := c.DecrementFactor - c.ExactDecrementFactor
+		rel := dash
+		if c.ExactDecrementFactor != 0 && finite(d/c.ExactDecrementFactor) {
+			rel = percent(d / c.ExactDecrementFactor)
+		}
+		t.row(periodLabel(c.Period_h), sig(c.DecrementFactor, 4), sig(c.ExactDecrementFactor, 4),
+			sig(d, 2)+" ("+rel+")", fixed(c.TimeShift_h, 2), fixed(c.ExactTimeShift_h, 2), fixed(c.TimeShift_h-c.ExactTimeShift_h, 2))
+	}
+	t.Notes = append(t.Notes, "The simulated values are fitted to the simulated series; the two methods are independent, so small differences measure the numerical error of the simulation.")
+	return &block{Table: t}
+}
+
+// probeTable lists the simulated temperature statistics at each probe.
+func probeTable(r *scenarios.Results) *block {
+	if r.Simulation == nil || len(r.Simulation.Probes) == 0 {
+		return nil
+	}
+	head := "Position from the outside (mm)"
+	f, n := 1000.0, 3
+	if r.Kind == "ground" {
+		head, f, n = "Depth (m)", 1, 3
+	}
+	t := newTable("Simulated temperatures at the probes", []string{head, "Lowest", "Mean", "Highest"})
+	for _, p := range r.Simulation.Probes {
+		t.row(sig(p.Depth_m*f, n), degC(p.Min_C), degC(p.Mean_C), degC(p.Max_C))
+	}
+	return &block{Table: t}
+}
+
+// frostTable sets the simulated frost depth beside the closed forms.
+func frostTable(r *scenarios.Results) *block {
+	f := r.Frost
+	if f == nil {
+		return nil
+	}
+	t := newTable("Frost depth", []string{"Surface freezing index (°C·d)", "Simulated max frost depth (m)", "Stefan (m)", "Modified Berggren (m)"})
+	t.row(fixed(f.FreezingIndex_Cd, 0), fixed(f.MaxFrostDepth_m, 2), fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2))
+	t.Notes = append(t.Notes,
+		"Stefan neglects the heat stored in the soil above freezing and tends to overestimate; modified Berggren reduces the Stefan depth by a coefficient for that heat. All three are estimates for planning only; see the cautions.")
+	return &block{Table: t}
+}
+
+// methods lists the methods used and their sources.
+func methods(r *scenarios.Results) []string {
+	s := r.Steady
+	var m []string
+	if r.Kind == "ground" {
+		m = append(m, "Soil column: horizontal layers from the surface down, ending in a semi-infinite half-space (or a deep layer); surface forcing through the surface resistance given in the scenario.")
+	} else {
+		m = append(m, fmt.Sprintf("Steady state: layers in series with the surface resistances of ISO 6946 (here Rsi = %s and Rse = %s m²·K/W); U = 1 / (Rsi + ΣR + Rse).",
+			sig(s.InsideSurfaceResistance, 3), sig(s.OutsideSurfaceResistance, 3)))
+	}
+	m = append(m,
+		"Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.",
+		"Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
+	if r.Kind == "ground" {
+		m = append(m, "Exact periodic ground temperatures: the same matrices ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π).")
+	}
+	if sim := r.Simulation; sim != nil {
+		m = append(m, fmt.Sprintf("Transient simulation: one-dimensional finite volumes (%d cells, layer interfaces on cell faces), an L-stable second-order time scheme (TR-BDF2) with a time step of %s h and a tridiagonal solve per step; latent heat by an enthalpy formulation. Relative energy-balance error %s.",
+			sim.Cells, sig(sim.Step_h, 3), sig(sim.EnergyBalanceRelativeError, 2)))
+	}
+	if r.Frost != nil {
+		m = append(m,
+			"Stefan frost depth X = √(2 k F / L): k frozen conductivity, F surface freezing index (converted to °C·s), L latent heat per volume of soil.",
+			"Modified Berggren frost depth (Aldrich and Paynter, 1953; US Army TM 5-852-6 / UFC 3-130-06): the Stefan form with the mean of frozen and unfrozen conductivity, multiplied by a coefficient λ that depends on the thermal ratio α and the fusion parameter μ.")
+	}
+	if len(r.Series.StepTime_s) > 0 {
+		m = append(m, "Step response closed form: a semi-infinite solid whose surface temperature changes by ΔT, q = λ ΔT / √(π a t) (Carslaw and Jaeger, Conduction of Heat in Solids, §2.4; Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7).")
+	}
+	m = append(m, "Charts: Apache ECharts 5.6.0, embedded in this file. Long time series are thinned for display only.")
+	return m
+}
+
+// cautions lists what the results assume and, for ground results, the
+// frost-depth cautions that must always be printed.
+func cautions(r *scenarios.Results) []string {
+	if r.Kind == "ground" {
+		return []string{
+			"These results are an estimate for planning only.",
+			"The design frost depth is set by local codes and a licensed geotechnical engineer.",
+			"Closed-form frost depths (Stefan, modified Berggren) tend to overestimate.",
+			"Measured local frost depths and local records govern over any computed value.",
+			"Results assume one-dimensional heat flow through horizontal, homogeneous layers with the stated properties; snow cover, vegetation, groundwater flow, buildings nearby and frost heave change real ground temperatures.",
+		}
+	}
+	return []string{
+		"Results assume one-dimensional heat flow through plane, homogeneous layers with the stated, constant properties; thermal bridges, edges, moisture and air movement are not included.",
+		"Material values are those listed in the layer table with their sources; check them against the products actually used.",
+		"The forcing (outside climate, inside temperature) and the surface resistances are those of the scenario; other conditions give other numbers.",
+	}
+}
