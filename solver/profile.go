@@ -42,16 +42,17 @@ type tmChain struct {
 	surface int       // node of the outside surface (after Rse)
 	inside  int       // node of the inside surface (before Rsi), or top of the half-space
 	half    bool
+	insul   bool    // the inside face is adiabatic for the harmonic (no Rsi, q = 0)
 	hs      Layer   // the half-space layer
 	x0      float64 // top of the half-space, m
 }
 
 // tmBuildChain cuts c into elements with extra nodes at the positions in
 // cuts (already snapped to interfaces where they lie on one).
-func tmBuildChain(c Column, period float64, cuts []float64) *tmChain {
+func tmBuildChain(c Column, period float64, cuts []float64, insulated bool) *tmChain {
 	cuts = append([]float64(nil), cuts...)
 	sort.Float64s(cuts)
-	ch := &tmChain{period: period, half: c.HalfSpace, pos: []float64{0}}
+	ch := &tmChain{period: period, half: c.HalfSpace, insul: insulated && !c.HalfSpace, pos: []float64{0}}
 	add := func(e tmElement, x float64) {
 		ch.els = append(ch.els, e)
 		ch.mats = append(ch.mats, e.matrix(period))
@@ -89,7 +90,7 @@ func tmBuildChain(c Column, period float64, cuts []float64) *tmChain {
 		add(tmElement{layer: p}, bot)
 	}
 	ch.inside = len(ch.pos) - 1
-	if !c.HalfSpace && c.InsideResistance > 0 {
+	if !c.HalfSpace && !ch.insul && c.InsideResistance > 0 {
 		add(tmElement{r: c.InsideResistance}, ifs[len(ifs)-1])
 	}
 	return ch
@@ -128,10 +129,13 @@ func (ch *tmChain) fromOutside(thetaE complex128) tmSide {
 	N := len(ch.els)
 	s := tmSide{u: make([][2]complex128, N+1), theta: make([]complex128, N+1), q: make([]complex128, N+1)}
 	logGrow := make([]float64, N)
-	if ch.half {
+	switch {
+	case ch.half:
 		lam, k := ch.hsK()
 		s.u[N], _ = tmNormalize([2]complex128{1, -lam * k}) // q(-x) = -lambda k theta
-	} else {
+	case ch.insul:
+		s.u[N] = [2]complex128{1, 0} // no periodic flux through the inside face
+	default:
 		s.u[N] = [2]complex128{0, 1}
 	}
 	for j := N - 1; j >= 0; j-- {
@@ -244,7 +248,7 @@ func Harmonic(c Column, period float64, outside, inside complex128, x []float64)
 	if err != nil {
 		return nil, nil, err
 	}
-	ch := tmBuildChain(c, period, xs)
+	ch := tmBuildChain(c, period, xs, false)
 	so := ch.fromOutside(outside)
 	var si tmSide
 	if !c.HalfSpace {
@@ -268,6 +272,37 @@ func Harmonic(c Column, period float64, outside, inside complex128, x []float64)
 			temp[i] += si.theta[j]
 			flux[i] -= si.q[j]
 		}
+	}
+	return temp, flux, nil
+}
+
+// HarmonicInsulated is Harmonic for a column whose inside face carries no
+// periodic heat flux: an adiabatic face, or a face with a constant
+// prescribed heat flux (a geothermal flux at the bottom of a finite ground
+// column), whose harmonic part is zero. InsideResistance and c.HalfSpace
+// are ignored (the column ends at its last layer); x must lie in
+// [0, Thickness]. Returned values follow the conventions of Harmonic. This
+// is the periodic state a finite-depth simulation with a flux or adiabatic
+// bottom starts from.
+func HarmonicInsulated(c Column, period float64, outside complex128, x []float64) (temp, flux []complex128, err error) {
+	c.HalfSpace = false
+	if err := tmCheckColumn(c); err != nil {
+		return nil, nil, err
+	}
+	if err := tmCheckPeriod(period); err != nil {
+		return nil, nil, err
+	}
+	xs, err := tmPositions(c, x)
+	if err != nil {
+		return nil, nil, err
+	}
+	ch := tmBuildChain(c, period, xs, true)
+	so := ch.fromOutside(outside)
+	temp = make([]complex128, len(xs))
+	flux = make([]complex128, len(xs))
+	for i, v := range xs {
+		j := ch.node(v)
+		temp[i], flux[i] = so.theta[j], -so.q[j]
 	}
 	return temp, flux, nil
 }
@@ -413,7 +448,7 @@ func GroundPeriodic(c Column, period float64, depths []float64) (GroundResponse,
 	if err != nil {
 		return GroundResponse{}, err
 	}
-	ch := tmBuildChain(c, period, xs)
+	ch := tmBuildChain(c, period, xs, false)
 	so := ch.fromOutside(1)
 	// Continuous phase of theta at every node, node 0 (environment) = 0.
 	phase := make([]float64, len(ch.pos))
@@ -469,7 +504,7 @@ func SurfaceAdmittance(c Column, period float64) (complex128, error) {
 	if err := tmCheckPeriod(period); err != nil {
 		return 0, err
 	}
-	ch := tmBuildChain(c, period, nil)
+	ch := tmBuildChain(c, period, nil, false)
 	return -ch.fromOutside(1).q[0], nil
 }
 
@@ -500,7 +535,7 @@ func DampingDepth(c Column, period, surfaceAmplitude, threshold float64) (float6
 	if !(threshold > 0) || math.IsInf(threshold, 0) || !(surfaceAmplitude >= 0) || math.IsInf(surfaceAmplitude, 0) {
 		return 0, errors.New("solver: DampingDepth needs a finite amplitude >= 0 and a finite threshold > 0")
 	}
-	ch := tmBuildChain(c, period, nil)
+	ch := tmBuildChain(c, period, nil, false)
 	so := ch.fromOutside(complex(surfaceAmplitude, 0))
 	amp := func(j int) float64 { return cmplx.Abs(so.theta[j]) }
 	if amp(ch.surface) < threshold {

@@ -425,3 +425,45 @@ func TestSurfaceAdmittanceWall(t *testing.T) {
 		t.Error("infinite Rse: Harmonic gives no error")
 	}
 }
+
+// TestHarmonicInsulated: a slab with periodic surface temperature A and an
+// adiabatic far face has theta(x) = A cosh(k(L-x))/cosh(kL) (Carslaw and
+// Jaeger, section 3.6, form [memory]; solves theta'' = k^2 theta with
+// theta'(L) = 0 [derived]). A layered column with a surface resistance
+// matches a wall whose inside resistance tends to infinity [derived].
+func TestHarmonicInsulated(t *testing.T) {
+	l := tmWith(tmWetClay, 2)
+	c := Column{Layers: []Layer{l}, HalfSpace: true}
+	var x []float64
+	for i := range 21 {
+		x = append(x, 0.1*float64(i))
+	}
+	A := complex(3, -4)
+	temp, flux, err := HarmonicInsulated(c, tmYear, A, x)
+	if err != nil {
+		t.Fatal(err)
+	}
+	k := complex(1, 1) / complex(LayerPenetrationDepth(l, tmYear), 0)
+	for i, xi := range x {
+		want := A * cmplx.Cosh(k*complex(2-xi, 0)) / cmplx.Cosh(k*2)
+		if cmplx.Abs(temp[i]-want) > 1e-12*cmplx.Abs(A) {
+			t.Errorf("x=%g: theta %v, closed form %v", xi, temp[i], want)
+		}
+	}
+	if cmplx.Abs(flux[len(x)-1]) > 1e-12 {
+		t.Errorf("flux at the insulated face %v, want 0", flux[len(x)-1])
+	}
+	layered := Column{Layers: []Layer{tmWith(tmDrySand, 0.4), {Resistance: 0.8}, tmWith(tmWetClay, 1.5)}, OutsideResistance: 0.04, InsideResistance: 0.13}
+	xs := []float64{0, 0.2, 0.4, 1, 1.9}
+	got, _, err := HarmonicInsulated(layered, tmDay*30, 1, xs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	layered.InsideResistance = 1e14
+	want, _, _ := Harmonic(layered, tmDay*30, 1, 0, xs)
+	for i := range xs {
+		if cmplx.Abs(got[i]-want[i]) > 1e-9 {
+			t.Errorf("x=%g: insulated %v, Rsi -> infinity %v", xs[i], got[i], want[i])
+		}
+	}
+}
