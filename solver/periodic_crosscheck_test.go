@@ -198,7 +198,7 @@ func TestSemiInfiniteHandbookExample(t *testing.T) {
 // theta(x) = [A sinh(k(L-x)) + B sinh(k x)] / sinh(k L), k = (1+i)/delta
 // (Carslaw and Jaeger, Conduction of Heat in Solids, 2nd ed., section 3.6,
 // periodic surface temperature of a slab, form [memory]; it solves
-// theta” = k^2 theta with the two boundary values [derived]).
+// d2theta/dx2 = k^2 theta with the two boundary values [derived]).
 func TestSlabPrescribedSurfaces(t *testing.T) {
 	for _, tc := range []struct {
 		l      Layer

@@ -428,7 +428,7 @@ func TestSurfaceAdmittanceWall(t *testing.T) {
 
 // TestHarmonicInsulated: a slab with periodic surface temperature A and an
 // adiabatic far face has theta(x) = A cosh(k(L-x))/cosh(kL) (Carslaw and
-// Jaeger, section 3.6, form [memory]; solves theta” = k^2 theta with
+// Jaeger, section 3.6, form [memory]; solves d2theta/dx2 = k^2 theta with
 // theta'(L) = 0 [derived]). A layered column with a surface resistance
 // matches a wall whose inside resistance tends to infinity [derived].
 func TestHarmonicInsulated(t *testing.T) {
