@@ -45,10 +45,15 @@ type PeriodicProperties struct {
 	// (-T/(2 pi) arg Y12) mod T.
 	TimeShift float64
 	// TimeShiftUnwrapped is the same lag without the modulo, s: it can
-	// exceed one period for thick heavy components. It is obtained by
-	// continuing the phase of Y12 continuously as the component is built
-	// up element by element from the inside (see unwrappedPhase in the
-	// source), and equals TimeShift modulo the period.
+	// exceed one period for thick heavy components. The phase of Y12 is
+	// followed continuously while the component is built up element by
+	// element from the inside (each added element multiplies Z12 by a
+	// factor whose continuous argument is known in closed form), which
+	// gives the same value as continuing the phase in frequency from very
+	// long periods, where the lag tends to 0. It equals TimeShift modulo the
+	// period; for a thick homogeneous slab it tends to
+	// T/(2 pi) (d/delta - pi/4 + arg(1 + Rse lambda k) + arg(1 + Rsi lambda k)),
+	// k = (1+i)/delta, each arg between 0 and pi/4.
 	TimeShiftUnwrapped float64
 
 	InsideAdmittance      float64 // |Y11|, W/(m2 K)

@@ -236,7 +236,8 @@ func tmPositions(c Column, x []float64) ([]float64, error) {
 // interface are taken to lie on it.
 //
 // Method: ISO 13786 transfer matrices with a one-sided sweep per forced
-// side; see the comment at the top of profile.go.
+// side (see the package-level comment in profile.go, the file of this
+// function).
 func Harmonic(c Column, period float64, outside, inside complex128, x []float64) (temp, flux []complex128, err error) {
 	if err := tmCheckColumn(c); err != nil {
 		return nil, nil, err
