@@ -221,6 +221,9 @@ func Periodic(c Column, period float64) (PeriodicProperties, error) {
 	p.DecrementFactor = p.PeriodicTransmittance / p.U
 	p.TimeShift = tmLagMod(-tOver2Pi*cmplx.Phase(y12unit), period)
 	p.TimeShiftUnwrapped = tOver2Pi * tmSnapPhase(phi, -cmplx.Phase(y12unit))
+	if p.TimeShiftUnwrapped == 0 {
+		p.TimeShiftUnwrapped = 0 // +0, not -0, in printed output
+	}
 	p.InsideAdmittance = cmplx.Abs(p.Y11)
 	p.InsideAdmittanceLead = tOver2Pi * cmplx.Phase(p.Y11)
 	p.OutsideAdmittance = cmplx.Abs(p.Y22)
@@ -275,8 +278,8 @@ func tmLagMod(lag, period float64) float64 {
 	if lag < 0 {
 		lag += period
 	}
-	if lag >= period {
-		lag = 0
+	if lag >= period || lag == 0 {
+		lag = 0 // also turns -0 into +0
 	}
 	return lag
 }
