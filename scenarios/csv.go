@@ -17,8 +17,10 @@ type CSVFile struct {
 // CSVFiles returns the CSV outputs of a run, in a fixed order:
 // periodic.csv (ISO 13786 properties per period), response.csv (frequency
 // response), profile.csv (temperature envelope through the column) and
-// cycle.csv (one period of the exact periodic state), each only when its
-// data exist.
+// series.csv (the transient simulation: time, environment and surface
+// temperatures, probe temperatures, surface heat fluxes and, for ground,
+// frost and thaw depth), step_response.csv and cycle.csv (one period of
+// the exact periodic state), each only when its data exist.
 func CSVFiles(r *Results) []CSVFile {
 	var out []CSVFile
 	if len(r.Periodic) > 0 {
@@ -42,6 +44,13 @@ func CSVFiles(r *Results) []CSVFile {
 	if len(s.ProfilePosition_m) > 0 {
 		out = append(out, table("profile.csv", []string{"position_m", "min_C", "mean_C", "max_C"},
 			columns(s.ProfilePosition_m, s.ProfileMin_C, s.ProfileMean_C, s.ProfileMax_C)))
+	}
+	if len(s.SimTime_h) > 0 {
+		out = append(out, seriesCSV(r))
+	}
+	if len(s.StepTime_s) > 0 {
+		out = append(out, table("step_response.csv", []string{"time_s", "surface_heat_flux_W_m2", "half_space_heat_flux_W_m2"},
+			columns(s.StepTime_s, s.StepFlux_W_m2, s.StepFluxHalfSpace_W_m2)))
 	}
 	if len(s.CycleTime_h) > 0 {
 		out = append(out, table("cycle.csv", []string{"time_h", "outside_air_C", "outside_surface_C", "inside_surface_C", "inside_air_C", "inside_heat_flux_W_m2"},
@@ -88,4 +97,33 @@ func table(name string, header []string, rows [][]float64) CSVFile {
 	}
 	w.Flush()
 	return CSVFile{Name: name, Data: b.Bytes()}
+}
+
+// seriesCSV is the simulated time series. Heat fluxes are positive in the
+// +x direction (from outside to inside; downward in the ground).
+func seriesCSV(r *Results) CSVFile {
+	s := &r.Series
+	out, in := "outside", "inside"
+	if r.Kind == "ground" {
+		out, in = "surface", "bottom"
+	}
+	header := []string{"time_h", out + "_environment_C", out + "_surface_C"}
+	cols := [][]float64{s.SimTime_h, s.SimOutsideAir_C, s.SimOutsideSurface_C}
+	for j, z := range s.ProbeDepth_m {
+		header = append(header, "probe_"+strconv.FormatFloat(z, 'g', 6, 64)+"m_C")
+		cols = append(cols, s.Probes_C[j])
+	}
+	header = append(header, in+"_surface_C")
+	cols = append(cols, s.SimInsideSurface_C)
+	if len(s.SimInsideAir_C) > 0 {
+		header = append(header, in+"_environment_C")
+		cols = append(cols, s.SimInsideAir_C)
+	}
+	header = append(header, out+"_heat_flux_W_m2", in+"_heat_flux_W_m2")
+	cols = append(cols, s.SimOutsideFlux_W_m2, s.SimInsideFlux_W_m2)
+	if len(s.FrostDepth_m) > 0 {
+		header = append(header, "frost_depth_m", "thaw_depth_m")
+		cols = append(cols, s.FrostDepth_m, s.ThawDepth_m)
+	}
+	return table("series.csv", header, columns(cols...))
 }

@@ -5,7 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"os"
+	"strconv"
 	"strings"
 
 	"gopkg.in/yaml.v3"
@@ -48,7 +50,9 @@ var (
 	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic"}
 	tempKeys     = []string{"mean", "daily", "annual", "harmonics", "step"}
-	analysisKeys = []string{"periods", "response", "probes"}
+	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response"}
+	simulateKeys = []string{"duration", "step", "output_step", "initial_temperature", "mesh", "spin_up_cycles"}
+	meshKeys     = []string{"surface_cell", "growth", "max_cell", "cells_per_depth", "min_cells_per_layer"}
 )
 
 // Decode decodes a scenario from data; file names it in error messages.
@@ -527,7 +531,18 @@ func (d *decoder) decodeAnalysis(top *object, s *Scenario) error {
 		a.Periods = []float64{climate.Year, climate.Day}
 	}
 	o, ok, err := top.child("analysis", analysisKeys)
-	if err != nil || !ok {
+	if err != nil {
+		return err
+	}
+	a.Simulate = &Simulate{}
+	if !ok {
+		return nil
+	}
+	a.Line = top.line("analysis")
+	if err := d.decodeSimulate(o, s); err != nil {
+		return err
+	}
+	if err := d.decodeStepResponse(o, s); err != nil {
 		return err
 	}
 	if items, ok, err := o.list("periods"); err != nil {
@@ -585,7 +600,11 @@ func (d *decoder) decodeAnalysis(top *object, s *Scenario) error {
 			if z < 0 {
 				return d.errf(n, key, "a probe depth must not be negative")
 			}
+			if total := s.construction().Thickness(); z > total*(1+1e-12) && s.Kind == Wall {
+				return d.errf(n, key, "probe at %g m lies outside the column, which is %g m thick", z, total)
+			}
 			a.Probes = append(a.Probes, z)
+			a.ProbeLines = append(a.ProbeLines, n.Line)
 		}
 	}
 	return nil
@@ -620,4 +639,162 @@ func (f layerFreeze) apply(l *layers.Layer) {
 		ConductivityFrozen: f.Conductivity,
 		HeatCapacityFrozen: l.Density * f.SpecificHeat,
 	}
+}
+
+func (d *decoder) decodeSimulate(o *object, s *Scenario) error {
+	if !o.has("simulate") {
+		return nil
+	}
+	v := o.values["simulate"]
+	if v.Kind == yaml.ScalarNode && v.Tag == "!!bool" {
+		b, _, err := o.boolean("simulate")
+		if err != nil {
+			return err
+		}
+		if !b {
+			s.Analysis.Simulate = nil
+		}
+		return nil
+	}
+	so, _, err := o.child("simulate", simulateKeys)
+	if err != nil {
+		return err
+	}
+	sim := s.Analysis.Simulate
+	sim.Line = o.line("simulate")
+	sim.set = map[string]int{}
+	for k := range so.keys {
+		sim.set[k] = so.line(k)
+	}
+	if v, ok, err := so.positive("duration", layers.Duration); err != nil {
+		return err
+	} else if ok {
+		sim.Duration = v
+	}
+	if v, ok, err := so.positive("step", layers.Duration); err != nil {
+		return err
+	} else if ok {
+		sim.Step = v
+	}
+	if v, ok, err := so.positive("output_step", layers.Duration); err != nil {
+		return err
+	} else if ok {
+		sim.Sample = v
+	}
+	if sim.Duration > 0 && sim.Step > sim.Duration {
+		return so.errKey("step", "the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))
+	}
+	if v, ok, err := so.quantity("initial_temperature", layers.Temperature); err != nil {
+		return err
+	} else if ok {
+		sim.Initial = &v
+	}
+	if n, ok, err := so.integer("spin_up_cycles"); err != nil {
+		return err
+	} else if ok {
+		if n < 1 || n > 1000 {
+			return so.errKey("spin_up_cycles", "must lie between 1 and 1000, got %d", n)
+		}
+		sim.MaxSpinUpCycles = n
+	}
+	if mo, ok, err := so.child("mesh", meshKeys); err != nil {
+		return err
+	} else if ok {
+		m := &sim.Mesh
+		for _, f := range []struct {
+			key  string
+			kind layers.Kind
+			dst  *float64
+		}{
+			{"surface_cell", layers.Length, &m.SurfaceCell},
+			{"max_cell", layers.Length, &m.MaxCell},
+		} {
+			if v, ok, err := mo.positive(f.key, f.kind); err != nil {
+				return err
+			} else if ok {
+				*f.dst = v
+			}
+		}
+		if mo.has("growth") {
+			s, _, err := mo.scalar("growth")
+			if err != nil {
+				return err
+			}
+			g, err := strconv.ParseFloat(s, 64)
+			if err != nil || g < 1 || g > 1.5 {
+				return mo.errKey("growth", "must be a number from 1 (uniform cells) to 1.5, got %q", s)
+			}
+			m.Growth = g
+		}
+		if mo.has("cells_per_depth") {
+			s, _, err := mo.scalar("cells_per_depth")
+			if err != nil {
+				return err
+			}
+			c, err := strconv.ParseFloat(s, 64)
+			if err != nil || c < 1 || c > 1000 {
+				return mo.errKey("cells_per_depth", "must be a number from 1 to 1000, got %q", s)
+			}
+			m.CellsPerDepth = c
+		}
+		if n, ok, err := mo.integer("min_cells_per_layer"); err != nil {
+			return err
+		} else if ok {
+			if n < 1 || n > 10000 {
+				return mo.errKey("min_cells_per_layer", "must lie between 1 and 10000, got %d", n)
+			}
+			m.MinCellsPerLayer = n
+		}
+	}
+	return nil
+}
+
+func (d *decoder) decodeStepResponse(o *object, s *Scenario) error {
+	so, ok, err := o.child("step_response", []string{"side", "change", "duration"})
+	if err != nil || !ok {
+		return err
+	}
+	sides := []string{"outside", "inside"}
+	if s.Kind == Ground {
+		sides = []string{"surface"}
+	}
+	st := &StepResponse{Side: sides[0], Change: 10, Duration: 600, Line: o.line("step_response")}
+	if s.Kind == Wall && (s.Orientation == layers.Floor) {
+		st.Side = "inside"
+	}
+	if v, ok, err := so.choice("side", sides); err != nil {
+		return err
+	} else if ok {
+		st.Side = v
+	}
+	if v, ok, err := so.quantity("change", layers.TemperatureDifference); err != nil {
+		return err
+	} else if ok {
+		if v == 0 {
+			return so.errKey("change", "a step of 0 K shows nothing; give e.g. 10 K")
+		}
+		st.Change = v
+	}
+	if v, ok, err := so.positive("duration", layers.Duration); err != nil {
+		return err
+	} else if ok {
+		st.Duration = v
+	}
+	s.Analysis.StepResponse = st
+	return nil
+}
+
+// fmtDuration prints a duration in s in the largest whole unit.
+func fmtDuration(sec float64) string {
+	switch {
+	case sec >= climate.Year && math.Mod(sec, climate.Year) == 0:
+		return fmt.Sprintf("%gy", sec/climate.Year)
+	case sec >= climate.Day && math.Mod(sec, climate.Day) == 0:
+		return fmt.Sprintf("%gd", sec/climate.Day)
+	case sec >= 3600:
+		return fmt.Sprintf("%gh", sec/3600)
+	case sec >= 60:
+		return fmt.Sprintf("%gmin", sec/60)
+	}
+	return fmt.Sprintf("%gs", sec)
 }

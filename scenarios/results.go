@@ -22,6 +22,9 @@ type Results struct {
 	Simulation *Simulation `json:"simulation,omitempty"`
 	Frost      *Frost      `json:"frost,omitempty"`
 
+	// StepResponse is filled when analysis.step_response asks for it.
+	StepResponse *StepResult `json:"step_response,omitempty"`
+
 	Warnings []string `json:"warnings,omitempty"`
 
 	// Series holds the chart data; large, so it is kept out of results.json.
@@ -80,6 +83,10 @@ type Simulation struct {
 	Cells                      int             `json:"cells"`
 	EnergyBalanceRelativeError float64         `json:"energy_balance_relative_error"`
 	SpinUpCycles               int             `json:"spin_up_cycles"`
+	OutputStep_h               float64         `json:"output_step_h"`
+	StoredHeat_J_m2            float64         `json:"stored_heat_J_m2"`     // change of heat content over the run
+	HeatInOutside_J_m2         float64         `json:"heat_in_outside_J_m2"` // heat that entered through the outside surface
+	HeatInInside_J_m2          float64         `json:"heat_in_inside_J_m2"`  // heat that entered through the inside surface
 	Probes                     []Probe         `json:"probes"`
 	PeriodicCheck              []PeriodicCheck `json:"periodic_check,omitempty"`
 }
@@ -140,6 +147,7 @@ type Series struct {
 	SimOutsideAir_C     []float64 // outside (surface) environment temperature
 	SimOutsideSurface_C []float64
 	SimInsideSurface_C  []float64
+	SimInsideAir_C      []float64 // inside environment temperature (empty with a flux or adiabatic inside)
 	SimOutsideFlux_W_m2 []float64 // at the outside surface, positive inward (+x)
 	SimInsideFlux_W_m2  []float64 // at the inside surface, positive inward (+x)
 	ProbeDepth_m        []float64

@@ -13,10 +13,12 @@ import (
 // Run solves a decoded scenario: the steady and exact periodic analyses
 // (and, in later stages, the transient simulation and the frost analysis)
 // and returns the collected results in the units of the output contract.
-func Run(s *Scenario) (*Results, error) {
+//
+// progress, when not nil, is told how far a long simulation has come.
+func Run(s *Scenario, progress Progress) (*Results, error) {
 	switch s.Kind {
 	case Wall:
-		return runWall(s)
+		return runWall(s, progress)
 	}
 	return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 }
@@ -31,7 +33,7 @@ func (s *Scenario) column() solver.Column {
 	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
 }
 
-func runWall(s *Scenario) (*Results, error) {
+func runWall(s *Scenario, progress Progress) (*Results, error) {
 	col := s.column()
 	if err := col.Validate(); err != nil {
 		return nil, &Error{File: s.File, Key: "layers", Msg: err.Error()}
@@ -62,6 +64,18 @@ func runWall(s *Scenario) (*Results, error) {
 	}
 	if err := wallSeries(s, col, r); err != nil {
 		return nil, err
+	}
+	if s.Analysis.Simulate != nil {
+		res, err := simulate(s, col, r, progress)
+		if err != nil {
+			return nil, err
+		}
+		periodicChecks(s, r, res)
+	}
+	if s.Analysis.StepResponse != nil {
+		if err := stepResponse(s, col, r); err != nil {
+			return nil, err
+		}
 	}
 	return r, nil
 }

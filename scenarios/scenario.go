@@ -13,6 +13,7 @@ package scenarios
 import (
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/solver"
 )
 
 // Kind is the type of scenario.
@@ -83,9 +84,39 @@ func (f *Forcing) At(t float64) float64 {
 
 // Analysis says what to compute.
 type Analysis struct {
-	Periods  []float64 // s, for the exact periodic analysis; default one day
-	Response Response
-	Probes   []float64 // m from the outside (surface)
+	Periods    []float64 // s, for the exact periodic analysis; default one day
+	Response   Response
+	Probes     []float64 // m from the outside (surface), as drawn (air layers count)
+	ProbeLines []int     // line of each probe, for messages
+	Line       int       // line of the analysis key (0 when absent)
+
+	// Simulate is the transient simulation; nil when switched off.
+	Simulate *Simulate
+	// StepResponse asks for the response of one surface to a sudden
+	// temperature change; nil when not asked.
+	StepResponse *StepResponse
+}
+
+// Simulate controls the transient finite-volume simulation.
+type Simulate struct {
+	Duration        float64  // s
+	Step            float64  // s
+	Sample          float64  // s, spacing of the recorded series; 0 = automatic
+	Initial         *float64 // degC, uniform start; nil = the periodic (or spun-up) solution
+	Mesh            solver.MeshOptions
+	MaxSpinUpCycles int            // for non-linear (freezing) runs without an initial temperature
+	Line            int            // line of the simulate key, for messages
+	set             map[string]int // keys given explicitly, with their lines
+}
+
+// StepResponse is a sudden change of one surface temperature of a column
+// that starts uniform: how fast does the surface take up heat (touch and
+// floor-warmth questions)?
+type StepResponse struct {
+	Side     string  // "outside" or "inside" (ground: "surface")
+	Change   float64 // K, the step of the surface temperature
+	Duration float64 // s
+	Line     int
 }
 
 // Response is the frequency sweep of the periodic analysis.

@@ -83,7 +83,7 @@ func runCommand() *cli.Command {
 			if err != nil {
 				return err
 			}
-			res, err := scenarios.Run(s)
+			res, err := scenarios.Run(s, progressFor(c.App.ErrWriter))
 			if err != nil {
 				return asUserError(err)
 			}

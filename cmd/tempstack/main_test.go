@@ -52,6 +52,11 @@ func TestBadScenarios(t *testing.T) {
 		{"wrong-unit.yaml", 6, `unknown unit "kg" for a length`},
 		{"zero-conductivity.yaml", 6, "must be positive"},
 		{"zero-period.yaml", 10, "period must be positive"},
+		{"probe-outside.yaml", 10, "lies outside the column"},
+		{"sim-step-longer.yaml", 10, "longer than the simulated duration"},
+		{"sim-zero-duration.yaml", 10, "must be positive"},
+		{"sim-unknown-key.yaml", 10, `did you mean "duration"`},
+		{"step-missing-to.yaml", 9, "step.to: missing key"},
 	}
 	seen := map[string]bool{}
 	for _, c := range cases {
@@ -100,7 +105,7 @@ func TestRunDemoWritesOutputs(t *testing.T) {
 	if out != "" {
 		t.Errorf("--quiet printed %q", out)
 	}
-	for _, name := range []string{"report.html", "results.json", "periodic.csv", "response.csv", "profile.csv", "cycle.csv"} {
+	for _, name := range []string{"report.html", "results.json", "periodic.csv", "response.csv", "profile.csv", "cycle.csv", "series.csv"} {
 		if fi, err := os.Stat(filepath.Join(dir, name)); err != nil || fi.Size() == 0 {
 			t.Errorf("%s missing or empty: %v", name, err)
 		}

@@ -3,6 +3,8 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
+	"time"
 
 	"tempstack/scenarios"
 )
@@ -31,5 +33,34 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 	}
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
+	}
+}
+
+// progressFor returns a progress printer for long runs when w is a
+// terminal, and nil (silence) otherwise: logs and pipes stay clean.
+func progressFor(w io.Writer) scenarios.Progress {
+	f, ok := w.(*os.File)
+	if !ok {
+		return nil
+	}
+	fi, err := f.Stat()
+	if err != nil || fi.Mode()&os.ModeCharDevice == 0 {
+		return nil
+	}
+	start := time.Now()
+	last := -1
+	return func(stage string, frac float64) {
+		if time.Since(start) < time.Second && frac < 1 {
+			return
+		}
+		pct := int(frac * 100)
+		if pct == last {
+			return
+		}
+		last = pct
+		fmt.Fprintf(f, "\r%s: %3d %%", stage, pct)
+		if frac >= 1 {
+			fmt.Fprint(f, "\r\033[K")
+		}
 	}
 }

@@ -1,0 +1,477 @@
+package scenarios
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"gonum.org/v1/gonum/mat"
+
+	"tempstack/climate"
+	"tempstack/solver"
+)
+
+// Progress, when set by the caller (the command line), receives the
+// completed fraction of a long transient run.
+type Progress func(stage string, frac float64)
+
+// maxSamples caps the number of recorded samples of a run (charts and CSV).
+const maxSamples = 20000
+
+// simDefaults fills the unset simulation settings of s from the forcing
+// and the analysis periods.
+func simDefaults(s *Scenario) {
+	sim := s.Analysis.Simulate
+	P := s.Analysis.Periods[0]
+	if sim.Duration == 0 {
+		switch {
+		case s.Outside.Temperature != nil && s.Outside.Temperature.Step != nil:
+			sim.Duration = s.Outside.Temperature.Step.At + 7*climate.Day
+		case s.Kind == Ground:
+			sim.Duration = 3 * climate.Year
+		default:
+			sim.Duration = math.Max(7*climate.Day, 3*P)
+		}
+	}
+	if sim.Step == 0 {
+		sim.Step = math.Min(shortestPeriod(s)/96, 3600)
+		if s.Kind == Ground {
+			sim.Step = 3600
+		}
+		sim.Step = math.Min(sim.Step, sim.Duration/10)
+	}
+	if sim.Sample == 0 {
+		n := math.Ceil(sim.Duration / sim.Step)
+		sim.Sample = sim.Step * math.Max(1, math.Ceil(n/maxSamples))
+	}
+	if sim.Mesh.ResolvePeriod == 0 {
+		sim.Mesh.ResolvePeriod = shortestPeriod(s)
+	}
+	if sim.Mesh.MaxCell == 0 {
+		// The wave of the resolved period must be carried through the
+		// whole wall (ground: the longest period through the whole
+		// column): cells no wider than a twentieth of the smallest periodic
+		// penetration depth keep the decrement factor within about 0.1 %
+		// (measured: 0.07 % at 1/22, 0.26 % at 1/11, second order).
+		p := sim.Mesh.ResolvePeriod
+		if s.Kind == Ground {
+			p = math.Max(p, longestForcingPeriod(s))
+		}
+		sim.Mesh.MaxCell = minPenetrationDepth(s, p) / 20
+	}
+	if sim.MaxSpinUpCycles == 0 {
+		sim.MaxSpinUpCycles = 30
+	}
+}
+
+// shortestPeriod is the shortest time scale the forcing and the analysis
+// ask to resolve, s.
+func shortestPeriod(s *Scenario) float64 {
+	p := s.Analysis.Periods[0]
+	for _, q := range s.Analysis.Periods {
+		p = math.Min(p, q)
+	}
+	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.Temperature} {
+		if f == nil {
+			continue
+		}
+		for _, h := range f.Harmonics {
+			p = math.Min(p, h.Period)
+		}
+	}
+	return p
+}
+
+// boundary turns a scenario side into a solver boundary.
+func boundary(sd Side) solver.Boundary {
+	switch {
+	case sd.Adiabatic:
+		return solver.Boundary{Kind: solver.Adiabatic}
+	case sd.Flux:
+		q := sd.HeatFlux
+		return solver.Boundary{Kind: solver.PrescribedFlux, Flux: func(float64) float64 { return q }}
+	}
+	f := sd.Temperature
+	return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: f.At}
+}
+
+// isLinear reports whether no layer of the column has latent heat.
+func isLinear(col solver.Column) bool {
+	for _, l := range col.Layers {
+		if l.Freeze != nil {
+			return false
+		}
+	}
+	return true
+}
+
+// solverProbes converts the probe depths (as drawn, air layers counted) to
+// solver positions and checks that each lies in the column.
+func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
+	c := s.construction()
+	total := c.Thickness()
+	var out []float64
+	for i, z := range s.Analysis.Probes {
+		if z > total*(1+1e-12) {
+			return nil, &Error{File: s.File, Line: s.Analysis.ProbeLines[i], Key: fmt.Sprintf("analysis.probes[%d]", i+1),
+				Msg: fmt.Sprintf("probe at %g m lies outside the column, which is %g m thick", z, total)}
+		}
+		out = append(out, math.Min(c.SolverDepth(z), col.Thickness()))
+	}
+	return out, nil
+}
+
+// initialState returns the periodic solution at the cell centres at t = 0
+// (mean steady state plus every harmonic of both forcings), the start of a
+// linear run that needs no spin-up.
+func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh) ([]float64, error) {
+	xs := mesh.Centers
+	var T []float64
+	var err error
+	if s.Kind == Ground {
+		T, err = groundMean(s, col, xs)
+	} else {
+		T, _, err = solver.Steady(col, forcingMean(s.Outside.Temperature), forcingMean(s.Inside.Temperature), xs)
+		if s.Inside.Temperature == nil {
+			// Flux or adiabatic inside: uniform at the outside mean plus the
+			// flux's linear profile.
+			T, err = steadyFluxProfile(s, col, xs)
+		}
+	}
+	if err != nil {
+		return nil, err
+	}
+	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.Temperature)
+	for i, p := range hs.periods {
+		amp, _, err := solver.Harmonic(harmonicColumn(s, col), p, hs.outside[i], hs.inside[i], xs)
+		if err != nil {
+			return nil, err
+		}
+		for j := range T {
+			T[j] += real(amp[j])
+		}
+	}
+	return T, nil
+}
+
+// forcingMean is the mean of a forcing, or the starting value of a step.
+func forcingMean(f *Forcing) float64 {
+	if f == nil {
+		return 0
+	}
+	if f.Step != nil {
+		return f.Step.From
+	}
+	return f.Mean
+}
+
+// steadyFluxProfile is the steady profile with a temperature outside and a
+// heat flux (or none) inside.
+func steadyFluxProfile(s *Scenario, col solver.Column, xs []float64) ([]float64, error) {
+	q := 0.0
+	if s.Inside.Flux {
+		q = s.Inside.HeatFlux
+	}
+	c := col
+	c.HalfSpace = true
+	return solver.SteadyWithBottomFlux(c, forcingMean(s.Outside.Temperature), q, xs)
+}
+
+// harmonicColumn is the column used for the periodic part of the initial
+// state: with an adiabatic or flux inside the periodic part sees a
+// semi-infinite continuation, the closest linear model.
+func harmonicColumn(s *Scenario, col solver.Column) solver.Column {
+	if s.Kind == Ground || s.Inside.Temperature == nil {
+		c := col
+		c.HalfSpace = true
+		return c
+	}
+	return col
+}
+
+// groundMean is the mean temperature profile of a ground column: the
+// surface mean plus the geothermal gradient (or linear to a fixed bottom
+// temperature).
+func groundMean(s *Scenario, col solver.Column, xs []float64) ([]float64, error) {
+	if s.Inside.Temperature != nil {
+		c := col
+		c.HalfSpace = false
+		T, _, err := solver.Steady(c, forcingMean(s.Outside.Temperature), forcingMean(s.Inside.Temperature), xs)
+		return T, err
+	}
+	return steadyFluxProfile(s, col, xs)
+}
+
+// simulate runs the transient solution of s and fills r.Simulation and the
+// simulated series.
+func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*solver.Result, error) {
+	sim := s.Analysis.Simulate
+	simDefaults(s)
+	if sim.Step > sim.Duration {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.step",
+			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))}
+	}
+	if st := s.Outside.Temperature.Step; st != nil && st.At >= sim.Duration {
+		return nil, &Error{File: s.File, Line: s.Outside.Temperature.Line, Key: "step.at",
+			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", fmtDuration(st.At), fmtDuration(sim.Duration))}
+	}
+	if n := sim.Duration / sim.Step; n > 5e7 {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate",
+			Msg: fmt.Sprintf("%.3g time steps is more than the limit of 5e7; use a longer step or a shorter duration", n)}
+	}
+	probes, err := s.solverProbes(col)
+	if err != nil {
+		return nil, err
+	}
+	mesh, err := solver.NewMesh(col, sim.Mesh)
+	if err != nil {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.mesh", Msg: err.Error()}
+	}
+	if mesh.Cells() > 200000 {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.mesh",
+			Msg: fmt.Sprintf("the mesh would have %d cells, more than the limit of 200000; use larger cells", mesh.Cells())}
+	}
+	p := solver.Problem{
+		Column:      col,
+		Mesh:        mesh,
+		Outside:     boundary(s.Outside),
+		Inside:      boundary(s.Inside),
+		Duration:    sim.Duration,
+		Step:        sim.Step,
+		Probes:      probes,
+		SampleEvery: sim.Sample,
+	}
+	spin := 0
+	switch {
+	case sim.Initial != nil:
+		p.Initial = uniform(mesh.Cells(), *sim.Initial)
+	default:
+		p.Initial, err = initialState(s, col, mesh)
+		if err != nil {
+			return nil, &Error{File: s.File, Msg: "initial state: " + err.Error()}
+		}
+		if !isLinear(col) && s.Outside.Temperature.Step == nil {
+			// Latent heat makes the problem non-linear: the linear periodic
+			// solution is only a first guess. Repeat the longest forcing
+			// period until one cycle repeats the last.
+			period := longestForcingPeriod(s)
+			if period > 0 {
+				if progress != nil {
+					progress("spin-up", 0)
+				}
+				p.Initial, spin, err = solver.SpinUp(p, period, 0.01, sim.MaxSpinUpCycles)
+				if err != nil && !errors.Is(err, solver.ErrSpinUp) {
+					return nil, &Error{File: s.File, Msg: "spin-up: " + err.Error()}
+				}
+				if err != nil {
+					r.Warnings = append(r.Warnings, fmt.Sprintf("spin-up did not repeat within 0.01 K after %d cycles; the first simulated cycle still carries some start-up error", spin))
+				}
+			}
+		}
+	}
+	if progress != nil {
+		p.Progress = func(f float64) { progress("simulation", f) }
+	}
+	res, err := solver.Simulate(p)
+	if err != nil {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
+	}
+	if err := checkFinite(res); err != nil {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
+	}
+	out := &Simulation{
+		Duration_h:                 sim.Duration / 3600,
+		Step_h:                     sim.Step / 3600,
+		OutputStep_h:               sim.Sample / 3600,
+		Cells:                      mesh.Cells(),
+		EnergyBalanceRelativeError: res.Energy.RelativeError,
+		SpinUpCycles:               spin,
+		StoredHeat_J_m2:            res.Energy.Stored,
+		HeatInOutside_J_m2:         res.Energy.InflowOutside,
+		HeatInInside_J_m2:          res.Energy.InflowInside,
+	}
+	for j, z := range s.Analysis.Probes {
+		pr := Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
+		var sum float64
+		for k, v := range res.Probe[j] {
+			pr.Min_C = math.Min(pr.Min_C, v)
+			pr.Max_C = math.Max(pr.Max_C, v)
+			if k > 0 {
+				sum += v
+			}
+		}
+		pr.Mean_C = sum / float64(max(1, len(res.Probe[j])-1))
+		out.Probes = append(out.Probes, pr)
+	}
+	r.Simulation = out
+
+	ser := &r.Series
+	for k, t := range res.Times {
+		ser.SimTime_h = append(ser.SimTime_h, t/3600)
+		ser.SimOutsideAir_C = append(ser.SimOutsideAir_C, envAt(s.Outside, t))
+		if s.Inside.Temperature != nil {
+			ser.SimInsideAir_C = append(ser.SimInsideAir_C, envAt(s.Inside, t))
+		}
+		_ = k
+	}
+	ser.SimOutsideSurface_C = res.SurfaceOutside
+	ser.SimInsideSurface_C = res.SurfaceInside
+	ser.SimOutsideFlux_W_m2 = res.FluxOutside
+	ser.SimInsideFlux_W_m2 = res.FluxInside
+	ser.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
+	ser.Probes_C = res.Probe
+	ser.SimProfilePosition_m = res.Mesh.Centers
+	ser.SimProfileMin_C, ser.SimProfileMean_C, ser.SimProfileMax_C = res.Min, res.Mean, res.Max
+	return res, nil
+}
+
+func envAt(sd Side, t float64) float64 {
+	if sd.Temperature == nil {
+		return math.NaN()
+	}
+	return sd.Temperature.At(t)
+}
+
+func uniform(n int, v float64) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = v
+	}
+	return out
+}
+
+func longestForcingPeriod(s *Scenario) float64 {
+	var p float64
+	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.Temperature} {
+		if f == nil || f.Step != nil {
+			continue
+		}
+		for _, h := range f.Harmonics {
+			p = math.Max(p, h.Period)
+		}
+	}
+	return p
+}
+
+// checkFinite reports NaN or Inf anywhere in the recorded solution.
+func checkFinite(res *solver.Result) error {
+	bad := func(xs []float64) bool {
+		for _, x := range xs {
+			if math.IsNaN(x) || math.IsInf(x, 0) {
+				return true
+			}
+		}
+		return false
+	}
+	if bad(res.Final) || bad(res.SurfaceOutside) || bad(res.SurfaceInside) || bad(res.FluxOutside) || bad(res.FluxInside) {
+		return errors.New("the simulation produced a non-finite temperature or flux; check that every property is physically possible")
+	}
+	for _, p := range res.Probe {
+		if bad(p) {
+			return errors.New("the simulation produced a non-finite probe temperature; check that every property is physically possible")
+		}
+	}
+	return nil
+}
+
+// periodicChecks fits, for every analysis period that the outside forcing
+// drives and the simulation covers, the decrement factor and time shift of
+// the simulated inside heat flux over the last whole cycle, and sets them
+// beside the exact values.
+//
+// The fit is linear least squares on the samples of the last cycle with a
+// quadratic trend (absorbing components of longer periods) and a cosine and
+// sine of every forcing period that fits in the window. Simulated
+// f = |Q| / (U |Te|) and lag = (-arg(Q/Te)/omega) mod P, with Q and Te the
+// complex amplitudes of inside flux and outside temperature at period P
+// (ISO 13786 definitions, with the inside temperature constant).
+func periodicChecks(s *Scenario, r *Results, res *solver.Result) {
+	if s.Kind != Wall || s.Inside.Temperature == nil || r.Simulation == nil {
+		return
+	}
+	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.Temperature)
+	end := res.Times[len(res.Times)-1]
+	for i, P := range s.Analysis.Periods {
+		ze := phasorAt(s.Outside.Temperature, P)
+		if ze == 0 || phasorAt(s.Inside.Temperature, P) != 0 || P > end-res.Times[0]+1e-9 {
+			continue
+		}
+		var ts, qs []float64
+		for k, t := range res.Times {
+			if t >= end-P-1e-6 && t < end-1e-6 {
+				ts = append(ts, t)
+				qs = append(qs, res.FluxInside[k])
+			}
+		}
+		var fitPeriods []float64
+		for _, p := range hs.periods {
+			if p <= P*(1+1e-9) {
+				fitPeriods = append(fitPeriods, p)
+			}
+		}
+		zq, ok := fitPhasor(ts, qs, P, fitPeriods, end-P/2)
+		if !ok {
+			continue
+		}
+		w := 2 * math.Pi / P
+		lag := math.Mod(-cmplx.Phase(zq/ze)/w, P)
+		if lag < 0 {
+			lag += P
+		}
+		exact := r.Periodic[i]
+		r.Simulation.PeriodicCheck = append(r.Simulation.PeriodicCheck, PeriodicCheck{
+			Period_h:             P / 3600,
+			DecrementFactor:      cmplx.Abs(zq) / (r.Steady.UValue_W_m2K * cmplx.Abs(ze)),
+			TimeShift_h:          lag / 3600,
+			ExactDecrementFactor: exact.DecrementFactor,
+			ExactTimeShift_h:     exact.TimeShift_h,
+		})
+	}
+}
+
+// fitPhasor fits v(t) = c0 + c1 tau + c2 tau^2 + sum_p [a_p cos(w_p t) +
+// b_p sin(w_p t)] by least squares (tau = (t - mid) / P) and returns the
+// complex amplitude a - i b of period P, so that the component is
+// Re(z exp(i w t)).
+func fitPhasor(t, v []float64, P float64, periods []float64, mid float64) (complex128, bool) {
+	nb := 3 + 2*len(periods)
+	if len(t) < nb+2 {
+		return 0, false
+	}
+	A := mat.NewDense(len(t), nb, nil)
+	for k, tk := range t {
+		tau := (tk - mid) / P
+		A.Set(k, 0, 1)
+		A.Set(k, 1, tau)
+		A.Set(k, 2, tau*tau)
+		for j, p := range periods {
+			w := 2 * math.Pi / p
+			A.Set(k, 3+2*j, math.Cos(w*tk))
+			A.Set(k, 4+2*j, math.Sin(w*tk))
+		}
+	}
+	var x mat.VecDense
+	if err := x.SolveVec(A, mat.NewVecDense(len(v), append([]float64(nil), v...))); err != nil {
+		return 0, false
+	}
+	for j, p := range periods {
+		if math.Abs(p-P) <= 1e-9*P {
+			return complex(x.AtVec(3+2*j), -x.AtVec(4+2*j)), true
+		}
+	}
+	return 0, false
+}
+
+// minPenetrationDepth is the smallest periodic penetration depth
+// sqrt(lambda P / (pi rho c)) of the massive layers for period p, m.
+func minPenetrationDepth(s *Scenario, p float64) float64 {
+	d := math.Inf(1)
+	for _, l := range s.Layers {
+		if l.IsResistance() {
+			continue
+		}
+		d = math.Min(d, l.PenetrationDepth(p))
+	}
+	return d
+}

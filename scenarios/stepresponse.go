@@ -1,0 +1,119 @@
+package scenarios
+
+import (
+	"math"
+
+	"tempstack/solver"
+)
+
+// StepResult is the response of one surface of a column to a sudden change
+// of its temperature: the heat flux into the surface and the heat taken up
+// over the first minutes, set beside the closed form for a semi-infinite
+// body of the surface layer's material (touch and floor-warmth questions).
+type StepResult struct {
+	Side                       string  `json:"side"`
+	Change_K                   float64 `json:"change_K"`
+	Duration_s                 float64 `json:"duration_s"`
+	SurfaceLayer               string  `json:"surface_layer"`
+	SurfaceEffusivity_Ws05_m2K float64 `json:"surface_effusivity_W_s05_m2K"`  // sqrt(lambda rho c)
+	HalfSpaceValidFor_s        float64 `json:"half_space_valid_for_s"`        // until the far face of the surface layer sees 1 % of the step
+	HeatAbsorbed_J_m2          float64 `json:"heat_absorbed_J_m2"`            // simulated, over Duration
+	HeatAbsorbedHalfSpace_J_m2 float64 `json:"heat_absorbed_half_space_J_m2"` // closed form, over Duration
+	FluxAt1s_W_m2              float64 `json:"flux_at_1s_W_m2"`
+	FluxAtEnd_W_m2             float64 `json:"flux_at_end_W_m2"`
+	FluxAtEndHalfSpace_W_m2    float64 `json:"flux_at_end_half_space_W_m2"`
+}
+
+// stepResponse simulates a step of Change K on the chosen surface (the
+// environment on that side imposed on the surface, resistance 0) of a
+// column that starts uniform, with the other side held at the starting
+// temperature behind its surface resistance.
+//
+// Closed form [Incropera et al., Fundamentals of Heat and Mass Transfer,
+// section 5.7, eq. 5.58]: q(t) = b dT / sqrt(pi t), b = sqrt(lambda rho c),
+// so the heat taken up is Q(t) = 2 b dT sqrt(t / pi).
+func stepResponse(s *Scenario, col solver.Column, r *Results) error {
+	st := s.Analysis.StepResponse
+	c := col
+	fromInside := st.Side == "inside"
+	if fromInside {
+		c = reversed(col)
+	}
+	c.HalfSpace = false
+	first := c.Layers[0]
+	for _, l := range c.Layers {
+		if !l.IsResistance() {
+			first = l
+			break
+		}
+	}
+	a := first.Diffusivity()
+	// Cells near the surface resolve the diffusion length of a time step.
+	nSteps := 2000.0
+	dt := st.Duration / nSteps
+	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(a*dt), Growth: 1.15})
+	if err != nil {
+		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+	}
+	change := st.Change
+	far := s.Inside
+	if fromInside {
+		far = s.Outside
+	}
+	farB := solver.Boundary{Kind: solver.Environment, Resistance: far.Resistance, Temperature: func(float64) float64 { return 0 }}
+	if s.Kind == Ground || far.Adiabatic {
+		farB = solver.Boundary{Kind: solver.Adiabatic}
+	}
+	res, err := solver.Simulate(solver.Problem{
+		Column:   c,
+		Mesh:     mesh,
+		Outside:  solver.Boundary{Kind: solver.Environment, Resistance: 0, Temperature: func(float64) float64 { return change }},
+		Inside:   farB,
+		Initial:  make([]float64, mesh.Cells()),
+		Duration: st.Duration,
+		Step:     dt,
+	})
+	if err != nil {
+		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+	}
+	b := math.Sqrt(first.Conductivity * first.HeatCapacity)
+	out := &StepResult{
+		Side:                       st.Side,
+		Change_K:                   change,
+		Duration_s:                 st.Duration,
+		SurfaceLayer:               first.Name,
+		SurfaceEffusivity_Ws05_m2K: b,
+		HalfSpaceValidFor_s:        solver.HalfSpaceTime(a, first.Thickness, 0.01),
+		HeatAbsorbed_J_m2:          res.Energy.InflowOutside,
+		HeatAbsorbedHalfSpace_J_m2: 2 * b * change * math.Sqrt(st.Duration/math.Pi),
+		FluxAtEndHalfSpace_W_m2:    b * change / math.Sqrt(math.Pi*st.Duration),
+	}
+	ser := &r.Series
+	for k, t := range res.Times {
+		if k == 0 {
+			continue // the flux is singular at t = 0
+		}
+		q := res.FluxOutside[k]
+		ser.StepTime_s = append(ser.StepTime_s, t)
+		ser.StepFlux_W_m2 = append(ser.StepFlux_W_m2, q)
+		ser.StepFluxHalfSpace_W_m2 = append(ser.StepFluxHalfSpace_W_m2, b*change/math.Sqrt(math.Pi*t))
+		if out.FluxAt1s_W_m2 == 0 && t >= 1 {
+			out.FluxAt1s_W_m2 = q
+		}
+	}
+	out.FluxAtEnd_W_m2 = res.FluxOutside[len(res.FluxOutside)-1]
+	r.StepResponse = out
+	return nil
+}
+
+// reversed returns col seen from the inside: layers and surface
+// resistances swapped.
+func reversed(col solver.Column) solver.Column {
+	c := col
+	c.Layers = make([]solver.Layer, len(col.Layers))
+	for i, l := range col.Layers {
+		c.Layers[len(col.Layers)-1-i] = l
+	}
+	c.OutsideResistance, c.InsideResistance = col.InsideResistance, col.OutsideResistance
+	return c
+}
