@@ -31,8 +31,9 @@ type MeshOptions struct {
 	// ResolvePeriod is the shortest period (or time scale) the mesh must
 	// resolve, s. When SurfaceCell is 0 the cells at the faces of each
 	// layer are CellsPerDepth times smaller than the periodic penetration
-	// depth sqrt(a P / pi) of that layer (ISO 13786, clause 3). 0 means one
-	// day (86400 s).
+	// depth delta = sqrt(a P / pi) of that layer (ISO 13786), grow to at
+	// most twice that size within 3 delta of the face (where the wave of
+	// period P lives) and grow freely beyond. 0 means one day (86400 s).
 	ResolvePeriod float64
 
 	// CellsPerDepth is the number of surface cells per periodic penetration
@@ -144,17 +145,22 @@ func NewMesh(c Column, o MeshOptions) (*Mesh, error) {
 			continue
 		}
 		h0 := o.SurfaceCell
+		var hplat, yB float64
 		if h0 == 0 {
 			// Periodic penetration depth delta = sqrt(a P / pi), ISO 13786.
 			a := l.Diffusivity()
 			if f := l.Freeze; f != nil {
 				a = math.Min(a, f.ConductivityFrozen/f.HeatCapacityFrozen)
 			}
-			h0 = math.Sqrt(a*o.ResolvePeriod/math.Pi) / o.CellsPerDepth
+			delta := math.Sqrt(a * o.ResolvePeriod / math.Pi)
+			h0 = delta / o.CellsPerDepth
+			// Keep cells of 2 delta/CellsPerDepth down to 3 delta, where
+			// the resolved wave has decayed to exp(-3) = 5 %.
+			hplat, yB = h0, 3*delta
 		}
 		hmax := math.Min(o.MaxCell, l.Thickness/float64(o.MinCellsPerLayer))
 		h0 = math.Min(h0, hmax)
-		xs := fvGradedFaces(l.Thickness, h0, o.Growth, hmax, o.MinCellsPerLayer, o.Refinement)
+		xs := fvGradedFaces(l.Thickness, h0, o.Growth, hmax, hplat, yB, o.MinCellsPerLayer, o.Refinement)
 		for j := 1; j < len(xs); j++ {
 			x := top + xs[j]
 			if j == len(xs)-1 {
@@ -175,29 +181,53 @@ func NewMesh(c Column, o MeshOptions) (*Mesh, error) {
 
 // fvGradedFaces returns the faces 0 = x0 < ... < xN = d of a layer of
 // thickness d whose cells are h0 wide at both ends and grow by the ratio r
-// up to hmax. The faces equidistribute the target size function
-// h(y) = a + ln(r) y (y the distance to the nearer end, a = h0 ln(r)/(r-1),
-// so that unit steps of F(x) = integral of dx/h give cells h0, h0 r,
-// h0 r^2, ... exactly), capped at hmax: F(x_j) = j F(d)/N.
-func fvGradedFaces(d, h0, r, hmax float64, minCells, refine int) []float64 {
+// away from them, up to hmax. The faces equidistribute a target size
+// function h(y) of the distance y to the nearer end: F(x_j) = j F(d)/N with
+// F(x) the integral of dx/h. With a = h0 ln(r)/(r-1) and c = ln(r), the
+// size function
+//
+//	h(y) = a + c y                     (unit steps of F give h0, h0 r, h0 r^2, ... exactly)
+//	h(y) = hplat                       for yA <= y <= yB (a plateau, hplat >= a)
+//	h(y) = hplat + c (y - yB)          beyond
+//
+// capped at hmax. With yB = 0 there is no plateau.
+func fvGradedFaces(d, h0, r, hmax, hplat, yB float64, minCells, refine int) []float64 {
 	c := math.Log(r)
 	a := h0
 	if c > 1e-12 {
 		a = h0 * c / (r - 1)
+	} else {
+		c = 0
 	}
-	// yc: distance at which the size function reaches hmax.
-	yc := math.Inf(1)
-	if c > 1e-12 {
-		yc = math.Max(0, (hmax-a)/c)
+	type seg struct{ y0, y1, h, s float64 }
+	var segs []seg
+	if c == 0 || yB <= 0 || hplat <= a {
+		segs = []seg{{0, math.Inf(1), a, c}}
+	} else {
+		yA := math.Min((hplat-a)/c, yB)
+		segs = []seg{{0, yA, a, c}, {yA, yB, a + c*yA, 0}, {yB, math.Inf(1), a + c*yA, c}}
 	}
-	half := func(y float64) float64 { // integral of 1/h from 0 to y
-		if c <= 1e-12 {
-			return y / a
+	// half(y): integral of 1/min(hmax, h) from 0 to y.
+	half := func(y float64) float64 {
+		var F float64
+		for _, sg := range segs {
+			if y <= sg.y0 {
+				break
+			}
+			y1 := math.Min(y, sg.y1)
+			if sg.s == 0 {
+				F += (y1 - sg.y0) / math.Min(sg.h, hmax)
+				continue
+			}
+			// h reaches hmax at yc.
+			yc := sg.y0 + math.Max(0, (hmax-sg.h)/sg.s)
+			if y1 <= yc {
+				F += math.Log1p(sg.s*(y1-sg.y0)/sg.h) / sg.s
+			} else {
+				F += math.Log1p(sg.s*(yc-sg.y0)/sg.h)/sg.s + (y1-yc)/hmax
+			}
 		}
-		if y <= yc {
-			return math.Log1p(c*y/a) / c
-		}
-		return math.Log1p(c*yc/a)/c + (y-yc)/hmax
+		return F
 	}
 	F := func(x float64) float64 {
 		if x <= d/2 {

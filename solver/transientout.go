@@ -82,11 +82,13 @@ func (r *fvRun) sample(k int, t float64) {
 	res.FrostDepth[k], res.ThawDepth[k] = r.frost(tso)
 }
 
-// probe interpolates the temperature at x linearly between the cell
-// centre and the temperature of the nearer face, which is the linear
-// interpolation between centres inside a layer and follows the
-// conductance ratio across an interface (flux continuity). Surfaces return
-// the surface temperatures.
+// probe interpolates the temperature at x by the quadratic through the
+// centre of the cell holding x and its two neighbours, where a neighbour
+// across a layer interface, a massless layer or a surface is replaced by
+// the face temperature on this side (from the flux through the face), and
+// clamps it to the range of the three values. The reconstruction is exact
+// for the piecewise-linear profiles of steady states and third order where
+// the profile is smooth. Surfaces return the surface temperatures.
 func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
 	m, T, n := r.m, r.T, r.n
 	if x <= 0 {
@@ -96,25 +98,30 @@ func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
 		return tsi
 	}
 	c := m.CellAt(x)
-	xc := m.Centers[c]
-	if x < xc {
-		var tf float64
-		if c == 0 {
-			tf = T[0] + qo*r.rh[0]
-		} else {
-			tf = T[c] + r.gg[c-1]*(T[c-1]-T[c])*r.rh[c]
-		}
-		xf := m.Faces[c]
-		return tf + (T[c]-tf)*(x-xf)/(xc-xf)
+	var x0, t0, x2, t2 float64
+	switch {
+	case c == 0:
+		x0, t0 = m.Faces[0], T[0]+qo*r.rh[0]
+	case m.Layer[c-1] != m.Layer[c] || m.FaceResistance[c] != 0:
+		x0, t0 = m.Faces[c], T[c]+r.gg[c-1]*(T[c-1]-T[c])*r.rh[c]
+	default:
+		x0, t0 = m.Centers[c-1], T[c-1]
 	}
-	var tf float64
-	if c == n-1 {
-		tf = T[c] + qi*r.rh[c]
-	} else {
-		tf = T[c] - r.gg[c]*(T[c]-T[c+1])*r.rh[c]
+	switch {
+	case c == n-1:
+		x2, t2 = m.Faces[n], T[c]+qi*r.rh[c]
+	case m.Layer[c+1] != m.Layer[c] || m.FaceResistance[c+1] != 0:
+		x2, t2 = m.Faces[c+1], T[c]-r.gg[c]*(T[c]-T[c+1])*r.rh[c]
+	default:
+		x2, t2 = m.Centers[c+1], T[c+1]
 	}
-	xf := m.Faces[c+1]
-	return T[c] + (tf-T[c])*(x-xc)/(xf-xc)
+	x1, t1 := m.Centers[c], T[c]
+	// Lagrange quadratic through (x0,t0), (x1,t1), (x2,t2).
+	v := t0*(x-x1)*(x-x2)/((x0-x1)*(x0-x2)) +
+		t1*(x-x0)*(x-x2)/((x1-x0)*(x1-x2)) +
+		t2*(x-x0)*(x-x1)/((x2-x0)*(x2-x1))
+	lo, hi := math.Min(t0, math.Min(t1, t2)), math.Max(t0, math.Max(t1, t2))
+	return math.Min(math.Max(v, lo), hi)
 }
 
 // frozen reports whether cell i is at or below its freezing point: some
