@@ -31,6 +31,7 @@ const (
 	Fraction                            // 1 (0.12 = 12 %); %
 	HeatTransferCoefficient             // W/(m2 K)
 	Irradiance                          // W/m2; kW/m2
+	DegreeDays                          // K day (degC day), the trade's unit of a freezing index; K h, F day
 	numKinds
 )
 
@@ -144,6 +145,14 @@ var kinds = [numKinds]kindInfo{
 	Irradiance: {noun: "an irradiance", short: "irradiance", example: "800 W/m2", units: []unit{
 		{name: "W/m2", aliases: []string{"W m-2"}, scale: 1},
 		{name: "kW/m2", aliases: []string{"kW m-2"}, scale: 1e3},
+	}},
+	// A freezing or thawing index stays in degree-days inside the code, the
+	// unit every frost formula and table of the trade uses; ISO 13793 writes
+	// it in K h (24 K h = 1 K day).
+	DegreeDays: {noun: "a degree-day index", short: "degree-day index", example: "1200 degC day", units: []unit{
+		{name: "degC day", aliases: []string{"Cd", "°C d", "°C day", "°C days", "degC d", "degC days", "K d", "K day", "K days", "Kd", "C day", "C days"}, scale: 1},
+		{name: "K h", aliases: []string{"Kh", "°C h", "degC h"}, scale: 1.0 / 24},
+		{name: "degF day", aliases: []string{"°F day", "°F days", "F day", "F days", "Fd", "°F d"}, scale: degF},
 	}},
 }
 
