@@ -79,11 +79,11 @@ func newChart(id, title, tip string, gridBottom int) *ec.Line {
 			Title: title, Left: "center", Top: "4",
 			TitleStyle: &opts.TextStyle{FontSize: 15, FontWeight: "600", Color: colText},
 		}),
-		ec.WithLegendOpts(opts.Legend{Type: "scroll", Top: "30", Left: "center", Width: "76%"}),
+		ec.WithLegendOpts(opts.Legend{Type: "plain", Top: "30", Left: "center", Width: "86%"}),
 		ec.WithToolboxOpts(opts.Toolbox{Right: "12", Top: "2", Feature: &opts.ToolBoxFeature{
 			SaveAsImage: &opts.ToolBoxFeatureSaveAsImage{Type: "png", Name: id, Title: "Save as image"},
 		}}),
-		ec.WithGridOpts(opts.Grid{Left: "70", Right: "76", Top: "74", Bottom: fmt.Sprint(gridBottom)}),
+		ec.WithGridOpts(opts.Grid{Left: "70", Right: "76", Top: "70", Bottom: fmt.Sprint(gridBottom)}),
 		ec.WithTooltipOpts(opts.Tooltip{Trigger: "axis", Formatter: types.FuncStr(fn(tip)),
 			AxisPointer: tooltipPointer(tip)}),
 	)
@@ -111,8 +111,16 @@ func valueAxisX(name, unitLabel string, min, max any, log bool) opts.XAxis {
 	return opts.XAxis{
 		Type: t, Name: name, NameLocation: "middle", NameGap: 30, Min: min, Max: max,
 		AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}" + unitLabel), HideOverlap: opts.Bool(true)},
+		AxisLine:  axisLine(),
 		SplitLine: splitLine(),
 	}
+}
+
+// axisLine keeps every axis at the edge of the plot: by default echarts
+// draws an axis through the other axis' zero, which would pass for a data
+// line (the 0 °C line of a ground chart).
+func axisLine() *opts.AxisLine {
+	return &opts.AxisLine{Show: opts.Bool(true), OnZero: opts.Bool(false), LineStyle: &opts.LineStyle{Color: "#8C959F"}}
 }
 
 func valueAxisY(name, unitLabel string, inverse bool) opts.YAxis {
@@ -120,6 +128,7 @@ func valueAxisY(name, unitLabel string, inverse bool) opts.YAxis {
 		Type: "value", Name: name, NameLocation: "middle", NameGap: 50, Scale: opts.Bool(true),
 		Inverse:   opts.Bool(inverse),
 		AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}" + unitLabel)},
+		AxisLine:  axisLine(),
 		SplitLine: splitLine(),
 	}
 }

@@ -13,8 +13,27 @@ import (
 // min/max band is drawn, one custom series appended to it); none is built
 // as a plain map.
 
-// finish validates the chart and packs it with its id and caption.
+// legendRows estimates how many rows the legend takes in a chart of
+// chartWidth pixels (about 7 px per character plus the symbol).
+func legendRows(c *ec.Line) int {
+	w, rows := 0, 1
+	for _, s := range c.MultiSeries {
+		item := 6*len([]rune(s.Name)) + 40
+		if w+item > chartWidth*86/100 {
+			rows++
+			w = 0
+		}
+		w += item
+	}
+	return rows
+}
+
+// finish validates the chart and packs it with its id and caption; the
+// plot starts below the legend.
 func finish(c *ec.Line, id, caption string, thinned bool) (*chartSpec, error) {
+	if len(c.GridList) > 0 {
+		c.GridList[0].Top = fmt.Sprint(50 + 22*legendRows(c))
+	}
 	o, err := chartOption(c)
 	if err != nil {
 		return nil, err
@@ -52,7 +71,7 @@ func cycleChart(r *scenarios.Results) (*chartSpec, error) {
 		period = r.Periodic[0].Period_h
 	}
 	n := sides(r.Kind)
-	c := newChart(idCycle, "One "+periodLabel(period)+" cycle of the periodic steady state", "tipX", 56)
+	c := newChart(idCycle, "Periodic steady state over one period ("+periodLabel(period)+")", "tipX", 56)
 	c.SetGlobalOptions(
 		ec.WithXAxisOpts(valueAxisX("Time in the cycle ("+xl+")", " "+xl, 0, num(span*f), false)),
 		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
@@ -125,12 +144,24 @@ func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
 	})
 	var so []ec.SeriesOpts
 	if depthDown {
+		// Boundaries below the surface, each named by the layer below it.
 		var items []opts.MarkLineNameYAxisItem
-		for _, z := range b {
-			if v := num(z); v != nil {
-				items = append(items, opts.MarkLineNameYAxisItem{Name: "layer boundary", YAxis: v})
+		for i, z := range b {
+			v := num(z)
+			if v == nil || z <= 0 {
+				continue
 			}
+			name := "bottom of the column"
+			if i < len(r.Layers) {
+				name = "top of " + r.Layers[i].Name
+			}
+			items = append(items, opts.MarkLineNameYAxisItem{Name: name, YAxis: v})
 		}
+		style = ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+			Symbol:    []string{"none", "none"},
+			LineStyle: &opts.LineStyle{Color: colGrey, Width: 1, Type: "dashed"},
+			Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "insideEndTop", Color: colGrey, FontSize: 11},
+		})
 		so = append(so, ec.WithMarkLineNameYAxisItemOpts(items...), style)
 		return so
 	}
@@ -144,19 +175,19 @@ func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
 	// Name the layers when the boundaries match them one to one.
 	if len(b) == len(r.Layers)+1 {
 		var areas [][]opts.MarkAreaData
+		span := b[len(b)-1] - b[0]
 		for i, l := range r.Layers {
 			x0, x1 := num(b[i]*1000), num(b[i+1]*1000)
 			if x0 == nil || x1 == nil {
 				continue
 			}
-			fill := "rgba(0,0,0,0)"
-			if i%2 == 1 {
-				fill = "rgba(107,107,107,0.07)"
-			}
+			// A name that cannot fit over its layer is left to the table.
+			show := 7*float64(len([]rune(l.Name))) < 0.86*chartWidth*(b[i+1]-b[i])/span
+			fill := "rgba(0,0,0,0)" // names only; the band stays visible
 			areas = append(areas, []opts.MarkAreaData{
 				{Name: l.Name, XAxis: x0, MarkAreaStyle: opts.MarkAreaStyle{
 					ItemStyle: &opts.ItemStyle{Color: fill},
-					Label:     &opts.Label{Show: opts.Bool(true), Position: "insideTop", Color: colGrey, FontSize: 11},
+					Label:     &opts.Label{Show: opts.Bool(show), Position: "insideTop", Color: colGrey, FontSize: 11},
 				}},
 				{XAxis: x1},
 			})
@@ -197,7 +228,7 @@ func responseChart(r *scenarios.Results) (*chartSpec, error) {
 		name string
 		h    float64
 	}{{"day", 24}, {"week", 168}, {"year", 8760}} {
-		if m.h >= lo && m.h <= hi {
+		if m.h > lo*1.05 && m.h < hi/1.05 { // not on the edge of the plot
 			marks = append(marks, opts.MarkLineNameXAxisItem{Name: m.name, XAxis: m.h})
 		}
 	}
@@ -219,7 +250,7 @@ func probeName(kind string, z float64) string {
 	if kind == "ground" {
 		return "At " + fixed(z, 2) + " m depth"
 	}
-	return "At " + sig(z*1000, 3) + " mm"
+	return "At " + trimZeros(sig(z*1000, 3)) + " mm"
 }
 
 // simTempChart: simulated temperatures against time at the surfaces and
@@ -319,20 +350,36 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 		what = "simulation, last simulated year, latent heat included"
 	}
 	addBand(c, "Range (min–max)", pos, lo, hi, true)
-	marks := layerMarks(r, true)
-	zero := []opts.MarkLineNameXAxisItem{{Name: "0 °C", XAxis: 0}}
-	marks = append(marks, ec.WithMarkLineNameXAxisItemOpts(zero...))
-	if r.Frost != nil && finite(r.Frost.MaxFrostDepth_m) && r.Frost.MaxFrostDepth_m > 0 {
-		marks = append(marks, ec.WithMarkLineNameYAxisItemOpts(opts.MarkLineNameYAxisItem{Name: "simulated max frost depth", YAxis: num(r.Frost.MaxFrostDepth_m)}))
+	// Layer boundaries on the mean line, 0 °C on the highest, the frost
+	// depth on the lowest: one marker style per series.
+	zero := []ec.SeriesOpts{
+		ec.WithMarkLineNameXAxisItemOpts(opts.MarkLineNameXAxisItem{Name: "0 °C", XAxis: 0}),
+		ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+			Symbol:    []string{"none", "none"},
+			LineStyle: &opts.LineStyle{Color: colBlack, Width: 1, Type: "dotted"},
+			Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "start", Color: colText, FontSize: 11},
+		}),
 	}
-	thinned := addLine(c, line{name: "Highest", x: hi, y: pos, xUnit: uDegC, yUnit: uM, color: colVermilion})
-	thinned = addLine(c, line{name: "Mean", x: mid, y: pos, xUnit: uDegC, yUnit: uM, color: colBlack, width: 1.5, dash: "dashed", opts: marks}) || thinned
-	thinned = addLine(c, line{name: "Lowest", x: lo, y: pos, xUnit: uDegC, yUnit: uM, color: colBlue}) || thinned
+	var frost []ec.SeriesOpts
+	if r.Frost != nil && finite(r.Frost.MaxFrostDepth_m) && r.Frost.MaxFrostDepth_m > 0 {
+		frost = []ec.SeriesOpts{
+			ec.WithMarkLineNameYAxisItemOpts(opts.MarkLineNameYAxisItem{
+				Name: "simulated max frost depth " + fixed(r.Frost.MaxFrostDepth_m, 2) + " m", YAxis: num(r.Frost.MaxFrostDepth_m)}),
+			ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+				Symbol:    []string{"none", "none"},
+				LineStyle: &opts.LineStyle{Color: colBlue, Width: 1.5, Type: "dashed"},
+				Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "insideEndBottom", Color: colBlue, FontSize: 11},
+			}),
+		}
+	}
+	thinned := addLine(c, line{name: "Highest", x: hi, y: pos, xUnit: uDegC, yUnit: uM, color: colVermilion, opts: zero})
+	thinned = addLine(c, line{name: "Mean", x: mid, y: pos, xUnit: uDegC, yUnit: uM, color: colBlack, width: 1.5, dash: "dashed", opts: layerMarks(r, true)}) || thinned
+	thinned = addLine(c, line{name: "Lowest", x: lo, y: pos, xUnit: uDegC, yUnit: uM, color: colBlue, opts: frost}) || thinned
 	if simOK && exactOK {
 		thinned = addLine(c, line{name: "Highest, exact periodic", x: s.ProfileMax_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colVermilion, width: 1, dash: "dotted"}) || thinned
 		thinned = addLine(c, line{name: "Lowest, exact periodic", x: s.ProfileMin_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colBlue, width: 1, dash: "dotted"}) || thinned
 	}
-	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward. Dashed lines: layer boundaries, 0 °C and the simulated maximum frost depth.", thinned)
+	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward. Grey dashed lines mark layer boundaries, the dotted line 0 °C and the blue dashed line the simulated maximum frost depth.", thinned)
 }
 
 // frostChart: frost depth and thaw depth against time, depth pointing
@@ -356,7 +403,7 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 	thinned := false
 	for _, l := range []line{
 		{name: "Frost depth (deepest frozen point)", y: s.FrostDepth_m, color: colBlue, area: true},
-		{name: "Thaw depth (thawed from the surface)", y: s.ThawDepth_m, color: colOrange, area: true},
+		{name: "Thaw depth (thawed from the surface)", y: s.ThawDepth_m, color: colOrange, width: 1.5},
 	} {
 		if len(l.y) == 0 {
 			continue
@@ -382,9 +429,14 @@ func stepChart(r *scenarios.Results) (*chartSpec, error) {
 		}
 	}
 	c := newChart(idStep, "Step response of the outside surface", "tipX", 56)
+	y := valueAxisY("Surface heat flux (W/m²)", "", false)
+	if minOf(s.StepFlux_W_m2) > 0 && !(minOf(s.StepFluxHalfSpace_W_m2) <= 0) {
+		// q ∝ 1/√t for the half-space: a straight line on log-log axes.
+		y.Type, y.Name = "log", "Surface heat flux (W/m², logarithmic)"
+	}
 	c.SetGlobalOptions(
 		ec.WithXAxisOpts(valueAxisX("Time after the step (s, logarithmic)", " s", num(minOf(t)), num(maxOf(t)), true)),
-		ec.WithYAxisOpts(valueAxisY("Surface heat flux (W/m²)", "", false)),
+		ec.WithYAxisOpts(y),
 	)
 	thinned := addLine(c, line{name: "Simulated", x: t, y: s.StepFlux_W_m2, xUnit: uSec, yUnit: uFlux, color: colBlue})
 	if len(s.StepFluxHalfSpace_W_m2) > 0 {

@@ -24,11 +24,6 @@ func newTable(caption string, head []string, align ...string) *table {
 func (t *table) row(cells ...string) {
 	r := make([]string, len(t.Head))
 	copy(r, cells)
-	for i := range r {
-		if r[i] == "" {
-			r[i] = dash
-		}
-	}
 	t.Rows = append(t.Rows, r)
 }
 
@@ -38,7 +33,7 @@ func pos(v float64, n int) string {
 	if !(v > 0) || !finite(v) {
 		return dash
 	}
-	return sig(v, n)
+	return trimZeros(sig(v, n))
 }
 
 // component names what the results describe, for sentences.
@@ -115,22 +110,25 @@ func layerTable(r *scenarios.Results) *table {
 	for i, l := range r.Layers {
 		th := dash
 		if l.Thickness_m > 0 && finite(l.Thickness_m) {
-			th = sig(l.Thickness_m*f, 4)
+			th = trimZeros(sig(l.Thickness_m*f, 4))
 			total += l.Thickness_m
 		}
-		name := l.Name
+		name, mat := l.Name, l.Material
 		if name == "" {
 			name = l.Material
 		}
+		if mat == "" {
+			mat = dash
+		}
 		pd := dash
 		if l.PenetrationDepth_m > 0 && finite(l.PenetrationDepth_m) {
-			pd = sig(l.PenetrationDepth_m*f, 3)
+			pd = trimZeros(sig(l.PenetrationDepth_m*f, 3))
 		}
-		t.row(fmt.Sprint(i+1), name, l.Material, th, pos(l.Conductivity_W_mK, 3), pos(l.Density_kg_m3, 4),
+		t.row(fmt.Sprint(i+1), name, mat, th, pos(l.Conductivity_W_mK, 3), pos(l.Density_kg_m3, 4),
 			pos(l.SpecificHeat_J_kgK, 4), pos(l.Resistance_m2K_W, 3), pd, l.Source)
 	}
 	if len(r.Layers) > 1 {
-		t.row("", "Total", "", sig(total*f, 4), "", "", "", pos(r.Steady.ThermalResistance_m2K_W, 3), "", "")
+		t.row("", "Total", "", trimZeros(sig(total*f, 4)), "", "", "", pos(r.Steady.ThermalResistance_m2K_W, 3), "", "")
 	}
 	t.Notes = append(t.Notes, "λ thermal conductivity, ρ density, c specific heat capacity, R = d/λ thermal resistance, δ = √(λT/(πρc)) periodic penetration depth. A dash means the value is not given or does not apply (an air layer given by its resistance, a half-space).")
 	return t
@@ -200,9 +198,15 @@ func periodicTable(r *scenarios.Results) *block {
 			sig(p.OutsideAdmittance_W_m2K, 3), fixed(p.OutsideAdmittanceLead_h, 1),
 			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3))
 	}
-	t.Notes = append(t.Notes,
-		"f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance: the swing of heat flow into the room relative to a massless "+component(r)+" with the same U-value. It is not a ratio of surface temperatures.",
-		"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.")
+	if r.Kind == "ground" {
+		t.Notes = append(t.Notes,
+			"Side 1 is the bottom of the column, side 2 the ground surface. f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance of the column; for a deep column the temperature swing at depth is read more directly from the ground temperature chart.",
+			"Time shift: how long the heat-flow swing at the bottom lags the surface forcing, in [0, period). Y₁₁ and Y₂₂ are the admittances with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities.")
+	} else {
+		t.Notes = append(t.Notes,
+			"f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance: the swing of heat flow into the room relative to a massless "+component(r)+" with the same U-value. It is not a ratio of surface temperatures.",
+			"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.")
+	}
 	if wrapped {
 		t.Notes = append(t.Notes, "A time shift in brackets counts whole periods: it is the full travel time of the wave through the construction.")
 	}
