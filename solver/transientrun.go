@@ -28,7 +28,7 @@ var (
 const (
 	fvMaxIter = 60   // enthalpy iterations per implicit stage
 	fvTolT    = 1e-9 // K, convergence of the enthalpy iteration
-	fvTolK    = 1e-9 // relative change of conductivity at convergence
+	fvTolK    = 1e-7 // relative change of conductivity at convergence
 )
 
 // fvBC is one surface condition of a run.
@@ -108,7 +108,11 @@ type fvRun struct {
 
 	// workspace
 	tn, rhs, lo, di, up, w, tlin, hrhs, hn, hold []float64
+	ipiv                                         []float64 // inverse pivots of the enthalpy system
 	reg, nclip                                   []int8
+	pcells                                       []int   // cells with a phase change
+	nlTh                                         float64 // theta*dt of the kept factorisation
+	nlDirty                                      int     // rows from here up need factorising again
 	fac                                          fvSymTridiag
 	facTh                                        float64
 
@@ -207,6 +211,13 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	r.tn, r.rhs, r.lo, r.di, r.up, r.w = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
+	r.ipiv = alloc()
+	r.nlTh, r.nlDirty = math.NaN(), n-1
+	for i := range r.pidx {
+		if r.pidx[i] >= 0 {
+			r.pcells = append(r.pcells, i)
+		}
+	}
 
 	// Initial state.
 	switch {
@@ -606,67 +617,113 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 // the net inflow of cell i with the boundary values vo, vi, starting from
 // the current state. Each iteration linearises T(H) around the current
 // enthalpy with the slope dT/dH of the current phase region (Newton on the
-// enthalpy), solves the tridiagonal system for the enthalpy change, and
-// then sets the enthalpy from the conservative update
-// H_i = hrhs_i + th/h_i F_i(T_lin) with the linearised temperatures. A
-// cell whose update crosses a kink of T(H) (the ends of the freezing
-// range) is stopped on the kink and linearised in the region beyond it in
-// the next iteration, which makes the iteration converge where plain Newton
-// would cycle across the kink; the iteration ends only on an unclipped,
-// conservative update, so the energy balance of every accepted stage is
-// exact to round-off. It returns the surface inflows of that update.
+// enthalpy, conductances lagged by one iteration), solves the tridiagonal
+// system for the enthalpy change, and then sets the enthalpy from the
+// conservative update H_i = hrhs_i + th/h_i F_i(T_lin) with the linearised
+// temperatures. A cell whose update crosses a kink of T(H) (an end of the
+// freezing range) is stopped on the kink and linearised in the region
+// beyond it in the next iteration, which makes the iteration converge
+// where plain Newton would cycle across the kink; the iteration ends only
+// on an unclipped, conservative update, so the energy balance of every
+// accepted stage is exact to round-off. It returns the surface inflows of
+// that update.
+//
+// The system is eliminated from the bottom up and its pivots are kept
+// between iterations and steps: only the rows above the deepest cell whose
+// slope or conductivity changed are factorised again (in a ground column
+// the frost stays near the surface, so the deep rows are reused).
 func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	n := r.n
 	H, T, s, kc := r.H[:n], r.T[:n], r.slope[:n], r.kc[:n]
-	h, invh, hrhs, tlin, hold := r.h[:n], r.invh[:n], r.hrhs[:n], r.tlin[:n], r.hold[:n]
-	lo, di, up, res, w := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n]
+	h, invh, hrhs, tlin := r.h[:n], r.invh[:n], r.hrhs[:n], r.tlin[:n]
+	lo, di, up, y, wb, ip := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n], r.ipiv[:n]
 	reg, nclip := r.reg[:n], r.nclip[:n]
 	gg := r.gg
-	for i := 0; i < n; i++ {
-		if k := r.pidx[i]; k >= 0 {
-			reg[i] = r.phases[k].region(H[i])
-		}
+	out, in := &r.out, &r.in
+	for _, i := range r.pcells {
+		reg[i] = r.phases[r.pidx[i]].region(H[i])
 		nclip[i] = 0
+	}
+	if th != r.nlTh {
+		r.nlTh = th
+		r.nlDirty = n - 1
 	}
 	for it := 0; ; it++ {
 		r.iterations++
-		// Residual R_i = h_i (hrhs_i - H_i) + th F_i(T) and Jacobian in H.
-		qo, qi = r.netFlux(T, vo, vi, res)
-		for i := 0; i < n; i++ {
-			res[i] = h[i]*(hrhs[i]-H[i]) + th*res[i]
-			gl, gr := 0.0, 0.0
+		// Factorise the rows that changed, bottom up:
+		// piv_i = di_i - up_i w_{i+1}, w_i = lo_i / piv_i.
+		for i := r.nlDirty; i >= 0; i-- {
+			gl, gr, gb := 0.0, 0.0, 0.0
+			lo[i], up[i] = 0, 0
 			if i > 0 {
 				gl = gg[i-1]
 				lo[i] = -th * gl * s[i-1]
+			} else {
+				gb += out.g
 			}
 			if i < n-1 {
 				gr = gg[i]
 				up[i] = -th * gr * s[i+1]
+			} else {
+				gb += in.g
 			}
-			di[i] = h[i] + th*(gl+gr)*s[i]
+			di[i] = h[i] + th*(gl+gr+gb)*s[i]
+			piv := di[i]
+			if i < n-1 {
+				piv -= up[i] * wb[i+1]
+			}
+			ip[i] = 1 / piv
+			wb[i] = lo[i] * ip[i]
 		}
-		di[0] += th * r.out.g * s[0]
-		di[n-1] += th * r.in.g * s[n-1]
-		fvThomas(lo, di, up, res, w)
-		for i := 0; i < n; i++ {
-			tlin[i] = T[i] + s[i]*res[i]
+		r.nlDirty = -1
+		// Residual R_i = h_i (hrhs_i - H_i) + th F_i(T), eliminated bottom up.
+		qo, qi = out.inflow(vo, T[0]), in.inflow(vi, T[n-1])
+		fBelow := -qi
+		yNext := 0.0
+		for i := n - 1; i >= 0; i-- {
+			fAbove := qo
+			if i > 0 {
+				fAbove = gg[i-1] * (T[i-1] - T[i])
+			}
+			yi := h[i]*(hrhs[i]-H[i]) + th*(fAbove-fBelow) - up[i]*yNext
+			yi *= ip[i]
+			y[i] = yi
+			yNext = yi
+			fBelow = fAbove
 		}
-		// Conservative update from the linearised temperatures.
-		qo, qi = r.netFlux(tlin, vo, vi, res)
+		// Back substitution top down, linearised temperatures, conservative
+		// update of each cell once the fluxes through both its faces are
+		// known, and the new state of the cell.
 		last := it+1 >= fvMaxIter
 		errT, dk := 0.0, 0.0
 		clipped := false
+		klo, khi := n, -1
+		x := y[0]
+		tlin[0] = T[0] + s[0]*x
+		qo = out.inflow(vo, tlin[0])
+		fAbove := qo
 		for i := 0; i < n; i++ {
-			hold[i] = H[i]
-			H[i] = hrhs[i] + th*invh[i]*res[i]
+			var fBelow float64
+			if i < n-1 {
+				x = y[i+1] - wb[i+1]*x
+				tlin[i+1] = T[i+1] + s[i+1]*x
+				fBelow = gg[i] * (tlin[i] - tlin[i+1])
+			} else {
+				qi = in.inflow(vi, tlin[i])
+				fBelow = -qi
+			}
+			H[i] = hrhs[i] + th*invh[i]*(fAbove-fBelow)
+			fAbove = fBelow
 			k := r.pidx[i]
 			if k < 0 {
-				T[i] = H[i] / r.cvol[i]
-				errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
+				T[i] = H[i] * s[i]
+				if e := math.Abs(T[i] - tlin[i]); e > errT {
+					errT = e
+				}
 				continue
 			}
 			ph := &r.phases[k]
-			kold := kc[i]
+			kold, sold := kc[i], s[i]
 			rn := ph.region(H[i])
 			if rn != reg[i] && nclip[i] < 4 && !last {
 				// Stop on the first kink crossed; continue beyond it.
@@ -691,10 +748,23 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
 			if kc[i] != kold {
 				dk = math.Max(dk, math.Abs(kc[i]-kold)/kc[i])
+				klo, khi = min(klo, i), max(khi, i)
+			}
+			if kc[i] != kold || s[i] != sold {
+				r.nlDirty = max(r.nlDirty, min(i+1, n-1))
 			}
 		}
-		if dk > 0 {
-			r.updateConductances()
+		if khi >= 0 {
+			// Conductances next to the cells whose conductivity changed.
+			for j := max(klo-1, 0); j <= min(khi, n-2); j++ {
+				gg[j] = 1 / (r.rh[j] + r.rf[j+1] + r.rh[j+1])
+			}
+			if klo == 0 {
+				out.setG(r.rh[0])
+			}
+			if khi == n-1 {
+				in.setG(r.rh[n-1])
+			}
 		}
 		if !clipped && errT <= fvTolT && dk <= fvTolK {
 			return qo, qi
