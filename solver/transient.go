@@ -51,6 +51,21 @@ type Boundary struct {
 	Flux        func(t float64) float64 // W/m2 into the column at time t (s), PrescribedFlux only
 }
 
+// ColumnBoundaries returns Environment boundaries for both surfaces of c
+// with the column's own surface resistances (OutsideResistance,
+// InsideResistance), the environment temperatures (degC) given by outside
+// and inside as functions of time (s). For a HalfSpace column, whose
+// InsideResistance is ignored, the inside boundary imposes inside(t) on
+// the bottom face itself.
+func ColumnBoundaries(c Column, outside, inside func(t float64) float64) (out, in Boundary) {
+	out = Boundary{Kind: Environment, Resistance: c.OutsideResistance, Temperature: outside}
+	in = Boundary{Kind: Environment, Resistance: c.InsideResistance, Temperature: inside}
+	if c.HalfSpace {
+		in.Resistance = 0
+	}
+	return out, in
+}
+
 // TimeScheme selects the time integration of Simulate.
 type TimeScheme int
 
@@ -109,7 +124,9 @@ type Problem struct {
 // Result is the outcome of Simulate.
 //
 // Series are sampled at Times (s); index 0 is the initial state at
-// Problem.Start. Fluxes are W/m2, positive in +x (outside to inside, down
+// Problem.Start (its fluxes are those of the initial state against the
+// boundary values at Start: after a step change at Start they show the
+// jump, not a physical flux). Fluxes are W/m2, positive in +x (outside to inside, down
 // into the ground). The per-cell envelope (Min, Max, Mean) runs over the
 // samples; Mean averages the samples after the initial one, which for a
 // run of whole periods sampled evenly is the period mean.

@@ -70,14 +70,15 @@ func TestSimulateSteadyLayeredWall(t *testing.T) {
 		}
 		return to - q*r
 	}
+	col.OutsideResistance, col.InsideResistance = rse, rsi
 	mesh, err := NewMesh(col, MeshOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}
+	out, in := ColumnBoundaries(col, fvtConst(to), fvtConst(ti))
 	res, err := Simulate(Problem{
 		Column: col, Mesh: mesh,
-		Outside:     Boundary{Kind: Environment, Resistance: rse, Temperature: fvtConst(to)},
-		Inside:      Boundary{Kind: Environment, Resistance: rsi, Temperature: fvtConst(ti)},
+		Outside: out, Inside: in,
 		InitialFunc: exact,
 		Duration:    86400, Step: 3600,
 		Probes: []float64{0, 0.01, 0.02, 0.0200001, 0.1, 0.27, 0.28, 0.285},
