@@ -211,9 +211,12 @@ func thin(y []float64, limit int) []int {
 }
 
 // addBand adds a filled band between two curves as a custom series drawn
-// by the trusted renderItem "band": one quadrilateral per interval. With
-// vertical false the band spans lo..hi in y over x (a profile across a
-// wall); with vertical true it spans lo..hi in x over y (depth down).
+// by the trusted renderItem "band". Each data item is one position: the
+// low point (x, y) and the high point (x, y); the renderItem joins all of
+// them into one polygon per run of finite values, so the band has no
+// seams. With vertical false the band spans lo..hi in y over x (a profile
+// across a wall); with vertical true it spans lo..hi in x over y (depth
+// down).
 func addBand(c *ec.Line, name string, pos, lo, hi []float64, vertical bool) {
 	n := min(len(pos), len(lo), len(hi))
 	step := 1
@@ -221,15 +224,12 @@ func addBand(c *ec.Line, name string, pos, lo, hi []float64, vertical bool) {
 		step = (n + maxPoints - 1) / maxPoints
 	}
 	var data []opts.CustomData
-	for i := 0; i < n-1; i += step {
-		j := min(i+step, n-1)
-		var q [8]float64
+	for i := 0; i < n; i += step {
+		q := [4]float64{pos[i], lo[i], pos[i], hi[i]}
 		if vertical {
-			q = [8]float64{lo[i], pos[i], hi[i], pos[i], hi[j], pos[j], lo[j], pos[j]}
-		} else {
-			q = [8]float64{pos[i], lo[i], pos[i], hi[i], pos[j], hi[j], pos[j], lo[j]}
+			q = [4]float64{lo[i], pos[i], hi[i], pos[i]}
 		}
-		v := make([]any, 8)
+		v := make([]any, 4)
 		for k := range q {
 			v[k] = num(q[k])
 		}
@@ -237,7 +237,7 @@ func addBand(c *ec.Line, name string, pos, lo, hi []float64, vertical bool) {
 	}
 	c.MultiSeries = append(c.MultiSeries, ec.SingleSeries{
 		Name: name, Type: "custom", RenderItem: types.FuncStr(fn("band")), Data: data,
-		Encode:    &opts.Encode{X: []int{0, 2, 4, 6}, Y: []int{1, 3, 5, 7}},
+		Encode:    &opts.Encode{X: []int{0, 2}, Y: []int{1, 3}},
 		ItemStyle: &opts.ItemStyle{Color: colBand},
 	})
 }

@@ -46,10 +46,14 @@ func wallFixture() *scenarios.Results {
 			{Period_h: 168, DecrementFactor: 0.71, TimeShift_h: 14.2, TimeShiftUnwrapped_h: 14.2, PeriodicTransmittance_W_m2K: 0.215, InsideAdmittance_W_m2K: 1.9, InsideAdmittanceLead_h: 20.5, OutsideAdmittance_W_m2K: 2.4, OutsideAdmittanceLead_h: 18.1, InsideArealHeatCapacity_kJ_m2K: 110, OutsideArealHeatCapacity_kJ_m2K: 140},
 		},
 		Simulation: &scenarios.Simulation{
-			Duration_h: 168, Step_h: 0.25, Cells: 84, EnergyBalanceRelativeError: 3.1e-13, SpinUpCycles: 0,
+			Duration_h: 168, Step_h: 0.25, Cells: 84, EnergyBalanceRelativeError: 3.1e-13, SpinUpCycles: 0, OutputStep_h: 0.25,
+			HeatInOutside_J_m2: -1.52e6, HeatInInside_J_m2: 1.49e6, StoredHeat_J_m2: -3.0e4,
 			Probes:        []scenarios.Probe{{Depth_m: 0.05, Min_C: 6.2, Max_C: 18.9, Mean_C: 12.4}, {Depth_m: 0.2, Min_C: 17.1, Max_C: 17.6, Mean_C: 17.3}},
 			PeriodicCheck: []scenarios.PeriodicCheck{{Period_h: 24, DecrementFactor: 0.2138, TimeShift_h: 9.41, ExactDecrementFactor: 0.214, ExactTimeShift_h: 9.4}},
 		},
+		StepResponse: &scenarios.StepResult{Side: "outside", Change_K: 10, Duration_s: 1e5, SurfaceLayer: "facing brick",
+			SurfaceEffusivity_Ws05_m2K: 1161, HalfSpaceValidFor_s: 2.2e4, HeatAbsorbed_J_m2: 3.9e6, HeatAbsorbedHalfSpace_J_m2: 4.1e6,
+			FluxAt1s_W_m2: 6540, FluxAtEnd_W_m2: 15.1, FluxAtEndHalfSpace_W_m2: 20.7},
 		Warnings: []string{"invented data: this report is a rendering test"},
 	}
 	s := &r.Series
@@ -78,6 +82,7 @@ func wallFixture() *scenarios.Results {
 	s.SimOutsideAir_C = wave(s.SimTime_h, 12, 8, 24, 15)
 	s.SimOutsideSurface_C = wave(s.SimTime_h, 12.3, 7.2, 24, 15.3)
 	s.SimInsideSurface_C = wave(s.SimTime_h, 19.4, 0.25, 24, 24.4)
+	s.SimInsideAir_C = wave(s.SimTime_h, 20, 0, 24, 0)
 	s.SimOutsideFlux_W_m2 = wave(s.SimTime_h, -2.4, 30, 24, 13)
 	s.SimInsideFlux_W_m2 = wave(s.SimTime_h, -2.4, 0.52, 24, 24.4)
 	s.ProbeDepth_m = []float64{0.05, 0.2}

@@ -125,7 +125,7 @@ const (
 	colPurple    = "#CC79A7"
 	colGrey      = "#6B6B6B"
 	colText      = "#1F2328"
-	colBand      = "#D5ECFA" // sky blue at 25 % on white, opaque so that band pieces join without seams
+	colBand      = "rgba(86,180,233,0.28)" // sky blue, translucent
 )
 
 // palette is the series colour cycle (probes and other open-ended lists).

@@ -280,7 +280,8 @@ func simTempChart(r *scenarios.Results) (*chartSpec, error) {
 		}
 		ls = append(ls, line{name: probeName(r.Kind, z), y: s.Probes_C[i], color: probeCols[i%len(probeCols)], width: 1.5, dash: []string{"", "dashed"}[i/len(probeCols)%2]})
 	}
-	ls = append(ls, line{name: n.inSurf, y: s.SimInsideSurface_C, color: colBlue, width: 1.5})
+	ls = append(ls, line{name: n.inSurf, y: s.SimInsideSurface_C, color: colBlue, width: 1.5},
+		line{name: n.inAir, y: s.SimInsideAir_C, color: colSky, width: 1.2, dash: "dashed"})
 	thinned := false
 	for _, l := range ls {
 		if len(l.y) == 0 {
@@ -428,7 +429,25 @@ func stepChart(r *scenarios.Results) (*chartSpec, error) {
 			t[i] = nan
 		}
 	}
-	c := newChart(idStep, "Step response of the outside surface", "tipX", 56)
+	side, change := "outside", ""
+	var marks []ec.SeriesOpts
+	if st := r.StepResponse; st != nil {
+		if st.Side == "inside" {
+			side = "inside"
+		}
+		change = " of " + fixed(st.Change_K, 1) + " K"
+		if v := st.HalfSpaceValidFor_s; finite(v) && v > minOf(t) && v < maxOf(t) {
+			marks = []ec.SeriesOpts{
+				ec.WithMarkLineNameXAxisItemOpts(opts.MarkLineNameXAxisItem{Name: "heat reaches the next layer", XAxis: num(v)}),
+				ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+					Symbol:    []string{"none", "none"},
+					LineStyle: &opts.LineStyle{Color: colGrey, Width: 1, Type: "dashed"},
+					Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "insideEndTop", Color: colGrey, FontSize: 11},
+				}),
+			}
+		}
+	}
+	c := newChart(idStep, "Step response of the "+side+" surface", "tipX", 56)
 	y := valueAxisY("Surface heat flux (W/m²)", "", false)
 	if minOf(s.StepFlux_W_m2) > 0 && !(minOf(s.StepFluxHalfSpace_W_m2) <= 0) {
 		// q ∝ 1/√t for the half-space: a straight line on log-log axes.
@@ -438,9 +457,9 @@ func stepChart(r *scenarios.Results) (*chartSpec, error) {
 		ec.WithXAxisOpts(valueAxisX("Time after the step (s, logarithmic)", " s", num(minOf(t)), num(maxOf(t)), true)),
 		ec.WithYAxisOpts(y),
 	)
-	thinned := addLine(c, line{name: "Simulated", x: t, y: s.StepFlux_W_m2, xUnit: uSec, yUnit: uFlux, color: colBlue})
+	thinned := addLine(c, line{name: "Simulated", x: t, y: s.StepFlux_W_m2, xUnit: uSec, yUnit: uFlux, color: colBlue, opts: marks})
 	if len(s.StepFluxHalfSpace_W_m2) > 0 {
 		thinned = addLine(c, line{name: "Half-space closed form", x: t, y: s.StepFluxHalfSpace_W_m2, xUnit: uSec, yUnit: uFlux, color: colVermilion, dash: "dashed"}) || thinned
 	}
-	return finish(c, idStep, "Heat flux through the outside surface after a sudden change of its temperature. The closed form treats the first layer as a semi-infinite solid, q = λ ΔT / √(π a t); the two curves part once the heat reaches the next layer.", thinned)
+	return finish(c, idStep, "Heat flux into the "+side+" surface after a sudden change"+change+" of its temperature. The closed form treats the surface layer as a semi-infinite solid, q = b ΔT / √(π t) with b = √(λρc); the two curves part once the heat reaches the next layer.", thinned)
 }

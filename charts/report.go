@@ -196,13 +196,13 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	var sim *section
 	if r.Simulation != nil || len(r.Series.SimTime_h) > 0 {
 		sim = &section{ID: "simulation", Heading: "Transient simulation"}
-		add(sim, simTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
+		add(sim, simTable(r), energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
 	}
 
 	var step *section
-	if len(r.Series.StepTime_s) > 0 {
+	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
 		step = &section{ID: "step", Heading: "Step response"}
-		add(step, chart(stepChart))
+		add(step, stepTable(r), chart(stepChart))
 	}
 	if firstErr != nil {
 		return nil, nil, firstErr

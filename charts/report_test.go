@@ -213,6 +213,28 @@ func TestWallReport(t *testing.T) {
 	if band["type"] != "custom" || band["renderItem"] != "fn:TSFN.band" {
 		t.Errorf("envelope band: type %v renderItem %v", band["type"], band["renderItem"])
 	}
+	// One band item per profile point: [x, min, x, max].
+	bd := band["data"].([]any)
+	if len(bd) != len(r.Series.ProfilePosition_m) {
+		t.Errorf("band has %d items, want %d", len(bd), len(r.Series.ProfilePosition_m))
+	}
+	v := bd[3].(map[string]any)["value"].([]any)
+	mm := num(1000 * r.Series.ProfilePosition_m[3])
+	want := []any{mm, num(r.Series.ProfileMin_C[3]), mm, num(r.Series.ProfileMax_C[3])}
+	if !equalAny(v, want) {
+		t.Errorf("band item 3 = %v, want %v", v, want)
+	}
+	// The step chart has a log time axis and a log flux axis (q > 0 in
+	// the fixture), and marks where the half-space form stops holding.
+	for _, axis := range []string{"xAxis", "yAxis"} {
+		if typ := charts[idStep][axis].([]any)[0].(map[string]any)["type"]; typ != "log" {
+			t.Errorf("step chart %s type %v, want log", axis, typ)
+		}
+	}
+	step := findSeries(t, charts[idStep], "Simulated")
+	if ml := step["markLine"].(map[string]any)["data"].([]any); len(ml) != 1 {
+		t.Errorf("step chart: %d markLines, want 1", len(ml))
+	}
 	// (c) logarithmic period axis and two y axes.
 	resp := charts[idResponse]
 	if typ := resp["xAxis"].([]any)[0].(map[string]any)["type"]; typ != "log" {
@@ -228,7 +250,8 @@ func TestWallReport(t *testing.T) {
 	for _, want := range []string{
 		"Steady state (ISO 6946)", "Periodic properties per period", "facing brick", "mineral-wool",
 		"Simulation against the exact periodic solution", "Simulated temperatures at the probes",
-		"21 %", "9.4 h", "f = |Y₁₂|/U = 0.214", "Energy balance",
+		"21 %", "9.4 h", "f = |Y₁₂|/U = 0.214", "Energy balance of the simulation", "Heat that entered through the outside",
+		"Output interval", "Step of the outside surface temperature", "Thermal effusivity",
 		"one-dimensional heat flow", "homogeneous layers", "ISO 13786", "TR-BDF2", "Carslaw and Jaeger",
 	} {
 		if !strings.Contains(html, want) {
@@ -238,6 +261,18 @@ func TestWallReport(t *testing.T) {
 	if strings.Contains(html, "licensed geotechnical engineer") {
 		t.Error("wall report carries the frost caution")
 	}
+}
+
+func equalAny(a, b []any) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
 }
 
 func findSeries(t testing.TB, option map[string]any, name string) map[string]any {
@@ -303,6 +338,7 @@ func TestSectionsOnlyWithData(t *testing.T) {
 	r.Simulation = nil
 	r.Series.SimTime_h = nil
 	r.Series.StepTime_s = nil
+	r.StepResponse = nil
 	html := render(t, r, Options{})
 	charts, _ := chartData(t, html)
 	if len(charts) != 3 {

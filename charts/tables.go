@@ -221,13 +221,67 @@ func simTable(r *scenarios.Results) *block {
 	}
 	t := newTable("Simulation run", []string{"Quantity", "Value"}, "text")
 	t.row("Duration simulated", hours(s.Duration_h))
-	t.row("Time step", sig(s.Step_h, 3)+" h")
+	t.row("Time step", trimZeros(sig(s.Step_h, 3))+" h")
+	if s.OutputStep_h > 0 {
+		t.row("Output interval", trimZeros(sig(s.OutputStep_h, 3))+" h")
+	}
 	t.row("Cells", fmt.Sprint(s.Cells))
 	if s.SpinUpCycles > 0 {
 		t.row("Spin-up cycles before recording", fmt.Sprint(s.SpinUpCycles))
 	}
-	t.row("Energy balance, relative error", sig(s.EnergyBalanceRelativeError, 2))
-	t.Notes = append(t.Notes, "Energy balance: heat in through both surfaces minus the change of stored heat (sensible and latent), relative to the heat that passed; round-off size means energy is conserved.")
+	return &block{Table: t}
+}
+
+// energyTable sets the heat that entered through each surface beside the
+// change of heat stored in the construction over the simulated run.
+func energyTable(r *scenarios.Results) *block {
+	s := r.Simulation
+	if s == nil {
+		return nil
+	}
+	in, out := "inside", "outside"
+	if r.Kind == "ground" {
+		in, out = "bottom", "ground surface"
+	}
+	t := newTable("Energy balance of the simulation", []string{"Quantity", "kJ/m²"}, "text")
+	kJ := func(v float64) string { return sig(v/1000, 4) }
+	total := s.HeatInOutside_J_m2 + s.HeatInInside_J_m2
+	if s.HeatInOutside_J_m2 != 0 || s.HeatInInside_J_m2 != 0 || s.StoredHeat_J_m2 != 0 {
+		t.row("Heat that entered through the "+out, kJ(s.HeatInOutside_J_m2))
+		t.row("Heat that entered through the "+in, kJ(s.HeatInInside_J_m2))
+		t.row("Total heat that entered", kJ(total))
+		t.row("Change of heat stored (sensible and latent)", kJ(s.StoredHeat_J_m2))
+		t.row("Difference", kJ(total-s.StoredHeat_J_m2))
+	}
+	t.row("Relative error of the balance", sig(s.EnergyBalanceRelativeError, 2))
+	t.Notes = append(t.Notes, "Heat counts positive into the construction. The heat that entered through both surfaces must equal the change of heat stored; a relative error at round-off level (about 10⁻¹² or smaller) means the simulation conserves energy.")
+	return &block{Table: t}
+}
+
+// stepTable summarises the step-response run.
+func stepTable(r *scenarios.Results) *block {
+	st := r.StepResponse
+	if st == nil {
+		return nil
+	}
+	t := newTable("Step response", []string{"Quantity", "Simulated", "Half-space closed form", "Unit"}, "text", "", "", "text")
+	t.row("Step of the "+st.Side+" surface temperature", fixed(st.Change_K, 1), "", "K")
+	t.row("Duration", trimZeros(sig(st.Duration_s, 4)), "", "s")
+	t.row("Surface layer", st.SurfaceLayer, "", "")
+	t.row("Thermal effusivity b = √(λρc) of the surface layer", "", trimZeros(sig(st.SurfaceEffusivity_Ws05_m2K, 4)), "W·s^½/(m²·K)")
+	t.row("Closed form valid until (far face of the surface layer reached)", "", trimZeros(sig(st.HalfSpaceValidFor_s, 3)), "s")
+	t.row("Heat flux 1 s after the step", sig(st.FluxAt1s_W_m2, 4), sig(st.SurfaceEffusivity_Ws05_m2K*st.Change_K/math.Sqrt(math.Pi), 4), "W/m²")
+	t.row("Heat flux at the end", sig(st.FluxAtEnd_W_m2, 4), sig(st.FluxAtEndHalfSpace_W_m2, 4), "W/m²")
+	t.row("Heat taken up over the duration", sig(st.HeatAbsorbed_J_m2/1000, 4), sig(st.HeatAbsorbedHalfSpace_J_m2/1000, 4), "kJ/m²")
+	for i := range t.Rows {
+		if t.Rows[i][1] == "" {
+			t.Rows[i][1] = dash
+		}
+		if t.Rows[i][2] == "" {
+			t.Rows[i][2] = dash
+		}
+	}
+	t.Notes = append(t.Notes, "Closed form: q = b ΔT / √(π t) and Q = 2 b ΔT √(t/π) for a semi-infinite solid (Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7). It holds until the heat reaches the far face of the surface layer; after that the two columns are expected to differ.")
 	return &block{Table: t}
 }
 
@@ -307,7 +361,7 @@ func methods(r *scenarios.Results) []string {
 			"Stefan frost depth X = √(2 k F / L): k frozen conductivity, F surface freezing index (converted to °C·s), L latent heat per volume of soil.",
 			"Modified Berggren frost depth (Aldrich and Paynter, 1953; US Army TM 5-852-6 / UFC 3-130-06): the Stefan form with the mean of frozen and unfrozen conductivity, multiplied by a coefficient λ that depends on the thermal ratio α and the fusion parameter μ.")
 	}
-	if len(r.Series.StepTime_s) > 0 {
+	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
 		m = append(m, "Step response closed form: a semi-infinite solid whose surface temperature changes by ΔT, q = λ ΔT / √(π a t) (Carslaw and Jaeger, Conduction of Heat in Solids, §2.4; Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7).")
 	}
 	m = append(m, "Charts: Apache ECharts 5.6.0, embedded in this file. Long time series are thinned for display only.")

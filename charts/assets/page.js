@@ -65,21 +65,29 @@ var TSFN = (function () {
       return '<div style="margin-bottom:2px;color:#57606a">' + esc(head) + '</div>' + rows.join('<br>');
     };
   }
-  // renderItem of the min/max band: each data item holds the four corners
-  // (x, y) of one quadrilateral of the band.
+  // renderItem of the min/max band. Each data item holds the low and the
+  // high point of one position: [xLow, yLow, xHigh, yHigh]. The first item
+  // draws the whole band as one polygon per run of finite points (low
+  // points forward, high points back), so the band has no seams; the
+  // other items draw nothing.
   function band(params, api) {
-    var pts = [];
-    for (var k = 0; k < 4; k++) {
-      var x = api.value(2 * k), y = api.value(2 * k + 1);
-      if (!isFinite(x) || !isFinite(y)) { return null; }
-      pts.push(api.coord([x, y]));
+    if (params.dataIndexInside !== 0) { return null; }
+    var polys = [], lo = [], hi = [];
+    function flush() {
+      if (lo.length > 1) {
+        polys.push({type: 'polygon', shape: {points: lo.concat(hi.reverse())},
+          style: {fill: api.visual('color')}, silent: true});
+      }
+      lo = []; hi = [];
     }
-    var fill = api.visual('color');
-    return {
-      type: 'polygon',
-      shape: {points: pts},
-      style: {fill: fill, stroke: fill, lineWidth: 0.6}
-    };
+    for (var i = 0; i < params.dataInsideLength; i++) {
+      var v = [api.value(0, i), api.value(1, i), api.value(2, i), api.value(3, i)];
+      if (!v.every(isFinite)) { flush(); continue; }
+      lo.push(api.coord([v[0], v[1]]));
+      hi.push(api.coord([v[2], v[3]]));
+    }
+    flush();
+    return {type: 'group', children: polys};
   }
   return {tipX: tip('x'), tipY: tip('y'), band: band};
 }());
