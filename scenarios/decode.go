@@ -13,6 +13,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"tempstack/climate"
+	"tempstack/ground"
 	"tempstack/layers"
 	"tempstack/solver"
 )
@@ -47,10 +48,13 @@ func cleanOSError(err error) string {
 
 var (
 	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis"}
-	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range"}
+	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil"}
+	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic"}
+	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
+	bottomKeys   = []string{"temperature", "heat_flux", "adiabatic"}
 	tempKeys     = []string{"mean", "daily", "annual", "harmonics", "step"}
-	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response"}
+	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response", "design_freezing_index", "design_season_length"}
 	simulateKeys = []string{"duration", "step", "output_step", "initial_temperature", "mesh", "spin_up_cycles"}
 	meshKeys     = []string{"surface_cell", "growth", "max_cell", "cells_per_depth", "min_cells_per_layer"}
 )
@@ -185,16 +189,36 @@ func (d *decoder) decodeLayer(o *object, s *Scenario) (layers.Layer, error) {
 	}
 	if hasMat {
 		m, ok := layers.Lookup(key)
-		if !ok {
-			msg := fmt.Sprintf("unknown material %q", key)
-			if sug := layers.Suggest(key); len(sug) > 0 {
-				msg += fmt.Sprintf("; did you mean %q?", sug[0])
-			} else {
-				msg += "; `tempstack materials` lists the library"
+		switch {
+		case ok:
+			l = m.Layer()
+		default:
+			p, isSoil := ground.Preset(key)
+			if !isSoil {
+				msg := fmt.Sprintf("unknown material %q", key)
+				if sug := layers.Closest(key, allMaterialKeys(), 1); len(sug) > 0 {
+					msg += fmt.Sprintf("; did you mean %q?", sug[0])
+				} else {
+					msg += "; `tempstack materials` lists the library"
+				}
+				return l, o.errKey("material", "%s", msg)
 			}
-			return l, o.errKey("material", "%s", msg)
+			var err error
+			if l, err = presetLayer(p); err != nil {
+				return l, o.errKey("material", "%v", err)
+			}
 		}
-		l = m.Layer()
+	}
+	if o.has("soil") {
+		if hasMat {
+			return l, o.errKey("soil", "give either material or soil, not both")
+		}
+		sl, err := d.decodeSoil(o, s)
+		if err != nil {
+			return l, err
+		}
+		l = sl
+		hasMat = true // properties come from the soil model
 	}
 	if name, ok, err := o.str("name"); err != nil {
 		return l, err
@@ -273,6 +297,37 @@ func (d *decoder) decodeFreezing(o *object, l *layers.Layer) error {
 	if !any {
 		return nil
 	}
+	if l.Freeze != nil {
+		// A soil or preset already freezes: the keys override single values.
+		fz := *l.Freeze
+		if v, ok, err := o.positive("latent_heat", layers.LatentHeatVolumetric); err != nil {
+			return err
+		} else if ok {
+			fz.LatentHeat = v
+		}
+		if v, ok, err := o.positive("conductivity_frozen", layers.Conductivity); err != nil {
+			return err
+		} else if ok {
+			fz.ConductivityFrozen = v
+		}
+		if v, ok, err := o.positive("specific_heat_frozen", layers.SpecificHeat); err != nil {
+			return err
+		} else if ok {
+			fz.HeatCapacityFrozen = v * l.Density
+		}
+		if v, ok, err := o.quantity("freezing_point", layers.Temperature); err != nil {
+			return err
+		} else if ok {
+			fz.Point = v
+		}
+		if v, ok, err := o.nonNegative("freezing_range", layers.TemperatureDifference); err != nil {
+			return err
+		} else if ok {
+			fz.Range = v
+		}
+		l.Freeze = &fz
+		return nil
+	}
 	if !o.has("latent_heat") {
 		return o.missing("latent_heat", "freezing keys need the latent heat of the layer's water, J/m3 of layer (e.g. dry density x water content x 334 kJ/kg)")
 	}
@@ -331,17 +386,29 @@ func (d *decoder) decodeSides(top *object, s *Scenario) error {
 }
 
 func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR float64, outside bool) (Side, error) {
-	side := Side{Resistance: defaultR}
-	if s.Kind == Ground && outside {
+	side := Side{Resistance: defaultR, NFreezing: 1, NThawing: 1}
+	allowed := sideKeys
+	if s.Kind == Ground {
 		side.Resistance = 0
+		allowed = bottomKeys
+		if outside {
+			allowed = surfaceKeys
+		}
 	}
-	o, ok, err := top.child(key, sideKeys)
+	o, ok, err := top.child(key, allowed)
 	if err != nil {
 		return side, err
 	}
 	if !ok {
-		if outside {
+		switch {
+		case outside:
 			return side, top.missing(key, "the temperature on this side, e.g. temperature: {mean: 10, daily: {amplitude: 8, peak_hour: 15}}")
+		case s.Kind == Ground:
+			// Default bottom: the continental mean geothermal heat flux,
+			// 65 mW/m2 (Pollack, Hurter and Johnson 1993, Rev. Geophys.
+			// 31:267 [read, per REFERENCES section 3]).
+			side.HeatFlux, side.Flux = DefaultGeothermalFlux, true
+			return side, nil
 		}
 		// Default inside: 20 degC air behind the ISO 6946 resistance.
 		side.Temperature = &Forcing{Periodic: climate.Periodic{Mean: 20}}
@@ -351,6 +418,9 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 		return side, err
 	} else if ok {
 		side.Resistance = v
+	}
+	if err := d.decodeNFactors(o, &side); err != nil {
+		return side, err
 	}
 	n := 0
 	if o.has("temperature") {
@@ -381,6 +451,9 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 	}
 	if outside && side.Temperature == nil {
 		return side, o.missing("temperature", "the "+key+" side is driven by a temperature")
+	}
+	if s.Kind == Ground && !outside && side.Temperature != nil && len(side.Temperature.Harmonics) > 0 {
+		return side, o.errKey("temperature", "the bottom temperature must be constant: give only a mean")
 	}
 	return side, nil
 }
@@ -562,6 +635,29 @@ func (d *decoder) decodeAnalysis(top *object, s *Scenario) error {
 			}
 			a.Periods = append(a.Periods, p)
 		}
+	}
+	if v, ok, err := o.quantity("design_freezing_index", layers.DegreeDays); err != nil {
+		return err
+	} else if ok {
+		if s.Kind != Ground {
+			return o.errKey("design_freezing_index", "applies to kind: ground only")
+		}
+		if v < 0 {
+			return o.errKey("design_freezing_index", "a freezing index is a sum of degree-days below 0 degC and cannot be negative, got %g", v)
+		}
+		a.DesignFreezingIndex = &v
+		a.DesignLine = o.line("design_freezing_index")
+	}
+	if v, ok, err := o.positive("design_season_length", layers.Duration); err != nil {
+		return err
+	} else if ok {
+		if !o.has("design_freezing_index") {
+			return o.errKey("design_season_length", "goes with design_freezing_index")
+		}
+		if v > climate.Year {
+			return o.errKey("design_season_length", "a freezing season cannot be longer than a year")
+		}
+		a.DesignSeason = v
 	}
 	if r, ok, err := o.child("response", []string{"from", "to", "points"}); err != nil {
 		return err
@@ -797,4 +893,191 @@ func fmtDuration(sec float64) string {
 		return fmt.Sprintf("%gmin", sec/60)
 	}
 	return fmt.Sprintf("%gs", sec)
+}
+
+// allMaterialKeys lists the building materials and the ground presets, for
+// did-you-mean suggestions.
+func allMaterialKeys() []string {
+	keys := layers.MaterialKeys()
+	for _, p := range ground.Presets() {
+		keys = append(keys, p.Key)
+	}
+	return keys
+}
+
+// presetLayer turns a ground preset into a layer (thickness set later).
+func presetLayer(p ground.SoilPreset) (layers.Layer, error) {
+	sl, err := p.Layer(p.Key, 1)
+	if err != nil {
+		return layers.Layer{}, err
+	}
+	l := fromSolverLayer(sl, bulkDensity(p.Soil))
+	l.Name, l.MaterialKey, l.Source, l.Family = p.Description, p.Key, p.Source, "soil"
+	l.Thickness = 0
+	return l, nil
+}
+
+// bulkDensity is the wet bulk density of a soil, kg/m3: dry density plus
+// pore water, rho_d (1 + w). A fixed-property preset reports 2000 kg/m3
+// only to split its volumetric heat capacity into rho and c for display.
+func bulkDensity(s *ground.Soil) float64 {
+	if s == nil {
+		return 2000
+	}
+	return s.DryDensity * (1 + s.WaterContent)
+}
+
+// fromSolverLayer converts a solver layer from the soil models into a
+// layers.Layer with density rho and c = C / rho.
+func fromSolverLayer(sl solver.Layer, rho float64) layers.Layer {
+	return layers.Layer{
+		Name:         sl.Name,
+		Thickness:    sl.Thickness,
+		Conductivity: sl.Conductivity,
+		Density:      rho,
+		SpecificHeat: sl.HeatCapacity / rho,
+		Freeze:       sl.Freeze,
+		Family:       "soil",
+	}
+}
+
+// decodeSoil reads a soil: block (texture, dry density, water content) and
+// returns the layer its property models give (thickness set later).
+func (d *decoder) decodeSoil(parent *object, s *Scenario) (layers.Layer, error) {
+	o, _, err := parent.child("soil", soilKeys)
+	if err != nil {
+		return layers.Layer{}, err
+	}
+	var soil ground.Soil
+	tex, ok, err := o.choice("texture", []string{"sand", "gravel", "silt-clay", "silt", "clay"})
+	if err != nil {
+		return layers.Layer{}, err
+	}
+	if !ok {
+		return layers.Layer{}, o.missing("texture", "sand (sand and gravel) or silt-clay")
+	}
+	if soil.Texture, err = ground.ParseTexture(tex); err != nil {
+		return layers.Layer{}, o.errKey("texture", "%v", err)
+	}
+	v, ok, err := o.positive("dry_density", layers.Density)
+	if err != nil {
+		return layers.Layer{}, err
+	}
+	if !ok {
+		return layers.Layer{}, o.missing("dry_density", "kg of solids per m3 of soil, e.g. 1700")
+	}
+	soil.DryDensity = v
+	w, ok, err := o.nonNegative("water_content", layers.Fraction)
+	if err != nil {
+		return layers.Layer{}, err
+	}
+	if !ok {
+		return layers.Layer{}, o.missing("water_content", "mass of water per mass of dry soil, e.g. 15 %")
+	}
+	soil.WaterContent = w
+	if m, ok, err := o.choice("model", []string{"kersten", "johansen"}); err != nil {
+		return layers.Layer{}, err
+	} else if ok {
+		if soil.Model, err = ground.ParseModel(m); err != nil {
+			return layers.Layer{}, o.errKey("model", "%v", err)
+		}
+	}
+	if q, ok, err := o.nonNegative("quartz", layers.Fraction); err != nil {
+		return layers.Layer{}, err
+	} else if ok {
+		if q > 1 {
+			return layers.Layer{}, o.errKey("quartz", "a fraction of the solids must not exceed 1 (100 %%)")
+		}
+		soil.Quartz = q
+	}
+	if v, ok, err := o.positive("solids_density", layers.Density); err != nil {
+		return layers.Layer{}, err
+	} else if ok {
+		soil.SolidsDensity = v
+	}
+	if v, ok, err := o.positive("solids_specific_heat", layers.SpecificHeat); err != nil {
+		return layers.Layer{}, err
+	} else if ok {
+		soil.SolidsHeat = v
+	}
+	if v, ok, err := o.quantity("freezing_point", layers.Temperature); err != nil {
+		return layers.Layer{}, err
+	} else if ok {
+		soil.FreezingPoint = v
+	}
+	if v, ok, err := o.nonNegative("freezing_range", layers.TemperatureDifference); err != nil {
+		return layers.Layer{}, err
+	} else if ok {
+		soil.FreezingRange = v
+	}
+	if err := soil.Validate(); err != nil {
+		return layers.Layer{}, o.d.errf(o.node, o.path, "%v", err)
+	}
+	sl, err := soil.Layer("soil", 1)
+	if err != nil {
+		return layers.Layer{}, o.d.errf(o.node, o.path, "%v", err)
+	}
+	l := fromSolverLayer(sl, bulkDensity(&soil))
+	l.Thickness = 0
+	l.Name = fmt.Sprintf("%s, %.0f kg/m3 dry, %.0f %% water", tex, soil.DryDensity, 100*soil.WaterContent)
+	model := "Kersten (1949)"
+	if soil.Model == ground.ModelJohansen {
+		model = "Johansen (1975)"
+	}
+	l.Source = "soil model: conductivity " + model + "; heat capacity of solids, water and ice; latent heat rho_d w 334 kJ/kg (see README, Methods)"
+	return l, nil
+}
+
+// decodeNFactors reads n_factor (a number, or {freezing, thawing}) and
+// cover (a surface preset of UFC 3-130-04 Table 4-1) of a ground surface.
+func (d *decoder) decodeNFactors(o *object, side *Side) error {
+	if o.has("cover") {
+		keys := []string{}
+		for _, n := range ground.Surfaces() {
+			keys = append(keys, n.Surface)
+		}
+		c, _, err := o.choice("cover", keys)
+		if err != nil {
+			return err
+		}
+		n, _ := ground.NFactor(c)
+		side.Cover = c
+		side.NFreezing = n.Freezing
+		if th, ok := n.Thawing(); ok {
+			side.NThawing = th
+		} else {
+			side.NThawing = 0 // decided below: given, or 1 with a warning
+		}
+	}
+	if o.has("n_factor") {
+		v := o.values["n_factor"]
+		if v.Kind == yaml.ScalarNode {
+			n, _, err := o.positive("n_factor", layers.Fraction)
+			if err != nil {
+				return err
+			}
+			side.NFreezing, side.NThawing = n, n
+		} else {
+			no, _, err := o.child("n_factor", []string{"freezing", "thawing"})
+			if err != nil {
+				return err
+			}
+			if n, ok, err := no.positive("freezing", layers.Fraction); err != nil {
+				return err
+			} else if ok {
+				side.NFreezing = n
+			}
+			if n, ok, err := no.positive("thawing", layers.Fraction); err != nil {
+				return err
+			} else if ok {
+				side.NThawing = n
+			}
+		}
+	}
+	for _, n := range []float64{side.NFreezing, side.NThawing} {
+		if n > 3 {
+			return o.errKey("n_factor", "an n-factor above 3 is outside every published table; check the value")
+		}
+	}
+	return nil
 }

@@ -19,8 +19,9 @@ type Results struct {
 	Periodic []PeriodicResult `json:"periodic"`
 
 	// Simulation and Frost are filled by later stages; nil when not run.
-	Simulation *Simulation `json:"simulation,omitempty"`
-	Frost      *Frost      `json:"frost,omitempty"`
+	Simulation *Simulation        `json:"simulation,omitempty"`
+	Frost      *Frost             `json:"frost,omitempty"`
+	Ground     *GroundTemperature `json:"ground,omitempty"`
 
 	// StepResponse is filled when analysis.step_response asks for it.
 	StepResponse *StepResult `json:"step_response,omitempty"`
@@ -83,6 +84,7 @@ type Simulation struct {
 	Cells                      int             `json:"cells"`
 	EnergyBalanceRelativeError float64         `json:"energy_balance_relative_error"`
 	SpinUpCycles               int             `json:"spin_up_cycles"`
+	SpinUpChange_K             float64         `json:"spin_up_change_K"` // largest change over the last spin-up cycle, where the periodic wave reaches
 	OutputStep_h               float64         `json:"output_step_h"`
 	StoredHeat_J_m2            float64         `json:"stored_heat_J_m2"`     // change of heat content over the run
 	HeatInOutside_J_m2         float64         `json:"heat_in_outside_J_m2"` // heat that entered through the outside surface
@@ -109,12 +111,80 @@ type PeriodicCheck struct {
 	ExactTimeShift_h     float64 `json:"exact_time_shift_h"`
 }
 
+// GroundTemperature is the exact periodic ground-temperature result.
+type GroundTemperature struct {
+	SurfaceMean_C            float64          `json:"surface_mean_C"`             // mean surface temperature (n-factors applied)
+	SurfaceAnnualAmplitude_K float64          `json:"surface_annual_amplitude_K"` // half the annual surface swing
+	AnnualDampingDepth_m     float64          `json:"annual_damping_depth_m"`     // depth where the annual swing falls below 0.1 K
+	ColumnDepth_m            float64          `json:"column_depth_m"`
+	DomainDeepEnough         bool             `json:"domain_deep_enough"`   // column deeper than AnnualDampingDepth_m
+	GeothermalFlux_W_m2      float64          `json:"geothermal_flux_W_m2"` // upward; NaN (null) with a fixed bottom temperature
+	NFactorFreezing          float64          `json:"n_factor_freezing,omitempty"`
+	NFactorThawing           float64          `json:"n_factor_thawing,omitempty"`
+	Periodic                 []GroundPeriodic `json:"periodic"`
+}
+
+// GroundPeriodic is the exact periodic ground temperature for one period.
+type GroundPeriodic struct {
+	Period_h           float64       `json:"period_h"`
+	SurfaceAmplitude_K float64       `json:"surface_amplitude_K"`
+	DampingDepth_m     float64       `json:"damping_depth_m,omitempty"` // amplitude below 0.1 K
+	Probes             []GroundProbe `json:"probes"`
+}
+
+// GroundProbe is the exact periodic temperature at one depth.
+type GroundProbe struct {
+	Depth_m     float64 `json:"depth_m"`
+	Amplitude_K float64 `json:"amplitude_K"`
+	Lag_h       float64 `json:"lag_h"` // behind the surface, unwrapped
+	Lag_d       float64 `json:"lag_d"`
+	Mean_C      float64 `json:"mean_C"`
+	Min_C       float64 `json:"min_C"` // mean minus this period's amplitude
+	Max_C       float64 `json:"max_C"`
+}
+
 // Frost is the frost-depth result of a ground scenario.
 type Frost struct {
 	FreezingIndex_Cd        float64 `json:"freezing_index_Cd"`
 	MaxFrostDepth_m         float64 `json:"max_frost_depth_m"`
 	StefanDepth_m           float64 `json:"stefan_depth_m"`
 	ModifiedBerggrenDepth_m float64 `json:"modified_berggren_depth_m"`
+
+	SurfaceFreezingIndex_Cd float64       `json:"surface_freezing_index_Cd"` // n-factor x air index
+	FreezingNFactor         float64       `json:"freezing_n_factor"`
+	SeasonLength_d          float64       `json:"season_length_d"`
+	MeanAnnualAir_C         float64       `json:"mean_annual_air_C"`
+	DesignFreezingIndex_Cd  *float64      `json:"design_freezing_index_Cd,omitempty"`
+	IndexSource             string        `json:"index_source"` // "forcing" or "design": what the closed forms used
+	BerggrenLambda          float64       `json:"berggren_lambda"`
+	BerggrenAlpha           float64       `json:"berggren_alpha"`
+	BerggrenMu              float64       `json:"berggren_mu"`
+	Winters                 []FrostWinter `json:"winters,omitempty"`
+}
+
+// FrostWinter is the simulated frost of one winter year (1 July to 30
+// June on the simulation's axis; t = 0 is 1 January of year 1).
+type FrostWinter struct {
+	Label               string      `json:"label"`
+	Start_d             float64     `json:"start_d"`
+	End_d               float64     `json:"end_d"`
+	Complete            bool        `json:"complete"` // the run covers the whole winter year
+	AirFreezingIndex_Cd float64     `json:"air_freezing_index_Cd"`
+	AirThawingIndex_Cd  float64     `json:"air_thawing_index_Cd"`
+	MaxFrostDepth_m     float64     `json:"max_frost_depth_m"`
+	MaxFrostDay         float64     `json:"max_frost_day"` // days from the start of year 1
+	MaxFrostDate        string      `json:"max_frost_date"`
+	MaxThawDepth_m      float64     `json:"max_thaw_depth_m"`
+	FrozenAllYear       bool        `json:"frozen_all_year"`
+	ActiveLayer_m       float64     `json:"active_layer_m,omitempty"`
+	FrozenDays          []ProbeDays `json:"frozen_days"`
+}
+
+// ProbeDays is the number of days a probe spent at or below its freezing
+// point.
+type ProbeDays struct {
+	Depth_m float64 `json:"depth_m"`
+	Days    float64 `json:"days"`
 }
 
 // Series is chart data: curves over time, over depth and over period.

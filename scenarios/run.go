@@ -19,6 +19,8 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 	switch s.Kind {
 	case Wall:
 		return runWall(s, progress)
+	case Ground:
+		return runGround(s, progress)
 	}
 	return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 }

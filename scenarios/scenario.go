@@ -38,6 +38,9 @@ type Scenario struct {
 	Inside  Side // wall: inside; ground: the bottom
 
 	Analysis Analysis
+
+	surface   *Forcing // cached effective surface forcing (n-factors applied)
+	waveDepth float64  // ground: deepest depth a periodic swing of 0.1 K reaches, m
 }
 
 // Side is the boundary on one face of the column.
@@ -55,7 +58,20 @@ type Side struct {
 	Flux     bool
 	// Adiabatic: no heat crosses this face.
 	Adiabatic bool
+
+	// NFreezing and NThawing are the n-factors of a ground surface: the
+	// surface temperature is NFreezing x the air temperature below 0 degC
+	// and NThawing x it above (1 and 1: the air temperature is the surface
+	// temperature). Cover names the surface preset they came from.
+	NFreezing, NThawing float64
+	Cover               string
 }
+
+// DefaultGeothermalFlux is the heat flux entering a ground column from
+// below when the scenario gives no bottom condition: the continental mean
+// of Pollack, Hurter and Johnson (1993), Reviews of Geophysics 31:267,
+// 65 mW/m2 [read, per REFERENCES section 3].
+const DefaultGeothermalFlux = 0.065
 
 // Forcing is an environment temperature over time: a mean plus harmonics,
 // optionally replaced by a step change.
@@ -95,6 +111,13 @@ type Analysis struct {
 	// StepResponse asks for the response of one surface to a sudden
 	// temperature change; nil when not asked.
 	StepResponse *StepResponse
+
+	// DesignFreezingIndex (air, degC day), when set, drives the closed-form
+	// frost depths instead of the index of the forcing; DesignSeason is its
+	// freezing-season length (s; 0 = the forcing's).
+	DesignFreezingIndex *float64
+	DesignSeason        float64
+	DesignLine          int
 }
 
 // Simulate controls the transient finite-volume simulation.
