@@ -85,12 +85,13 @@ func newApp(stdout, stderr io.Writer) *cli.App {
 			materialsCommand(),
 			newCommand(),
 			examplesCommand(),
+			indicesCommand(),
 		},
 		HideHelpCommand: false,
 	}
 	app.Before = func(c *cli.Context) error {
 		if name := c.Args().First(); name != "" && app.Command(name) == nil && name != "help" && name != "h" {
-			return userErr("unknown command %q; commands: run, check, materials, new, examples (try `tempstack help`)", name)
+			return userErr("unknown command %q; commands: run, check, materials, new, examples, indices (try `tempstack help`)", name)
 		}
 		return nil
 	}
