@@ -227,3 +227,35 @@ func TestPhaseEnthalpyRoundTrip(t *testing.T) {
 		t.Errorf("enthalpy across the range %g", d)
 	}
 }
+
+func TestSimulateNarrowFreezingRangeApproachesNeumann(t *testing.T) {
+	// A freezing range of 0.05 K is close to isothermal freezing: the front
+	// (the 0 degC isotherm, where ice starts to form) must follow the
+	// two-phase Neumann solution (Lunardini 1981 case [2nd-hand]) within
+	// 1 %, which exercises the ranged branch of the enthalpy relation.
+	p := fvLunardini
+	col := fvtNeumannColumn(p, 8, 0.05)
+	m, _ := NeumannFront(p)
+	res, err := Simulate(Problem{
+		Column:      col,
+		Outside:     Boundary{Kind: Environment, Temperature: fvtConst(p.Surface)},
+		Inside:      Boundary{Kind: Adiabatic},
+		InitialFunc: func(float64) float64 { return p.Initial },
+		Duration:    60 * 86400, Step: 3600, SampleEvery: 10 * 86400,
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for k := 1; k < len(res.Times); k++ {
+		want := m * math.Sqrt(res.Times[k])
+		if x := res.FrostDepth[k]; math.Abs(x-want) > 0.01*want {
+			t.Errorf("t = %g d: front %.4f m, Neumann %.4f m", res.Times[k]/86400, x, want)
+		}
+	}
+	k := len(res.Times) - 1
+	t.Logf("range 0.05 K: front at 60 d %.4f m (Neumann %.4f m), %d iterations / %d steps, %d unconverged, energy error %.1g",
+		res.FrostDepth[k], m*math.Sqrt(res.Times[k]), res.Iterations, res.Steps, res.Unconverged, res.Energy.RelativeError)
+	if res.Unconverged > 0 || res.Energy.RelativeError > 1e-8 {
+		t.Errorf("%d unconverged stages, energy error %g", res.Unconverged, res.Energy.RelativeError)
+	}
+}

@@ -136,14 +136,31 @@ func (r *fvRun) frozen(i int) bool {
 }
 
 // frost returns the frost depth and the thaw depth (m) of the current
-// state; tso is the outside surface temperature. In a layer with
-// isothermal freezing the front is placed inside its cell by the frozen
-// fraction (the ice assumed on the cold side, as in enthalpy
-// front tracking); elsewhere the freezing-point isotherm is interpolated
-// linearly between cell centres (or the surface).
+// state; tso is the outside surface temperature. In a cell with isothermal
+// freezing, or with a freezing range narrower than the cell (a partly
+// frozen cell next to a fully frozen one), the front is placed inside the
+// cell by its frozen fraction (the ice assumed on the cold side, as in
+// enthalpy front tracking); elsewhere the freezing-point isotherm is
+// interpolated linearly between cell centres (or the surface).
 func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 	m, T, n, thr := r.m, r.T, r.n, r.thr
 	iso := func(i int) bool { k := r.pidx[i]; return k >= 0 && r.phases[k].isoTerm }
+	// thin reports whether cell i holds, in a freezing range, a mushy zone
+	// thinner than the cell: partly frozen between a fully frozen (or
+	// surface) side and an unfrozen side. Its front is then placed by the
+	// frozen fraction, as for isothermal freezing.
+	solid := func(j int) bool {
+		if r.pidx[j] >= 0 {
+			return r.phi[j] <= 1e-6
+		}
+		return T[j] <= thr[j]
+	}
+	thin := func(i, frozenSide int) bool {
+		if r.pidx[i] < 0 || r.phi[i] <= 1e-6 || r.phi[i] >= 1-1e-6 {
+			return false
+		}
+		return frozenSide < 0 || frozenSide >= n || solid(frozenSide)
+	}
 	cross := func(x0, t0, x1, t1, th float64) float64 {
 		if t1 == t0 {
 			return x0
@@ -162,7 +179,7 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		if tso < thr[0] {
 			frost = cross(0, tso, m.Centers[0], T[0], thr[0])
 		}
-	case iso(deep):
+	case iso(deep) || thin(deep, deep-1):
 		frost = m.Faces[deep] + (1-r.phi[deep])*r.h[deep]
 	case deep == n-1:
 		frost = m.Faces[n]
@@ -179,7 +196,7 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		top++
 	}
 	switch {
-	case iso(top):
+	case iso(top) || thin(top, top+1):
 		thaw = m.Faces[top] + r.phi[top]*r.h[top]
 	case top == 0:
 		thaw = cross(0, tso, m.Centers[0], T[0], thr[0])
