@@ -85,7 +85,8 @@ type FitOptions struct {
 	Discard float64
 
 	// Step is the time step of the simulation, s. 0 means the median
-	// spacing of the record, but at most a 48th of the shortest period.
+	// spacing of the record, divided evenly into steps of at most a 48th
+	// of the shortest period.
 	Step float64
 
 	// CellsPerDepth is the number of cells per periodic penetration
@@ -159,9 +160,10 @@ type InversionEstimate struct {
 	RMS    float64 // K, root mean square residual over the fitted samples
 
 	// Modelled holds the simulated temperature (degC) at every sensor
-	// and record time for the best diffusivity; the prescribed sensors
-	// repeat their data. Samples before FirstFitted lie in the spin-up
-	// window.
+	// and record time for the best diffusivity (the simulation is sampled
+	// at the record's median spacing and interpolated linearly to the
+	// record times); the prescribed sensors repeat their data. Samples
+	// before FirstFitted lie in the spin-up window.
 	Modelled    [][]float64
 	Fitted      []bool  // sensors whose misfit was minimised
 	FirstFitted int     // index of the first record time in the misfit

@@ -62,8 +62,9 @@ type invModel struct {
 	bottom BottomCondition
 	xs     []float64 // sensor positions below the shallowest sensor, m
 	fitted []bool
-	first  int // first record index in the misfit
-	step   float64
+	first  int     // first record index in the misfit
+	step   float64 // s, time step
+	every  float64 // s, sample spacing, a whole number of steps
 	length float64 // distance between the outer sensors, m
 	total  float64 // column thickness, m
 	mesh   *solver.Mesh
@@ -105,10 +106,14 @@ func newInvModel(rec SensorRecord, o FitOptions, fits []climate.Periodic, ad flo
 	// Time step: the record's spacing, at most a 48th of the shortest
 	// period (TR-BDF2 is second order: hourly steps bias a daily fit by
 	// about 0.4 %, half-hourly by about 0.1 % measured on the synthetic records of fit_test.go).
+	// The default divides the spacing evenly, and the model is sampled
+	// at the record's spacing (a whole number of steps).
+	spacing := medianStep(rec.Times)
 	m.step = o.Step
 	if m.step == 0 {
-		m.step = math.Min(medianStep(rec.Times), pmin/48)
+		m.step = spacing / math.Ceil(spacing/(pmin/48)-1e-9)
 	}
+	m.every = m.step * math.Max(1, math.Round(spacing/m.step))
 
 	// Spin-up window: six decay times of the slowest mode of the column
 	// between the outer sensors, tau = L^2 / (pi^2 a) (Carslaw and Jaeger,
@@ -236,6 +241,7 @@ func (m *invModel) simulate(a float64) ([][]float64, error) {
 		Start:       t0,
 		Duration:    t1 - t0,
 		Step:        m.step,
+		SampleEvery: m.every,
 		Probes:      m.xs,
 	}
 	if m.bottom == BottomSensor {
