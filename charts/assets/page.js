@@ -92,26 +92,17 @@ var TSFN = (function () {
   return {tipX: tip('x'), tipY: tip('y'), band: band};
 }());
 
-// tsStart draws every chart into its fixed-size box and redraws them at
-// print size while the page is printed.
+// tsStart draws every chart into its fixed-size box. The canvas has at
+// least two pixels per CSS pixel so that the charts stay sharp when the
+// print stylesheet scales them to the page width.
 function tsStart(list) {
   'use strict';
   if (typeof echarts === 'undefined') { return; }
-  var drawn = [];
+  var ratio = Math.max(window.devicePixelRatio || 1, 2);
   list.forEach(function (c) {
     var el = document.getElementById(c.id);
     if (!el) { return; }
-    var chart = echarts.init(el, null, {renderer: 'canvas'});
+    var chart = echarts.init(el, null, {renderer: 'canvas', devicePixelRatio: ratio});
     chart.setOption(c.option);
-    drawn.push(chart);
   });
-  function toPrint() { drawn.forEach(function (c) { c.resize({width: 680, height: 340}); }); }
-  function toScreen() { drawn.forEach(function (c) { c.resize({width: 'auto', height: 'auto'}); }); }
-  window.addEventListener('beforeprint', toPrint);
-  window.addEventListener('afterprint', toScreen);
-  if (window.matchMedia) {
-    var mq = window.matchMedia('print');
-    var onChange = function (e) { if (e.matches) { toPrint(); } else { toScreen(); } };
-    if (mq.addEventListener) { mq.addEventListener('change', onChange); } else if (mq.addListener) { mq.addListener(onChange); }
-  }
 }
