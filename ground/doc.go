@@ -6,7 +6,10 @@
 // Berggren), freezing seasons and frost-depth inputs of periodic and
 // measured climates (degree-days of records are in package climate), the
 // periodic ground temperature of Kusuda and Achenbach, and the soil
-// diffusivity read from temperature waves measured at two depths.
+// diffusivity read from temperature waves measured at two depths
+// (DiffusivityFromHarmonics) or fitted to temperatures logged at several
+// depths by harmonic methods and by a numerical inversion of the heat
+// equation (FitDiffusivity).
 //
 // Conventions:
 //   - SI units inside: m, s, kg/m3, W/(m K), J/(m3 K), J/m3, degrees Celsius.

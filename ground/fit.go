@@ -139,9 +139,12 @@ type PairEstimate struct {
 	Phase           float64 // m2/s, phase method
 	PhaseStdErr     float64 // m2/s
 
-	// Usable is false when the lower amplitude is within 3 standard
-	// errors of zero (the harmonic is lost in the noise at that depth);
-	// Note says why. Unusable pairs do not enter the combined value.
+	// Usable is false when either amplitude is within 3 standard errors
+	// of zero (the harmonic is lost in the noise at that depth) or the
+	// two differ by less than their noise (ln(A1/A2) between -3 and +2
+	// standard errors: decay not measurable); Note says why. Unusable
+	// pairs do not enter the combined value. An amplitude that clearly
+	// grows with depth is an error of FitDiffusivity.
 	Usable bool
 	Note   string
 }
@@ -374,6 +377,7 @@ func (res *FitResult) harmonic(rec SensorRecord, periods []float64) error {
 	se := func(i int) float64 { return res.SensorFits[i].RMS * math.Sqrt(2/nt) }
 	const floor = 1e-12 // relative error floor for noise-free data
 	var sw, swl float64
+	first := "" // first reason a pair was left out
 	for k, per := range periods {
 		for i := 0; i < n; i++ {
 			for j := i + 1; j < n; j++ {
@@ -390,6 +394,23 @@ func (res *FitResult) harmonic(rec SensorRecord, periods []float64) error {
 				if h2.Amplitude <= 3*s2 || h1.Amplitude <= 3*s1 {
 					pe.Note = fmt.Sprintf("the %s harmonic is within 3 standard errors (%.2g K) of zero at %g m: lost in the noise",
 						periodName(per), 3*math.Max(s1, s2), pickDepth(h1.Amplitude <= 3*s1, rec.Depths[i], rec.Depths[j]))
+					if first == "" {
+						first = pe.Note
+					}
+					res.Harmonic = append(res.Harmonic, pe)
+					continue
+				}
+				// Relative standard error of ln(A1/A2) (and of the phase
+				// difference, rad).
+				rel := math.Hypot(s1/h1.Amplitude, s2/h2.Amplitude)
+				if lnr := math.Log(pe.Ratio); lnr <= 2*rel && lnr >= -3*rel {
+					// Within the noise of no decay: not measurable, and
+					// not proof of growth either.
+					pe.Note = fmt.Sprintf("the %s amplitudes at %g and %g m differ by less than their noise (ratio %.4g): decay not measurable",
+						periodName(per), rec.Depths[i], rec.Depths[j], pe.Ratio)
+					if first == "" {
+						first = pe.Note
+					}
 					res.Harmonic = append(res.Harmonic, pe)
 					continue
 				}
@@ -418,7 +439,6 @@ func (res *FitResult) harmonic(rec SensorRecord, periods []float64) error {
 				pe.Turns = int(turns)
 				pe.Amplitude = d.Amplitude
 				pe.Phase = w * dz * dz / (2 * dphi * dphi)
-				rel := math.Hypot(s1/h1.Amplitude, s2/h2.Amplitude)
 				relA := math.Max(2*rel/lnr, floor)
 				relP := math.Max(2*rel/dphi, floor)
 				pe.AmplitudeStdErr = relA * pe.Amplitude
@@ -437,7 +457,7 @@ func (res *FitResult) harmonic(rec SensorRecord, periods []float64) error {
 		}
 	}
 	if sw == 0 {
-		return errors.New("diffusivity fit: no sensor pair shows a harmonic above the noise: fit a period that reaches the sensors (the annual wave for deep sensors)")
+		return fmt.Errorf("diffusivity fit: no sensor pair gives a usable estimate (%s): fit a period that reaches the sensors (the annual wave for deep sensors)", first)
 	}
 	res.HarmonicCombined = math.Exp(swl / sw)
 	res.HarmonicStdErr = res.HarmonicCombined / math.Sqrt(sw)

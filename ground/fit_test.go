@@ -307,7 +307,12 @@ func TestFitDiffusivityErrors(t *testing.T) {
 				}
 			}
 			return r
-		}, day, "above the noise"},
+		}, day, "no sensor pair gives a usable estimate"},
+		{"sensors too close to see the decay", func() SensorRecord {
+			// Daily ratio exp(0.001/0.111) = 1.009 against a noise of
+			// 0.2 K on a 1.6 K wave read 480 times.
+			return synthRecord(0.45e-6, []float64{0.1, 0.101}, 20, 0.2, 9)
+		}, day, "decay not measurable"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
