@@ -13,6 +13,7 @@ import (
 	"github.com/urfave/cli/v2"
 
 	"tempstack/charts"
+	"tempstack/ground"
 	"tempstack/layers"
 	"tempstack/scenarios"
 )
@@ -197,37 +198,78 @@ func checkCommand() *cli.Command {
 	}
 }
 
+// materialRow is one line of `tempstack materials`: a building material of
+// package layers or a soil or rock preset of package ground.
+type materialRow struct {
+	Key          string  `json:"key"`
+	Name         string  `json:"name"`
+	Family       string  `json:"family"`
+	Conductivity float64 `json:"conductivity_W_mK,omitempty"`
+	Density      float64 `json:"density_kg_m3,omitempty"`
+	SpecificHeat float64 `json:"specific_heat_J_kgK,omitempty"`
+	HeatCapacity float64 `json:"heat_capacity_J_m3K,omitempty"`
+	Resistance   float64 `json:"resistance_m2K_W,omitempty"`
+	Freezes      bool    `json:"freezes,omitempty"`
+	Source       string  `json:"source"`
+}
+
+func materialRows(filter string) []materialRow {
+	var rows []materialRow
+	for _, m := range layers.Filter(filter) {
+		rows = append(rows, materialRow{Key: m.Key, Name: m.Name, Family: m.Family, Conductivity: m.Conductivity,
+			Density: m.Density, SpecificHeat: m.SpecificHeat, HeatCapacity: m.Density * m.SpecificHeat,
+			Resistance: m.Resistance, Source: m.Source})
+	}
+	q := strings.ToLower(strings.TrimSpace(filter))
+	for _, p := range ground.Presets() {
+		if q != "" && !strings.Contains(strings.ToLower(p.Key+" "+p.Description+" soil"), q) {
+			continue
+		}
+		row := materialRow{Key: p.Key, Name: p.Description, Family: "soil", Source: p.Source,
+			Conductivity: p.Conductivity, HeatCapacity: p.HeatCapacity}
+		if l, err := p.Layer(p.Key, 1); err == nil {
+			row.Conductivity, row.HeatCapacity, row.Freezes = l.Conductivity, l.HeatCapacity, l.Freeze != nil
+		}
+		rows = append(rows, row)
+	}
+	return rows
+}
+
 func materialsCommand() *cli.Command {
 	return &cli.Command{
 		Name:      "materials",
-		Usage:     "list the built-in material library with sources",
+		Usage:     "list the built-in materials, soils and rocks with sources",
 		ArgsUsage: "[FILTER]",
-		Description: "Lists the built-in materials; FILTER keeps those whose key, name or family\n" +
-			"contains the word (case does not matter).",
+		Description: "Lists the built-in building materials and the soil and rock presets;\n" +
+			"FILTER keeps those whose key, name or family contains the words (case does not matter).",
 		Flags:        []cli.Flag{&cli.BoolFlag{Name: "json", Usage: "print JSON instead of a table"}},
 		OnUsageError: usageError,
 		Action: func(c *cli.Context) error {
-			ms := layers.Filter(strings.Join(c.Args().Slice(), " "))
-			if len(ms) == 0 {
-				return userErr("no material matches %q", strings.Join(c.Args().Slice(), " "))
+			filter := strings.Join(c.Args().Slice(), " ")
+			rows := materialRows(filter)
+			if len(rows) == 0 {
+				return userErr("no material matches %q", filter)
 			}
 			if c.Bool("json") {
 				enc := json.NewEncoder(c.App.Writer)
 				enc.SetIndent("", "  ")
-				return enc.Encode(ms)
+				return enc.Encode(rows)
 			}
 			tw := tabwriter.NewWriter(c.App.Writer, 0, 0, 2, ' ', 0)
-			fmt.Fprintln(tw, "KEY\tFAMILY\tW/(m K)\tkg/m3\tJ/(kg K)\tm2 K/W\tSOURCE")
-			for _, m := range ms {
-				cond, dens, cp, res := "-", "-", "-", "-"
+			fmt.Fprintln(tw, "KEY\tFAMILY\tW/(m K)\tkJ/(m3 K)\tm2 K/W\tSOURCE")
+			for _, m := range rows {
+				cond, cap, res := "-", "-", "-"
 				if m.Resistance > 0 {
 					res = fmt.Sprintf("%.2f", m.Resistance)
 				} else {
 					cond = fmt.Sprintf("%.3g", m.Conductivity)
-					dens = fmt.Sprintf("%.0f", m.Density)
-					cp = fmt.Sprintf("%.0f", m.SpecificHeat)
+					cap = fmt.Sprintf("%.0f", m.HeatCapacity/1000)
 				}
-				fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t%s\n", m.Key, m.Family, cond, dens, cp, res, m.Source)
+				fam := m.Family
+				if m.Freezes {
+					fam += " (freezes)"
+				}
+				fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", m.Key, fam, cond, cap, res, m.Source)
 			}
 			return tw.Flush()
 		},

@@ -57,6 +57,13 @@ func TestBadScenarios(t *testing.T) {
 		{"sim-zero-duration.yaml", 10, "must be positive"},
 		{"sim-unknown-key.yaml", 10, `did you mean "duration"`},
 		{"step-missing-to.yaml", 9, "step.to: missing key"},
+		{"ground-oversaturated.yaml", 5, "exceeds saturation"},
+		{"ground-negative-index.yaml", 10, "cannot be negative"},
+		{"ground-bad-cover.yaml", 8, `did you mean "turf"`},
+		{"ground-soil-no-texture.yaml", 5, "texture: missing key"},
+		{"ground-wall-keys.yaml", 8, `names this side "surface"`},
+		{"ground-bottom-swing.yaml", 10, "must be constant"},
+		{"wall-design-index.yaml", 10, "kind: ground only"},
 	}
 	seen := map[string]bool{}
 	for _, c := range cases {
