@@ -229,7 +229,7 @@ type NeumannProblem struct {
 	Surface, Initial, FreezingPoint            float64
 }
 
-// near returns the properties of the phase next to the surface (frozen
+// phases returns the properties of the phase next to the surface (frozen
 // when freezing) and of the far phase, and the temperature differences
 // seen by each: dn = |Tf - Ts|, df = |Ti - Tf|.
 func (p NeumannProblem) phases() (kn, cn, kf, cf, dn, df float64, err error) {

@@ -217,9 +217,7 @@ func SpinUp(p Problem, period, tol float64, maxCycles int) (initial []float64, c
 	prev := make([]float64, r.n)
 	for cycles = 1; cycles <= maxCycles; cycles++ {
 		copy(prev, r.T)
-		if cycles > 1 {
-			r.restart()
-		}
+		// Each run continues from the state (enthalpy) the last one left.
 		if _, err := r.run(); err != nil {
 			return nil, cycles, err
 		}

@@ -426,10 +426,6 @@ func (r *fvRun) run() (*Result, error) {
 	return res, nil
 }
 
-// restart is a no-op kept for clarity: run always starts from the current
-// state.
-func (r *fvRun) restart() {}
-
 // ensureFactor factorises M + th A for the linear scheme.
 func (r *fvRun) ensureFactor(th float64) error {
 	if th == r.facTh && r.fac.dinv != nil {
