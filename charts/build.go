@@ -3,6 +3,7 @@ package charts
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	ec "github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
@@ -81,7 +82,7 @@ func newChart(id, title, tip string, gridBottom int) *ec.Line {
 		}),
 		ec.WithLegendOpts(opts.Legend{Type: "plain", Top: "30", Left: "center", Width: "86%"}),
 		ec.WithToolboxOpts(opts.Toolbox{Right: "12", Top: "2", Feature: &opts.ToolBoxFeature{
-			SaveAsImage: &opts.ToolBoxFeatureSaveAsImage{Type: "png", Name: id, Title: "Save as image"},
+			SaveAsImage: &opts.ToolBoxFeatureSaveAsImage{Type: "png", Name: "tempstack-" + strings.TrimPrefix(id, "chart-"), Title: "Save as image"},
 		}}),
 		ec.WithGridOpts(opts.Grid{Left: "70", Right: "76", Top: "70", Bottom: fmt.Sprint(gridBottom)}),
 		ec.WithTooltipOpts(opts.Tooltip{Trigger: "axis", Formatter: types.FuncStr(fn(tip)),
@@ -150,18 +151,21 @@ func addLine(c *ec.Line, l line) bool {
 	if l.area {
 		so = append(so, ec.WithAreaStyleOpts(opts.AreaStyle{Color: l.color, Opacity: opts.Float(0.18)}))
 	}
-	c.AddSeries(l.name, data, append(so, l.opts...)...)
+	c.AddSeries(l.name, nil, append(so, l.opts...)...)
+	// Bare [x, y] pairs instead of {"value": [x, y]} objects: the same
+	// chart in about 40 % fewer bytes.
+	c.MultiSeries[len(c.MultiSeries)-1].Data = data
 	return thinned
 }
 
-// points pairs x and y into chart data (value [x, y]; NaN and ±Inf become
-// null), thinning series longer than maxPoints.
-func points(x, y []float64) ([]opts.LineData, bool) {
+// points pairs x and y into chart data, each point a bare [x, y] array
+// (NaN and ±Inf become null), thinning series longer than maxPoints.
+func points(x, y []float64) ([][2]any, bool) {
 	n := min(len(x), len(y))
 	idx := thin(y[:n], maxPoints)
-	data := make([]opts.LineData, len(idx))
+	data := make([][2]any, len(idx))
 	for k, i := range idx {
-		data[k] = opts.LineData{Value: []any{num(x[i]), num(y[i])}}
+		data[k] = [2]any{num(x[i]), num(y[i])}
 	}
 	return data, len(idx) < n
 }

@@ -97,7 +97,7 @@ func cycleChart(r *scenarios.Results) (*chartSpec, error) {
 		}
 		thinned = addLine(c, l) || thinned
 	}
-	caption := "Exact periodic solution over one period of the first analysis period. Temperatures on the left axis; the heat flux (dotted, right axis) is positive into the room."
+	caption := "Exact periodic solution over one cycle of the first analysis period. Temperatures on the left axis; the heat flux (dotted, right axis) is positive into the room."
 	if r.Kind == "ground" {
 		caption = "Exact periodic solution over one period. Temperatures on the left axis; the heat flux at the bottom (dotted, right axis) is positive downward."
 	}

@@ -145,7 +145,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		p.Title = "Untitled scenario"
 	}
 	ground := r.Kind == "ground"
-	p.KindLabel = "wall or roof"
+	p.KindLabel = "building component"
 	if ground {
 		p.KindLabel = "ground and frost"
 	}

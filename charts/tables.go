@@ -243,17 +243,17 @@ func energyTable(r *scenarios.Results) *block {
 	if r.Kind == "ground" {
 		in, out = "bottom", "ground surface"
 	}
-	t := newTable("Energy balance of the simulation", []string{"Quantity", "kJ/m²"}, "text")
+	t := newTable("Energy balance of the simulation", []string{"Quantity", "Value", "Unit"}, "text", "", "text")
 	kJ := func(v float64) string { return sig(v/1000, 4) }
 	total := s.HeatInOutside_J_m2 + s.HeatInInside_J_m2
 	if s.HeatInOutside_J_m2 != 0 || s.HeatInInside_J_m2 != 0 || s.StoredHeat_J_m2 != 0 {
-		t.row("Heat that entered through the "+out, kJ(s.HeatInOutside_J_m2))
-		t.row("Heat that entered through the "+in, kJ(s.HeatInInside_J_m2))
-		t.row("Total heat that entered", kJ(total))
-		t.row("Change of heat stored (sensible and latent)", kJ(s.StoredHeat_J_m2))
-		t.row("Difference", kJ(total-s.StoredHeat_J_m2))
+		t.row("Heat that entered through the "+out, kJ(s.HeatInOutside_J_m2), "kJ/m²")
+		t.row("Heat that entered through the "+in, kJ(s.HeatInInside_J_m2), "kJ/m²")
+		t.row("Total heat that entered", kJ(total), "kJ/m²")
+		t.row("Change of heat stored (sensible and latent)", kJ(s.StoredHeat_J_m2), "kJ/m²")
+		t.row("Difference", kJ(total-s.StoredHeat_J_m2), "kJ/m²")
 	}
-	t.row("Relative error of the balance", sig(s.EnergyBalanceRelativeError, 2))
+	t.row("Relative error of the balance", sig(s.EnergyBalanceRelativeError, 2), "")
 	t.Notes = append(t.Notes, "Heat counts positive into the construction. The heat that entered through both surfaces must equal the change of heat stored; a relative error at round-off level (about 10⁻¹² or smaller) means the simulation conserves energy.")
 	return &block{Table: t}
 }
