@@ -158,9 +158,21 @@ type InversionEstimate struct {
 	// variance and J the derivative of the modelled series with respect
 	// to ln a (central differences). It assumes independent residuals:
 	// with autocorrelated misfit (weather the model misses, sensor drift)
-	// it is optimistic.
+	// it is optimistic: see StdErrAR1.
 	StdErr float64
-	RMS    float64 // K, root mean square residual over the fitted samples
+	// StdErrAR1 widens StdErr for residuals correlated from one reading
+	// to the next, modelled as AR(1): with rho the lag-1 autocorrelation
+	// of the residuals (Autocorrelation), errors of covariance
+	// s^2 rho^|k| at lag k give least squares the variance
+	// s^2 / (J^T J) [1 + 2 sum_k rho^k sum_t J_t J_(t+k) / (J^T J)]
+	// [derived]. For a derivative J that varies slowly this tends to the
+	// effective sample size N (1 - rho) / (1 + rho) (Bretherton et al.
+	// 1999, J. Climate 12:1990, from memory); for a daily wave read
+	// hourly it is smaller. It equals StdErr when rho <= 0. Quote this one
+	// for field data.
+	StdErrAR1       float64
+	Autocorrelation float64 // lag-1 autocorrelation of the residuals, capped at 0.99
+	RMS             float64 // K, root mean square residual over the fitted samples
 
 	// Modelled holds the simulated temperature (degC) at every sensor
 	// and record time for the best diffusivity (the simulation is sampled

@@ -29,12 +29,14 @@ func synthWaves(a float64) []GroundWave {
 // TestGroundWaveHeatEquation [derived]); the heat equation is linear, so
 // their sum is the exact periodic solution.
 func synthRecord(a float64, depths []float64, days int, sigma float64, seed uint64) SensorRecord {
-	return synthRecordOf(synthWaves(a), depths, days, sigma, seed)
+	return synthRecordOf(synthWaves(a), depths, days, sigma, 0, seed)
 }
 
 // synthRecordOf is synthRecord for any sum of ground waves (their means
-// add up).
-func synthRecordOf(waves []GroundWave, depths []float64, days int, sigma float64, seed uint64) SensorRecord {
+// add up) and for noise correlated from one hour to the next: an AR(1)
+// series e_k = phi e_(k-1) + sqrt(1 - phi^2) sigma xi_k of standard
+// deviation sigma (phi 0: white noise).
+func synthRecordOf(waves []GroundWave, depths []float64, days int, sigma, phi float64, seed uint64) SensorRecord {
 	rng := rand.New(rand.NewPCG(seed, 1))
 	n := days * 24
 	rec := SensorRecord{Times: make([]float64, n), Depths: append([]float64(nil), depths...), Temps: make([][]float64, len(depths))}
@@ -43,12 +45,16 @@ func synthRecordOf(waves []GroundWave, depths []float64, days int, sigma float64
 	}
 	for i, z := range depths {
 		rec.Temps[i] = make([]float64, n)
+		e := sigma * rng.NormFloat64()
 		for k, t := range rec.Times {
 			v := 0.0
 			for _, w := range waves {
 				v += w.Temperature(z, t)
 			}
-			rec.Temps[i][k] = v + sigma*rng.NormFloat64()
+			if k > 0 {
+				e = phi*e + math.Sqrt(1-phi*phi)*sigma*rng.NormFloat64()
+			}
+			rec.Temps[i][k] = v + e
 		}
 	}
 	return rec
@@ -165,25 +171,39 @@ func TestFitDiffusivitySynthetic(t *testing.T) {
 // draws (the definition of a standard error) on SYNTHETIC 30-day records.
 // With 12 draws the sample standard deviation is itself uncertain by about
 // 20 %: accept a factor 1.6 either way.
+//
+// With white noise StdErr and StdErrAR1 must both match the scatter. With
+// noise correlated from hour to hour (AR(1), phi = 0.8) the white-noise
+// StdErr is too small, by sqrt(1 + 2 Re(z/(1 - z))) = 1.95 with
+// z = phi exp(i 2 pi/24) for a daily-wave derivative read hourly
+// [derived], and StdErrAR1 must match the scatter instead. (Over 40 draws:
+// scatter 8.1e-9, StdErr 4.0e-9, StdErrAR1 7.5e-9 m2/s.)
 func TestFitDiffusivityStdErr(t *testing.T) {
 	const a, draws = 0.45e-6, 12
-	var sum, sum2, se float64
-	for s := range draws {
-		rec := synthRecord(a, []float64{0.05, 0.12, 0.25}, 30, 0.1, uint64(100+s))
-		r, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}})
-		if err != nil {
-			t.Fatal(err)
+	for _, phi := range []float64{0, 0.8} {
+		var sum, sum2, se, seAR float64
+		for s := range draws {
+			rec := synthRecordOf(synthWaves(a), []float64{0.05, 0.12, 0.25}, 30, 0.1, phi, uint64(100+s))
+			r, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			sum += r.Inversion.Diffusivity
+			sum2 += r.Inversion.Diffusivity * r.Inversion.Diffusivity
+			se += r.Inversion.StdErr
+			seAR += r.Inversion.StdErrAR1
 		}
-		sum += r.Inversion.Diffusivity
-		sum2 += r.Inversion.Diffusivity * r.Inversion.Diffusivity
-		se += r.Inversion.StdErr
-	}
-	mean := sum / draws
-	sd := math.Sqrt((sum2 - draws*mean*mean) / (draws - 1))
-	se /= draws
-	t.Logf("mean %.5g, scatter %.3g, mean standard error %.3g m2/s", mean, sd, se)
-	if ratio := sd / se; ratio < 1/1.6 || ratio > 1.6 {
-		t.Errorf("scatter of the estimates %.3g m2/s, standard error %.3g: ratio %.2f", sd, se, ratio)
+		mean := sum / draws
+		sd := math.Sqrt((sum2 - draws*mean*mean) / (draws - 1))
+		se /= draws
+		seAR /= draws
+		t.Logf("phi %g: mean %.5g, scatter %.3g, mean standard errors %.3g (white) %.3g (AR1) m2/s", phi, mean, sd, se, seAR)
+		if ratio := sd / seAR; ratio < 1/1.6 || ratio > 1.6 {
+			t.Errorf("phi %g: scatter of the estimates %.3g m2/s, StdErrAR1 %.3g: ratio %.2f", phi, sd, seAR, ratio)
+		}
+		if ratio := sd / se; phi == 0 && (ratio < 1/1.6 || ratio > 1.6) || phi > 0 && ratio < 1.5 {
+			t.Errorf("phi %g: scatter of the estimates %.3g m2/s, StdErr %.3g: ratio %.2f", phi, sd, se, ratio)
+		}
 	}
 }
 
@@ -196,7 +216,7 @@ func TestFitDiffusivityPhaseUnwrap(t *testing.T) {
 	const a = 0.5e-6
 	wave := synthWaves(a)[1]
 	wave.Mean = 9
-	rec := synthRecordOf([]GroundWave{wave}, []float64{0.05, 0.9}, 10, 0, 1)
+	rec := synthRecordOf([]GroundWave{wave}, []float64{0.05, 0.9}, 10, 0, 0, 1)
 	r, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}, SkipInversion: true})
 	if err != nil {
 		t.Fatal(err)

@@ -74,6 +74,7 @@ type invModel struct {
 
 	bestU     float64
 	bestS     float64
+	bestRes   []float64
 	bestModel [][]float64
 }
 
@@ -293,7 +294,7 @@ func (m *invModel) misfit(u float64) (float64, error) {
 		s += v * v
 	}
 	if s < m.bestS {
-		m.bestU, m.bestS, m.bestModel = u, s, mod
+		m.bestU, m.bestS, m.bestRes, m.bestModel = u, s, r, mod
 	}
 	return s, nil
 }
@@ -394,9 +395,10 @@ func invert(rec SensorRecord, o FitOptions, hres FitResult) (InversionEstimate, 
 	}
 	evals += m.evals
 	var jtj float64
+	jac := make([]float64, len(rp))
 	for i := range rp {
-		j := (rp[i] - rm[i]) / (2 * du)
-		jtj += j * j
+		jac[i] = (rp[i] - rm[i]) / (2 * du)
+		jtj += jac[i] * jac[i]
 	}
 	nres := len(rp)
 	a := math.Exp(u)
@@ -414,10 +416,40 @@ func invert(rec SensorRecord, o FitOptions, hres FitResult) (InversionEstimate, 
 		Step:        m.step,
 		Evaluations: evals,
 	}
-	if jtj > 0 && nres > 1 {
-		est.StdErr = a * math.Sqrt(m.bestS/float64(nres-1)/jtj)
-	} else {
+	if !(jtj > 0) || nres < 2 {
 		return est, errors.New("diffusivity fit: the modelled series do not depend on the diffusivity: nothing to fit")
+	}
+	est.StdErr = a * math.Sqrt(m.bestS/float64(nres-1)/jtj)
+	// AR(1) misfit: rho is the lag-1 autocorrelation of the residuals
+	// over pairs of readings within each sensor's series. For errors with
+	// covariance s^2 rho^|k| at lag k the least-squares variance is the
+	// sandwich (J^T J)^-1 J^T Sigma J (J^T J)^-1
+	//   = s^2 / (J^T J) [1 + 2 sum_k rho^k sum_t J_t J_(t+k) / (J^T J)]
+	// (generalised least-squares algebra [derived]).
+	per := len(rec.Times) - m.first
+	lagSum := func(u, v []float64, k int) float64 {
+		var c float64
+		for s := 0; s+per <= len(u); s += per { // each fitted sensor
+			for t := s; t+k < s+per; t++ {
+				c += u[t] * v[t+k]
+			}
+		}
+		return c
+	}
+	rho := 0.0
+	if m.bestS > 0 {
+		rho = math.Min(lagSum(m.bestRes, m.bestRes, 1)/m.bestS, 0.99)
+	}
+	est.Autocorrelation = rho
+	est.StdErrAR1 = est.StdErr
+	if rho > 0 {
+		f := 1.0
+		for k, rk := 1, rho; k < per && rk > 1e-4; k, rk = k+1, rk*rho {
+			f += 2 * rk * lagSum(jac, jac, k) / jtj
+		}
+		if f > 1 {
+			est.StdErrAR1 = est.StdErr * math.Sqrt(f)
+		}
 	}
 	return est, nil
 }
