@@ -477,7 +477,11 @@ func printIndices(w io.Writer, r *indicesReport) error {
 	}
 	fmt.Fprintln(w)
 	if m := r.MeanAnnualTemperature_C; m != nil {
-		fmt.Fprintf(w, "mean annual temperature: %.2f degC (%g whole years, %s to %s)\n", *m, r.MeanAnnualYears, r.MeanAnnualFrom, r.MeanAnnualTo)
+		years := "years"
+		if r.MeanAnnualYears == 1 {
+			years = "year"
+		}
+		fmt.Fprintf(w, "mean annual temperature: %.2f degC (%g whole %s, %s to %s)\n", *m, r.MeanAnnualYears, years, r.MeanAnnualFrom, r.MeanAnnualTo)
 	}
 	if d := r.DesignFreezingIndex_Cd; d != nil {
 		fmt.Fprintf(w, "design freezing index: %.1f degC day (mean of the 3 coldest of %d winters; pavement practice)\n", *d, r.DesignWinters)
