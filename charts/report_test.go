@@ -458,6 +458,7 @@ func hostileResults(s string) *scenarios.Results {
 	r := wallFixture()
 	r.Title, r.ScenarioFile, r.Orientation = s, s, s
 	r.Warnings = []string{s, "second " + s}
+	r.StepResponse.SurfaceLayer, r.StepResponse.Side = s, s
 	for i := range r.Layers {
 		r.Layers[i].Name, r.Layers[i].Material, r.Layers[i].Source = s, s, s
 	}
@@ -473,7 +474,10 @@ func TestEscaping(t *testing.T) {
 	for _, s := range hostile {
 		for _, r := range []*scenarios.Results{hostileResults(s), func() *scenarios.Results {
 			g := groundFixture()
-			g.Title, g.Layers[0].Name, g.Warnings = s, s, []string{s}
+			g.Title, g.Warnings = s, []string{s}
+			for i := range g.Layers {
+				g.Layers[i].Name, g.Layers[i].Source = s, s
+			}
 			return g
 		}()} {
 			html := render(t, r, Options{GeneratedAt: s, ToolVersion: s})
