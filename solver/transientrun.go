@@ -114,6 +114,7 @@ type fvRun struct {
 	nlTh                                         float64 // theta*dt of the kept factorisation
 	nlDirty                                      int     // rows from here up need factorising again
 	fac                                          fvSymTridiag
+	facUp                                        fvSymTridiagUp
 	facTh                                        float64
 
 	nSteps, every int
@@ -449,6 +450,9 @@ func (r *fvRun) ensureFactor(th float64) error {
 	if err := r.fac.factor(d, e); err != nil {
 		return err
 	}
+	if err := r.facUp.factor(d, e); err != nil {
+		return err
+	}
 	r.facTh = th
 	return nil
 }
@@ -486,18 +490,68 @@ func (r *fvRun) stepLinear(t, dt float64) error {
 		if err != nil {
 			return err
 		}
-		explicit(th)
-		rhs[0] += th * (qo0 + out.src(vom))
-		rhs[n-1] += th * (qi0 + in.src(vim))
-		copy(tn, T)
-		r.fac.solve(rhs) // rhs = T*
-		qom, qim := out.inflow(vom, rhs[0]), in.inflow(vim, rhs[n-1])
-		for i := range T {
-			T[i] = capc[i] * (fvC1*rhs[i] - fvC2*tn[i])
+		// Three fused sweeps. A (down): explicit stage-1 right-hand side
+		// and the forward sweep of L D L^T. B (up): back sweep giving T*,
+		// the stage-2 right-hand side and the forward sweep of U D U^T.
+		// C (down): back sweep giving T^{n+1}.
+		l, dinv := r.fac.l, r.fac.dinv[:n]
+		u, dinv2 := r.facUp.u, r.facUp.dinv[:n]
+		bo, bi := th*(qo0+out.src(vom)), th*(qi0+in.src(vim))
+		fl, yPrev := 0.0, 0.0
+		for i := 0; i < n; i++ {
+			ti := T[i]
+			tn[i] = ti
+			var fr float64
+			if i < n-1 {
+				fr = gg[i] * (ti - T[i+1])
+			}
+			b := capc[i]*ti + th*(fl-fr)
+			fl = fr
+			if i == 0 {
+				b += bo
+			}
+			if i == n-1 {
+				b += bi
+			}
+			if i > 0 {
+				b -= l[i-1] * yPrev
+			}
+			rhs[i] = b
+			yPrev = b
 		}
-		T[0] += th * out.src(vo1)
-		T[n-1] += th * in.src(vi1)
-		r.fac.solve(T)
+		bo1, bi1 := th*out.src(vo1), th*in.src(vi1)
+		var xs0, xsN, xNext, zNext float64
+		for i := n - 1; i >= 0; i-- {
+			x := rhs[i] * dinv[i]
+			if i < n-1 {
+				x -= l[i] * xNext
+			} else {
+				xsN = x
+			}
+			xNext = x
+			b := capc[i] * (fvC1*x - fvC2*tn[i])
+			if i == n-1 {
+				b += bi1
+			} else {
+				b -= u[i] * zNext
+			}
+			if i == 0 {
+				b += bo1
+				xs0 = x
+			}
+			rhs[i] = b
+			zNext = b
+		}
+		qom, qim := out.inflow(vom, xs0), in.inflow(vim, xsN)
+		xPrev := 0.0
+		for i := 0; i < n; i++ {
+			x := rhs[i] * dinv2[i]
+			if i > 0 {
+				x -= u[i-1] * xPrev
+			}
+			T[i] = x
+			xPrev = x
+		}
 		qo1, qi1 := out.inflow(vo1, T[0]), in.inflow(vi1, T[n-1])
 		r.account(fvW0*dt, fvW0*dt, fvW1*dt, qo0, qom, qo1, qi0, qim, qi1)
 		r.vo, r.vi = vo1, vi1

@@ -63,6 +63,62 @@ func (f *fvSymTridiag) solve(b []float64) {
 	}
 }
 
+// fvSymTridiagUp is the U D U^T factorisation of the same kind of matrix
+// (U unit upper bidiagonal): its solve sweeps from the last unknown to
+// the first and back, the mirror of fvSymTridiag, so that a solve can
+// start while another one is still sweeping upward.
+type fvSymTridiagUp struct {
+	dinv []float64 // 1/D_i, len n
+	u    []float64 // superdiagonal of U, len n-1
+}
+
+// factor factorises the matrix with diagonal d and off-diagonal e.
+//
+//	D_{n-1} = d_{n-1};  u_i = e_i / D_{i+1};  D_i = d_i - u_i e_i
+func (f *fvSymTridiagUp) factor(d, e []float64) error {
+	n := len(d)
+	if cap(f.dinv) < n {
+		f.dinv = make([]float64, n)
+		f.u = make([]float64, n)
+	}
+	f.dinv = f.dinv[:n]
+	f.u = f.u[:max(n-1, 0)]
+	if n == 0 {
+		return nil
+	}
+	di := d[n-1]
+	for i := n - 1; ; i-- {
+		if !(di > 0) {
+			return errNotPositiveDefinite
+		}
+		f.dinv[i] = 1 / di
+		if i == 0 {
+			break
+		}
+		ui := e[i-1] / di
+		f.u[i-1] = ui
+		di = d[i-1] - ui*e[i-1]
+	}
+	return nil
+}
+
+// solve overwrites b with the solution x of A x = b.
+//
+//	z_i = b_i - u_i z_{i+1};  x_0 = z_0/D_0;  x_i = z_i/D_i - u_{i-1} x_{i-1}
+func (f *fvSymTridiagUp) solve(b []float64) {
+	n := len(f.dinv)
+	b = b[:n]
+	u := f.u[:max(n-1, 0)]
+	for i := n - 2; i >= 0; i-- {
+		b[i] -= u[i] * b[i+1]
+	}
+	dinv := f.dinv[:n]
+	b[0] *= dinv[0]
+	for i := 1; i < n; i++ {
+		b[i] = b[i]*dinv[i] - u[i-1]*b[i-1]
+	}
+}
+
 // fvThomas solves the general tridiagonal system
 //
 //	lo_i x_{i-1} + di_i x_i + up_i x_{i+1} = r_i
