@@ -166,6 +166,37 @@ func TestFitDiffusivitySynthetic(t *testing.T) {
 	}
 }
 
+// TestFitDiffusivityWeather: SYNTHETIC record under irregular "weather"
+// made of 24 harmonics with periods from 2.3 to 45 days (random
+// amplitudes up to 2 K and phases, seeded) on top of the annual and daily
+// waves. Each harmonic is exact (GroundWave, REFERENCES section 3
+// [memory]), so the sum is the exact response to that surface history. The
+// inversion, which needs no periodic forcing, must still land within 1 %;
+// the harmonic methods, fitting only the daily wave, are logged.
+func TestFitDiffusivityWeather(t *testing.T) {
+	const a = 0.45e-6
+	waves := synthWaves(a)
+	rng := rand.New(rand.NewPCG(77, 3))
+	for i := range 24 {
+		p := 2.3 * math.Pow(45/2.3, float64(i)/23) * climate.Day
+		waves = append(waves, GroundWave{Amplitude: 2 * rng.Float64(), Coldest: p * rng.Float64(), Period: p, Diffusivity: a})
+	}
+	rec := synthRecordOf(waves, []float64{0.05, 0.15, 0.35}, 90, 0.05, 0, 5)
+	r, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	inv := r.Inversion
+	t.Logf("harmonic %.4f, inversion %.4f +- %.4f (AR1 %.4f) x true, RMS %.4f K, residual autocorrelation %.2f",
+		r.HarmonicCombined/a, inv.Diffusivity/a, inv.StdErr/a, inv.StdErrAR1/a, inv.RMS, inv.Autocorrelation)
+	if e := relErr(inv.Diffusivity, a); e > 0.01 {
+		t.Errorf("inversion %.5g m2/s, want %.5g within 1 %% (off %.2f %%)", inv.Diffusivity, a, 100*e)
+	}
+	if inv.RMS > 0.06 {
+		t.Errorf("inversion RMS %.4f K, want about the noise 0.05 K", inv.RMS)
+	}
+}
+
 // TestFitDiffusivityStdErr compares the Gauss-Newton standard error of
 // the inversion with the scatter of the estimates over independent noise
 // draws (the definition of a standard error) on SYNTHETIC 30-day records.
