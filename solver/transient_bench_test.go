@@ -125,7 +125,7 @@ func TestSimulateAllocationsIndependentOfSteps(t *testing.T) {
 }
 
 func TestTridiagAgainstGonum(t *testing.T) {
-	// The package's factorised solve and Thomas sweep against gonum's
+	// The package's factorised solves and Thomas sweep against gonum's
 	// Dpttrf/Dpttrs (a general-purpose reference library).
 	n := 7
 	d := []float64{4, 5, 3, 6, 4, 7, 5}
@@ -143,6 +143,17 @@ func TestTridiagAgainstGonum(t *testing.T) {
 	}
 	got := append([]float64(nil), b...)
 	f.solve(got)
+	var fu fvSymTridiagUp
+	if err := fu.factor(d, e); err != nil {
+		t.Fatal(err)
+	}
+	gu := append([]float64(nil), b...)
+	fu.solve(gu)
+	for i := range want {
+		if math.Abs(gu[i]-want[i]) > 1e-14 {
+			t.Errorf("x[%d]: U D U^T %g, gonum %g", i, gu[i], want[i])
+		}
+	}
 	lo := append([]float64{0}, e...)
 	up := append(append([]float64(nil), e...), 0)
 	th := append([]float64(nil), b...)
@@ -154,5 +165,8 @@ func TestTridiagAgainstGonum(t *testing.T) {
 	}
 	if err := f.factor([]float64{1, 1}, []float64{2}); err == nil {
 		t.Error("indefinite matrix factorised without error")
+	}
+	if err := fu.factor([]float64{1, 1}, []float64{2}); err == nil {
+		t.Error("indefinite matrix factorised (U D U^T) without error")
 	}
 }
