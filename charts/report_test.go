@@ -736,3 +736,31 @@ func BenchmarkWrite(b *testing.B) {
 		})
 	}
 }
+
+// A ground column with closed forms and the exact periodic state only (no
+// simulation) still gets its envelope, the frost table and the cautions.
+func TestGroundWithoutSimulation(t *testing.T) {
+	g := groundFixture()
+	g.Simulation = nil
+	s := &g.Series
+	s.SimTime_h, s.SimProfilePosition_m, s.FrostDepth_m, s.ThawDepth_m = nil, nil, nil, nil
+	html := render(t, g, Options{})
+	charts, _ := chartData(t, html)
+	env := charts[idGroundEnvelope]
+	if env == nil {
+		t.Fatal("no ground envelope from the exact periodic profile")
+	}
+	if n := len(env["series"].([]any)); n != 4 { // band + highest, mean, lowest
+		t.Errorf("ground envelope has %d series, want 4", n)
+	}
+	for _, id := range []string{idFrost, idSimTemp, idSimFlux} {
+		if charts[id] != nil {
+			t.Errorf("chart %s drawn without simulation data", id)
+		}
+	}
+	for _, want := range []string{"exact periodic solution)", "Modified Berggren (m)", "licensed geotechnical engineer"} {
+		if !strings.Contains(html, want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+}
