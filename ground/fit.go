@@ -18,6 +18,28 @@ type SensorRecord struct {
 	Temps  [][]float64 // degC, Temps[i][k] at Depths[i] and Times[k]
 }
 
+// RecordFromSeries builds a SensorRecord from the columns of a measured
+// series (climate.ReadCSV: temperatures already in degC, short holes
+// bridged), one column per sensor, listed with their depths (m, from the
+// shallowest down). The slices are copied.
+func RecordFromSeries(s *climate.Series, columns []string, depths []float64) (SensorRecord, error) {
+	if s == nil {
+		return SensorRecord{}, errors.New("diffusivity fit: no series")
+	}
+	if len(columns) != len(depths) {
+		return SensorRecord{}, fmt.Errorf("diffusivity fit: %d columns but %d depths", len(columns), len(depths))
+	}
+	rec := SensorRecord{Times: append([]float64(nil), s.T...), Depths: append([]float64(nil), depths...)}
+	for _, c := range columns {
+		v, err := s.Value(c)
+		if err != nil {
+			return SensorRecord{}, err
+		}
+		rec.Temps = append(rec.Temps, append([]float64(nil), v...))
+	}
+	return rec, rec.validate()
+}
+
 // BottomCondition selects how the numerical inversion of FitDiffusivity
 // closes its model column at the bottom.
 type BottomCondition int

@@ -1,6 +1,7 @@
 package ground
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"strings"
@@ -429,5 +430,37 @@ func BenchmarkFitDiffusivityHarmonic(b *testing.B) {
 		if _, err := FitDiffusivity(rec, o); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestRecordFromSeries reads a SYNTHETIC two-sensor log (invented, the
+// columns in degF to check the conversion happens before the fit) through
+// climate.ReadCSV and checks the record and the errors.
+func TestRecordFromSeries(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("time,t10,t40\n")
+	for h := range 48 {
+		fmt.Fprintf(&b, "2025-03-%02dT%02d:00,%g,%g\n", 1+h/24, h%24, 50+float64(h%24), 41+0.1*float64(h))
+	}
+	s, err := climate.ReadCSV(strings.NewReader(b.String()), "log.csv", climate.CSVOptions{TimeColumn: "time", Columns: []string{"t10", "t40"}, Unit: "F"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rec, err := RecordFromSeries(s, []string{"t10", "t40"}, []float64{0.1, 0.4})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// 50 degF = 10 degC, 41 degF = 5 degC (exact conversions).
+	if len(rec.Times) != 48 || math.Abs(rec.Temps[0][0]-10) > 1e-12 || math.Abs(rec.Temps[1][0]-5) > 1e-12 || rec.Times[1]-rec.Times[0] != 3600 {
+		t.Errorf("record: %d times, first readings %g and %g degC", len(rec.Times), rec.Temps[0][0], rec.Temps[1][0])
+	}
+	if _, err := RecordFromSeries(s, []string{"t10", "t99"}, []float64{0.1, 0.4}); err == nil || !strings.Contains(err.Error(), "t99") {
+		t.Errorf("unknown column: %v", err)
+	}
+	if _, err := RecordFromSeries(s, []string{"t40", "t10"}, []float64{0.4, 0.1}); err == nil || !strings.Contains(err.Error(), "depths must increase") {
+		t.Errorf("depths out of order: %v", err)
+	}
+	if _, err := RecordFromSeries(s, []string{"t10"}, []float64{0.1, 0.4}); err == nil {
+		t.Error("columns and depths of different lengths accepted")
 	}
 }
