@@ -300,3 +300,46 @@ func NeumannTemperature(p NeumannProblem, m, x, t float64) float64 {
 	}
 	return p.Initial - (p.Initial-p.FreezingPoint)*math.Erfc(x/(2*math.Sqrt(af*t)))/math.Erfc(l*math.Sqrt(an/af))
 }
+
+// PlaneWallEigen returns the first n roots zeta_j of zeta tan(zeta) = bi
+// (bi = h L / k the Biot number of a plane wall of half-thickness L) and
+// the coefficients C_j = 4 sin(zeta_j) / (2 zeta_j + sin(2 zeta_j)) of the
+// series solution for a wall initially uniform, cooled on both faces
+// (Incropera et al., section 5.5.1, eqs. 5.39-5.39c). The j-th root lies in
+// ((j-1) pi, (j-1) pi + pi/2) and is bracketed there.
+func PlaneWallEigen(bi float64, n int) (zeta, c []float64, err error) {
+	if !(bi > 0) || math.IsInf(bi, 0) || n < 1 {
+		return nil, nil, fmt.Errorf("solver: plane wall needs a positive finite Biot number and n >= 1, got %g, %d", bi, n)
+	}
+	zeta, c = make([]float64, n), make([]float64, n)
+	for j := range zeta {
+		lo := float64(j) * math.Pi
+		hi := lo + math.Pi/2*(1-1e-15)
+		f := func(z float64) float64 { return z*math.Sin(z) - bi*math.Cos(z) }
+		z := fvBisect(f, lo, hi)
+		zeta[j] = z
+		c[j] = 4 * math.Sin(z) / (2*z + math.Sin(2*z))
+	}
+	return zeta, c, nil
+}
+
+// PlaneWallCooling is the dimensionless temperature
+// (T - Tinf)/(Ti - Tinf) of a plane wall of half-thickness L, initially at
+// Ti, whose two faces exchange heat with an environment at Tinf through
+// h = 1/R from t = 0, at x* = x/L from the mid-plane and Fourier number
+// Fo = a t / L^2, Biot number bi = h L / k: the series
+//
+//	theta = sum_j C_j exp(-zeta_j^2 Fo) cos(zeta_j x*)
+//
+// (Incropera section 5.5.1, eq. 5.39a) with the given number of terms.
+func PlaneWallCooling(bi, fo, xstar float64, terms int) (float64, error) {
+	zeta, c, err := PlaneWallEigen(bi, terms)
+	if err != nil {
+		return 0, err
+	}
+	var th float64
+	for j := range zeta {
+		th += c[j] * math.Exp(-zeta[j]*zeta[j]*fo) * math.Cos(zeta[j]*xstar)
+	}
+	return th, nil
+}

@@ -227,3 +227,59 @@ func TestContactTemperature(t *testing.T) {
 		t.Errorf("steel on softwood: %.3f degC", got)
 	}
 }
+
+func TestPlaneWallEigen(t *testing.T) {
+	// Bi = 1: zeta1 = 0.8603, C1 = 1.1191 [derived; matches Incropera
+	// Table 5.1 from memory]. Bi = 0.1 (Incropera Table 5.1 from memory):
+	// zeta1 = 0.3111, C1 = 1.0161.
+	for _, c := range []struct{ bi, z, c1 float64 }{{1, 0.8603, 1.1191}, {0.1, 0.3111, 1.0161}} {
+		z, cc, err := PlaneWallEigen(c.bi, 3)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(z[0]-c.z) > 5e-5 || math.Abs(cc[0]-c.c1) > 5e-5 {
+			t.Errorf("Bi %g: zeta1 %.5f C1 %.5f, want %.4f %.4f", c.bi, z[0], cc[0], c.z, c.c1)
+		}
+		for j := range z {
+			if r := z[j]*math.Tan(z[j]) - c.bi; math.Abs(r) > 1e-9 {
+				t.Errorf("Bi %g root %d: residual %g", c.bi, j, r)
+			}
+		}
+	}
+	// At Fo = 0 the series approaches the uniform initial state.
+	if th, _ := PlaneWallCooling(1, 1e-4, 0.3, 2000); math.Abs(th-1) > 1e-3 {
+		t.Errorf("initial state %g, want 1", th)
+	}
+}
+
+func TestSimulatePlaneWallCooling(t *testing.T) {
+	// A plane wall of half-thickness 0.1 m cooled on both faces, Bi = 1,
+	// modelled as its half with an adiabatic mid-plane: the mid-plane and
+	// surface temperatures against the series of Incropera eq. 5.39a at
+	// Fo = 0.2, 0.5, 1, within 0.5 % of the initial difference.
+	L, k, C := 0.1, 1.4, 2.0e6
+	R := L / k // Bi = h L / k = 1
+	col := Column{Layers: []Layer{{Name: "slab", Thickness: L, Conductivity: k, HeatCapacity: C}}}
+	a := k / C
+	tEnd := 1.0 * L * L / a
+	res, err := Simulate(Problem{
+		Column:      col,
+		Outside:     Boundary{Kind: Environment, Resistance: R, Temperature: fvtConst(0)},
+		Inside:      Boundary{Kind: Adiabatic},
+		InitialFunc: func(float64) float64 { return 1 },
+		Duration:    tEnd, Step: tEnd / 200, SampleEvery: tEnd / 5,
+		Probes: []float64{0, L},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for k := 1; k < len(res.Times); k++ {
+		fo := a * res.Times[k] / (L * L)
+		for j, xs := range []float64{1, 0} { // x = 0 is the surface (x* = 1), x = L the mid-plane
+			want, _ := PlaneWallCooling(1, fo, xs, 50)
+			if got := res.Probe[j][k]; math.Abs(got-want) > 0.005 {
+				t.Errorf("Fo %.2f, x* %g: %.5f, series %.5f", fo, xs, got, want)
+			}
+		}
+	}
+}
