@@ -86,13 +86,16 @@ func indicesCommand() *cli.Command {
 // (temperature differences), _Cd degC day, _h hours. Values that cannot be
 // computed from the record are null, with the reason in notes.
 type indicesReport struct {
-	File        string  `json:"file"`
-	Column      string  `json:"column"`
-	Unit        string  `json:"unit_read"`
-	Records     int     `json:"records"`
-	First       string  `json:"first_time"`
-	Last        string  `json:"last_time"`
-	Step_h      float64 `json:"step_h"`
+	File    string  `json:"file"`
+	Column  string  `json:"column"`
+	Unit    string  `json:"unit_read"`
+	Records int     `json:"records"`
+	First   string  `json:"first_time"`
+	Last    string  `json:"last_time"`
+	Step_h  float64 `json:"step_h"`
+	// DailyMeans is true when the rows are one per day at 00:00 and each
+	// value was taken as the mean of its day (see asDayMeans).
+	DailyMeans  bool    `json:"daily_means"`
 	Threshold_C float64 `json:"threshold_C"`
 	Southern    bool    `json:"southern"`
 
@@ -262,11 +265,17 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 		}
 	}
 
+	records, first, last := len(s.T), s.Times[0], s.Times[len(s.Times)-1]
+	daily := isDailyRecord(s)
+	if daily {
+		s = asDayMeans(s, col)
+	}
+
 	rep := &indicesReport{
 		File: file, Column: col, Unit: o.Unit,
-		Records:     len(s.T),
-		First:       s.Times[0].Format(time.RFC3339),
-		Last:        s.Times[len(s.Times)-1].Format(time.RFC3339),
+		Records:     records,
+		First:       first.Format(time.RFC3339),
+		Last:        last.Format(time.RFC3339),
 		Step_h:      s.Step / 3600,
 		Threshold_C: thr,
 		Southern:    c.Bool("southern"),
@@ -275,6 +284,10 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 		Notes:       []string{},
 	}
 	note := func(format string, a ...any) { rep.Notes = append(rep.Notes, fmt.Sprintf(format, a...)) }
+	rep.DailyMeans = daily
+	if daily {
+		note("one row per day at 00:00: each value is taken as the mean of its day")
+	}
 
 	// Winters and indices: climate.Series.Winters (cumulative-curve
 	// definition documented on climate.Winter).
@@ -385,6 +398,55 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 		rep.LongestBridge_h = math.Max(rep.LongestBridge_h, g.To.Sub(g.From).Hours())
 	}
 	return rep, nil
+}
+
+// isDailyRecord reports whether a series has one row per day: every stamp
+// at 00:00 (in its own UTC offset) and a typical spacing of one day.
+func isDailyRecord(s *climate.Series) bool {
+	if s.Step != climate.Day {
+		return false
+	}
+	for _, ts := range s.Times {
+		if h, m, sec := ts.Clock(); h != 0 || m != 0 || sec != 0 || ts.Nanosecond() != 0 {
+			return false
+		}
+	}
+	return true
+}
+
+// dayMeanEps is how long before the next midnight a day's value ends in
+// asDayMeans, s. It must stay below the 1e-9 day that climate.DailyMeans
+// allows for round-off when it decides whether the last day is whole.
+const dayMeanEps = 1e-5
+
+// asDayMeans returns a copy of a daily series (isDailyRecord) in which each
+// row holds its value through its whole day: a point at 00:00 and another
+// dayMeanEps s before the next midnight, both with the row's value. The
+// linear interpolant, which climate integrates for daily means, degree-days
+// and means, then reproduces each day's value (to about 1e-10 of the day),
+// so a file of daily mean temperatures gives the usual sums of daily means,
+// and its last day counts as a whole day. Read as instantaneous midnight
+// samples instead, each day would be the mean of two neighbouring rows
+// and the record would end one day early.
+func asDayMeans(s *climate.Series, col string) *climate.Series {
+	v := s.Values[col]
+	n := len(s.T)
+	out := &climate.Series{
+		Name: s.Name, Start: s.Start, Columns: []string{col},
+		Times: make([]time.Time, 0, 2*n), T: make([]float64, 0, 2*n),
+		Lines: make([]int, 0, 2*n), Values: map[string][]float64{},
+		Bridged: s.Bridged, Step: s.Step,
+	}
+	vv := make([]float64, 0, 2*n)
+	for i, t := range s.T {
+		end := t + climate.Day - dayMeanEps
+		out.T = append(out.T, t, end)
+		out.Times = append(out.Times, s.Times[i], s.Times[i].Add(time.Duration((climate.Day-dayMeanEps)*float64(time.Second))))
+		out.Lines = append(out.Lines, s.Lines[i], s.Lines[i])
+		vv = append(vv, v[i], v[i])
+	}
+	out.Values[col] = vv
+	return out
 }
 
 // meanOverWholeYears returns the time mean of the linear interpolant of

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"tempstack/climate"
 )
@@ -361,5 +362,62 @@ func TestParseGap(t *testing.T) {
 		if (err != nil) != (c.want == 0) || (err == nil && d.Hours() != c.want) {
 			t.Errorf("parseGap(%q) = %v, %v; want %g h", c.in, d, err, c.want)
 		}
+	}
+}
+
+// TestIndicesDailyMeans: a file with one row per day reads each value as
+// the mean of its day, so the indices are plain sums of the values and the
+// last row's day counts. Invented record, built by a rule: 1 July 2022 to
+// 30 June 2024, +3 degC every day except -5 degC on 1 to 10 December 2022
+// and -4 degC on 10 to 29 January 2024; the row of 15 August 2023 is
+// missing (bridged). Sums by hand [derived]: freezing indices 10 x 5 = 50
+// and 20 x 4 = 80 degC day; thaw after winter 1 (11 Dec 2022 to 10 Jan
+// 2024, 395 days) 3 x 395 = 1185, after winter 2 (30 Jan to 1 Jul 2024,
+// 153 days) 459 degC day; winter-year means (3 x 355 - 50)/365 and
+// (3 x 346 - 80)/366; mean annual temperature (1015 + 958)/731 degC.
+func TestIndicesDailyMeans(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("date,air\n")
+	for d := time.Date(2022, 7, 1, 0, 0, 0, 0, time.UTC); d.Before(time.Date(2024, 7, 1, 0, 0, 0, 0, time.UTC)); d = d.AddDate(0, 0, 1) {
+		v := 3
+		switch {
+		case d.Year() == 2022 && d.Month() == 12 && d.Day() <= 10:
+			v = -5
+		case d.Year() == 2024 && d.Month() == 1 && d.Day() >= 10 && d.Day() <= 29:
+			v = -4
+		case d.Equal(time.Date(2023, 8, 15, 0, 0, 0, 0, time.UTC)):
+			continue
+		}
+		fmt.Fprintf(&b, "%s,%d\n", d.Format(time.DateOnly), v)
+	}
+	path := filepath.Join(t.TempDir(), "daily.csv")
+	if err := os.WriteFile(path, []byte(b.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	r := indicesJSON(t, path, "--date-column", "date")
+	if !r.DailyMeans || r.BridgedGaps != 1 || r.MaxGap_h != 48 {
+		t.Errorf("daily means %v, %d bridged gaps, max gap %g h; want true, 1, 48", r.DailyMeans, r.BridgedGaps, r.MaxGap_h)
+	}
+	want := []indicesWinter{
+		{Label: "2022/23", Start: "2022-12-01", End: "2022-12-11", SeasonDays: 10, FreezingIndex_Cd: 50, ThawingIndex_Cd: 1185,
+			MeanTemperature: 1015.0 / 365, Complete: true, ThawComplete: true},
+		{Label: "2023/24", Start: "2024-01-10", End: "2024-01-30", SeasonDays: 20, FreezingIndex_Cd: 80, ThawingIndex_Cd: 459,
+			MeanTemperature: 958.0 / 366, Complete: true, ThawComplete: false},
+	}
+	if len(r.Winters) != len(want) {
+		t.Fatalf("%d winters, want 2: %+v", len(r.Winters), r.Winters)
+	}
+	// Tolerance: each day's value ends 1e-5 s before midnight.
+	const tol = 1e-6
+	for i, w := range want {
+		g := r.Winters[i]
+		if g.Label != w.Label || g.Start != w.Start || g.End != w.End || g.SeasonDays != w.SeasonDays ||
+			!near(g.FreezingIndex_Cd, w.FreezingIndex_Cd, tol) || !near(g.ThawingIndex_Cd, w.ThawingIndex_Cd, tol) ||
+			!near(g.MeanTemperature, w.MeanTemperature, tol) || g.Complete != w.Complete || g.ThawComplete != w.ThawComplete {
+			t.Errorf("winter %d:\n got %+v\nwant %+v", i, g, w)
+		}
+	}
+	if m := r.MeanAnnualTemperature_C; m == nil || !near(*m, 1973.0/731, tol) || r.MeanAnnualYears != 2 {
+		t.Errorf("mean annual temperature %v over %g years, want %v over 2", m, r.MeanAnnualYears, 1973.0/731)
 	}
 }
