@@ -47,11 +47,11 @@ func setup(t *testing.T) (*browser, string) {
 	shared.once.Do(func() {
 		path := findChromium()
 		if path == "" {
-			shared.skip = "chromium is not installed (apt-get install chromium); set " + envRequire + "=1 to make this a failure"
+			shared.skip = "chromium is not installed (apt-get install chromium)"
 			return
 		}
 		if testing.Short() && os.Getenv(envRequire) != "1" {
-			shared.skip = "browser test skipped in -short mode; set " + envRequire + "=1 to run it anyway"
+			shared.skip = "browser test skipped in -short mode"
 			return
 		}
 		tmp, err := os.MkdirTemp("", "tempstack-browsertest-")
@@ -77,7 +77,7 @@ func setup(t *testing.T) (*browser, string) {
 		if os.Getenv(envRequire) == "1" {
 			t.Fatalf("%s=1 but: %s", envRequire, shared.skip)
 		}
-		t.Skip(shared.skip)
+		t.Skip(shared.skip + "; set " + envRequire + "=1 to make this a failure")
 	}
 	if shared.err != nil {
 		t.Fatal(shared.err)
