@@ -127,6 +127,11 @@ type FitOptions struct {
 	// Tolerance is the relative precision to which the inversion locates
 	// the best diffusivity. 0 means 1e-4.
 	Tolerance float64
+
+	// ProfileInterval replaces the Gauss-Newton 95 % interval of the
+	// inversion by the profile-likelihood interval (about 4 to 8 more
+	// simulations).
+	ProfileInterval bool
 }
 
 // PairEstimate is the diffusivity read from the harmonic of one period at
@@ -194,7 +199,16 @@ type InversionEstimate struct {
 	// for field data.
 	StdErrAR1       float64
 	Autocorrelation float64 // lag-1 autocorrelation of the residuals, capped at 0.99
-	RMS             float64 // K, root mean square residual over the fitted samples
+	// Low and High bound the 95 % interval of the diffusivity, m2/s:
+	// exp(ln a -+ 1.96 StdErrAR1/a) (Gauss-Newton, symmetric in ln a),
+	// or with FitOptions.ProfileInterval (then Profile is true) the
+	// profile-likelihood interval: the values of a at which
+	// N ln(S(a)/S_min) / F = 3.841 (the 95 % chi-square quantile with one
+	// degree of freedom; S the misfit, F = (StdErrAR1/StdErr)^2 the
+	// variance factor of autocorrelated residuals).
+	Low, High float64
+	Profile   bool
+	RMS       float64 // K, root mean square residual over the fitted samples
 
 	// Modelled holds the simulated temperature (degC) at every sensor
 	// and record time for the best diffusivity (the simulation is sampled

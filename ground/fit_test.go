@@ -198,6 +198,35 @@ func TestFitDiffusivityWeather(t *testing.T) {
 	}
 }
 
+// TestFitDiffusivityProfile: for one parameter and a nearly linear model
+// the profile-likelihood interval must agree with the Gauss-Newton one
+// (both 95 %), and hold the true value (SYNTHETIC record, one seed).
+func TestFitDiffusivityProfile(t *testing.T) {
+	const a = 0.19e-6
+	rec := synthRecord(a, []float64{0.02, 0.08, 0.16}, 60, 0.05, 21)
+	gn, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	pl, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}, ProfileInterval: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	g, p := gn.Inversion, pl.Inversion
+	t.Logf("a %.5g: Gauss-Newton %.5g..%.5g, profile %.5g..%.5g (%d more simulations)", p.Diffusivity, g.Low, g.High, p.Low, p.High, p.Evaluations-g.Evaluations)
+	if g.Profile || !p.Profile || g.Diffusivity != p.Diffusivity {
+		t.Errorf("profile flags %v %v, estimates %g %g", g.Profile, p.Profile, g.Diffusivity, p.Diffusivity)
+	}
+	for _, c := range [][2]float64{{g.Low, p.Low}, {g.High, p.High}} {
+		if half := g.Diffusivity - g.Low; math.Abs(c[0]-c[1]) > 0.05*half {
+			t.Errorf("interval ends %.5g (Gauss-Newton) and %.5g (profile) differ by more than 5 %% of the half-width", c[0], c[1])
+		}
+	}
+	if !(p.Low < p.Diffusivity && p.Diffusivity < p.High) || !(p.Low < a && a < p.High) {
+		t.Errorf("interval %.5g..%.5g around %.5g, true %.5g", p.Low, p.High, p.Diffusivity, a)
+	}
+}
+
 // TestFitDiffusivityStdErr compares the Gauss-Newton standard error of
 // the inversion with the scatter of the estimates over independent noise
 // draws (the definition of a standard error) on SYNTHETIC 30-day records.

@@ -451,7 +451,83 @@ func invert(rec SensorRecord, o FitOptions, hres FitResult) (InversionEstimate, 
 			est.StdErrAR1 = est.StdErr * math.Sqrt(f)
 		}
 	}
+
+	// 95 % interval, symmetric in ln a: ln a -+ 1.96 StdErrAR1/a.
+	su := est.StdErrAR1 / a
+	est.Low, est.High = a*math.Exp(-1.96*su), a*math.Exp(1.96*su)
+	if o.ProfileInterval {
+		lo, hi, n, err := m.profile(u, su, est.StdErrAR1/est.StdErr, nres)
+		est.Evaluations += n
+		if err != nil {
+			return est, err
+		}
+		est.Low, est.High, est.Profile = lo, hi, true
+	}
 	return est, nil
+}
+
+// chi2q95 is the 95 % quantile of the chi-square distribution with one
+// degree of freedom (1.96^2; statistical tables).
+const chi2q95 = 3.841458820694124
+
+// profile returns the 95 % profile-likelihood interval of a around the
+// best ln a = u: the two values of ln a where the likelihood-ratio
+// statistic N ln(S(u)/S_min) / f reaches the chi-square quantile (f the
+// variance factor of autocorrelated residuals, 1 for white ones). It
+// starts from the Gauss-Newton half-width 1.96 su and solves each side by
+// the Illinois variant of regula falsi. It returns the simulations run.
+func (m *invModel) profile(u, su, widen float64, nres int) (lo, hi float64, evals int, err error) {
+	smin := m.bestS
+	f := widen * widen
+	g := func(x float64) (float64, error) {
+		evals++
+		r, _, err := m.residuals(math.Exp(x))
+		if err != nil {
+			return 0, err
+		}
+		s := 0.0
+		for _, v := range r {
+			s += v * v
+		}
+		return float64(nres)*math.Log(s/smin)/f - chi2q95, nil
+	}
+	ends := [2]float64{}
+	for i, side := range []float64{-1, 1} {
+		d := 1.96 * su
+		x0, g0 := 0.0, -chi2q95
+		x1 := d
+		var g1 float64
+		for k := 0; ; k++ {
+			if g1, err = g(u + side*x1); err != nil {
+				return 0, 0, evals, err
+			}
+			if g1 > 0 {
+				break
+			}
+			if k == 8 {
+				return 0, 0, evals, fmt.Errorf("diffusivity fit: the profile likelihood stays flat to %.3g times the best diffusivity: the data hardly constrain it",
+					math.Exp(side*x1))
+			}
+			x0, g0 = x1, g1
+			x1 *= 1.6
+		}
+		// Illinois: [x0, x1] brackets the root, g0 < 0 < g1.
+		for k := 0; k < 30 && math.Abs(g1) > 0.005*chi2q95; k++ {
+			x2 := x1 - g1*(x1-x0)/(g1-g0)
+			g2, err := g(u + side*x2)
+			if err != nil {
+				return 0, 0, evals, err
+			}
+			if g2*g1 < 0 {
+				x0, g0 = x1, g1
+			} else {
+				g0 /= 2
+			}
+			x1, g1 = x2, g2
+		}
+		ends[i] = math.Exp(u + side*x1)
+	}
+	return ends[0], ends[1], evals, nil
 }
 
 // brentMin minimises f on [a, b] by Brent's method: golden-section steps
