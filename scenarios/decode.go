@@ -68,6 +68,9 @@ func Decode(file string, data []byte) (*Scenario, error) {
 	var doc yaml.Node
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	if err := dec.Decode(&doc); err != nil {
+		if errors.Is(err, io.EOF) {
+			return nil, &Error{File: file, Line: 1, Msg: "file is empty (only comments); start from `tempstack new wall`"}
+		}
 		return nil, yamlError(file, err)
 	}
 	var extra yaml.Node
@@ -75,7 +78,7 @@ func Decode(file string, data []byte) (*Scenario, error) {
 		return nil, d.errf(&extra, "", "the file holds more than one YAML document (a second '---'); a scenario is one document")
 	}
 	if doc.Kind != yaml.DocumentNode || len(doc.Content) == 0 {
-		return nil, &Error{File: file, Msg: "not a YAML mapping"}
+		return nil, &Error{File: file, Line: 1, Msg: "file is empty (only comments); start from `tempstack new wall`"}
 	}
 	top, err := d.object(doc.Content[0], "", topKeys)
 	if err != nil {
