@@ -119,9 +119,9 @@ type FitOptions struct {
 	CellsPerDepth float64
 
 	// DeepFactor is the depth of the adiabatic bottom below the deepest
-	// sensor, in damping depths of the longest period, for
-	// BottomAdiabatic. 0 means 5 (a wave reflected there comes back
-	// weaker by exp(-10)).
+	// sensor, for BottomAdiabatic, in damping depths sqrt(a P / pi) with
+	// P the longest period or the record length, whichever is longer.
+	// 0 means 5 (a wave reflected there comes back weaker by exp(-10)).
 	DeepFactor float64
 
 	// Tolerance is the relative precision to which the inversion locates

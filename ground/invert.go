@@ -17,8 +17,9 @@ import (
 // both ends only the diffusivity k/C matters, so any value will do.
 const nominalHeatCapacity = 2e6
 
-// Search limits of the inversion, m2/s: from below dry peat to above
-// copper.
+// Search limits of the inversion, m2/s. Solids conduct heat with
+// diffusivities from about 1e-7 (dry peat, insulation) to 1.2e-4 (copper)
+// [memory]; the limits lie beyond both.
 const (
 	minFitDiffusivity = 1e-9
 	maxFitDiffusivity = 1e-3
@@ -104,11 +105,11 @@ func newInvModel(rec SensorRecord, o FitOptions, fits []climate.Periodic, ad flo
 	for _, p := range o.Periods {
 		pmin, pmax = math.Min(pmin, p), math.Max(pmax, p)
 	}
-	// Time step: the record's spacing, at most a 48th of the shortest
-	// period (TR-BDF2 is second order: hourly steps bias a daily fit by
-	// about 0.4 %, half-hourly by about 0.1 % measured on the synthetic records of fit_test.go).
-	// The default divides the spacing evenly, and the model is sampled
-	// at the record's spacing (a whole number of steps).
+	// Time step: the record's spacing, divided evenly into steps of at
+	// most a 48th of the shortest period. TR-BDF2 is second order: on the
+	// noise-free synthetic records of fit_test.go hourly steps biased a
+	// daily fit by about 0.4 %, quarter-hour steps by 0.1 %. The model is
+	// sampled at the record's spacing (a whole number of steps).
 	spacing := medianStep(rec.Times)
 	m.step = o.Step
 	if m.step == 0 {
@@ -117,8 +118,10 @@ func newInvModel(rec SensorRecord, o FitOptions, fits []climate.Periodic, ad flo
 	m.every = m.step * math.Max(1, math.Round(spacing/m.step))
 
 	// Spin-up window: six decay times of the slowest mode of the column
-	// between the outer sensors, tau = L^2 / (pi^2 a) (Carslaw and Jaeger,
-	// section 3.3, slab with fixed end temperatures).
+	// between the outer sensors. A slab of thickness L with fixed end
+	// temperatures forgets its start profile as the Fourier modes
+	// sin(k pi x / L) exp(-k^2 pi^2 a t / L^2) decay [derived from the heat
+	// equation]: tau = L^2 / (pi^2 a), exp(-6) = 0.25 % after 6 tau.
 	t0 := rec.Times[0]
 	cover := rec.coverage()
 	discard := o.Discard
@@ -135,8 +138,8 @@ func newInvModel(rec SensorRecord, o FitOptions, fits []climate.Periodic, ad flo
 	m.first = sort.SearchFloat64s(rec.Times, t0+discard)
 
 	// Uniform cells between the outer sensors: CellsPerDepth per periodic
-	// penetration depth sqrt(a P / pi) of the shortest period (ISO 13786
-	// clause 3 definition), at most L/40 and a quarter of the closest
+	// penetration depth sqrt(a P / pi) of the shortest period (ISO 13786,
+	// REFERENCES section 1), at most L/40 and a quarter of the closest
 	// sensor spacing.
 	cpd := o.CellsPerDepth
 	if cpd == 0 {
