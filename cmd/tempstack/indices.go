@@ -153,11 +153,11 @@ type indicesHarmonic struct {
 	Amplitude_K float64 `json:"amplitude_K"`
 	// PeakDay counts 1 January as day 1 with the peak at noon of that day,
 	// as the annual.peak_day key of a scenario file does.
-	PeakDay   float64 `json:"peak_day"`
-	PeakDate  string  `json:"peak_date"`
-	FitRMS_K  float64 `json:"fit_rms_K"`
-	FitR2     float64 `json:"fit_r2"`
-	Residuals int     `json:"samples"`
+	PeakDay  float64 `json:"peak_day"`
+	PeakDate string  `json:"peak_date"`
+	FitRMS_K float64 `json:"fit_rms_K"`
+	FitR2    float64 `json:"fit_r2"`
+	Samples  int     `json:"samples"` // samples the fit used
 }
 
 // computeIndices reads the file named by the command line and computes the
@@ -200,6 +200,9 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	}
 
 	header := csvHeader(data, dec)
+	if header == nil {
+		return nil, userErr("%s: no header line (the file is empty or holds only comments)", file)
+	}
 	o := climate.CSVOptions{
 		TimeColumn: c.String("time-column"),
 		DateColumn: c.String("date-column"),
@@ -387,7 +390,7 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 		peak := time.Date(2001, time.January, 1, 0, 0, 0, 0, time.UTC).Add(time.Duration(h.Peak * float64(time.Second)))
 		rep.AnnualHarmonic = &indicesHarmonic{
 			Mean_C: p.Mean, Amplitude_K: h.Amplitude, PeakDay: day,
-			PeakDate: peak.Format("2 January"), FitRMS_K: fit.RMS, FitR2: fit.R2, Residuals: fit.N,
+			PeakDate: peak.Format("2 January"), FitRMS_K: fit.RMS, FitR2: fit.R2, Samples: fit.N,
 		}
 	} else {
 		note("no annual harmonic: %s", err)
@@ -623,7 +626,7 @@ func parseGap(s string) (time.Duration, error) {
 // that is neither blank nor a '#' comment, split at the separator that
 // climate.ReadCSV would detect (the most frequent of ';', tab and ',' outside
 // quotes; with a decimal comma a comma does not count). It returns nil
-// when there is no header; ReadCSV then reports the problem.
+// when the file has no such line.
 func csvHeader(data []byte, dec rune) []string {
 	data = bytes.TrimPrefix(data, []byte{0xEF, 0xBB, 0xBF})
 	sc := bufio.NewScanner(bytes.NewReader(data))
@@ -665,7 +668,8 @@ func csvHeader(data []byte, dec rune) []string {
 		r.Comma = sep
 		rec, err := r.Read()
 		if err != nil {
-			return nil
+			// A quoting error: split plainly; ReadCSV reports the error.
+			rec = strings.Split(line, string(sep))
 		}
 		names := make([]string, len(rec))
 		for i, h := range rec {

@@ -316,6 +316,7 @@ func TestIndicesBadFiles(t *testing.T) {
 	short := write("short.csv", good)
 	two := write("two.csv", "time,air,wind\n2024-01-01T00:00,1,3\n")
 	notime := write("notime.csv", "stamp,air\n2024-01-01T00:00,1\n")
+	empty := write("empty.csv", "# only a comment\n\n")
 	cases := []struct {
 		args []string
 		want string // substring of the one-line message
@@ -327,6 +328,7 @@ func TestIndicesBadFiles(t *testing.T) {
 		{[]string{two}, two + `: 2 value columns ("air", "wind"): choose the temperature with --column`},
 		{[]string{notime}, notime + `: no column "time"`},
 		{[]string{short}, "fewer than two whole days"},
+		{[]string{empty}, empty + ": no header line"},
 		{[]string{filepath.Join(dir, "absent.csv")}, "cannot read " + filepath.Join(dir, "absent.csv")},
 		{[]string{short, "--method", "momentz"}, `did you mean "moments"`},
 		{[]string{short, "--decimal", ";"}, "--decimal must be . or ,"},
