@@ -181,10 +181,15 @@ var ErrSpinUp = errors.New("solver: periodic spin-up did not converge")
 // h_0/(2 k_0)), a prescribed flux, or 0. Time integration is TR-BDF2 unless
 // p.Scheme says otherwise. Without freezing both stages solve the same
 // symmetric positive definite tridiagonal system, factorised once. With
-// freezing each implicit stage is solved by an enthalpy iteration
-// (Newton on H with the phase-aware slope dT/dH; the heat content is
-// updated from the conservative fluxes after every linear solve, so the
-// energy balance closes to round-off at every iteration).
+// freezing each implicit stage is solved by an enthalpy iteration: Newton
+// on H with the phase-aware slope dT/dH and the derivatives of the
+// conductances, stopping on the kinks of T(H); the heat content is updated
+// from the conservative fluxes after every linear solve, so the energy
+// balance closes to round-off whether or not the iteration converged. In
+// a cell partly frozen at an isothermal freezing point the conduction
+// paths run from the front, located by the frozen fraction, to the cell
+// faces, which keeps temperatures near the front second-order accurate
+// instead of saw-toothing.
 func Simulate(p Problem) (*Result, error) {
 	r, err := newFvRun(&p, true)
 	if err != nil {

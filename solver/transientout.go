@@ -48,7 +48,7 @@ func (r *fvRun) surfaces() (qo, qi, tso, tsi float64) {
 	if r.in.kind == Environment && r.in.rb == 0 {
 		tsi = r.vi
 	} else {
-		tsi = T[n-1] + qi*(r.rh[n-1]+r.rf[n])
+		tsi = T[n-1] + qi*(r.rd[n-1]+r.rf[n])
 	}
 	return qo, qi, tso, tsi
 }
@@ -98,6 +98,34 @@ func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
 		return tsi
 	}
 	c := m.CellAt(x)
+	if k := r.pidx[c]; k >= 0 && r.phases[k].isoTerm && r.phi[c] > 0 && r.phi[c] < 1 {
+		// Partly frozen isothermal cell: linear from each face to the
+		// front, which is at the freezing point.
+		qa := qo
+		if c > 0 {
+			qa = r.gg[c-1] * (T[c-1] - T[c])
+		}
+		qb := -qi
+		if c < n-1 {
+			qb = r.gg[c] * (T[c] - T[c+1])
+		}
+		tu, tl := T[c]+qa*r.rh[c], T[c]-qb*r.rd[c]
+		f := (1 - r.phi[c]) * r.h[c]
+		xf := m.Faces[c] + f
+		if !r.frozenUp[c] {
+			xf = m.Faces[c+1] - f
+		}
+		if x <= xf {
+			if xf == m.Faces[c] {
+				return T[c]
+			}
+			return tu + (T[c]-tu)*(x-m.Faces[c])/(xf-m.Faces[c])
+		}
+		if xf == m.Faces[c+1] {
+			return T[c]
+		}
+		return T[c] + (tl-T[c])*(x-xf)/(m.Faces[c+1]-xf)
+	}
 	var x0, t0, x2, t2 float64
 	switch {
 	case c == 0:
@@ -109,9 +137,9 @@ func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
 	}
 	switch {
 	case c == n-1:
-		x2, t2 = m.Faces[n], T[c]+qi*r.rh[c]
+		x2, t2 = m.Faces[n], T[c]+qi*r.rd[c]
 	case m.Layer[c+1] != m.Layer[c] || m.FaceResistance[c+1] != 0:
-		x2, t2 = m.Faces[c+1], T[c]-r.gg[c]*(T[c]-T[c+1])*r.rh[c]
+		x2, t2 = m.Faces[c+1], T[c]-r.gg[c]*(T[c]-T[c+1])*r.rd[c]
 	default:
 		x2, t2 = m.Centers[c+1], T[c+1]
 	}
@@ -179,6 +207,8 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		if tso < thr[0] {
 			frost = cross(0, tso, m.Centers[0], T[0], thr[0])
 		}
+	case iso(deep) && !r.frozenUp[deep]:
+		frost = m.Faces[deep+1] // the ice lies at the bottom of the cell
 	case iso(deep) || thin(deep, deep-1):
 		frost = m.Faces[deep] + (1-r.phi[deep])*r.h[deep]
 	case deep == n-1:
@@ -196,6 +226,8 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		top++
 	}
 	switch {
+	case iso(top) && r.frozenUp[top]:
+		thaw = m.Faces[top] // the ice lies at the top of the cell
 	case iso(top) || thin(top, top+1):
 		thaw = m.Faces[top] + r.phi[top]*r.h[top]
 	case top == 0:

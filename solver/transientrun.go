@@ -26,9 +26,10 @@ var (
 )
 
 const (
-	fvMaxIter = 60   // enthalpy iterations per implicit stage
-	fvTolT    = 1e-9 // K, convergence of the enthalpy iteration
-	fvTolK    = 1e-7 // relative change of conductivity at convergence
+	fvMaxIter  = 60   // enthalpy iterations per implicit stage
+	fvLagAfter = 12   // iteration from which the conductances are held
+	fvTolT     = 1e-9 // K, convergence of the enthalpy iteration
+	fvTolK     = 1e-7 // relative change of conductivity at convergence
 )
 
 // fvBC is one surface condition of a run.
@@ -86,14 +87,18 @@ type fvRun struct {
 	n      int
 	record bool
 
-	h, invh []float64 // cell widths, m
-	cvol    []float64 // unfrozen volumetric heat capacity, J/(m3 K)
-	capc    []float64 // h*C, J/(m2 K) (linear columns)
-	kc      []float64 // current conductivity, W/(m K)
-	rh      []float64 // h/(2k), m2 K/W
-	rf      []float64 // massless resistance on each face, len n+1
-	gg      []float64 // conductance between centres i and i+1, len n-1
-	thr     []float64 // frost threshold per cell, degC
+	h, invh  []float64 // cell widths, m
+	cvol     []float64 // unfrozen volumetric heat capacity, J/(m3 K)
+	capc     []float64 // h*C, J/(m2 K) (linear columns)
+	kc       []float64 // current conductivity, W/(m K)
+	rh       []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
+	rd       []float64 // resistance from the node to the lower face, m2 K/W
+	frozenUp []bool    // the frozen part of a mushy isothermal cell lies on its upper side
+	lagG     bool      // keep the conductances of the current iteration (see implicit)
+	dru, drd []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
+	rf       []float64 // massless resistance on each face, len n+1
+	gg       []float64 // conductance between centres i and i+1, len n-1
+	thr      []float64 // frost threshold per cell, degC
 
 	out, in fvBC
 
@@ -184,6 +189,11 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 
 	alloc := func() []float64 { return make([]float64, n) }
 	r.h, r.invh, r.cvol, r.capc, r.kc, r.rh, r.thr = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
+	r.rd, r.dru, r.drd = alloc(), alloc(), alloc()
+	r.frozenUp = make([]bool, n)
+	for i := range r.frozenUp {
+		r.frozenUp[i] = true
+	}
 	r.rf = append([]float64(nil), m.FaceResistance...)
 	r.gg = make([]float64, max(n-1, 0))
 	r.pidx = make([]int32, n)
@@ -316,16 +326,80 @@ func (r *fvRun) updateCell(i int) {
 		r.phi[i] = 1
 		r.slope[i] = 1 / r.cvol[i]
 	}
-	r.rh[i] = r.h[i] / (2 * r.kc[i])
+	r.setHalves(i)
+}
+
+// setHalves sets the resistances from the node of cell i to its upper and
+// lower faces (rh, rd) and their derivatives with respect to the cell's
+// enthalpy (dru, drd). Normally the node is the cell centre: h/(2k). In a
+// partly frozen cell with isothermal freezing the node is the front,
+// which lies at the frozen fraction f = 1 - phi from the frozen side:
+// f h / kf to that face and phi h / ku to the other (each at least 2 % of
+// the cell's own resistance), so that the conduction paths follow the
+// front through the cell and a piecewise-linear profile with the front
+// inside the cell is represented exactly. (Without this the cell holding
+// the front, pinned at the freezing point, exchanges heat over half-cell
+// distances wherever the front is, and the temperatures near the front
+// saw-tooth with an error of first order in the cell size: 0.19 K instead
+// of 0.008 K on the Neumann test case at the default mesh.) The frozen
+// side (frozenUp) is chosen at the start of each implicit stage from the
+// neighbours' temperatures.
+func (r *fvRun) setHalves(i int) {
+	if r.lagG {
+		return
+	}
+	h := r.h[i]
+	r.dru[i], r.drd[i] = 0, 0
+	k := r.pidx[i]
+	if k >= 0 && r.phases[k].isoTerm && r.phi[i] > 0 && r.phi[i] < 1 {
+		ph := &r.phases[k]
+		// phi = H/L: d/dH of (1-phi) h/kf and of phi h/ku.
+		rf, dfz := (1-r.phi[i])*h/ph.kf, -h/(ph.kf*ph.lat)
+		if rf < 0.02*h/ph.kf {
+			rf, dfz = 0.02*h/ph.kf, 0
+		}
+		ru, duf := r.phi[i]*h/ph.ku, h/(ph.ku*ph.lat)
+		if ru < 0.02*h/ph.ku {
+			ru, duf = 0.02*h/ph.ku, 0
+		}
+		if r.frozenUp[i] {
+			r.rh[i], r.rd[i], r.dru[i], r.drd[i] = rf, ru, dfz, duf
+		} else {
+			r.rh[i], r.rd[i], r.dru[i], r.drd[i] = ru, rf, duf, dfz
+		}
+		return
+	}
+	r.rh[i] = h / (2 * r.kc[i])
+	r.rd[i] = r.rh[i]
+	if k >= 0 && !r.phases[k].isoTerm && r.phi[i] > 0 && r.phi[i] < 1 {
+		// k = kf + phi (ku - kf), phi = (T - Tl)/Range, dT/dH = slope.
+		ph := &r.phases[k]
+		d := -h / (2 * r.kc[i] * r.kc[i]) * (ph.ku - ph.kf) * r.slope[i] / ph.rng
+		r.dru[i], r.drd[i] = d, d
+	}
+}
+
+// endLag ends a stage whose conductances were held: the resistances and
+// conductances are brought back in line with the state.
+func (r *fvRun) endLag() {
+	if !r.lagG {
+		return
+	}
+	r.lagG = false
+	for _, j := range r.pcells {
+		r.setHalves(j)
+	}
+	r.updateConductances()
+	r.nlDirty = r.n - 1
 }
 
 // updateConductances recomputes the series conductances from rh and rf.
 func (r *fvRun) updateConductances() {
 	for i := range r.gg {
-		r.gg[i] = 1 / (r.rh[i] + r.rf[i+1] + r.rh[i+1])
+		r.gg[i] = 1 / (r.rd[i] + r.rf[i+1] + r.rh[i+1])
 	}
 	r.out.setG(r.rh[0])
-	r.in.setG(r.rh[r.n-1])
+	r.in.setG(r.rd[r.n-1])
 }
 
 // values evaluates both boundary functions at t and checks them.
@@ -693,6 +767,26 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	for _, i := range r.pcells {
 		reg[i] = r.phases[r.pidx[i]].region(H[i])
 		nclip[i] = 0
+		if reg[i] != 1 {
+			continue
+		}
+		var up bool
+		switch {
+		case i == 0 && n > 1:
+			up = T[1] > T[0]
+		case i == n-1 && n > 1:
+			up = T[i-1] < T[i]
+		case n > 1:
+			up = T[i-1] < T[i+1]
+		default:
+			up = true
+		}
+		if up != r.frozenUp[i] {
+			r.frozenUp[i] = up
+			r.setHalves(i)
+			r.nlDirty = n - 1
+			r.updateConductances()
+		}
 	}
 	if th != r.nlTh {
 		r.nlTh = th
@@ -700,24 +794,54 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	}
 	for it := 0; ; it++ {
 		r.iterations++
+		if it == fvLagAfter {
+			// The resistances of a partly frozen cell jump where it
+			// becomes fully frozen or unfrozen (its node moves from the
+			// front to the centre); a solution sitting on that kink makes
+			// them alternate. Keep the current ones for the rest of the
+			// stage: the iteration then converges on T(H) alone.
+			r.lagG = true
+			for _, j := range r.pcells {
+				if r.dru[j] != 0 || r.drd[j] != 0 {
+					r.dru[j], r.drd[j] = 0, 0
+					r.nlDirty = max(r.nlDirty, min(j+1, n-1))
+				}
+			}
+		}
 		// Factorise the rows that changed, bottom up:
 		// piv_i = di_i - up_i w_{i+1}, w_i = lo_i / piv_i.
+		// Boundary derivatives d(inflow)/dH of the end cells.
+		ao, ai := 0.0, 0.0
+		if out.kind == Environment {
+			ao = -out.g*s[0] - (vo-T[0])*out.g*out.g*r.dru[0]
+		}
+		if in.kind == Environment {
+			ai = -in.g*s[n-1] - (vi-T[n-1])*in.g*in.g*r.drd[n-1]
+		}
 		for i := r.nlDirty; i >= 0; i-- {
-			gl, gr, gb := 0.0, 0.0, 0.0
+			// Face j between cells j and j+1 carries F_j = G_j (T_j - T_{j+1});
+			// a_j = dF_j/dH_j, b_j = dF_j/dH_{j+1} (including dG/dH).
+			var dN float64 // d(net inflow of cell i)/dH_i
 			lo[i], up[i] = 0, 0
 			if i > 0 {
-				gl = gg[i-1]
-				lo[i] = -th * gl * s[i-1]
+				g, dT := gg[i-1], T[i-1]-T[i]
+				a := g*s[i-1] - dT*g*g*r.drd[i-1]
+				b := -g*s[i] - dT*g*g*r.dru[i]
+				dN += b
+				lo[i] = -th * a
 			} else {
-				gb += out.g
+				dN += ao
 			}
 			if i < n-1 {
-				gr = gg[i]
-				up[i] = -th * gr * s[i+1]
+				g, dT := gg[i], T[i]-T[i+1]
+				a := g*s[i] - dT*g*g*r.drd[i]
+				b := -g*s[i+1] - dT*g*g*r.dru[i+1]
+				dN -= a
+				up[i] = th * b
 			} else {
-				gb += in.g
+				dN += ai
 			}
-			di[i] = h[i] + th*(gl+gr+gb)*s[i]
+			di[i] = h[i] - th*dN
 			piv := di[i]
 			if i < n-1 {
 				piv -= up[i] * wb[i+1]
@@ -748,18 +872,23 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		errT, dk := 0.0, 0.0
 		clipped := false
 		klo, khi := n, -1
-		x := y[0]
+		x := y[0] // delta_i
 		tlin[0] = T[0] + s[0]*x
-		qo = out.inflow(vo, tlin[0])
+		qo = out.inflow(vo, T[0]) + ao*x
 		fAbove := qo
 		for i := 0; i < n; i++ {
 			var fBelow float64
 			if i < n-1 {
-				x = y[i+1] - wb[i+1]*x
-				tlin[i+1] = T[i+1] + s[i+1]*x
-				fBelow = gg[i] * (tlin[i] - tlin[i+1])
+				xn := y[i+1] - wb[i+1]*x
+				tlin[i+1] = T[i+1] + s[i+1]*xn
+				// Linearised face flux F_i + a_i delta_i + b_i delta_{i+1}.
+				g, dT := gg[i], T[i]-T[i+1]
+				a := g*s[i] - dT*g*g*r.drd[i]
+				b := -g*s[i+1] - dT*g*g*r.dru[i+1]
+				fBelow = g*dT + a*x + b*xn
+				x = xn
 			} else {
-				qi = in.inflow(vi, tlin[i])
+				qi = in.inflow(vi, T[i]) + ai*x
 				fBelow = -qi
 			}
 			H[i] = hrhs[i] + th*invh[i]*(fAbove-fBelow)
@@ -773,7 +902,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				continue
 			}
 			ph := &r.phases[k]
-			kold, sold := kc[i], s[i]
+			kold, sold, ruOld, rdOld := kc[i], s[i], r.rh[i], r.rd[i]
 			rn := ph.region(H[i])
 			if rn != reg[i] && nclip[i] < 4 && !last {
 				// Stop on the first kink crossed; continue beyond it.
@@ -787,7 +916,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 					H[i] = ph.hp
 				}
 				T[i], r.phi[i], s[i], kc[i] = ph.kink(atHp, next)
-				r.rh[i] = h[i] / (2 * kc[i])
+				r.setHalves(i)
 				reg[i] = next
 				nclip[i]++
 				clipped = true
@@ -796,31 +925,35 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				reg[i] = rn
 			}
 			errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
-			if kc[i] != kold {
-				dk = math.Max(dk, math.Abs(kc[i]-kold)/kc[i])
+			if r.rh[i] != ruOld || r.rd[i] != rdOld {
+				rs := r.rh[i] + r.rd[i]
+				dk = math.Max(dk, math.Max(math.Abs(r.rh[i]-ruOld), math.Abs(r.rd[i]-rdOld))/rs)
 				klo, khi = min(klo, i), max(khi, i)
 			}
-			if kc[i] != kold || s[i] != sold {
+			_ = kold
+			if r.rh[i] != ruOld || r.rd[i] != rdOld || s[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 {
 				r.nlDirty = max(r.nlDirty, min(i+1, n-1))
 			}
 		}
 		if khi >= 0 {
 			// Conductances next to the cells whose conductivity changed.
 			for j := max(klo-1, 0); j <= min(khi, n-2); j++ {
-				gg[j] = 1 / (r.rh[j] + r.rf[j+1] + r.rh[j+1])
+				gg[j] = 1 / (r.rd[j] + r.rf[j+1] + r.rh[j+1])
 			}
 			if klo == 0 {
 				out.setG(r.rh[0])
 			}
 			if khi == n-1 {
-				in.setG(r.rh[n-1])
+				in.setG(r.rd[n-1])
 			}
 		}
 		if !clipped && errT <= fvTolT && dk <= fvTolK {
+			r.endLag()
 			return qo, qi
 		}
 		if last {
 			r.unconverged++
+			r.endLag()
 			return qo, qi
 		}
 	}
