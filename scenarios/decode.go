@@ -5,8 +5,10 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"math"
 	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 
@@ -50,18 +52,24 @@ var (
 	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis"}
 	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil"}
 	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
-	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic"}
+	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
 	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
 	bottomKeys   = []string{"temperature", "heat_flux", "adiabatic"}
 	tempKeys     = []string{"mean", "daily", "annual", "harmonics", "step"}
 	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response", "design_freezing_index", "design_season_length"}
-	simulateKeys = []string{"duration", "step", "output_step", "initial_temperature", "mesh", "spin_up_cycles"}
+	simulateKeys = []string{"start", "duration", "step", "output_step", "initial_temperature", "mesh", "spin_up_cycles"}
 	meshKeys     = []string{"surface_cell", "growth", "max_cell", "cells_per_depth", "min_cells_per_layer"}
 )
 
-// Decode decodes a scenario from data; file names it in error messages.
+// Decode decodes a scenario from data; file names it in error messages and
+// files the scenario names (CSV series) are read relative to its folder.
 func Decode(file string, data []byte) (*Scenario, error) {
-	d := &decoder{file: file}
+	return DecodeFS(file, data, os.DirFS(filepath.Dir(file)))
+}
+
+// DecodeFS is Decode with the files the scenario names read from fsys.
+func DecodeFS(file string, data []byte, fsys fs.FS) (*Scenario, error) {
+	d := &decoder{file: file, fsys: fsys}
 	if len(bytes.TrimSpace(data)) == 0 {
 		return nil, &Error{File: file, Line: 1, Msg: "file is empty; start from `tempstack new wall`"}
 	}
@@ -428,11 +436,19 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 	n := 0
 	if o.has("temperature") {
 		n++
-		f, err := d.decodeTemperature(o, "temperature")
+		f, err := d.decodeForcing(o, "temperature", forcingTemperature)
 		if err != nil {
 			return side, err
 		}
 		side.Temperature = f
+	}
+	if o.has("solar") {
+		if !outside {
+			return side, o.errKey("solar", "the sun shines on the outside surface only")
+		}
+		if err := d.decodeSolar(o, s, &side); err != nil {
+			return side, err
+		}
 	}
 	if v, ok, err := o.quantity("heat_flux", layers.HeatFlux); err != nil {
 		return side, err
@@ -461,21 +477,60 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 	return side, nil
 }
 
-func (d *decoder) decodeTemperature(parent *object, key string) (*Forcing, error) {
+// forcingKind says what a forcing block holds.
+type forcingKind int
+
+const (
+	forcingTemperature forcingKind = iota // degC, amplitudes in K
+	forcingIrradiance                     // W/m2, amplitudes in W/m2
+)
+
+// decodeForcing reads a temperature (or irradiance) forcing: a single
+// value, a mapping of mean and harmonics, a step, or a CSV series.
+func (d *decoder) decodeForcing(parent *object, key string, kind forcingKind) (*Forcing, error) {
+	valueKind, ampKind, unit := layers.Temperature, layers.TemperatureDifference, "C"
+	if kind == forcingIrradiance {
+		valueKind, ampKind, unit = layers.Irradiance, layers.Irradiance, "W/m2"
+	}
 	f := &Forcing{Line: parent.line(key)}
 	v := parent.values[key]
 	if v.Kind == yaml.ScalarNode {
 		// A bare value: a constant temperature.
-		t, _, err := parent.quantity(key, layers.Temperature)
+		t, _, err := parent.quantity(key, valueKind)
 		if err != nil {
 			return nil, err
 		}
 		f.Mean = t
 		return f, nil
 	}
-	o, err := d.object(v, join(parent.path, key), tempKeys)
+	o, err := d.object(v, join(parent.path, key), append(append([]string(nil), tempKeys...), seriesKeys...))
 	if err != nil {
 		return nil, err
+	}
+	if o.has("file") {
+		for _, k := range tempKeys {
+			if o.has(k) {
+				return nil, o.errKey(k, "a measured series stands alone; remove %s or file", k)
+			}
+		}
+		m, err := d.decodeSeries(o, unit)
+		if err != nil {
+			return nil, err
+		}
+		p, err := fitMeasured(m)
+		if err != nil {
+			return nil, o.errKey("file", "cannot fit the record's mean and harmonics: %v", err)
+		}
+		f.Measured, f.Periodic = m, p
+		return f, nil
+	}
+	for _, k := range seriesKeys {
+		if o.has(k) {
+			return nil, o.errKey(k, "belongs to a measured series: give file too")
+		}
+	}
+	if kind == forcingIrradiance && o.has("step") {
+		return nil, o.errKey("step", "irradiance takes a mean and harmonics, or a series")
 	}
 	if st, ok, err := o.child("step", []string{"from", "to", "at"}); err != nil {
 		return nil, err
@@ -509,20 +564,20 @@ func (d *decoder) decodeTemperature(parent *object, key string) (*Forcing, error
 		f.Mean = step.From
 		return f, nil
 	}
-	mean, ok, err := o.quantity("mean", layers.Temperature)
+	mean, ok, err := o.quantity("mean", valueKind)
 	if err != nil {
 		return nil, err
 	}
 	if !ok {
-		return nil, o.missing("mean", "the mean temperature, degC")
+		return nil, o.missing("mean", "the mean value")
 	}
 	f.Mean = mean
-	if h, ok, err := d.harmonicBlock(o, "daily", "peak_hour", climate.Day, climate.Day/24); err != nil {
+	if h, ok, err := d.harmonicBlock(o, "daily", "peak_hour", climate.Day, climate.Day/24, ampKind); err != nil {
 		return nil, err
 	} else if ok {
 		f.Harmonics = append(f.Harmonics, h)
 	}
-	if h, ok, err := d.harmonicBlock(o, "annual", "peak_day", climate.Year, climate.Day); err != nil {
+	if h, ok, err := d.harmonicBlock(o, "annual", "peak_day", climate.Year, climate.Day, ampKind); err != nil {
 		return nil, err
 	} else if ok {
 		f.Harmonics = append(f.Harmonics, h)
@@ -542,12 +597,12 @@ func (d *decoder) decodeTemperature(parent *object, key string) (*Forcing, error
 			if !ok {
 				return nil, ho.missing("period", `e.g. "12h" or "365d"`)
 			}
-			a, ok, err := ho.nonNegative("amplitude", layers.TemperatureDifference)
+			a, ok, err := ho.nonNegative("amplitude", ampKind)
 			if err != nil {
 				return nil, err
 			}
 			if !ok {
-				return nil, ho.missing("amplitude", "half the peak-to-peak swing, K")
+				return nil, ho.missing("amplitude", "half the peak-to-peak swing")
 			}
 			pk, _, err := ho.nonNegative("peak", layers.Duration)
 			if err != nil {
@@ -561,17 +616,17 @@ func (d *decoder) decodeTemperature(parent *object, key string) (*Forcing, error
 
 // harmonicBlock decodes {amplitude, peak_X} where the peak is given in
 // units of unit seconds (hours for daily, days for annual).
-func (d *decoder) harmonicBlock(o *object, key, peakKey string, period, unit float64) (climate.Harmonic, bool, error) {
+func (d *decoder) harmonicBlock(o *object, key, peakKey string, period, unit float64, ampKind layers.Kind) (climate.Harmonic, bool, error) {
 	c, ok, err := o.child(key, []string{"amplitude", peakKey})
 	if err != nil || !ok {
 		return climate.Harmonic{}, false, err
 	}
-	a, ok, err := c.nonNegative("amplitude", layers.TemperatureDifference)
+	a, ok, err := c.nonNegative("amplitude", ampKind)
 	if err != nil {
 		return climate.Harmonic{}, false, err
 	}
 	if !ok {
-		return climate.Harmonic{}, false, c.missing("amplitude", "half the peak-to-peak swing, K")
+		return climate.Harmonic{}, false, c.missing("amplitude", "half the peak-to-peak swing")
 	}
 	h := climate.Harmonic{Period: period, Amplitude: a}
 	if c.has(peakKey) {
@@ -769,6 +824,14 @@ func (d *decoder) decodeSimulate(o *object, s *Scenario) error {
 		return err
 	} else if ok {
 		sim.Duration = v
+	}
+	if v, ok, err := so.nonNegative("start", layers.Duration); err != nil {
+		return err
+	} else if ok {
+		if m := s.Outside.Temperature; m != nil && m.Measured != nil {
+			return so.errKey("start", "a measured series sets its own start; cut the file instead")
+		}
+		sim.Start = v
 	}
 	if v, ok, err := so.positive("step", layers.Duration); err != nil {
 		return err

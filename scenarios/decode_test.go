@@ -31,7 +31,7 @@ func TestExamplesDecodeAndRun(t *testing.T) {
 		t.Fatalf("only %d embedded examples", len(exs))
 	}
 	for _, ex := range exs {
-		s, err := Decode(ex.File(), ex.Data)
+		s, err := ex.Decode()
 		if err != nil {
 			t.Fatalf("%s: %v", ex.Name, err)
 		}

@@ -37,44 +37,6 @@ func nFactored(t, nf, nt float64) float64 {
 	return nt * t
 }
 
-// surfaceForcing is the temperature forcing seen by the surface: the
-// outside forcing itself, or, with n-factors, the mean and harmonics of the
-// n-factored air temperature fitted by least squares over the longest
-// forcing period (hourly samples). The fit serves the exact periodic
-// analysis and the first guess of the spun-up simulation; the simulation
-// itself applies the n-factors at every instant.
-func (s *Scenario) surfaceForcing() *Forcing {
-	f := s.Outside.Temperature
-	if !s.Outside.hasNFactors() || f.Step != nil {
-		return f
-	}
-	if s.surface != nil {
-		return s.surface
-	}
-	P := longestForcingPeriod(s)
-	if P == 0 {
-		s.surface = &Forcing{Periodic: climate.Periodic{Mean: nFactored(f.Mean, s.Outside.NFreezing, s.Outside.nThawing())}, Line: f.Line}
-		return s.surface
-	}
-	n := int(math.Max(96, math.Min(P/3600, 20000)))
-	ts := make([]float64, n)
-	vs := make([]float64, n)
-	for k := range ts {
-		ts[k] = P * float64(k) / float64(n)
-		vs[k] = nFactored(f.At(ts[k]), s.Outside.NFreezing, s.Outside.nThawing())
-	}
-	var periods []float64
-	for _, h := range f.Harmonics {
-		periods = append(periods, h.Period)
-	}
-	p, _, err := climate.FitHarmonics(ts, vs, periods)
-	if err != nil {
-		p = f.Periodic
-	}
-	s.surface = &Forcing{Periodic: p, Line: f.Line}
-	return s.surface
-}
-
 // annualHarmonic returns the forcing's component of one year, if any.
 func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 	if f == nil {
@@ -228,13 +190,41 @@ func frostLayers(col solver.Column) []solver.Layer {
 // frostClimate reads the air freezing index, season length and mean
 // annual temperature of the forcing (periodic forcings: one year sampled
 // daily, cumulative-curve season; REFERENCES section 4).
-func frostClimate(s *Scenario) (ground.FrostClimate, bool) {
+func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
 	f := s.Outside.Temperature
 	if f == nil || f.Step != nil {
-		return ground.FrostClimate{}, false
+		return ground.FrostClimate{}, "", false
+	}
+	if m := f.Measured; m != nil {
+		// A record: the design freezing index, the mean of the three
+		// coldest complete winters of the latest 30 (REFERENCES section 4
+		// [read]), with the mean season length of those winters.
+		ws, err := recordWinters(m)
+		if err != nil {
+			return ground.FrostClimate{}, "", false
+		}
+		var complete []climate.Winter
+		for _, w := range ws {
+			if w.Complete {
+				complete = append(complete, w)
+			}
+		}
+		design, err := climate.DesignFreezingIndex(climate.FreezingIndices(ws))
+		if err != nil || len(complete) < 3 {
+			return ground.FrostClimate{}, "", false
+		}
+		sortWinters(complete)
+		var days float64
+		for _, w := range complete[:3] {
+			days += w.Days / 3
+		}
+		v, _ := m.Series.Value(m.Column)
+		fc := ground.FrostClimate{AirIndex: design, NFactor: s.Outside.NFreezing, SurfaceIndex: s.Outside.NFreezing * design,
+			SeasonDays: days, MeanAnnual: mean(v)}
+		return fc, fmt.Sprintf("record: mean of the 3 coldest of %d complete winters", len(complete)), true
 	}
 	if _, ok := annualHarmonic(f); !ok {
-		return ground.FrostClimate{}, false
+		return ground.FrostClimate{}, "", false
 	}
 	// Freezing indices are sums of daily mean temperatures (REFERENCES
 	// section 4; ISO 13793): components shorter than two days average out
@@ -247,15 +237,43 @@ func frostClimate(s *Scenario) (ground.FrostClimate, bool) {
 	}
 	fc, err := ground.PeriodicFrostClimate(slow, climate.Year, climate.Day, s.Outside.NFreezing)
 	if err != nil {
-		return ground.FrostClimate{}, false
+		return ground.FrostClimate{}, "", false
 	}
-	return fc, true
+	return fc, "forcing", true
+}
+
+// recordWinters splits a measured air-temperature record into winters.
+func recordWinters(m *Measured) ([]climate.Winter, error) {
+	return m.Series.Winters(m.Column, climate.WinterOptions{Origin: m.Series.Start})
+}
+
+// sortWinters orders winters by freezing index, coldest first.
+func sortWinters(ws []climate.Winter) {
+	for i := 1; i < len(ws); i++ {
+		for j := i; j > 0 && ws[j].FreezingIndex > ws[j-1].FreezingIndex; j-- {
+			ws[j], ws[j-1] = ws[j-1], ws[j]
+		}
+	}
+}
+
+// closedForms returns the layered Stefan and modified Berggren depths for
+// a frost climate.
+func closedForms(col solver.Column, fc ground.FrostClimate) (stefan float64, b ground.BerggrenResult, err error) {
+	ls := frostLayers(col)
+	stefan, _, err = ground.StefanLayered(ls, fc.SurfaceIndex)
+	if err != nil {
+		return 0, b, err
+	}
+	in := fc.Berggren(ls)
+	in.MeanAnnual = math.Max(0, in.MeanAnnual)
+	b, err = ground.ModifiedBerggren(in)
+	return stefan, b, err
 }
 
 // frostClosedForms fills the Stefan and modified Berggren depths of
 // r.Frost from the forcing's (or the design) freezing index.
 func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
-	fc, ok := frostClimate(s)
+	fc, source, ok := frostClimate(s)
 	if r.Frost == nil {
 		r.Frost = &Frost{}
 	}
@@ -265,7 +283,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
 		fr.SurfaceFreezingIndex_Cd = fc.SurfaceIndex
 		fr.SeasonLength_d = fc.SeasonDays
 		fr.MeanAnnualAir_C = fc.MeanAnnual
-		fr.IndexSource = "forcing"
+		fr.IndexSource = source
 	}
 	fr.FreezingNFactor = s.Outside.NFreezing
 	if d := s.Analysis.DesignFreezingIndex; d != nil {
@@ -291,20 +309,12 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
 		fr.StefanDepth_m, fr.ModifiedBerggrenDepth_m = 0, 0
 		return nil
 	}
-	ls := frostLayers(col)
-	depth, _, err := ground.StefanLayered(ls, fc.SurfaceIndex)
+	depth, b, err := closedForms(col, fc)
 	if err != nil {
-		r.Warnings = append(r.Warnings, "no Stefan or modified Berggren estimate: "+err.Error())
+		r.Warnings = append(r.Warnings, "no closed-form frost depth: "+err.Error())
 		return nil
 	}
 	fr.StefanDepth_m = depth
-	in := fc.Berggren(ls)
-	in.MeanAnnual = math.Max(0, in.MeanAnnual)
-	b, err := ground.ModifiedBerggren(in)
-	if err != nil {
-		r.Warnings = append(r.Warnings, "no modified Berggren estimate: "+err.Error())
-		return nil
-	}
 	fr.ModifiedBerggrenDepth_m = b.Depth
 	fr.BerggrenLambda, fr.BerggrenAlpha, fr.BerggrenMu = b.Lambda, b.Alpha, b.Mu
 	if fc.MeanAnnual < 0 {
@@ -342,14 +352,22 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		if to <= times[0] {
 			continue
 		}
-		wins = append(wins, window{math.Max(from, times[0]), math.Min(to, end)})
+		w := window{math.Max(from, times[0]), math.Min(to, end)}
+		if w.to-w.from >= 30*climate.Day {
+			wins = append(wins, w)
+		}
 	}
 	if len(wins) == 0 || s.Outside.Temperature.Step != nil {
 		wins = []window{{times[0], end}}
 	}
 	// Air indices per winter from the forcing, sampled hourly.
-	airT, airV := sampleForcing(s.Outside.Temperature, times[0], end)
-	winters, _ := climate.Winters(airT, airV, climate.WinterOptions{})
+	var winters []climate.Winter
+	if m := s.Outside.Temperature.Measured; m != nil {
+		winters, _ = recordWinters(m)
+	} else {
+		airT, airV := sampleForcing(s.Outside.Temperature, times[0], end)
+		winters, _ = climate.Winters(airT, airV, climate.WinterOptions{})
+	}
 	freezePoint := func(z float64) float64 {
 		l := col.Layers[col.LayerAt(z)]
 		if l.Freeze != nil {
@@ -392,6 +410,16 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 			if mid >= w.from && mid < w.to {
 				fw.AirFreezingIndex_Cd = cw.FreezingIndex
 				fw.AirThawingIndex_Cd = cw.ThawingIndex
+				if s.Outside.Temperature.Measured != nil && cw.Label != "" {
+					fw.Label = cw.Label
+				}
+				if s.Outside.Temperature.Measured != nil && cw.Complete && cw.FreezingIndex > 0 {
+					if fc, err := ground.FrostClimateFromWinter(cw, s.Outside.NFreezing); err == nil {
+						if st, b, err := closedForms(col, fc); err == nil {
+							fw.StefanDepth_m, fw.ModifiedBerggrenDepth_m = st, b.Depth
+						}
+					}
+				}
 			}
 		}
 		fr.Winters = append(fr.Winters, fw)
@@ -399,6 +427,9 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	}
 	if fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
 		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", fr.MaxFrostDepth_m, col.Thickness()))
+	}
+	if s.Outside.Temperature.Measured != nil && fr.IndexSource != "design" {
+		r.Warnings = append(r.Warnings, "the headline Stefan and modified Berggren depths use the record's design freezing index (mean of the 3 coldest complete winters); each winter's own closed-form depths are in the winter table")
 	}
 	if fr.IndexSource == "design" {
 		r.Warnings = append(r.Warnings, "the Stefan and modified Berggren depths use the design freezing index; the simulated depth follows the surface temperature of the scenario")

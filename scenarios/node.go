@@ -2,6 +2,7 @@ package scenarios
 
 import (
 	"fmt"
+	"io/fs"
 	"sort"
 	"strings"
 
@@ -14,6 +15,7 @@ import (
 // carrying file, line and key path.
 type decoder struct {
 	file string
+	fsys fs.FS // where files named by the scenario are read; nil: none
 }
 
 func (d *decoder) errf(n *yaml.Node, key, format string, args ...any) *Error {

@@ -155,7 +155,7 @@ type Frost struct {
 	SeasonLength_d          float64       `json:"season_length_d"`
 	MeanAnnualAir_C         float64       `json:"mean_annual_air_C"`
 	DesignFreezingIndex_Cd  *float64      `json:"design_freezing_index_Cd,omitempty"`
-	IndexSource             string        `json:"index_source"` // "forcing" or "design": what the closed forms used
+	IndexSource             string        `json:"index_source"` // what the closed forms used: "forcing", "design" or "record: ..."
 	BerggrenLambda          float64       `json:"berggren_lambda"`
 	BerggrenAlpha           float64       `json:"berggren_alpha"`
 	BerggrenMu              float64       `json:"berggren_mu"`
@@ -165,19 +165,21 @@ type Frost struct {
 // FrostWinter is the simulated frost of one winter year (1 July to 30
 // June on the simulation's axis; t = 0 is 1 January of year 1).
 type FrostWinter struct {
-	Label               string      `json:"label"`
-	Start_d             float64     `json:"start_d"`
-	End_d               float64     `json:"end_d"`
-	Complete            bool        `json:"complete"` // the run covers the whole winter year
-	AirFreezingIndex_Cd float64     `json:"air_freezing_index_Cd"`
-	AirThawingIndex_Cd  float64     `json:"air_thawing_index_Cd"`
-	MaxFrostDepth_m     float64     `json:"max_frost_depth_m"`
-	MaxFrostDay         float64     `json:"max_frost_day"` // days from the start of year 1
-	MaxFrostDate        string      `json:"max_frost_date"`
-	MaxThawDepth_m      float64     `json:"max_thaw_depth_m"`
-	FrozenAllYear       bool        `json:"frozen_all_year"`
-	ActiveLayer_m       float64     `json:"active_layer_m,omitempty"`
-	FrozenDays          []ProbeDays `json:"frozen_days"`
+	Label                   string      `json:"label"`
+	Start_d                 float64     `json:"start_d"`
+	End_d                   float64     `json:"end_d"`
+	Complete                bool        `json:"complete"` // the run covers the whole winter year
+	AirFreezingIndex_Cd     float64     `json:"air_freezing_index_Cd"`
+	AirThawingIndex_Cd      float64     `json:"air_thawing_index_Cd"`
+	MaxFrostDepth_m         float64     `json:"max_frost_depth_m"`
+	MaxFrostDay             float64     `json:"max_frost_day"` // days from the start of year 1
+	MaxFrostDate            string      `json:"max_frost_date"`
+	MaxThawDepth_m          float64     `json:"max_thaw_depth_m"`
+	StefanDepth_m           float64     `json:"stefan_depth_m,omitempty"` // measured records: this winter's closed forms
+	ModifiedBerggrenDepth_m float64     `json:"modified_berggren_depth_m,omitempty"`
+	FrozenAllYear           bool        `json:"frozen_all_year"`
+	ActiveLayer_m           float64     `json:"active_layer_m,omitempty"`
+	FrozenDays              []ProbeDays `json:"frozen_days"`
 }
 
 // ProbeDays is the number of days a probe spent at or below its freezing

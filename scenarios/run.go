@@ -189,7 +189,8 @@ func forcingHarmonics(out, in *Forcing) harmonicSet {
 func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 	ser := &r.Series
 	P := s.Analysis.Periods[0]
-	tOutMean := meanOf(s.Outside.Temperature, 0)
+	out := s.surfaceForcing()
+	tOutMean := meanOf(out, 0)
 	tInMean := meanOf(s.Inside.Temperature, 20)
 	L := col.Thickness()
 
@@ -201,7 +202,10 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 	}
 
 	// One cycle of the first analysis period.
-	zo, zi := phasorAt(s.Outside.Temperature, P), phasorAt(s.Inside.Temperature, P)
+	zo, zi := phasorAt(out, P), phasorAt(s.Inside.Temperature, P)
+	if s.surfaceFitted {
+		r.Warnings = append(r.Warnings, "the outside environment is not a pure sum of harmonics (a measured series, the sun or n-factors): the one-period chart and the temperature range use its least-squares fit; the simulation uses the true series")
+	}
 	if zo == 0 && zi == 0 {
 		zo = 1
 		r.Warnings = append(r.Warnings, fmt.Sprintf(
@@ -231,7 +235,7 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 	if err != nil {
 		return &Error{File: s.File, Msg: err.Error()}
 	}
-	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.Temperature)
+	hs := forcingHarmonics(out, s.Inside.Temperature)
 	amps := make([][]complex128, len(hs.periods))
 	for i, p := range hs.periods {
 		amps[i], _, err = solver.Harmonic(col, p, hs.outside[i], hs.inside[i], xs)

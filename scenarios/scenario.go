@@ -39,8 +39,10 @@ type Scenario struct {
 
 	Analysis Analysis
 
-	surface   *Forcing // cached effective surface forcing (n-factors applied)
-	waveDepth float64  // ground: deepest depth a periodic swing of 0.1 K reaches, m
+	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
+	surfaceFitted  bool
+	surfaceInexact bool    // the fit leaves a residual: the periodic start is only a guess
+	waveDepth      float64 // ground: deepest depth a periodic swing of 0.1 K reaches, m
 }
 
 // Side is the boundary on one face of the column.
@@ -65,6 +67,10 @@ type Side struct {
 	// temperature). Cover names the surface preset they came from.
 	NFreezing, NThawing float64
 	Cover               string
+
+	// Solar makes a wall's outside environment the sol-air temperature;
+	// nil: the air temperature.
+	Solar *Solar
 }
 
 // DefaultGeothermalFlux is the heat flux entering a ground column from
@@ -76,9 +82,10 @@ const DefaultGeothermalFlux = 0.065
 // Forcing is an environment temperature over time: a mean plus harmonics,
 // optionally replaced by a step change.
 type Forcing struct {
-	climate.Periodic       // mean (degC) and harmonics
-	Step             *Step // non-nil: a step change, Periodic ignored
-	Line             int   // line of the temperature key, for messages
+	climate.Periodic           // mean and harmonics (for a series: fitted by least squares)
+	Step             *Step     // non-nil: a step change, Periodic ignored
+	Measured         *Measured // non-nil: a measured series; Periodic is its fit
+	Line             int       // line of the key, for messages
 }
 
 // Step is a sudden change of the environment temperature.
@@ -89,6 +96,9 @@ type Step struct {
 
 // At returns the forcing temperature at time t (s), degC.
 func (f *Forcing) At(t float64) float64 {
+	if f.Measured != nil {
+		return f.Measured.at(t)
+	}
 	if f.Step != nil {
 		if t < f.Step.At {
 			return f.Step.From
@@ -122,6 +132,7 @@ type Analysis struct {
 
 // Simulate controls the transient finite-volume simulation.
 type Simulate struct {
+	Start           float64  // s after 1 January 00:00 of year 1 (measured series: the first record)
 	Duration        float64  // s
 	Step            float64  // s
 	Sample          float64  // s, spacing of the recorded series; 0 = automatic

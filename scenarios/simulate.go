@@ -24,6 +24,13 @@ const maxSamples = 20000
 func simDefaults(s *Scenario) {
 	sim := s.Analysis.Simulate
 	P := s.Analysis.Periods[0]
+	if m := s.Outside.Temperature.Measured; m != nil {
+		t0, t1 := m.Span()
+		sim.Start = t0
+		if sim.Duration == 0 {
+			sim.Duration = t1 - t0
+		}
+	}
 	if sim.Duration == 0 {
 		switch {
 		case s.Outside.Temperature != nil && s.Outside.Temperature.Step != nil:
@@ -91,12 +98,6 @@ func shortestPeriod(s *Scenario) float64 {
 
 // boundary turns a scenario side into a solver boundary.
 func boundary(sd Side) solver.Boundary {
-	if f := sd.Temperature; f != nil && sd.hasNFactors() {
-		nf, nt := sd.NFreezing, sd.nThawing()
-		return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: func(t float64) float64 {
-			return nFactored(f.At(t), nf, nt)
-		}}
-	}
 	switch {
 	case sd.Adiabatic:
 		return solver.Boundary{Kind: solver.Adiabatic}
@@ -104,8 +105,7 @@ func boundary(sd Side) solver.Boundary {
 		q := sd.HeatFlux
 		return solver.Boundary{Kind: solver.PrescribedFlux, Flux: func(float64) float64 { return q }}
 	}
-	f := sd.Temperature
-	return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: f.At}
+	return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: sd.env()}
 }
 
 // isLinear reports whether no layer of the column has latent heat.
@@ -134,12 +134,12 @@ func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 	return out, nil
 }
 
-// initialState returns the periodic solution at the cell centres at t = 0
+// initialState returns the periodic solution at the cell centres at t0
 // (mean steady state plus every harmonic of both forcings), the start of a
 // linear run that needs no spin-up. A flux or adiabatic inside (ground
 // bottom) carries no periodic flux; a ground column ends at its meshed
 // depth, as the simulation does.
-func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh) ([]float64, error) {
+func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
 	xs := mesh.Centers
 	c := col
 	c.HalfSpace = false
@@ -169,8 +169,9 @@ func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh) ([]float64,
 		if err != nil {
 			return nil, err
 		}
+		rot := cmplx.Exp(complex(0, 2*math.Pi*t0/p))
 		for j := range T {
-			T[j] += real(amp[j])
+			T[j] += real(amp[j] * rot)
 		}
 	}
 	return T, nil
@@ -196,7 +197,13 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.step",
 			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))}
 	}
-	if st := s.Outside.Temperature.Step; st != nil && st.At >= sim.Duration {
+	if m := s.Outside.Temperature.Measured; m != nil {
+		if _, t1 := m.Span(); sim.Start+sim.Duration > t1+1 {
+			return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.duration",
+				Msg: fmt.Sprintf("the series covers %s; the simulation cannot run for %s", fmtDuration(t1-sim.Start), fmtDuration(sim.Duration))}
+		}
+	}
+	if st := s.Outside.Temperature.Step; st != nil && st.At >= sim.Start+sim.Duration {
 		return nil, &Error{File: s.File, Line: s.Outside.Temperature.Line, Key: "step.at",
 			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", fmtDuration(st.At), fmtDuration(sim.Duration))}
 	}
@@ -221,6 +228,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 		Mesh:        mesh,
 		Outside:     boundary(s.Outside),
 		Inside:      boundary(s.Inside),
+		Start:       sim.Start,
 		Duration:    sim.Duration,
 		Step:        sim.Step,
 		Probes:      probes,
@@ -232,11 +240,11 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	case sim.Initial != nil:
 		p.Initial = uniform(mesh.Cells(), *sim.Initial)
 	default:
-		p.Initial, err = initialState(s, col, mesh)
+		p.Initial, err = initialState(s, col, mesh, sim.Start)
 		if err != nil {
 			return nil, &Error{File: s.File, Msg: "initial state: " + err.Error()}
 		}
-		if (!isLinear(col) || s.Outside.hasNFactors()) && s.Outside.Temperature.Step == nil {
+		if (!isLinear(col) || s.surfaceInexact) && s.Outside.Temperature.Step == nil {
 			// Latent heat makes the problem non-linear: the linear periodic
 			// solution is only a first guess. Repeat the longest forcing
 			// period until one cycle repeats the last.
@@ -319,7 +327,7 @@ func envAt(sd Side, t float64) float64 {
 	if sd.Temperature == nil {
 		return math.NaN()
 	}
-	return sd.Temperature.At(t)
+	return sd.env()(t)
 }
 
 func uniform(n int, v float64) []float64 {
@@ -376,7 +384,8 @@ func checkFinite(res *solver.Result) error {
 // complex amplitudes of inside flux and outside temperature at period P
 // (ISO 13786 definitions, with the inside temperature constant).
 func periodicChecks(s *Scenario, r *Results, res *solver.Result) {
-	if s.Kind != Wall || s.Inside.Temperature == nil || r.Simulation == nil {
+	if s.Kind != Wall || s.Inside.Temperature == nil || r.Simulation == nil ||
+		!s.Outside.isPlainHarmonic() || s.Inside.Temperature.Measured != nil {
 		return
 	}
 	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.Temperature)

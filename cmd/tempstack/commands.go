@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -40,7 +41,7 @@ func load(c *cli.Context) (*scenarios.Scenario, error) {
 		if !ok {
 			return nil, userErr("no embedded example %q; `tempstack examples` lists them", name)
 		}
-		s, err := scenarios.Decode(ex.File(), ex.Data)
+		s, err := ex.Decode()
 		if err != nil {
 			return nil, userError{err}
 		}
@@ -321,9 +322,19 @@ func examplesCommand() *cli.Command {
 		Usage:        "list the embedded demo scenarios (invented places)",
 		ArgsUsage:    "[NAME]",
 		OnUsageError: usageError,
-		Description:  "With NAME, prints that demo's YAML so it can be saved and edited.",
+		Description: "With NAME, prints that demo's YAML so it can be saved and edited;\n" +
+			"`tempstack examples demo-station.csv` prints the invented station record the station demo reads.",
 		Action: func(c *cli.Context) error {
 			if name := c.Args().First(); name != "" {
+				if name == scenarios.DemoSeriesFile {
+					f, err := scenarios.ExampleFiles().Open(name)
+					if err != nil {
+						return err
+					}
+					defer f.Close()
+					_, err = io.Copy(c.App.Writer, f)
+					return err
+				}
 				ex, ok := scenarios.LookupExample(name)
 				if !ok {
 					return userErr("no embedded example %q", name)

@@ -46,7 +46,11 @@ func TestBadScenarios(t *testing.T) {
 			if strings.Count(stderr, "\n") != 1 {
 				t.Errorf("stderr is not one line: %q", stderr)
 			}
-			if prefix := path + ":" + line + ":"; !strings.Contains(stderr, prefix) {
+			named := path
+			if f := regexp.MustCompile(`(?m)^# expect-file: (\S+)$`).FindSubmatch(data); f != nil {
+				named = filepath.Join(filepath.Dir(path), string(f[1]))
+			}
+			if prefix := named + ":" + line + ":"; !strings.Contains(stderr, prefix) {
 				t.Errorf("stderr %q does not name %s", stderr, prefix)
 			}
 			if !strings.Contains(stderr, want) {

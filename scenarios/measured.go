@@ -1,0 +1,345 @@
+package scenarios
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"path"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"tempstack/climate"
+	"tempstack/layers"
+)
+
+// Measured is a forcing read from a CSV time series.
+type Measured struct {
+	File   string          // as written in the scenario
+	Path   string          // as opened, for messages
+	Column string          // value column
+	Series *climate.Series // the record (s since 1 January of its first year)
+	at     func(t float64) float64
+}
+
+// Span returns the first and last time of the record, s.
+func (m *Measured) Span() (float64, float64) {
+	return m.Series.T[0], m.Series.T[len(m.Series.T)-1]
+}
+
+var seriesKeys = []string{"file", "time_column", "date_column", "hour_column", "column", "decimal", "separator", "unit", "max_gap"}
+
+// decodeSeries reads a `{file: ..., column: ...}` block: a CSV series named
+// relative to the scenario file. valueUnit is "C" for temperatures or
+// "W/m2" for irradiance.
+func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
+	name, _, err := o.str("file")
+	if err != nil {
+		return nil, err
+	}
+	if name == "" {
+		return nil, o.errKey("file", "give the CSV file name, relative to the scenario file")
+	}
+	if d.fsys == nil {
+		return nil, o.errKey("file", "this scenario cannot read files")
+	}
+	col, ok, err := o.str("column")
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		return nil, o.missing("column", "the header name of the value column")
+	}
+	opt := climate.CSVOptions{Columns: []string{col}}
+	if opt.TimeColumn, _, err = o.str("time_column"); err != nil {
+		return nil, err
+	}
+	if opt.DateColumn, _, err = o.str("date_column"); err != nil {
+		return nil, err
+	}
+	if opt.HourColumn, _, err = o.str("hour_column"); err != nil {
+		return nil, err
+	}
+	if opt.TimeColumn == "" && opt.DateColumn == "" {
+		opt.TimeColumn = "time"
+	}
+	if opt.TimeColumn != "" && opt.DateColumn != "" {
+		return nil, o.errKey("date_column", "give either time_column or date_column (with hour_column), not both")
+	}
+	if dec, ok, err := o.choice("decimal", []string{".", ","}); err != nil {
+		return nil, err
+	} else if ok {
+		opt.Decimal = rune(dec[0])
+	}
+	if sep, ok, err := o.choice("separator", []string{",", ";", "tab"}); err != nil {
+		return nil, err
+	} else if ok {
+		opt.Separator = map[string]rune{",": ',', ";": ';', "tab": '\t'}[sep]
+	}
+	if valueUnit == "C" {
+		if u, ok, err := o.choice("unit", []string{"C", "F", "K"}); err != nil {
+			return nil, err
+		} else if ok {
+			opt.Unit = u
+		}
+	} else {
+		if o.has("unit") {
+			return nil, o.errKey("unit", "irradiance is read in W/m2")
+		}
+		opt.ColumnUnits = map[string]string{col: "W/m2"}
+	}
+	if g, ok, err := o.positive("max_gap", layers.Duration); err != nil {
+		return nil, err
+	} else if ok {
+		opt.MaxGap = time.Duration(g * float64(time.Second))
+	}
+	p := path.Clean(filepath.ToSlash(name))
+	shown := filepath.Join(filepath.Dir(d.file), filepath.FromSlash(p))
+	f, err := d.fsys.Open(p)
+	if err != nil {
+		msg := "cannot open the series file"
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			msg += ": " + pe.Err.Error()
+		}
+		return nil, o.errKey("file", "%s (%s)", msg, shown)
+	}
+	defer f.Close()
+	ser, err := climate.ReadCSV(f, shown, opt)
+	if err != nil {
+		var ce *climate.CSVError
+		if errors.As(err, &ce) {
+			key := ce.Column
+			if key != "" {
+				key = "column " + key
+			}
+			return nil, &Error{File: ce.File, Line: ce.Line, Key: key, Msg: ce.Msg}
+		}
+		return nil, &Error{File: shown, Line: 1, Msg: err.Error()}
+	}
+	if len(ser.T) < 2 {
+		return nil, &Error{File: shown, Line: 1, Msg: "the series holds fewer than two records"}
+	}
+	at, err := ser.At(col)
+	if err != nil {
+		return nil, o.errKey("column", "%v", err)
+	}
+	return &Measured{File: name, Path: shown, Column: col, Series: ser, at: at}, nil
+}
+
+// fitMeasured fits the mean and the annual (when the record spans most of
+// a year) and daily harmonics to a record by least squares, so that the
+// exact periodic analysis and the start of the simulation can use it.
+func fitMeasured(m *Measured) (climate.Periodic, error) {
+	t0, t1 := m.Span()
+	periods := []float64{climate.Day}
+	if t1-t0 >= 300*climate.Day {
+		periods = []float64{climate.Year, climate.Day}
+	}
+	v, _ := m.Series.Value(m.Column)
+	p, _, err := climate.FitHarmonics(m.Series.T, v, periods)
+	return p, err
+}
+
+// Solar turns the outside air temperature of a wall into the sol-air
+// temperature T_sa = T_air + a I / h_e - dR (climate.SolAir), with h_e =
+// 1/Rse.
+type Solar struct {
+	Absorptance   float64  // 0..1
+	Irradiance    *Forcing // W/m2 on the surface (harmonics or a series); negative values count as 0
+	SkyCorrection float64  // K subtracted for long-wave exchange with the sky
+	AbsorptanceOf string   // the preset name, when one was used
+}
+
+func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) error {
+	so, ok, err := o.child("solar", []string{"absorptance", "irradiance", "sky_correction"})
+	if err != nil || !ok {
+		return err
+	}
+	sol := &Solar{}
+	if !so.has("absorptance") {
+		return so.missing("absorptance", "a number from 0 to 1, or a preset: light, medium, dark, white-paint, red-brick, ...")
+	}
+	txt, _, err := so.scalar("absorptance")
+	if err != nil {
+		return err
+	}
+	if a, perr := layers.ParseQuantity(txt, layers.Fraction); perr == nil {
+		if a < 0 || a > 1 {
+			return so.errKey("absorptance", "a solar absorptance lies between 0 and 1, got %g", a)
+		}
+		sol.Absorptance = a
+	} else {
+		a, aerr := climate.Absorptance(txt)
+		if aerr != nil {
+			return so.errKey("absorptance", "%v", aerr)
+		}
+		sol.Absorptance, sol.AbsorptanceOf = a, txt
+	}
+	if !so.has("irradiance") {
+		return so.missing("irradiance", "solar irradiance on the surface, W/m2: {mean, daily, annual} or {file, column}")
+	}
+	irr, err := d.decodeForcing(so, "irradiance", forcingIrradiance)
+	if err != nil {
+		return err
+	}
+	sol.Irradiance = irr
+	// Long-wave correction: ASHRAE's 7 degF (3.9 K) for horizontal
+	// surfaces and 0 for vertical ones (ASHRAE Handbook of Fundamentals,
+	// sol-air temperature [memory], via climate.SkyCorrection*).
+	sol.SkyCorrection = climate.SkyCorrectionVertical
+	if s.Orientation.String() == "roof" {
+		sol.SkyCorrection = climate.SkyCorrectionHorizontal
+	}
+	if v, ok, err := so.nonNegative("sky_correction", layers.TemperatureDifference); err != nil {
+		return err
+	} else if ok {
+		sol.SkyCorrection = v
+	}
+	side.Solar = sol
+	return nil
+}
+
+// env returns the environment temperature function of a side, degC at t
+// (s): the forcing, with sol-air and n-factors applied.
+func (sd Side) env() func(t float64) float64 {
+	f := sd.Temperature
+	if f == nil {
+		return nil
+	}
+	base := f.At
+	if sol := sd.Solar; sol != nil {
+		he := 1 / math.Max(sd.Resistance, 1e-3)
+		irr := sol.Irradiance
+		air := base
+		base = func(t float64) float64 {
+			return climate.SolAir(air(t), math.Max(0, irr.At(t)), sol.Absorptance, he, sol.SkyCorrection)
+		}
+	}
+	if sd.hasNFactors() {
+		nf, nt := sd.NFreezing, sd.nThawing()
+		inner := base
+		base = func(t float64) float64 { return nFactored(inner(t), nf, nt) }
+	}
+	return base
+}
+
+// isPlainHarmonic reports whether the side's environment is exactly its
+// harmonic forcing (no series, sun, n-factors or step).
+func (sd Side) isPlainHarmonic() bool {
+	f := sd.Temperature
+	return f != nil && f.Measured == nil && f.Step == nil && sd.Solar == nil && !sd.hasNFactors()
+}
+
+// describe is a one-line description of a forcing for messages.
+func (f *Forcing) describe() string {
+	switch {
+	case f == nil:
+		return "none"
+	case f.Measured != nil:
+		return fmt.Sprintf("series %s, column %q", f.Measured.File, f.Measured.Column)
+	case f.Step != nil:
+		return fmt.Sprintf("step from %g to %g degC", f.Step.From, f.Step.To)
+	}
+	var parts []string
+	for _, h := range f.Harmonics {
+		parts = append(parts, fmt.Sprintf("%g K over %s", h.Amplitude, fmtDuration(h.Period)))
+	}
+	if len(parts) == 0 {
+		return fmt.Sprintf("constant %g", f.Mean)
+	}
+	return fmt.Sprintf("mean %g with %s", f.Mean, strings.Join(parts, ", "))
+}
+
+// surfaceForcing is the outside (surface) environment as a mean plus
+// harmonics. For a plain harmonic forcing it is the forcing itself. With a
+// measured series, the sun (sol-air) or n-factors, it is a least-squares
+// fit of the true environment temperature (hourly samples over the
+// record, or over the longest period) to the same periods (plus the
+// second and third daily harmonics under the sun): exact periodic results
+// and the simulation's first guess use it; the simulation itself applies
+// the true environment at every step. Fitted reports whether it is a fit.
+func (s *Scenario) surfaceForcing() *Forcing {
+	sd := s.Outside
+	f := sd.Temperature
+	if f == nil || sd.isPlainHarmonic() || f.Step != nil {
+		return f
+	}
+	if s.surface != nil {
+		return s.surface
+	}
+	env := sd.env()
+	periods := map[float64]bool{}
+	for _, h := range f.Harmonics {
+		periods[h.Period] = true
+	}
+	t0, t1 := 0.0, 0.0
+	if f.Measured != nil {
+		t0, t1 = f.Measured.Span()
+	}
+	if sol := sd.Solar; sol != nil {
+		for _, h := range sol.Irradiance.Harmonics {
+			periods[h.Period] = true
+		}
+		if m := sol.Irradiance.Measured; m != nil {
+			a, b := m.Span()
+			if f.Measured == nil {
+				t0, t1 = a, b
+			} else {
+				t0, t1 = math.Max(t0, a), math.Min(t1, b)
+			}
+		}
+		if periods[climate.Day] {
+			periods[climate.Day/2], periods[climate.Day/3] = true, true
+		}
+	}
+	var ps []float64
+	longest := 0.0
+	for p := range periods {
+		ps = append(ps, p)
+		longest = math.Max(longest, p)
+	}
+	sortFloats(ps)
+	if t1 <= t0 {
+		t0, t1 = 0, longest
+	}
+	step := math.Min(3600, (t1-t0)/96)
+	n := int((t1-t0)/step) + 1
+	ts := make([]float64, 0, n)
+	vs := make([]float64, 0, n)
+	for k := 0; k < n; k++ {
+		t := t0 + float64(k)*step
+		ts = append(ts, t)
+		vs = append(vs, env(t))
+	}
+	fit := climate.Periodic{Mean: mean(vs)}
+	var rms float64
+	if len(ps) > 0 {
+		if p, q, err := climate.FitHarmonics(ts, vs, ps); err == nil {
+			fit, rms = p, q.RMS
+		}
+	}
+	s.surface = &Forcing{Periodic: fit, Line: f.Line}
+	s.surfaceFitted = true
+	// A fit that reproduces the environment to a millikelvin is exact for
+	// all purposes (for example a steady sun on a harmonic climate).
+	s.surfaceInexact = f.Measured != nil || rms > 1e-3
+	return s.surface
+}
+
+func mean(v []float64) float64 {
+	var s float64
+	for _, x := range v {
+		s += x
+	}
+	return s / float64(max(1, len(v)))
+}
+
+func sortFloats(v []float64) {
+	for i := 1; i < len(v); i++ {
+		for j := i; j > 0 && v[j] < v[j-1]; j-- {
+			v[j], v[j-1] = v[j-1], v[j]
+		}
+	}
+}
