@@ -206,8 +206,31 @@ func Simulate(p Problem) (*Result, error) {
 // do not converge it returns the last state, the cycles run and an error
 // wrapping ErrSpinUp.
 //
-// The boundary functions must be periodic with the given period.
+// The boundary functions must be periodic with the given period. For a
+// column with freezing layers use SpinUpEnthalpy: a temperature cannot
+// tell how much of a cell at its freezing point is frozen.
 func SpinUp(p Problem, period, tol float64, maxCycles int) (initial []float64, cycles int, err error) {
+	r, cycles, err := fvSpinUp(p, period, tol, maxCycles)
+	if r == nil {
+		return nil, cycles, err
+	}
+	return append([]float64(nil), r.T...), cycles, err
+}
+
+// SpinUpEnthalpy is SpinUp returning the periodic state as volumetric
+// enthalpies (J/m3 per cell, for Problem.InitialEnthalpy), which keep the
+// frozen fraction of cells at their freezing point. A cell's change over a
+// cycle is measured as its enthalpy change divided by its smaller
+// (frozen or unfrozen) heat capacity, in K.
+func SpinUpEnthalpy(p Problem, period, tol float64, maxCycles int) (enthalpy []float64, cycles int, err error) {
+	r, cycles, err := fvSpinUp(p, period, tol, maxCycles)
+	if r == nil {
+		return nil, cycles, err
+	}
+	return append([]float64(nil), r.H...), cycles, err
+}
+
+func fvSpinUp(p Problem, period, tol float64, maxCycles int) (*fvRun, int, error) {
 	if !(period > 0) || math.IsInf(period, 0) || !(tol > 0) || maxCycles < 1 {
 		return nil, 0, errors.New("solver: spin-up needs period > 0, tol > 0 and maxCycles >= 1")
 	}
@@ -219,20 +242,33 @@ func SpinUp(p Problem, period, tol float64, maxCycles int) (initial []float64, c
 	if err != nil {
 		return nil, 0, err
 	}
+	// Heat capacity that converts an enthalpy change into kelvin.
+	cmin := make([]float64, r.n)
+	for i := range cmin {
+		cmin[i] = r.cvol[i]
+		if k := r.pidx[i]; k >= 0 {
+			cmin[i] = math.Min(r.phases[k].cf, r.phases[k].cu)
+		}
+	}
 	prev := make([]float64, r.n)
-	for cycles = 1; cycles <= maxCycles; cycles++ {
-		copy(prev, r.T)
+	for cycles := 1; cycles <= maxCycles; cycles++ {
+		if !r.nonlinear {
+			for i := range r.H {
+				r.H[i] = r.cvol[i] * r.T[i]
+			}
+		}
+		copy(prev, r.H)
 		// Each run continues from the state (enthalpy) the last one left.
 		if _, err := r.run(); err != nil {
 			return nil, cycles, err
 		}
 		diff := 0.0
-		for i, t := range r.T {
-			diff = math.Max(diff, math.Abs(t-prev[i]))
+		for i, h := range r.H {
+			diff = math.Max(diff, math.Abs(h-prev[i])/cmin[i])
 		}
 		if diff < tol {
-			return append([]float64(nil), r.T...), cycles, nil
+			return r, cycles, nil
 		}
 	}
-	return append([]float64(nil), r.T...), maxCycles, fmt.Errorf("%w after %d cycles (tolerance %g K)", ErrSpinUp, maxCycles, tol)
+	return r, maxCycles, fmt.Errorf("%w after %d cycles (tolerance %g K)", ErrSpinUp, maxCycles, tol)
 }

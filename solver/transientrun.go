@@ -767,25 +767,25 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	for _, i := range r.pcells {
 		reg[i] = r.phases[r.pidx[i]].region(H[i])
 		nclip[i] = 0
-		if reg[i] != 1 {
-			continue
-		}
+		// Which side of the cell would freeze first: the colder neighbour's.
 		var up bool
 		switch {
-		case i == 0 && n > 1:
-			up = T[1] > T[0]
-		case i == n-1 && n > 1:
-			up = T[i-1] < T[i]
-		case n > 1:
-			up = T[i-1] < T[i+1]
-		default:
+		case n == 1:
 			up = true
+		case i == 0:
+			up = T[1] > T[0]
+		case i == n-1:
+			up = T[i-1] < T[i]
+		default:
+			up = T[i-1] < T[i+1]
 		}
 		if up != r.frozenUp[i] {
 			r.frozenUp[i] = up
-			r.setHalves(i)
-			r.nlDirty = n - 1
-			r.updateConductances()
+			if reg[i] == 1 {
+				r.setHalves(i)
+				r.nlDirty = n - 1
+				r.updateConductances()
+			}
 		}
 	}
 	if th != r.nlTh {
