@@ -30,6 +30,7 @@ const (
 	fvLagAfter = 12   // iteration from which the conductances are held
 	fvTolT     = 1e-9 // K, convergence of the enthalpy iteration
 	fvTolK     = 1e-7 // relative change of conductivity at convergence
+	fvTolR     = 1e-7 // K, residual of a cell whose resistances changed, in kelvin of its heat capacity
 )
 
 // fvBC is one surface condition of a run.
@@ -94,6 +95,7 @@ type fvRun struct {
 	rh       []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
 	rd       []float64 // resistance from the node to the lower face, m2 K/W
 	frozenUp []bool    // the frozen part of a mushy isothermal cell lies on its upper side
+	cmin     []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
 	lagG     bool      // keep the conductances of the current iteration (see implicit)
 	dru, drd []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
 	rf       []float64 // massless resistance on each face, len n+1
@@ -223,6 +225,13 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
 	r.ipiv = alloc()
+	r.cmin = alloc()
+	for i := range r.cmin {
+		r.cmin[i] = r.cvol[i]
+		if k := r.pidx[i]; k >= 0 {
+			r.cmin[i] = math.Min(r.phases[k].cf, r.phases[k].cu)
+		}
+	}
 	r.nlTh, r.nlDirty = math.NaN(), n-1
 	for i := range r.pidx {
 		if r.pidx[i] >= 0 {
@@ -945,6 +954,28 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			}
 			if khi == n-1 {
 				in.setG(r.rd[n-1])
+			}
+			if dk > fvTolK && !clipped && errT <= fvTolT {
+				// The linearised fluxes were exact except next to the cells
+				// whose resistances changed: if the residual of the
+				// conservation equation there, in kelvin of the cell's
+				// heat capacity, is negligible, the stage has converged.
+				dk = 0
+				for j := max(klo-1, 0); j <= min(khi+1, n-1); j++ {
+					fa := out.inflow(vo, T[0])
+					if j > 0 {
+						fa = gg[j-1] * (T[j-1] - T[j])
+					}
+					fb := -in.inflow(vi, T[n-1])
+					if j < n-1 {
+						fb = gg[j] * (T[j] - T[j+1])
+					}
+					res := math.Abs(h[j]*(hrhs[j]-H[j])+th*(fa-fb)) / (h[j] * r.cmin[j])
+					if res > fvTolR {
+						dk = math.Inf(1)
+						break
+					}
+				}
 			}
 		}
 		if !clipped && errT <= fvTolT && dk <= fvTolK {
