@@ -161,6 +161,15 @@ func HalfSpaceTime(a, d, frac float64) float64 {
 	return d * d / (4 * a * e * e)
 }
 
+// HalfSpaceDepth is the inverse of HalfSpaceTime: the depth (m) a step
+// change at the surface of a solid of diffusivity a (m2/s) reaches with the
+// fraction frac of its size after t seconds, d = 2 sqrt(a t) erfcinv(frac).
+// A column at least this deep stands in for a half-space over a run of
+// length t (for frac = 0.01, d = 3.64 sqrt(a t)).
+func HalfSpaceDepth(a, t, frac float64) float64 {
+	return 2 * math.Sqrt(a*t) * math.Erfcinv(frac)
+}
+
 // ContactTemperature is the interface temperature (degC) of two
 // semi-infinite bodies at t1 and t2 brought into perfect contact:
 //

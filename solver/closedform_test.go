@@ -159,6 +159,9 @@ func TestHalfSpaceTime(t *testing.T) {
 	if f := StepResponseHalfSpace(1, 1e6, 0, d, tt); math.Abs(f-0.01) > 1e-12 {
 		t.Errorf("response at the far face %g, want 0.01", f)
 	}
+	if got := HalfSpaceDepth(a, tt, 0.01); math.Abs(got-d) > 1e-12 {
+		t.Errorf("HalfSpaceDepth %g, want %g", got, d)
+	}
 }
 
 func TestStepResponseHalfSpace(t *testing.T) {
