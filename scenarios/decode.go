@@ -49,14 +49,14 @@ func cleanOSError(err error) string {
 }
 
 var (
-	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis"}
+	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
 	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil"}
 	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
 	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
 	bottomKeys   = []string{"temperature", "heat_flux", "adiabatic"}
 	tempKeys     = []string{"mean", "daily", "annual", "harmonics", "step"}
-	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response", "design_freezing_index", "design_season_length"}
+	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response", "design_freezing_index", "design_season_length", "fit"}
 	simulateKeys = []string{"start", "duration", "step", "output_step", "initial_temperature", "mesh", "spin_up_cycles"}
 	meshKeys     = []string{"surface_cell", "growth", "max_cell", "cells_per_depth", "min_cells_per_layer"}
 )
@@ -69,7 +69,16 @@ func Decode(file string, data []byte) (*Scenario, error) {
 
 // DecodeFS is Decode with the files the scenario names read from fsys.
 func DecodeFS(file string, data []byte, fsys fs.FS) (*Scenario, error) {
-	d := &decoder{file: file, fsys: fsys}
+	doc, err := parseYAML(file, data)
+	if err != nil {
+		return nil, err
+	}
+	return decodeDoc(file, doc, fsys)
+}
+
+// parseYAML parses data into its one YAML document node.
+func parseYAML(file string, data []byte) (*yaml.Node, error) {
+	d := &decoder{file: file}
 	if len(bytes.TrimSpace(data)) == 0 {
 		return nil, &Error{File: file, Line: 1, Msg: "file is empty; start from `tempstack new wall`"}
 	}
@@ -88,7 +97,13 @@ func DecodeFS(file string, data []byte, fsys fs.FS) (*Scenario, error) {
 	if doc.Kind != yaml.DocumentNode || len(doc.Content) == 0 {
 		return nil, &Error{File: file, Line: 1, Msg: "file is empty (only comments); start from `tempstack new wall`"}
 	}
-	top, err := d.object(doc.Content[0], "", topKeys)
+	return doc.Content[0], nil
+}
+
+// decodeDoc decodes the top mapping of a scenario.
+func decodeDoc(file string, root *yaml.Node, fsys fs.FS) (*Scenario, error) {
+	d := &decoder{file: file, fsys: fsys}
+	top, err := d.object(root, "", topKeys)
 	if err != nil {
 		return nil, err
 	}
@@ -127,6 +142,10 @@ func DecodeFS(file string, data []byte, fsys fs.FS) (*Scenario, error) {
 	if err := d.decodeAnalysis(top, s); err != nil {
 		return nil, err
 	}
+	if err := d.decodeStudy(top, s); err != nil {
+		return nil, err
+	}
+	s.root, s.fsys = root, fsys
 	return s, nil
 }
 
@@ -674,6 +693,9 @@ func (d *decoder) decodeAnalysis(top *object, s *Scenario) error {
 		return err
 	}
 	if err := d.decodeStepResponse(o, s); err != nil {
+		return err
+	}
+	if err := d.decodeFit(o, s); err != nil {
 		return err
 	}
 	if items, ok, err := o.list("periods"); err != nil {

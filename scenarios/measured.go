@@ -52,6 +52,9 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 		return nil, o.missing("column", "the header name of the value column")
 	}
 	opt := climate.CSVOptions{Columns: []string{col}}
+	if len(d.extraColumns) > 0 {
+		opt.Columns = d.extraColumns
+	}
 	if opt.TimeColumn, _, err = o.str("time_column"); err != nil {
 		return nil, err
 	}

@@ -16,6 +16,8 @@ import (
 type decoder struct {
 	file string
 	fsys fs.FS // where files named by the scenario are read; nil: none
+
+	extraColumns []string // value columns a series block reads besides its own
 }
 
 func (d *decoder) errf(n *yaml.Node, key, format string, args ...any) *Error {

@@ -26,6 +26,14 @@ type Results struct {
 	// StepResponse is filled when analysis.step_response asks for it.
 	StepResponse *StepResult `json:"step_response,omitempty"`
 
+	// Study results (variants, sweep, target, uncertainty, fit); nil or
+	// empty when the scenario asks for none.
+	Variants    []VariantResult    `json:"variants,omitempty"`
+	Sweep       *SweepResult       `json:"sweep,omitempty"`
+	Target      *TargetResult      `json:"target,omitempty"`
+	Uncertainty *UncertaintyResult `json:"uncertainty,omitempty"`
+	Fit         *FitResult         `json:"fit,omitempty"`
+
 	Warnings []string `json:"warnings,omitempty"`
 
 	// Series holds the chart data; large, so it is kept out of results.json.
@@ -239,4 +247,128 @@ type Series struct {
 	StepTime_s             []float64
 	StepFlux_W_m2          []float64 // simulated surface heat flux
 	StepFluxHalfSpace_W_m2 []float64 // closed form, semi-infinite first layer
+
+	// Fit to logged temperatures: measured and modelled at each sensor.
+	FitTime_h     []float64
+	FitDepth_m    []float64
+	FitMeasured_C [][]float64
+	FitModelled_C [][]float64 // nil rows for sensors not modelled
+}
+
+// VariantResult is one variant of a study (the first is the base file).
+type VariantResult struct {
+	Name       string   `json:"name"`
+	Changes    []string `json:"changes,omitempty"` // "path = value"
+	Quantities Summary  `json:"quantities"`
+	Layers     []Layer  `json:"layers"`
+
+	ResponsePeriod_h     []float64 `json:"-"`
+	ResponseDecrement    []float64 `json:"-"`
+	ResponseTimeShift_h  []float64 `json:"-"`
+	ProfilePosition_m    []float64 `json:"-"`
+	ProfileMin_C         []float64 `json:"-"`
+	ProfileMax_C         []float64 `json:"-"`
+	CycleTime_h          []float64 `json:"-"`
+	CycleInsideFlux_W_m2 []float64 `json:"-"`
+}
+
+// SweepResult is a one-parameter sweep.
+type SweepResult struct {
+	Parameter string       `json:"parameter"`
+	Unit      string       `json:"unit"`
+	Points    []SweepPoint `json:"points"`
+}
+
+// SweepPoint is one value of a sweep with the quantities it gives.
+type SweepPoint struct {
+	Value      float64 `json:"value"`
+	Text       string  `json:"text"` // as substituted, with its unit
+	Quantities Summary `json:"quantities"`
+}
+
+// TargetResult is the outcome of a target search.
+type TargetResult struct {
+	Parameter   string        `json:"parameter"`
+	Unit        string        `json:"unit"`
+	Quantity    string        `json:"quantity"`
+	Goal        float64       `json:"goal"`
+	AtLeast     bool          `json:"at_least"` // false: at most
+	From        float64       `json:"from"`
+	To          float64       `json:"to"`
+	Met         bool          `json:"met"`
+	Value       float64       `json:"value"`    // the parameter value found (or the closest when not met)
+	Achieved    float64       `json:"achieved"` // the quantity there
+	Margin      float64       `json:"margin"`   // on the good side of the goal when positive
+	Message     string        `json:"message"`
+	Evaluations int           `json:"evaluations"`
+	Scan        []TargetPoint `json:"scan"`
+}
+
+// TargetPoint is one evaluation of the grid scan of a target search.
+type TargetPoint struct {
+	Value    float64 `json:"value"`
+	Quantity float64 `json:"quantity"`
+	Meets    bool    `json:"meets"`
+}
+
+// UncertaintyResult is a Monte Carlo propagation of parameter
+// distributions.
+type UncertaintyResult struct {
+	Samples        int                  `json:"samples"`
+	Seed           uint64               `json:"seed"`
+	Rejected       int                  `json:"rejected"` // samples the decoder refused
+	FirstRejection string               `json:"first_rejection,omitempty"`
+	Parameters     []UncertainParameter `json:"parameters"`
+	Quantities     []Spread             `json:"quantities"`
+}
+
+// UncertainParameter is one varied parameter: normal (A mean, B sd) or
+// uniform (A min, B max), in Unit.
+type UncertainParameter struct {
+	Parameter    string  `json:"parameter"`
+	Distribution string  `json:"distribution"`
+	A            float64 `json:"a"`
+	B            float64 `json:"b"`
+	Unit         string  `json:"unit"`
+}
+
+// Spread is the distribution of one quantity over the samples.
+type Spread struct {
+	Quantity string  `json:"quantity"`
+	N        int     `json:"n"`
+	Mean     float64 `json:"mean"`
+	SD       float64 `json:"sd"`
+	Min      float64 `json:"min"`
+	P5       float64 `json:"p5"`
+	P50      float64 `json:"p50"`
+	P95      float64 `json:"p95"`
+	Max      float64 `json:"max"`
+}
+
+// FitResult is the thermal diffusivity fitted to logged temperatures.
+type FitResult struct {
+	File                   string    `json:"file"`
+	Diffusivity_m2_s       float64   `json:"diffusivity_m2_s"` // recommended value
+	Method                 string    `json:"method"`
+	StdErr_m2_s            float64   `json:"std_err_m2_s"`
+	Low_m2_s               float64   `json:"low_m2_s,omitempty"` // 95 % interval
+	High_m2_s              float64   `json:"high_m2_s,omitempty"`
+	InversionRMS_K         float64   `json:"inversion_rms_K,omitempty"`
+	InversionEvaluations   int       `json:"inversion_evaluations,omitempty"`
+	HarmonicCombined_m2_s  float64   `json:"harmonic_diffusivity_m2_s"`
+	HarmonicStdErr_m2_s    float64   `json:"harmonic_std_err_m2_s"`
+	Pairs                  []FitPair `json:"pairs"`
+	HeatCapacityUsed_J_m3K float64   `json:"heat_capacity_used_J_m3K,omitempty"` // of layer 1, for the conductivity
+	Conductivity_W_mK      float64   `json:"conductivity_W_mK,omitempty"`
+}
+
+// FitPair is the harmonic estimate from one pair of sensors and one period.
+type FitPair struct {
+	Period_h             float64 `json:"period_h"`
+	UpperDepth_m         float64 `json:"upper_depth_m"`
+	LowerDepth_m         float64 `json:"lower_depth_m"`
+	AmplitudeMethod_m2_s float64 `json:"amplitude_method_m2_s"`
+	PhaseMethod_m2_s     float64 `json:"phase_method_m2_s"`
+	Usable               bool    `json:"usable"`
+	Note                 string  `json:"note,omitempty"`
 }

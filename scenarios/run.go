@@ -16,13 +16,31 @@ import (
 //
 // progress, when not nil, is told how far a long simulation has come.
 func Run(s *Scenario, progress Progress) (*Results, error) {
+	var r *Results
+	var err error
 	switch s.Kind {
 	case Wall:
-		return runWall(s, progress)
+		r, err = runWall(s, progress)
 	case Ground:
-		return runGround(s, progress)
+		r, err = runGround(s, progress)
+	default:
+		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 	}
-	return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
+	if err != nil {
+		return nil, err
+	}
+	if s.Analysis.Fit != nil {
+		if err := runFit(s, r); err != nil {
+			return nil, err
+		}
+	}
+	if s.Study == nil {
+		return r, nil
+	}
+	if err := runStudy(s, r, s.Workers); err != nil {
+		return nil, err
+	}
+	return r, nil
 }
 
 // construction returns the scenario's layers as a construction.

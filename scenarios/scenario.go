@@ -11,6 +11,10 @@
 package scenarios
 
 import (
+	"io/fs"
+
+	"gopkg.in/yaml.v3"
+
 	"tempstack/climate"
 	"tempstack/layers"
 	"tempstack/solver"
@@ -38,6 +42,14 @@ type Scenario struct {
 	Inside  Side // wall: inside; ground: the bottom
 
 	Analysis Analysis
+
+	// Study holds variants, a sweep, a target or uncertainty; nil: none.
+	Study *StudySpec
+	// Workers caps the goroutines a study uses (0: one per core).
+	Workers int
+
+	root *yaml.Node // the decoded file, for the study's cases
+	fsys fs.FS      // where the file's series are read
 
 	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
 	surfaceFitted  bool
@@ -125,6 +137,9 @@ type Analysis struct {
 	// DesignFreezingIndex (air, degC day), when set, drives the closed-form
 	// frost depths instead of the index of the forcing; DesignSeason is its
 	// freezing-season length (s; 0 = the forcing's).
+	// Fit asks for the diffusivity from logged temperatures; nil: none.
+	Fit *FitSpec
+
 	DesignFreezingIndex *float64
 	DesignSeason        float64
 	DesignLine          int

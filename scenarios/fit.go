@@ -1,0 +1,158 @@
+package scenarios
+
+import (
+	"fmt"
+	"math"
+
+	"tempstack/climate"
+	"tempstack/ground"
+	"tempstack/layers"
+)
+
+// FitSpec asks for the thermal diffusivity of the ground (or a wall) from
+// temperatures logged at two or more depths (analysis.fit).
+type FitSpec struct {
+	Measured *Measured // the record (first sensor's column)
+	Columns  []string
+	Depths   []float64 // m
+	Periods  []float64 // s
+	Bottom   ground.BottomCondition
+	Line     int
+}
+
+func (d *decoder) decodeFit(parent *object, s *Scenario) error {
+	o, ok, err := parent.child("fit", []string{"file", "time_column", "date_column", "hour_column", "decimal", "separator", "unit", "max_gap", "sensors", "periods", "bottom"})
+	if err != nil || !ok {
+		return err
+	}
+	items, ok, err := o.list("sensors")
+	if err != nil {
+		return err
+	}
+	if !ok || len(items) < 2 {
+		return o.missing("sensors", "at least two {depth, column} entries, shallowest first")
+	}
+	spec := &FitSpec{Line: parent.line("fit")}
+	for i, n := range items {
+		so, err := d.object(n, fmt.Sprintf("analysis.fit.sensors[%d]", i+1), []string{"depth", "column"})
+		if err != nil {
+			return err
+		}
+		z, ok, err := so.nonNegative("depth", layers.Length)
+		if err != nil {
+			return err
+		}
+		if !ok {
+			return so.missing("depth", "m below the surface")
+		}
+		if len(spec.Depths) > 0 && z <= spec.Depths[len(spec.Depths)-1] {
+			return so.errKey("depth", "sensors must be listed shallowest first, each deeper than the last")
+		}
+		col, ok, err := so.str("column")
+		if err != nil {
+			return err
+		}
+		if !ok || col == "" {
+			return so.missing("column", "the header name of this sensor's column")
+		}
+		spec.Depths = append(spec.Depths, z)
+		spec.Columns = append(spec.Columns, col)
+	}
+	// Read the record through the series decoder, with every sensor column.
+	o.values["column"] = scalarAt(spec.Columns[0], o.node.Line, 1)
+	m, err := d.decodeSeriesColumns(o, spec.Columns)
+	if err != nil {
+		return err
+	}
+	spec.Measured = m
+	t0, t1 := m.Span()
+	if items, ok, err := o.list("periods"); err != nil {
+		return err
+	} else if ok {
+		for i, n := range items {
+			p, err := d.scalarQuantity(n, fmt.Sprintf("analysis.fit.periods[%d]", i+1), layers.Period)
+			if err != nil {
+				return err
+			}
+			if !(p > 0) || p > t1-t0 {
+				return d.errf(n, fmt.Sprintf("analysis.fit.periods[%d]", i+1), "the record (%s) must cover the period (%s) at least once", fmtDuration(t1-t0), fmtDuration(p))
+			}
+			spec.Periods = append(spec.Periods, p)
+		}
+	} else {
+		spec.Periods = []float64{climate.Day}
+		if t1-t0 >= climate.Year {
+			spec.Periods = []float64{climate.Year, climate.Day}
+		}
+	}
+	if b, ok, err := o.choice("bottom", []string{"auto", "sensor", "adiabatic"}); err != nil {
+		return err
+	} else if ok {
+		spec.Bottom = map[string]ground.BottomCondition{"auto": ground.BottomAuto, "sensor": ground.BottomSensor, "adiabatic": ground.BottomAdiabatic}[b]
+	}
+	s.Analysis.Fit = spec
+	return nil
+}
+
+// decodeSeriesColumns is decodeSeries reading several value columns.
+func (d *decoder) decodeSeriesColumns(o *object, cols []string) (*Measured, error) {
+	d.extraColumns = cols
+	defer func() { d.extraColumns = nil }()
+	return d.decodeSeries(o, "C")
+}
+
+// runFit fits the diffusivity to the record and fills r.Fit.
+func runFit(s *Scenario, r *Results) error {
+	spec := s.Analysis.Fit
+	rec, err := ground.RecordFromSeries(spec.Measured.Series, spec.Columns, spec.Depths)
+	if err != nil {
+		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: err.Error()}
+	}
+	fr, err := ground.FitDiffusivity(rec, ground.FitOptions{Periods: spec.Periods, Bottom: spec.Bottom})
+	if err != nil {
+		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: err.Error()}
+	}
+	out := &FitResult{
+		File:                  spec.Measured.File,
+		Diffusivity_m2_s:      fr.Diffusivity,
+		Method:                "numerical inversion (transient solver driven by the shallowest sensor, least squares on the deeper ones)",
+		StdErr_m2_s:           fr.Inversion.StdErrAR1,
+		Low_m2_s:              fr.Inversion.Low,
+		High_m2_s:             fr.Inversion.High,
+		InversionRMS_K:        fr.Inversion.RMS,
+		InversionEvaluations:  fr.Inversion.Evaluations,
+		HarmonicCombined_m2_s: fr.HarmonicCombined,
+		HarmonicStdErr_m2_s:   fr.HarmonicStdErr,
+	}
+	if fr.Inversion.Diffusivity == 0 {
+		out.Method = "harmonic amplitude and phase methods (weighted mean)"
+		out.Diffusivity_m2_s = fr.HarmonicCombined
+		out.StdErr_m2_s = fr.HarmonicStdErr
+	}
+	for _, p := range fr.Harmonic {
+		out.Pairs = append(out.Pairs, FitPair{
+			Period_h: p.Period / 3600, UpperDepth_m: p.DepthUpper, LowerDepth_m: p.DepthLower,
+			AmplitudeMethod_m2_s: p.Amplitude, PhaseMethod_m2_s: p.Phase, Usable: p.Usable, Note: p.Note,
+		})
+	}
+	// Conductivity follows where the heat capacity of the soil is known:
+	// lambda = a rho c, from the first layer of the scenario.
+	if len(s.Layers) > 0 && s.Layers[0].HeatCapacity() > 0 {
+		out.HeatCapacityUsed_J_m3K = s.Layers[0].HeatCapacity()
+		out.Conductivity_W_mK = out.Diffusivity_m2_s * out.HeatCapacityUsed_J_m3K
+	}
+	r.Fit = out
+	// Chart data: measured and modelled at each fitted sensor.
+	ser := &r.Series
+	ser.FitTime_h = nil
+	for _, t := range rec.Times {
+		ser.FitTime_h = append(ser.FitTime_h, t/3600)
+	}
+	ser.FitDepth_m = spec.Depths
+	ser.FitMeasured_C = rec.Temps
+	ser.FitModelled_C = fr.Inversion.Modelled
+	if math.IsNaN(out.Diffusivity_m2_s) {
+		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: "the fit did not converge"}
+	}
+	return nil
+}

@@ -1,0 +1,850 @@
+package scenarios
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"sort"
+	"strings"
+	"sync"
+
+	"gopkg.in/yaml.v3"
+)
+
+// StudySpec is what a scenario asks beyond its own run: variants side by
+// side, a sweep of one parameter, a target to seek, and Monte Carlo
+// uncertainty. Each case is the base scenario file with some values
+// replaced (see parsePath), decoded and run again, so a case is checked
+// exactly like a file and its errors point at the replacing line.
+type StudySpec struct {
+	Variants    []VariantSpec
+	Sweep       *SweepSpec
+	Target      *TargetSpec
+	Uncertainty *UncertaintySpec
+}
+
+// VariantSpec is one named variant: values replaced in the base file.
+type VariantSpec struct {
+	Name string
+	Sets []setSpec
+	Line int
+}
+
+type setSpec struct {
+	Path  string
+	Value *yaml.Node
+	Line  int
+}
+
+// SweepSpec varies one parameter over values.
+type SweepSpec struct {
+	Parameter string
+	Values    []string // as substituted, with the unit
+	Numbers   []float64
+	Unit      string
+	Line      int
+}
+
+// TargetSpec seeks the value of a parameter for which a quantity meets a
+// goal.
+type TargetSpec struct {
+	Parameter string
+	From, To  float64
+	Unit      string
+	Quantity  string
+	Goal      float64
+	AtLeast   bool // true: quantity >= Goal; false: quantity <= Goal
+	Largest   bool // prefer the largest value that meets the goal
+	Tolerance float64
+	Line      int
+}
+
+// UncertaintySpec propagates parameter distributions by Monte Carlo.
+type UncertaintySpec struct {
+	Samples int
+	Seed    uint64
+	Vary    []VarySpec
+	Line    int
+}
+
+// VarySpec is the distribution of one parameter.
+type VarySpec struct {
+	Parameter string
+	Normal    bool    // normal (Mean, SD) or uniform (Min, Max)
+	A, B      float64 // mean and sd, or min and max
+	Unit      string
+}
+
+// quantities are the figures a study can compare, seek and spread, with
+// the function that reads each from Results.
+var quantities = map[string]func(r *Results) (float64, bool){
+	"u_value_W_m2K": func(r *Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == "wall" },
+	"decrement_factor": func(r *Results) (float64, bool) {
+		return first(r, func(p PeriodicResult) float64 { return p.DecrementFactor })
+	},
+	"time_shift_h": func(r *Results) (float64, bool) {
+		return first(r, func(p PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
+	},
+	"periodic_transmittance_W_m2K": func(r *Results) (float64, bool) {
+		return first(r, func(p PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })
+	},
+	"inside_admittance_W_m2K": func(r *Results) (float64, bool) {
+		return first(r, func(p PeriodicResult) float64 { return p.InsideAdmittance_W_m2K })
+	},
+	"inside_areal_heat_capacity_kJ_m2K": func(r *Results) (float64, bool) {
+		return first(r, func(p PeriodicResult) float64 { return p.InsideArealHeatCapacity_kJ_m2K })
+	},
+	"max_frost_depth_m": func(r *Results) (float64, bool) {
+		return frostQ(r, func(f *Frost) float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
+	},
+	"stefan_depth_m": func(r *Results) (float64, bool) {
+		return frostQ(r, func(f *Frost) float64 { return f.StefanDepth_m }, true)
+	},
+	"modified_berggren_depth_m": func(r *Results) (float64, bool) {
+		return frostQ(r, func(f *Frost) float64 { return f.ModifiedBerggrenDepth_m }, true)
+	},
+	"freezing_index_Cd": func(r *Results) (float64, bool) {
+		return frostQ(r, func(f *Frost) float64 { return f.FreezingIndex_Cd }, true)
+	},
+}
+
+func first(r *Results, f func(PeriodicResult) float64) (float64, bool) {
+	if len(r.Periodic) == 0 {
+		return math.NaN(), false
+	}
+	return f(r.Periodic[0]), true
+}
+
+func frostQ(r *Results, f func(*Frost) float64, ok bool) (float64, bool) {
+	if r.Frost == nil || !ok {
+		return math.NaN(), false
+	}
+	return f(r.Frost), true
+}
+
+// quantityNames lists the quantities a scenario kind has, sorted.
+func quantityNames(k Kind) []string {
+	var out []string
+	for name := range quantities {
+		wall := !strings.Contains(name, "frost") && !strings.Contains(name, "stefan") && !strings.Contains(name, "berggren") && !strings.Contains(name, "freezing")
+		if (k == Wall) == wall {
+			out = append(out, name)
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+// Summary holds the study quantities of one case (NaN when not defined).
+type Summary map[string]float64
+
+func summarize(r *Results) Summary {
+	s := Summary{}
+	for name, f := range quantities {
+		if v, ok := f(r); ok {
+			s[name] = v
+		}
+	}
+	return s
+}
+
+// ---- decoding ----
+
+func (d *decoder) decodeStudy(top *object, s *Scenario) error {
+	var st StudySpec
+	any := false
+	if items, ok, err := top.list("variants"); err != nil {
+		return err
+	} else if ok {
+		any = true
+		if len(items) == 0 {
+			return top.errKey("variants", "the list is empty")
+		}
+		names := map[string]bool{}
+		for i, n := range items {
+			o, err := d.object(n, fmt.Sprintf("variants[%d]", i+1), []string{"name", "set"})
+			if err != nil {
+				return err
+			}
+			name, ok, err := o.str("name")
+			if err != nil {
+				return err
+			}
+			if !ok || name == "" {
+				return o.missing("name", "a short name for the variant")
+			}
+			if names[name] {
+				return o.errKey("name", "two variants are called %q", name)
+			}
+			names[name] = true
+			sets, err := d.decodeSets(o)
+			if err != nil {
+				return err
+			}
+			st.Variants = append(st.Variants, VariantSpec{Name: name, Sets: sets, Line: n.Line})
+		}
+	}
+	if o, ok, err := top.child("sweep", []string{"parameter", "from", "to", "steps", "values"}); err != nil {
+		return err
+	} else if ok {
+		any = true
+		sw, err := d.decodeSweep(o)
+		if err != nil {
+			return err
+		}
+		st.Sweep = sw
+	}
+	if o, ok, err := top.child("target", []string{"parameter", "from", "to", "quantity", "at_least", "at_most", "prefer", "tolerance"}); err != nil {
+		return err
+	} else if ok {
+		any = true
+		tg, err := d.decodeTarget(o, s)
+		if err != nil {
+			return err
+		}
+		st.Target = tg
+	}
+	if o, ok, err := top.child("uncertainty", []string{"samples", "seed", "vary"}); err != nil {
+		return err
+	} else if ok {
+		any = true
+		u, err := d.decodeUncertainty(o)
+		if err != nil {
+			return err
+		}
+		st.Uncertainty = u
+	}
+	if any {
+		s.Study = &st
+	}
+	return nil
+}
+
+func (d *decoder) decodeSets(o *object) ([]setSpec, error) {
+	if !o.has("set") {
+		return nil, o.missing("set", "the values this variant changes, e.g. set: {layers[2].thickness: 240 mm}")
+	}
+	// Parameter paths are free text, so the mapping is read directly
+	// rather than checked against a list of keys.
+	v := o.values["set"]
+	if v.Kind != yaml.MappingNode {
+		return nil, o.errKey("set", "expected a mapping of parameter: value lines")
+	}
+	var sets []setSpec
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, val := v.Content[i], v.Content[i+1]
+		if _, err := parsePath(k.Value); err != nil {
+			return nil, d.errf(k, join(o.path, "set"), "%v", err)
+		}
+		sets = append(sets, setSpec{Path: k.Value, Value: val, Line: k.Line})
+	}
+	if len(sets) == 0 {
+		return nil, o.errKey("set", "give at least one parameter: value")
+	}
+	return sets, nil
+}
+
+func (d *decoder) pathKey(o *object, key string) (string, error) {
+	p, ok, err := o.str(key)
+	if err != nil {
+		return "", err
+	}
+	if !ok || p == "" {
+		return "", o.missing(key, `a parameter path such as layers[2].thickness`)
+	}
+	if _, err := parsePath(p); err != nil {
+		return "", o.errKey(key, "%v", err)
+	}
+	return p, nil
+}
+
+// numberKey reads "100 mm" style values: the number and its unit text.
+func (o *object) numberKey(key string) (float64, string, bool, error) {
+	if !o.has(key) {
+		return 0, "", false, nil
+	}
+	txt, _, err := o.scalar(key)
+	if err != nil {
+		return 0, "", false, err
+	}
+	v, u, err := splitNumber(txt)
+	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+		return 0, "", false, o.errKey(key, "expected a number with an optional unit, got %q", txt)
+	}
+	return v, u, true, nil
+}
+
+func (d *decoder) decodeSweep(o *object) (*SweepSpec, error) {
+	p, err := d.pathKey(o, "parameter")
+	if err != nil {
+		return nil, err
+	}
+	sw := &SweepSpec{Parameter: p, Line: o.node.Line}
+	if items, ok, err := o.list("values"); err != nil {
+		return nil, err
+	} else if ok {
+		if o.has("from") || o.has("to") || o.has("steps") {
+			return nil, o.errKey("values", "give either values or from, to and steps")
+		}
+		for i, n := range items {
+			if n.Kind != yaml.ScalarNode {
+				return nil, d.errf(n, fmt.Sprintf("sweep.values[%d]", i+1), "expected a single value")
+			}
+			v, u, err := splitNumber(n.Value)
+			if err != nil {
+				return nil, d.errf(n, fmt.Sprintf("sweep.values[%d]", i+1), "%v", err)
+			}
+			sw.Values = append(sw.Values, n.Value)
+			sw.Numbers = append(sw.Numbers, v)
+			sw.Unit = u
+		}
+		if len(items) < 2 {
+			return nil, o.errKey("values", "a sweep needs at least two values")
+		}
+		return sw, nil
+	}
+	from, u1, ok1, err := o.numberKey("from")
+	if err != nil {
+		return nil, err
+	}
+	to, u2, ok2, err := o.numberKey("to")
+	if err != nil {
+		return nil, err
+	}
+	if !ok1 || !ok2 {
+		return nil, o.missing(map[bool]string{true: "to", false: "from"}[ok1], "the range of the parameter, or a list of values")
+	}
+	if u1 != u2 {
+		return nil, o.errKey("to", "from and to must be in the same unit (%q and %q)", u1, u2)
+	}
+	steps := 7
+	if n, ok, err := o.integer("steps"); err != nil {
+		return nil, err
+	} else if ok {
+		if n < 2 || n > 1000 {
+			return nil, o.errKey("steps", "must lie between 2 and 1000, got %d", n)
+		}
+		steps = n
+	}
+	if from == to {
+		return nil, o.errKey("to", "the range is empty")
+	}
+	sw.Unit = u1
+	for i := 0; i < steps; i++ {
+		v := from + (to-from)*float64(i)/float64(steps-1)
+		sw.Numbers = append(sw.Numbers, v)
+		sw.Values = append(sw.Values, joinNumber(v, u1))
+	}
+	return sw, nil
+}
+
+func (d *decoder) decodeTarget(o *object, s *Scenario) (*TargetSpec, error) {
+	p, err := d.pathKey(o, "parameter")
+	if err != nil {
+		return nil, err
+	}
+	tg := &TargetSpec{Parameter: p, Line: o.node.Line}
+	from, u1, ok1, err := o.numberKey("from")
+	if err != nil {
+		return nil, err
+	}
+	to, u2, ok2, err := o.numberKey("to")
+	if err != nil {
+		return nil, err
+	}
+	if !ok1 || !ok2 {
+		return nil, o.missing(map[bool]string{true: "to", false: "from"}[ok1], "the range to search")
+	}
+	if u1 != u2 {
+		return nil, o.errKey("to", "from and to must be in the same unit (%q and %q)", u1, u2)
+	}
+	if !(to > from) {
+		return nil, o.errKey("to", "must be larger than from")
+	}
+	tg.From, tg.To, tg.Unit = from, to, u1
+	q, ok, err := o.choice("quantity", quantityNames(s.Kind))
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		return nil, o.missing("quantity", strings.Join(quantityNames(s.Kind), ", "))
+	}
+	tg.Quantity = q
+	switch {
+	case o.has("at_least") && o.has("at_most"):
+		return nil, o.errKey("at_most", "give either at_least or at_most")
+	case o.has("at_least"):
+		v, _, _, err := o.numberKey("at_least")
+		if err != nil {
+			return nil, err
+		}
+		tg.Goal, tg.AtLeast = v, true
+	case o.has("at_most"):
+		v, _, _, err := o.numberKey("at_most")
+		if err != nil {
+			return nil, err
+		}
+		tg.Goal = v
+	default:
+		return nil, o.missing("at_least", "the goal: at_least or at_most, in the unit of the quantity's name")
+	}
+	if pr, ok, err := o.choice("prefer", []string{"smallest", "largest"}); err != nil {
+		return nil, err
+	} else if ok {
+		tg.Largest = pr == "largest"
+	}
+	tg.Tolerance = (to - from) / 1000
+	if v, _, ok, err := o.numberKey("tolerance"); err != nil {
+		return nil, err
+	} else if ok {
+		if !(v > 0) {
+			return nil, o.errKey("tolerance", "must be positive")
+		}
+		tg.Tolerance = v
+	}
+	return tg, nil
+}
+
+func (d *decoder) decodeUncertainty(o *object) (*UncertaintySpec, error) {
+	u := &UncertaintySpec{Samples: 100, Seed: 1, Line: o.node.Line}
+	if n, ok, err := o.integer("samples"); err != nil {
+		return nil, err
+	} else if ok {
+		if n < 10 || n > 100000 {
+			return nil, o.errKey("samples", "must lie between 10 and 100000, got %d", n)
+		}
+		u.Samples = n
+	}
+	if n, ok, err := o.integer("seed"); err != nil {
+		return nil, err
+	} else if ok {
+		if n < 0 {
+			return nil, o.errKey("seed", "must not be negative")
+		}
+		u.Seed = uint64(n)
+	}
+	items, ok, err := o.list("vary")
+	if err != nil {
+		return nil, err
+	}
+	if !ok || len(items) == 0 {
+		return nil, o.missing("vary", "a list of {parameter, normal: {mean, sd}} or {parameter, uniform: {min, max}}")
+	}
+	for i, n := range items {
+		vo, err := d.object(n, fmt.Sprintf("uncertainty.vary[%d]", i+1), []string{"parameter", "normal", "uniform"})
+		if err != nil {
+			return nil, err
+		}
+		p, err := d.pathKey(vo, "parameter")
+		if err != nil {
+			return nil, err
+		}
+		vs := VarySpec{Parameter: p}
+		switch {
+		case vo.has("normal") && vo.has("uniform"):
+			return nil, vo.errKey("uniform", "give either normal or uniform")
+		case vo.has("normal"):
+			no, _, err := vo.child("normal", []string{"mean", "sd"})
+			if err != nil {
+				return nil, err
+			}
+			m, u1, ok1, err := no.numberKey("mean")
+			if err != nil {
+				return nil, err
+			}
+			sd, u2, ok2, err := no.numberKey("sd")
+			if err != nil {
+				return nil, err
+			}
+			if !ok1 || !ok2 {
+				return nil, no.missing(map[bool]string{true: "sd", false: "mean"}[ok1], "mean and standard deviation, in the same unit")
+			}
+			if u1 != u2 || sd < 0 {
+				return nil, no.errKey("sd", "the standard deviation must be >= 0 and in the unit of the mean")
+			}
+			vs.Normal, vs.A, vs.B, vs.Unit = true, m, sd, u1
+		case vo.has("uniform"):
+			uo, _, err := vo.child("uniform", []string{"min", "max"})
+			if err != nil {
+				return nil, err
+			}
+			a, u1, ok1, err := uo.numberKey("min")
+			if err != nil {
+				return nil, err
+			}
+			b, u2, ok2, err := uo.numberKey("max")
+			if err != nil {
+				return nil, err
+			}
+			if !ok1 || !ok2 {
+				return nil, uo.missing(map[bool]string{true: "max", false: "min"}[ok1], "the range, in one unit")
+			}
+			if u1 != u2 || !(b > a) {
+				return nil, uo.errKey("max", "must be larger than min and in the same unit")
+			}
+			vs.A, vs.B, vs.Unit = a, b, u1
+		default:
+			return nil, vo.missing("normal", "a distribution: normal: {mean, sd} or uniform: {min, max}")
+		}
+		u.Vary = append(u.Vary, vs)
+	}
+	return u, nil
+}
+
+// ---- running ----
+
+// studyCase is one set of replacements of the base file.
+type studyCase []setSpec
+
+// runCase decodes the base file with the replacements and runs it.
+func runCase(s *Scenario, c studyCase) (*Results, error) {
+	root := cloneNode(s.root)
+	// A case is a plain scenario: drop the study keys.
+	for i := 0; i+1 < len(root.Content); {
+		switch root.Content[i].Value {
+		case "variants", "sweep", "target", "uncertainty":
+			root.Content = append(root.Content[:i], root.Content[i+2:]...)
+		default:
+			i += 2
+		}
+	}
+	for _, st := range c {
+		if err := setPath(root, st.Path, cloneNode(st.Value)); err != nil {
+			return nil, &Error{File: s.File, Line: st.Line, Key: st.Path, Msg: err.Error()}
+		}
+	}
+	cs, err := decodeDoc(s.File, root, s.fsys)
+	if err != nil {
+		return nil, err
+	}
+	return Run(cs, nil)
+}
+
+// parallel runs fn(0..n-1) on workers goroutines; results land by index,
+// so the outcome does not depend on scheduling.
+func parallel(n, workers int, fn func(i int)) {
+	if workers < 1 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < min(workers, n); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				fn(i)
+			}
+		}()
+	}
+	for i := 0; i < n; i++ {
+		next <- i
+	}
+	close(next)
+	wg.Wait()
+}
+
+// runStudy runs every case the scenario's study asks for and adds the
+// results to r. workers caps the goroutines (0: one per core).
+func runStudy(s *Scenario, r *Results, workers int) error {
+	st := s.Study
+	if len(st.Variants) > 0 {
+		vr := make([]VariantResult, len(st.Variants)+1)
+		errs := make([]error, len(st.Variants))
+		vr[0] = variantResult("base", nil, r)
+		parallel(len(st.Variants), workers, func(i int) {
+			v := st.Variants[i]
+			res, err := runCase(s, v.Sets)
+			if err != nil {
+				errs[i] = err
+				return
+			}
+			var changes []string
+			for _, set := range v.Sets {
+				changes = append(changes, set.Path+" = "+nodeText(set.Value))
+			}
+			vr[i+1] = variantResult(v.Name, changes, res)
+		})
+		if err := errors.Join(errs...); err != nil {
+			return firstErr(errs)
+		}
+		r.Variants = vr
+	}
+	if sw := st.Sweep; sw != nil {
+		res := &SweepResult{Parameter: sw.Parameter, Unit: sw.Unit}
+		points := make([]SweepPoint, len(sw.Values))
+		errs := make([]error, len(sw.Values))
+		parallel(len(sw.Values), workers, func(i int) {
+			rr, err := runCase(s, studyCase{{Path: sw.Parameter, Value: scalarAt(sw.Values[i], sw.Line, 1), Line: sw.Line}})
+			if err != nil {
+				errs[i] = err
+				return
+			}
+			points[i] = SweepPoint{Value: sw.Numbers[i], Text: sw.Values[i], Quantities: summarize(rr)}
+		})
+		if err := firstErr(errs); err != nil {
+			return err
+		}
+		res.Points = points
+		r.Sweep = res
+	}
+	if tg := st.Target; tg != nil {
+		res, err := seekTarget(s, tg, workers)
+		if err != nil {
+			return err
+		}
+		r.Target = res
+	}
+	if u := st.Uncertainty; u != nil {
+		res, err := monteCarlo(s, u, workers)
+		if err != nil {
+			return err
+		}
+		r.Uncertainty = res
+	}
+	return nil
+}
+
+func firstErr(errs []error) error {
+	for _, e := range errs {
+		if e != nil {
+			return e
+		}
+	}
+	return nil
+}
+
+func nodeText(n *yaml.Node) string {
+	if n.Kind == yaml.ScalarNode {
+		return n.Value
+	}
+	out, err := yaml.Marshal(n)
+	if err != nil {
+		return "(a block)"
+	}
+	return strings.Join(strings.Fields(string(out)), " ")
+}
+
+func variantResult(name string, changes []string, r *Results) VariantResult {
+	return VariantResult{
+		Name: name, Changes: changes, Quantities: summarize(r), Layers: r.Layers,
+		ResponsePeriod_h: r.Series.ResponsePeriod_h, ResponseDecrement: r.Series.ResponseDecrement,
+		ResponseTimeShift_h: r.Series.ResponseTimeShift_h,
+		ProfilePosition_m:   r.Series.ProfilePosition_m, ProfileMin_C: r.Series.ProfileMin_C, ProfileMax_C: r.Series.ProfileMax_C,
+		CycleTime_h: r.Series.CycleTime_h, CycleInsideFlux_W_m2: r.Series.CycleInsideFlux_W_m2,
+	}
+}
+
+// seekTarget finds the parameter value at which the quantity meets the
+// goal. It evaluates an even grid of points over [From, To] in parallel,
+// takes the smallest (or largest) grid value that meets the goal, and
+// bisects between it and its failing neighbour down to the tolerance: a
+// bracketing search, robust for any continuous quantity, that returns a
+// value meeting the goal whenever one exists on the grid.
+func seekTarget(s *Scenario, tg *TargetSpec, workers int) (*TargetResult, error) {
+	eval := func(x float64) (float64, error) {
+		rr, err := runCase(s, studyCase{{Path: tg.Parameter, Value: scalarAt(joinNumber(x, tg.Unit), tg.Line, 1), Line: tg.Line}})
+		if err != nil {
+			return 0, err
+		}
+		v, ok := quantities[tg.Quantity](rr)
+		if !ok || math.IsNaN(v) {
+			return 0, &Error{File: s.File, Line: tg.Line, Key: "target.quantity", Msg: fmt.Sprintf("%s is not computed for this scenario", tg.Quantity)}
+		}
+		return v, nil
+	}
+	meets := func(v float64) bool {
+		if tg.AtLeast {
+			return v >= tg.Goal
+		}
+		return v <= tg.Goal
+	}
+	const n = 9
+	xs := make([]float64, n)
+	vs := make([]float64, n)
+	errs := make([]error, n)
+	for i := range xs {
+		xs[i] = tg.From + (tg.To-tg.From)*float64(i)/float64(n-1)
+	}
+	parallel(n, workers, func(i int) { vs[i], errs[i] = eval(xs[i]) })
+	if err := firstErr(errs); err != nil {
+		return nil, err
+	}
+	res := &TargetResult{Parameter: tg.Parameter, Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
+		From: tg.From, To: tg.To, Evaluations: n}
+	for i := range xs {
+		res.Scan = append(res.Scan, TargetPoint{Value: xs[i], Quantity: vs[i], Meets: meets(vs[i])})
+	}
+	order := make([]int, n)
+	for i := range order {
+		order[i] = i
+		if tg.Largest {
+			order[i] = n - 1 - i
+		}
+	}
+	hit := -1
+	for _, i := range order {
+		if meets(vs[i]) {
+			hit = i
+			break
+		}
+	}
+	if hit < 0 {
+		best := 0
+		for i := range vs {
+			if math.Abs(vs[i]-tg.Goal) < math.Abs(vs[best]-tg.Goal) {
+				best = i
+			}
+		}
+		res.Met = false
+		res.Value, res.Achieved = xs[best], vs[best]
+		res.Margin = margin(tg, vs[best])
+		res.Message = fmt.Sprintf("no value of %s from %s to %s meets %s %s %g; the closest is %s at %s (%s %.4g)",
+			tg.Parameter, joinNumber(tg.From, tg.Unit), joinNumber(tg.To, tg.Unit), tg.Quantity, goalWord(tg), tg.Goal,
+			tg.Quantity, joinNumber(xs[best], tg.Unit), "value", vs[best])
+		return res, nil
+	}
+	res.Met = true
+	ok, okV := xs[hit], vs[hit]
+	prev := hit - 1
+	if tg.Largest {
+		prev = hit + 1
+	}
+	if prev >= 0 && prev < n {
+		bad := xs[prev]
+		for math.Abs(ok-bad) > tg.Tolerance {
+			mid := (ok + bad) / 2
+			v, err := eval(mid)
+			if err != nil {
+				return nil, err
+			}
+			res.Evaluations++
+			if meets(v) {
+				ok, okV = mid, v
+			} else {
+				bad = mid
+			}
+		}
+	}
+	res.Value, res.Achieved, res.Margin = ok, okV, margin(tg, okV)
+	word := "smallest"
+	if tg.Largest {
+		word = "largest"
+	}
+	edge := ""
+	if prev < 0 || prev >= n {
+		edge = " (the end of the searched range already meets it)"
+	}
+	res.Message = fmt.Sprintf("%s %s meets %s %s %g: %s = %.4g, margin %.3g%s",
+		word, joinNumber(res.Value, tg.Unit), tg.Quantity, goalWord(tg), tg.Goal, tg.Quantity, okV, res.Margin, edge)
+	return res, nil
+}
+
+func goalWord(tg *TargetSpec) string {
+	if tg.AtLeast {
+		return ">="
+	}
+	return "<="
+}
+
+// margin is how far the achieved value lies on the good side of the goal.
+func margin(tg *TargetSpec, v float64) float64 {
+	if tg.AtLeast {
+		return v - tg.Goal
+	}
+	return tg.Goal - v
+}
+
+// monteCarlo draws every sample first from one seeded generator (PCG), so
+// the result does not depend on the number of workers, runs them, and
+// reports percentiles of every quantity. Samples the decoder refuses (for
+// example a negative thickness drawn from a wide normal) are counted and
+// left out.
+func monteCarlo(s *Scenario, u *UncertaintySpec, workers int) (*UncertaintyResult, error) {
+	rng := rand.New(rand.NewPCG(u.Seed, 0x7e3b5d1a))
+	cases := make([]studyCase, u.Samples)
+	draws := make([][]float64, u.Samples)
+	for i := range cases {
+		for _, v := range u.Vary {
+			x := v.A + (v.B-v.A)*rng.Float64()
+			if v.Normal {
+				x = v.A + v.B*rng.NormFloat64()
+			}
+			draws[i] = append(draws[i], x)
+			cases[i] = append(cases[i], setSpec{Path: v.Parameter, Value: scalarAt(joinNumber(x, v.Unit), u.Line, 1), Line: u.Line})
+		}
+	}
+	sums := make([]Summary, u.Samples)
+	errs := make([]error, u.Samples)
+	parallel(u.Samples, workers, func(i int) {
+		rr, err := runCase(s, cases[i])
+		if err != nil {
+			errs[i] = err
+			return
+		}
+		sums[i] = summarize(rr)
+	})
+	res := &UncertaintyResult{Samples: u.Samples, Seed: u.Seed}
+	for _, v := range u.Vary {
+		d := "uniform"
+		if v.Normal {
+			d = "normal"
+		}
+		res.Parameters = append(res.Parameters, UncertainParameter{Parameter: v.Parameter, Distribution: d, A: v.A, B: v.B, Unit: v.Unit})
+	}
+	for i, e := range errs {
+		if e != nil {
+			res.Rejected++
+			if res.FirstRejection == "" {
+				res.FirstRejection = e.Error()
+			}
+			continue
+		}
+		_ = i
+	}
+	if res.Rejected == u.Samples {
+		return nil, &Error{File: s.File, Line: u.Line, Key: "uncertainty", Msg: "every sample was refused: " + res.FirstRejection}
+	}
+	for _, name := range quantityNames(s.Kind) {
+		var xs []float64
+		for i := range sums {
+			if errs[i] == nil {
+				if v, ok := sums[i][name]; ok && !math.IsNaN(v) {
+					xs = append(xs, v)
+				}
+			}
+		}
+		if len(xs) == 0 {
+			continue
+		}
+		sort.Float64s(xs)
+		q := Spread{Quantity: name, N: len(xs), P5: percentile(xs, 0.05), P50: percentile(xs, 0.5), P95: percentile(xs, 0.95), Min: xs[0], Max: xs[len(xs)-1]}
+		var sum, sq float64
+		for _, x := range xs {
+			sum += x
+		}
+		q.Mean = sum / float64(len(xs))
+		for _, x := range xs {
+			sq += (x - q.Mean) * (x - q.Mean)
+		}
+		if len(xs) > 1 {
+			q.SD = math.Sqrt(sq / float64(len(xs)-1))
+		}
+		res.Quantities = append(res.Quantities, q)
+	}
+	return res, nil
+}
+
+// percentile of sorted xs by linear interpolation between order
+// statistics (type 7 of Hyndman and Fan 1996, the default of R and numpy).
+func percentile(xs []float64, p float64) float64 {
+	h := (float64(len(xs)) - 1) * p
+	lo := math.Floor(h)
+	i := int(lo)
+	if i+1 >= len(xs) {
+		return xs[len(xs)-1]
+	}
+	return xs[i] + (h-lo)*(xs[i+1]-xs[i])
+}
