@@ -911,7 +911,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				continue
 			}
 			ph := &r.phases[k]
-			kold, sold, ruOld, rdOld := kc[i], s[i], r.rh[i], r.rd[i]
+			sold, ruOld, rdOld := s[i], r.rh[i], r.rd[i]
 			rn := ph.region(H[i])
 			if rn != reg[i] && nclip[i] < 4 && !last {
 				// Stop on the first kink crossed; continue beyond it.
@@ -939,7 +939,6 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				dk = math.Max(dk, math.Max(math.Abs(r.rh[i]-ruOld), math.Abs(r.rd[i]-rdOld))/rs)
 				klo, khi = min(klo, i), max(khi, i)
 			}
-			_ = kold
 			if r.rh[i] != ruOld || r.rd[i] != rdOld || s[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 {
 				r.nlDirty = max(r.nlDirty, min(i+1, n-1))
 			}
