@@ -748,12 +748,13 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 
 // implicit solves h_i (H_i - hrhs_i) = th F_i(T(H)) for H, where F_i is
 // the net inflow of cell i with the boundary values vo, vi, starting from
-// the current state. Each iteration linearises T(H) around the current
-// enthalpy with the slope dT/dH of the current phase region (Newton on the
-// enthalpy, conductances lagged by one iteration), solves the tridiagonal
-// system for the enthalpy change, and then sets the enthalpy from the
-// conservative update H_i = hrhs_i + th/h_i F_i(T_lin) with the linearised
-// temperatures. A cell whose update crosses a kink of T(H) (an end of the
+// the current state. Each iteration linearises the face fluxes around the
+// current enthalpy, with the slope dT/dH of each cell's phase region and
+// the derivatives of the resistances that depend on the frozen fraction
+// (Newton on the enthalpy), solves the tridiagonal system for the enthalpy
+// change, and then sets the enthalpy from the conservative update
+// H_i = hrhs_i + th/h_i (linearised net inflow of cell i): every face flux
+// enters its two cells with opposite signs. A cell whose update crosses a kink of T(H) (an end of the
 // freezing range) is stopped on the kink and linearised in the region
 // beyond it in the next iteration, which makes the iteration converge
 // where plain Newton would cycle across the kink; the iteration ends only
