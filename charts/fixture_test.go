@@ -116,8 +116,27 @@ func groundFixture() *scenarios.Results {
 		Periodic: []scenarios.PeriodicResult{{Period_h: 8760, DecrementFactor: 0.35, TimeShift_h: 1100, TimeShiftUnwrapped_h: 1100, PeriodicTransmittance_W_m2K: 0.14, InsideAdmittance_W_m2K: 0.9, OutsideAdmittance_W_m2K: 0.8, InsideArealHeatCapacity_kJ_m2K: 2500, OutsideArealHeatCapacity_kJ_m2K: 2300}},
 		Simulation: &scenarios.Simulation{Duration_h: 17520, Step_h: 1, Cells: 120, EnergyBalanceRelativeError: 4e-12,
 			Probes: []scenarios.Probe{{Depth_m: 0.5, Min_C: -3.1, Max_C: 15.2, Mean_C: 6.3}, {Depth_m: 2, Min_C: 2.9, Max_C: 10.1, Mean_C: 6.4}}},
-		Frost: &scenarios.Frost{FreezingIndex_Cd: 420, MaxFrostDepth_m: 0.82, StefanDepth_m: 1.21, ModifiedBerggrenDepth_m: 1.02},
+		Frost: &scenarios.Frost{FreezingIndex_Cd: 420, MaxFrostDepth_m: 0.82, StefanDepth_m: 1.21, ModifiedBerggrenDepth_m: 1.02,
+			SurfaceFreezingIndex_Cd: 294, FreezingNFactor: 0.7, SeasonLength_d: 120, MeanAnnualAir_C: 6, IndexSource: "forcing",
+			BerggrenLambda: 0.84, BerggrenAlpha: 0.9, BerggrenMu: 0.1,
+			Winters: []scenarios.FrostWinter{
+				{Label: "winter 1", Start_d: 0, End_d: 181, AirFreezingIndex_Cd: 300, AirThawingIndex_Cd: 900, MaxFrostDepth_m: 0.71, MaxFrostDay: 40, MaxFrostDate: "year 1, 10 Feb",
+					MaxThawDepth_m: 0.3, FrozenDays: []scenarios.ProbeDays{{Depth_m: 0.5, Days: 41}, {Depth_m: 2, Days: 0}}},
+				{Label: "winter 2", Start_d: 181, End_d: 546, Complete: true, AirFreezingIndex_Cd: 420, AirThawingIndex_Cd: 2100, MaxFrostDepth_m: 0.82, MaxFrostDay: 405, MaxFrostDate: "year 2, 10 Feb",
+					MaxThawDepth_m: 0.4, FrozenDays: []scenarios.ProbeDays{{Depth_m: 0.5, Days: 63}, {Depth_m: 2, Days: 0}}},
+			}},
+		Ground: &scenarios.GroundTemperature{SurfaceMean_C: 6.2, SurfaceAnnualAmplitude_K: 11, AnnualDampingDepth_m: 10.4, ColumnDepth_m: 3,
+			DomainDeepEnough: false, GeothermalFlux_W_m2: 0.065, NFactorFreezing: 0.7, NFactorThawing: 1.1,
+			Periodic: []scenarios.GroundPeriodic{
+				{Period_h: 8760, SurfaceAmplitude_K: 11, DampingDepth_m: 10.4, Probes: []scenarios.GroundProbe{
+					{Depth_m: 0.5, Amplitude_K: 9.1, Lag_h: 300, Lag_d: 12.5, Mean_C: 6.2, Min_C: -2.9, Max_C: 15.3},
+					{Depth_m: 2, Amplitude_K: 5.0, Lag_h: 1100, Lag_d: 45.8, Mean_C: 6.3, Min_C: 1.3, Max_C: 11.3}}},
+				{Period_h: 24, SurfaceAmplitude_K: 3, DampingDepth_m: 0.5, Probes: []scenarios.GroundProbe{
+					{Depth_m: 0.5, Amplitude_K: 0.05, Lag_h: 14, Mean_C: 6.2, Min_C: 6.15, Max_C: 6.25},
+					{Depth_m: 2, Amplitude_K: 1e-9, Lag_h: 48, Mean_C: 6.3, Min_C: 6.3, Max_C: 6.3}}},
+			}},
 	}
+	r.Simulation.SpinUpCycles, r.Simulation.SpinUpChange_K, r.Simulation.OutputStep_h = 3, 0.004, 2
 	s := &r.Series
 	s.Interfaces_m = []float64{0, 0.6, 3.0}
 	s.CycleTime_h = linspace(0, 8760, 366)

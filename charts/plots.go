@@ -273,6 +273,14 @@ func simTempChart(r *scenarios.Results) (*chartSpec, error) {
 		{name: n.env, y: s.SimOutsideAir_C, color: colVermilion, width: 1.2},
 		{name: n.outSurf, y: s.SimOutsideSurface_C, color: colOrange, width: 1.5},
 	}
+	if maxOf(s.SimTime_h)-minOf(s.SimTime_h) > 60*24 {
+		// Over months the daily swing of the surface lines fills a wide
+		// ribbon: draw those two faint and thin so the probes stay legible.
+		for i := range ls {
+			ls[i].width = 0.8
+			ls[i].opts = []ec.SeriesOpts{ec.WithLineStyleOpts(opts.LineStyle{Color: ls[i].color, Width: 0.8, Opacity: opts.Float(0.45)})}
+		}
+	}
 	probeCols := []string{colGreen, colSky, colPurple, colBlack, colYellow, colGrey}
 	for i, z := range s.ProbeDepth_m {
 		if i >= len(s.Probes_C) {
@@ -369,7 +377,7 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 			ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
 				Symbol:    []string{"none", "none"},
 				LineStyle: &opts.LineStyle{Color: colBlue, Width: 1.5, Type: "dashed"},
-				Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "insideEndBottom", Color: colBlue, FontSize: 11},
+				Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "insideStartBottom", Color: colBlue, FontSize: 11},
 			}),
 		}
 	}
@@ -383,8 +391,9 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward. Grey dashed lines mark layer boundaries, the dotted line 0 °C and the blue dashed line the simulated maximum frost depth.", thinned)
 }
 
-// frostChart: frost depth and thaw depth against time, depth pointing
-// down.
+// frostChart: the frozen ground against time (a band from the thaw depth
+// down to the frost depth), the freezing and thaw fronts as lines, depth
+// pointing down, with the start of each winter year marked.
 func frostChart(r *scenarios.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.SimTime_h) == 0 || (len(s.FrostDepth_m) == 0 && len(s.ThawDepth_m) == 0) {
@@ -392,19 +401,60 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 	}
 	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
 	t := scaled(s.SimTime_h, f)
-	c := newChart(idFrost, "Frost depth and thaw depth against time", "tipX", 96)
+	c := newChart(idFrost, "Frozen ground against time", "tipX", 96)
 	y := valueAxisY("Depth (m)", " m", true)
 	y.Scale = opts.Bool(false)
 	y.Min = 0
+	xName := "Time (" + xl + ")"
+	if r.Frost != nil && len(r.Frost.Winters) > 0 {
+		xName = "Time (" + xl + " from 1 January of the first simulated year)"
+	}
 	c.SetGlobalOptions(
-		ec.WithXAxisOpts(valueAxisX("Time ("+xl+")", " "+xl, num(minOf(t)), num(maxOf(t)), false)),
+		ec.WithXAxisOpts(valueAxisX(xName, " "+xl, num(minOf(t)), num(maxOf(t)), false)),
 		ec.WithYAxisOpts(y),
 		ec.WithDataZoomOpts(opts.DataZoom{Type: "slider", XAxisIndex: 0, Start: 0, End: 100}, opts.DataZoom{Type: "inside", XAxisIndex: 0}),
 	)
+	// The frozen layer lies between the thaw depth (0 when nothing has
+	// thawed from the surface) and the frost depth; no band where nothing
+	// is frozen.
+	if n := min(len(t), len(s.FrostDepth_m)); n > 0 {
+		lo, hi := make([]float64, n), make([]float64, n)
+		for i := 0; i < n; i++ {
+			lo[i], hi[i] = nan, nan
+			if d := s.FrostDepth_m[i]; d > 0 {
+				th := 0.0
+				if i < len(s.ThawDepth_m) && s.ThawDepth_m[i] > 0 && s.ThawDepth_m[i] < d {
+					th = s.ThawDepth_m[i]
+				}
+				lo[i], hi[i] = th, d
+			}
+		}
+		addBand(c, "Frozen ground", t[:n], lo, hi, false)
+	}
+	var marks []ec.SeriesOpts
+	if fr := r.Frost; fr != nil {
+		var items []opts.MarkLineNameXAxisItem
+		for _, w := range fr.Winters {
+			x := w.Start_d * 24 * f
+			if x > minOf(t) && x < maxOf(t) {
+				items = append(items, opts.MarkLineNameXAxisItem{Name: "1 July", XAxis: num(x)})
+			}
+		}
+		if len(items) > 0 {
+			marks = []ec.SeriesOpts{
+				ec.WithMarkLineNameXAxisItemOpts(items...),
+				ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+					Symbol:    []string{"none", "none"},
+					LineStyle: &opts.LineStyle{Color: colGrey, Width: 1, Type: "dotted"},
+					Label:     &opts.Label{Show: opts.Bool(false)},
+				}),
+			}
+		}
+	}
 	thinned := false
 	for _, l := range []line{
-		{name: "Frost depth (deepest frozen point)", y: s.FrostDepth_m, color: colBlue, area: true},
-		{name: "Thaw depth (thawed from the surface)", y: s.ThawDepth_m, color: colOrange, width: 1.5},
+		{name: "Frost depth (deepest frozen point)", y: s.FrostDepth_m, color: colBlue, opts: marks},
+		{name: "Thaw depth (thawed from the surface)", y: s.ThawDepth_m, color: colOrange, width: 1.5, dash: "dashed"},
 	} {
 		if len(l.y) == 0 {
 			continue
@@ -412,7 +462,11 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 		l.x, l.xUnit, l.yUnit = t, xu, uM
 		thinned = addLine(c, l) || thinned
 	}
-	return finish(c, idFrost, "Simulated depth of the freezing front (deepest point at or below the freezing point) and of the thaw front moving down from the surface in a frozen column. Depth increases downward.", thinned)
+	caption := "Simulated frozen ground (shaded) between the thaw front moving down from the surface (dashed) and the freezing front (solid, the deepest point at or below the freezing point). Depth increases downward."
+	if len(marks) > 0 {
+		caption += " Dotted vertical lines mark 1 July, the start of each winter year of the winter table."
+	}
+	return finish(c, idFrost, caption, thinned)
 }
 
 // stepChart: surface heat flux after a step change of the surface

@@ -50,11 +50,12 @@ type section struct {
 	Blocks      []block
 }
 
-// block is a paragraph group, a table or a chart.
+// block is a paragraph group, a table, a chart or a drawn figure.
 type block struct {
-	Text  []string
-	Table *table
-	Chart *chartSpec
+	Text   []string
+	Table  *table
+	Chart  *chartSpec
+	Figure *figure
 }
 
 // table is a plain data table; Align holds the CSS class of each column
@@ -139,7 +140,10 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		Orientation:  r.Orientation,
 		GeneratedAt:  o.GeneratedAt,
 		ToolVersion:  o.ToolVersion,
-		Warnings:     r.Warnings,
+	}
+	// Warnings are printed as sentences, with the degree sign.
+	for _, w := range r.Warnings {
+		p.Warnings = append(p.Warnings, capitalise(strings.ReplaceAll(w, "degC", "°C")))
 	}
 	if strings.TrimSpace(p.Title) == "" {
 		p.Title = "Untitled scenario"
@@ -172,18 +176,28 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 
 	p.Summary = summary(r)
 
-	// Construction or soil column.
+	// Construction or soil column: the drawing, then the tables.
 	cons := section{ID: "construction", Heading: "Construction"}
 	if ground {
 		cons.Heading = "Soil column"
 	}
+	if f := crossSection(r); f != nil {
+		add(&cons, &block{Figure: f})
+	}
 	add(&cons, &block{Table: layerTable(r)}, frozenTable(r), steadyTable(r))
 
-	// Ground temperatures and frost come first for a ground column.
-	var frost *section
+	inputs := section{ID: "inputs", Heading: "Assumptions and inputs"}
+	add(&inputs, inputsTable(r))
+
+	// Frost and ground temperatures come first for a ground column.
+	var frost, groundT *section
 	if ground {
-		frost = &section{ID: "frost", Heading: "Ground temperature and frost"}
-		add(frost, frostTable(r), chart(groundEnvelopeChart), chart(frostChart))
+		frost = &section{ID: "frost", Heading: "Frost"}
+		add(frost, frostCompareTable(r), freezingIndexTable(r), winterTable(r), chart(frostChart))
+		groundT = &section{ID: "ground", Heading: "Ground temperature"}
+		add(groundT, groundSummaryTable(r))
+		add(groundT, groundPeriodTables(r)...)
+		add(groundT, chart(groundEnvelopeChart))
 	}
 
 	per := section{ID: "periodic", Heading: "Periodic properties (ISO 13786)"}
@@ -196,7 +210,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	var sim *section
 	if r.Simulation != nil || len(r.Series.SimTime_h) > 0 {
 		sim = &section{ID: "simulation", Heading: "Transient simulation"}
-		add(sim, simTable(r), energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
+		add(sim, energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
 	}
 
 	var step *section
@@ -208,7 +222,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		return nil, nil, firstErr
 	}
 
-	for _, s := range []*section{&cons, frost, &per, sim, step} {
+	for _, s := range []*section{&cons, &inputs, frost, groundT, &per, sim, step} {
 		if s != nil && len(s.Blocks) > 0 {
 			p.Sections = append(p.Sections, *s)
 		}

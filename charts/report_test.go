@@ -449,9 +449,15 @@ var (
 		"main": true, "header": true, "p": true, "h1": true, "h2": true, "h3": true, "dl": true, "dt": true, "dd": true,
 		"nav": true, "a": true, "section": true, "ul": true, "li": true, "noscript": true, "div": true, "table": true,
 		"caption": true, "thead": true, "tbody": true, "tr": true, "th": true, "td": true, "figure": true,
-		"figcaption": true, "footer": true, "script": true}
+		"figcaption": true, "footer": true, "script": true,
+		// The cross-section drawing (inline SVG).
+		"svg": true, "defs": true, "pattern": true, "g": true, "path": true, "rect": true, "circle": true, "text": true}
 	allowedAttrs = map[string]bool{"lang": true, "charset": true, "name": true, "content": true, "http-equiv": true,
-		"class": true, "id": true, "href": true, "aria-label": true, "role": true, "scope": true}
+		"class": true, "id": true, "href": true, "aria-label": true, "role": true, "scope": true,
+		// SVG geometry and presentation; no href, no event handlers.
+		"viewbox": true, "d": true, "x": true, "y": true, "width": true, "height": true, "cx": true, "cy": true, "r": true,
+		"fill": true, "fill-opacity": true, "stroke": true, "stroke-width": true, "stroke-dasharray": true,
+		"text-anchor": true, "patternunits": true, "patterntransform": true}
 )
 
 func hostileResults(s string) *scenarios.Results {
@@ -471,6 +477,7 @@ func TestEscaping(t *testing.T) {
 		t.Fatal(err)
 	}
 	tagRe := regexp.MustCompile(`(?i)<\s*(script|img|svg|iframe)\b`)
+	svgRe := regexp.MustCompile(`<svg class="xsec" `)
 	for _, s := range hostile {
 		for _, r := range []*scenarios.Results{hostileResults(s), func() *scenarios.Results {
 			g := groundFixture()
@@ -486,8 +493,8 @@ func TestEscaping(t *testing.T) {
 			// scripts and no other live tag; the first two script bodies
 			// are exactly our files.
 			markup := withoutScripts(html)
-			if n := len(tagRe.FindAllString(markup, -1)); n != 3 {
-				t.Errorf("%q: %d script/img/svg/iframe tags, want exactly our 3 scripts", s, n)
+			if n, ours := len(tagRe.FindAllString(markup, -1)), len(svgRe.FindAllString(markup, -1)); n != 4 || ours != 1 {
+				t.Errorf("%q: %d script/img/svg/iframe tags (%d our drawing), want exactly our 3 scripts and our 1 drawing", s, n, ours)
 			}
 			if sc := scripts(t, html); len(sc) != 3 || sc[0] != echartsJS || sc[1] != string(pageJS) {
 				t.Errorf("%q: the echarts and page scripts are not ours", s)
@@ -631,6 +638,8 @@ func TestSelfContained(t *testing.T) {
 	if strings.Contains(own, "http:") || strings.Contains(own, "https:") || strings.Contains(own, "//cdn") {
 		t.Error("the page names a network address")
 	}
+	// The drawing's fills refer to its own patterns; no other url().
+	own = regexp.MustCompile(`url\(#ts-fam-[a-z]+\)`).ReplaceAllString(own, "")
 	for _, re := range []string{`(?i)\b(src|href|action|poster|srcset|xlink:href)\s*=\s*["']?\s*(https?:)?//`, `(?i)@import`, `(?i)url\(`, `\bfetch\(`, `XMLHttpRequest`, `\bimport\(`, `(?i)<link\b`} {
 		if regexp.MustCompile(re).MatchString(own) {
 			t.Errorf("the page matches %s", re)
@@ -759,7 +768,7 @@ func TestGroundWithoutSimulation(t *testing.T) {
 			t.Errorf("chart %s drawn without simulation data", id)
 		}
 	}
-	for _, want := range []string{"exact periodic solution)", "Modified Berggren (m)", "licensed geotechnical engineer"} {
+	for _, want := range []string{"exact periodic solution)", "Modified Berggren (closed form)", "licensed geotechnical engineer"} {
 		if !strings.Contains(html, want) {
 			t.Errorf("report lacks %q", want)
 		}

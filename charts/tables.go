@@ -3,6 +3,7 @@ package charts
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"tempstack/scenarios"
 )
@@ -50,8 +51,11 @@ func summary(r *scenarios.Results) []string {
 	var out []string
 	if r.Kind == "ground" {
 		if f := r.Frost; f != nil {
-			out = append(out, fmt.Sprintf("With a surface freezing index of %s °C·d, the simulated frost reaches %s m below the surface. The Stefan estimate is %s m and the modified Berggren estimate %s m.",
-				fixed(f.FreezingIndex_Cd, 0), fixed(f.MaxFrostDepth_m, 2), fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2)))
+			out = append(out, frostSummary(f))
+		}
+		if g := r.Ground; g != nil && !g.DomainDeepEnough {
+			out = append(out, fmt.Sprintf("The %s m column is shallower than the depth the annual swing reaches (%s m): the deepest temperatures are disturbed by the bottom boundary.",
+				fixed(g.ColumnDepth_m, 1), fixed(g.AnnualDampingDepth_m, 1)))
 		}
 		if sim := r.Simulation; sim != nil {
 			for i, p := range sim.Probes {
@@ -105,7 +109,22 @@ func layerTable(r *scenarios.Results) *table {
 		depth += " at " + periodLabel(r.Periodic[0].Period_h)
 	}
 	t := newTable(caption, []string{"#", "Layer", "Material", thick, "λ (W/(m·K))", "ρ (kg/m³)", "c (J/(kg·K))", "R (m²·K/W)", depth, "Source"},
-		"num", "text", "text", "", "", "", "", "", "", "text")
+		"num", "text", "text", "", "", "", "", "", "", "")
+	// Sources are numbered and listed once under the table: layers from
+	// the same library or soil model share one long citation.
+	var sources []string
+	sourceNo := func(src string) string {
+		if strings.TrimSpace(src) == "" {
+			return dash
+		}
+		for i, s := range sources {
+			if s == src {
+				return fmt.Sprintf("[%d]", i+1)
+			}
+		}
+		sources = append(sources, src)
+		return fmt.Sprintf("[%d]", len(sources))
+	}
 	total := 0.0
 	for i, l := range r.Layers {
 		th := dash
@@ -125,12 +144,15 @@ func layerTable(r *scenarios.Results) *table {
 			pd = trimZeros(sig(l.PenetrationDepth_m*f, 3))
 		}
 		t.row(fmt.Sprint(i+1), name, mat, th, pos(l.Conductivity_W_mK, 3), pos(l.Density_kg_m3, 4),
-			pos(l.SpecificHeat_J_kgK, 4), pos(l.Resistance_m2K_W, 3), pd, l.Source)
+			pos(l.SpecificHeat_J_kgK, 4), pos(l.Resistance_m2K_W, 3), pd, sourceNo(l.Source))
 	}
 	if len(r.Layers) > 1 {
 		t.row("", "Total", "", trimZeros(sig(total*f, 4)), "", "", "", pos(r.Steady.ThermalResistance_m2K_W, 3), "", "")
 	}
 	t.Notes = append(t.Notes, "λ thermal conductivity, ρ density, c specific heat capacity, R = d/λ thermal resistance, δ = √(λT/(πρc)) periodic penetration depth. A dash means the value is not given or does not apply (an air layer given by its resistance, a half-space).")
+	for i, src := range sources {
+		t.Notes = append(t.Notes, fmt.Sprintf("[%d] %s", i+1, src))
+	}
 	return t
 }
 
@@ -209,25 +231,6 @@ func periodicTable(r *scenarios.Results) *block {
 	}
 	if wrapped {
 		t.Notes = append(t.Notes, "A time shift in brackets counts whole periods: it is the full travel time of the wave through the construction.")
-	}
-	return &block{Table: t}
-}
-
-// simTable summarises the transient simulation run.
-func simTable(r *scenarios.Results) *block {
-	s := r.Simulation
-	if s == nil {
-		return nil
-	}
-	t := newTable("Simulation run", []string{"Quantity", "Value"}, "text")
-	t.row("Duration simulated", hours(s.Duration_h))
-	t.row("Time step", trimZeros(sig(s.Step_h, 3))+" h")
-	if s.OutputStep_h > 0 {
-		t.row("Output interval", trimZeros(sig(s.OutputStep_h, 3))+" h")
-	}
-	t.row("Cells", fmt.Sprint(s.Cells))
-	if s.SpinUpCycles > 0 {
-		t.row("Spin-up cycles before recording", fmt.Sprint(s.SpinUpCycles))
 	}
 	return &block{Table: t}
 }
@@ -320,19 +323,6 @@ func probeTable(r *scenarios.Results) *block {
 	for _, p := range r.Simulation.Probes {
 		t.row(sig(p.Depth_m*f, n), degC(p.Min_C), degC(p.Mean_C), degC(p.Max_C))
 	}
-	return &block{Table: t}
-}
-
-// frostTable sets the simulated frost depth beside the closed forms.
-func frostTable(r *scenarios.Results) *block {
-	f := r.Frost
-	if f == nil {
-		return nil
-	}
-	t := newTable("Frost depth", []string{"Surface freezing index (°C·d)", "Simulated max frost depth (m)", "Stefan (m)", "Modified Berggren (m)"})
-	t.row(fixed(f.FreezingIndex_Cd, 0), fixed(f.MaxFrostDepth_m, 2), fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2))
-	t.Notes = append(t.Notes,
-		"Stefan neglects the heat stored in the soil above freezing and tends to overestimate; modified Berggren reduces the Stefan depth by a coefficient for that heat. All three are estimates for planning only; see the cautions.")
 	return &block{Table: t}
 }
 

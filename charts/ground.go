@@ -1,0 +1,259 @@
+package charts
+
+import (
+	"fmt"
+	"strings"
+
+	"tempstack/scenarios"
+)
+
+// Tables of the ground report: the frost depth three ways, the freezing
+// index behind them, the simulated frost of each winter and the exact
+// periodic ground temperature at each probe.
+
+// capitalise upper-cases the first letter of s.
+func capitalise(s string) string {
+	if s == "" {
+		return s
+	}
+	r := []rune(s)
+	return strings.ToUpper(string(r[0])) + string(r[1:])
+}
+
+// indexUsed returns the surface freezing index (°C·d) the closed forms
+// used and a phrase naming where it came from.
+func indexUsed(f *scenarios.Frost) (float64, string) {
+	n := f.FreezingNFactor
+	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
+		return n * *f.DesignFreezingIndex_Cd, "design air index"
+	}
+	return f.SurfaceFreezingIndex_Cd, "air index of the forcing"
+}
+
+// cd formats a freezing or thawing index in °C·d.
+func cd(v float64) string { return fixed(v, 0) + " °C·d" }
+
+// frostCompareTable sets the simulated frost depth beside the Stefan and
+// modified Berggren estimates, each with the freezing index it used.
+func frostCompareTable(r *scenarios.Results) *block {
+	f := r.Frost
+	if f == nil {
+		return nil
+	}
+	t := newTable("Frost depth, three ways", []string{"Method", "Frost depth (m)", "Driven by"}, "text", "", "text")
+	sim := dash
+	driver := "the surface temperature of the scenario, hour by hour"
+	if len(f.Winters) > 0 || f.MaxFrostDepth_m > 0 {
+		sim = fixed(f.MaxFrostDepth_m, 2)
+		if k := deepestWinter(f); k >= 0 {
+			w := f.Winters[k]
+			driver += fmt.Sprintf("; deepest in %s (%s), of %d winters simulated", w.Label, w.MaxFrostDate, len(f.Winters))
+		}
+	} else if r.Simulation == nil {
+		driver = "no simulation was run"
+	}
+	t.row("Simulation (finite volumes, latent heat)", sim, driver)
+	idx, from := indexUsed(f)
+	by := fmt.Sprintf("surface freezing index %s (freezing n-factor %s × %s)", cd(idx), trimZeros(sig(f.FreezingNFactor, 3)), from)
+	stefan, berg := dash, dash
+	if f.StefanDepth_m > 0 {
+		stefan = fixed(f.StefanDepth_m, 2)
+	}
+	if f.ModifiedBerggrenDepth_m > 0 {
+		berg = fixed(f.ModifiedBerggrenDepth_m, 2)
+	}
+	t.row("Stefan (closed form)", stefan, by)
+	bb := by
+	if f.BerggrenLambda > 0 {
+		bb += fmt.Sprintf("; coefficient λ = %s from α = %s and μ = %s", sig(f.BerggrenLambda, 3), sig(f.BerggrenAlpha, 3), sig(f.BerggrenMu, 3))
+	}
+	t.row("Modified Berggren (closed form)", berg, bb)
+	t.Notes = append(t.Notes,
+		"Stefan neglects the heat stored in the soil above freezing and tends to overestimate; modified Berggren reduces the Stefan depth by the coefficient λ for that heat. The simulation follows the whole temperature history through the layers. All three are estimates for planning only; see the cautions.")
+	if f.IndexSource == "design" {
+		t.Notes = append(t.Notes, "The closed forms use the design freezing index; the simulation follows the surface temperature of the scenario, so the two need not agree.")
+	}
+	return &block{Table: t}
+}
+
+// deepestWinter returns the index of the winter with the deepest frost,
+// or -1.
+func deepestWinter(f *scenarios.Frost) int {
+	k := -1
+	for i, w := range f.Winters {
+		if w.MaxFrostDepth_m > 0 && (k < 0 || w.MaxFrostDepth_m > f.Winters[k].MaxFrostDepth_m) {
+			k = i
+		}
+	}
+	return k
+}
+
+// freezingIndexTable lists the freezing index and the quantities the
+// closed forms take from the climate.
+func freezingIndexTable(r *scenarios.Results) *block {
+	f := r.Frost
+	if f == nil {
+		return nil
+	}
+	t := newTable("Freezing index and frost climate", []string{"Quantity", "Value"}, "text")
+	if f.IndexSource != "" || f.FreezingIndex_Cd > 0 {
+		t.row("Air freezing index of the forcing (one winter)", cd(f.FreezingIndex_Cd))
+	}
+	t.row("Freezing n-factor (surface / air freezing index)", trimZeros(sig(f.FreezingNFactor, 3)))
+	if f.SurfaceFreezingIndex_Cd > 0 {
+		t.row("Surface freezing index of the forcing (n × air)", cd(f.SurfaceFreezingIndex_Cd))
+	}
+	if d := f.DesignFreezingIndex_Cd; d != nil {
+		t.row("Design air freezing index", cd(*d))
+		t.row("Design surface freezing index (n × design air)", cd(f.FreezingNFactor**d))
+	}
+	idx, from := indexUsed(f)
+	t.row("Index used by Stefan and modified Berggren", cd(idx)+" (from the "+from+")")
+	if f.SeasonLength_d > 0 {
+		t.row("Length of the freezing season", fixed(f.SeasonLength_d, 0)+" d")
+	}
+	t.row("Mean annual air temperature", degC(f.MeanAnnualAir_C))
+	t.Notes = append(t.Notes, "A freezing index is the sum over the freezing season of the degrees below 0 °C times the days (°C·d). The n-factor converts the air index to the ground surface (cover, snow, vegetation).")
+	return &block{Table: t}
+}
+
+// winterTable lists the simulated frost of each winter year.
+func winterTable(r *scenarios.Results) *block {
+	f := r.Frost
+	if f == nil || len(f.Winters) == 0 {
+		return nil
+	}
+	var depths []float64
+	for _, w := range f.Winters {
+		for _, p := range w.FrozenDays {
+			if !containsDepth(depths, p.Depth_m) {
+				depths = append(depths, p.Depth_m)
+			}
+		}
+	}
+	head := []string{"Winter", "Days (from–to)", "Air freezing index (°C·d)", "Air thawing index (°C·d)", "Max frost depth (m)", "Reached on", "Max thaw depth (m)", "Active layer (m)"}
+	align := []string{"text", "text", "", "", "", "text"}
+	for _, z := range depths {
+		head = append(head, "Frozen days at "+fixed(z, 2)+" m")
+	}
+	t := newTable("Simulated frost, winter by winter", head, align...)
+	partial := false
+	for _, w := range f.Winters {
+		label := capitalise(w.Label)
+		if !w.Complete {
+			label += " (partial)"
+			partial = true
+		}
+		on := dash
+		if w.MaxFrostDepth_m > 0 {
+			on = w.MaxFrostDate
+		}
+		active := dash
+		if w.FrozenAllYear {
+			active = fixed(w.ActiveLayer_m, 2)
+		}
+		cells := []string{label, fixed(w.Start_d, 0) + "–" + fixed(w.End_d, 0), fixed(w.AirFreezingIndex_Cd, 0), fixed(w.AirThawingIndex_Cd, 0),
+			fixed(w.MaxFrostDepth_m, 2), on, fixed(w.MaxThawDepth_m, 2), active}
+		for _, z := range depths {
+			d := dash
+			for _, p := range w.FrozenDays {
+				if p.Depth_m == z {
+					d = fixed(p.Days, 0)
+				}
+			}
+			cells = append(cells, d)
+		}
+		t.row(cells...)
+	}
+	t.Notes = append(t.Notes,
+		"A winter year runs from 1 July to 30 June; days count from 1 January of the first simulated year. Frozen days: time the probe spent at or below its freezing point. Max thaw depth: deepest thaw from the surface while frost remained below. Active layer: the depth that thaws each summer, given only when frost outlasts the whole winter year (permafrost).")
+	if partial {
+		t.Notes = append(t.Notes, "A partial winter is cut by the start or the end of the run: its indices, depths and frozen days cover only part of the season and are not comparable with a whole winter.")
+	}
+	return &block{Table: t}
+}
+
+func containsDepth(v []float64, z float64) bool {
+	for _, x := range v {
+		if x == z {
+			return true
+		}
+	}
+	return false
+}
+
+// groundSummaryTable gives the exact periodic ground-temperature summary:
+// surface mean and swing, damping depth, whether the column is deep enough.
+func groundSummaryTable(r *scenarios.Results) *block {
+	g := r.Ground
+	if g == nil {
+		return nil
+	}
+	t := newTable("Ground temperature, exact periodic solution", []string{"Quantity", "Value"}, "text", "text")
+	t.row("Mean ground surface temperature (n-factors applied)", degC(g.SurfaceMean_C))
+	t.row("Annual swing at the surface (amplitude, half the range)", fixed(g.SurfaceAnnualAmplitude_K, 1)+" K")
+	if g.AnnualDampingDepth_m > 0 {
+		t.row("Depth where the annual swing falls below 0.1 K", fixed(g.AnnualDampingDepth_m, 1)+" m")
+	}
+	t.row("Depth of the column", fixed(g.ColumnDepth_m, 1)+" m")
+	if g.DomainDeepEnough {
+		t.row("Column deep enough for the annual wave", "yes")
+	} else {
+		t.row("Column deep enough for the annual wave", "NO: the bottom boundary disturbs the deepest temperatures; make the last layer thicker")
+	}
+	return &block{Table: t}
+}
+
+// groundPeriodTables lists, for each period, the exact periodic
+// temperature at each probe: amplitude, lag behind the surface and range.
+func groundPeriodTables(r *scenarios.Results) []*block {
+	g := r.Ground
+	if g == nil {
+		return nil
+	}
+	var out []*block
+	for _, p := range g.Periodic {
+		if len(p.Probes) == 0 {
+			continue
+		}
+		lagUnit, lagF := "h", 1.0
+		if p.Period_h > 240 {
+			lagUnit, lagF = "d", 1.0/24
+		}
+		caption := fmt.Sprintf("Period %s: surface swing ±%s K", periodLabel(p.Period_h), fixed(p.SurfaceAmplitude_K, 1))
+		if p.DampingDepth_m > 0 {
+			caption += fmt.Sprintf(", below 0.1 K from %s m down", fixed(p.DampingDepth_m, 2))
+		}
+		t := newTable(caption, []string{"Depth (m)", "Swing, amplitude (K)", "Lag behind the surface (" + lagUnit + ")", "Lowest", "Mean", "Highest"})
+		tiny := false
+		for _, q := range p.Probes {
+			amp, lag := sig(q.Amplitude_K, 2), fixed(q.Lag_h*lagF, 1)
+			if q.Amplitude_K < 0.001 {
+				amp, lag = "< 0.001", dash
+				tiny = true
+			}
+			t.row(fixed(q.Depth_m, 2), amp, lag, degC(q.Min_C), degC(q.Mean_C), degC(q.Max_C))
+		}
+		t.Notes = append(t.Notes, "Lowest and highest are the mean minus and plus this period's swing alone; the other periods add to it.")
+		if tiny {
+			t.Notes = append(t.Notes, "A swing below 0.001 K has died out; its lag is not given.")
+		}
+		out = append(out, &block{Table: t})
+	}
+	return out
+}
+
+// frostSummary is the frost sentence of the report summary.
+func frostSummary(f *scenarios.Frost) string {
+	idx, from := indexUsed(f)
+	s := fmt.Sprintf("The simulated frost reaches %s m below the surface", fixed(f.MaxFrostDepth_m, 2))
+	if k := deepestWinter(f); k >= 0 && len(f.Winters) > 1 {
+		s += fmt.Sprintf(" at its deepest (%s, %s, of %d winters)", f.Winters[k].Label, f.Winters[k].MaxFrostDate, len(f.Winters))
+	}
+	s += fmt.Sprintf(", with an air freezing index of %s per winter. From a surface freezing index of %s (n-factor %s × %s), the Stefan estimate is %s m and the modified Berggren estimate %s m.",
+		cd(f.FreezingIndex_Cd), cd(idx), trimZeros(sig(f.FreezingNFactor, 3)), from, fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2))
+	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
+		s += fmt.Sprintf(" The closed forms use the design air freezing index of %s.", cd(*f.DesignFreezingIndex_Cd))
+	}
+	return s
+}

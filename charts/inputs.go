@@ -1,0 +1,156 @@
+package charts
+
+import (
+	"fmt"
+	"strings"
+
+	"tempstack/scenarios"
+)
+
+// inputsTable is the "Assumptions and inputs" table: everything the
+// results record about the conditions of the run (surface resistances,
+// the forcing as far as the results carry it, the analysis and the
+// simulation settings), so that a reader can see what the numbers rest
+// on without the scenario file.
+func inputsTable(r *scenarios.Results) *block {
+	ground := r.Kind == "ground"
+	t := newTable("Assumptions and inputs of this run", []string{"Input", "Value"}, "text", "text")
+	res := func(v float64) string {
+		if v == 0 {
+			return "0 (surface temperature prescribed)"
+		}
+		return trimZeros(sig(v, 3)) + " m²·K/W"
+	}
+	s := r.Steady
+	if ground {
+		t.row("Surface resistance", res(s.OutsideSurfaceResistance))
+	} else {
+		if r.Orientation != "" {
+			t.row("Component", r.Orientation)
+		}
+		t.row("Outside surface resistance Rse", res(s.OutsideSurfaceResistance))
+		t.row("Inside surface resistance Rsi", res(s.InsideSurfaceResistance))
+	}
+
+	// Forcing, as far as the results carry it.
+	if g := r.Ground; ground && g != nil {
+		if f := r.Frost; f != nil {
+			t.row("Mean annual air temperature", degC(f.MeanAnnualAir_C))
+		}
+		if g.NFactorFreezing > 0 || g.NFactorThawing > 0 {
+			t.row("n-factors of the surface cover, freezing and thawing (surface / air)", trimZeros(sig(g.NFactorFreezing, 3))+" and "+trimZeros(sig(g.NFactorThawing, 3)))
+		}
+		t.row("Ground surface temperature", fmt.Sprintf("mean %s, annual swing ±%s K (n-factors applied)", degC(g.SurfaceMean_C), fixed(g.SurfaceAnnualAmplitude_K, 1)))
+		if finite(g.GeothermalFlux_W_m2) {
+			t.row("Bottom of the column", "geothermal heat flux "+trimZeros(sig(g.GeothermalFlux_W_m2*1000, 3))+" mW/m² upward")
+		} else {
+			t.row("Bottom of the column", "fixed temperature")
+		}
+		t.row("Depth of the column", fixed(g.ColumnDepth_m, 2)+" m")
+	} else if !ground {
+		c := r.Series
+		if len(c.CycleOutsideAir_C) > 0 && len(r.Periodic) > 0 {
+			t.row("Outside environment temperature over the "+periodLabel(r.Periodic[0].Period_h)+" cycle",
+				rangeText(c.CycleTime_h, c.CycleOutsideAir_C))
+		}
+		if len(c.CycleInsideAir_C) > 0 {
+			t.row("Inside environment temperature over the same cycle", rangeText(c.CycleTime_h, c.CycleInsideAir_C))
+		}
+	}
+	if f := r.Frost; f != nil {
+		if d := f.DesignFreezingIndex_Cd; d != nil {
+			t.row("Design air freezing index", cd(*d)+" (used by Stefan and modified Berggren)")
+		}
+		if r.Ground == nil {
+			t.row("Freezing n-factor", trimZeros(sig(f.FreezingNFactor, 3)))
+		}
+	}
+	if st := r.StepResponse; st != nil {
+		t.row("Step response", fmt.Sprintf("the %s surface temperature steps by %s K, followed for %s", st.Side, fixed(st.Change_K, 1), seconds(st.Duration_s)))
+	}
+
+	// Analysis.
+	var periods []string
+	if ground && r.Ground != nil {
+		for _, p := range r.Ground.Periodic {
+			periods = append(periods, periodLabel(p.Period_h))
+		}
+	}
+	if len(periods) == 0 {
+		for _, p := range r.Periodic {
+			periods = append(periods, periodLabel(p.Period_h))
+		}
+	}
+	if len(periods) > 0 {
+		t.row("Periods of the exact periodic analysis", strings.Join(periods, ", "))
+	}
+	if z := probeDepths(r); len(z) > 0 {
+		var ps []string
+		for _, v := range z {
+			if ground {
+				ps = append(ps, fixed(v, 2)+" m")
+			} else {
+				ps = append(ps, trimZeros(sig(v*1000, 3))+" mm")
+			}
+		}
+		what := "Probe positions from the outside surface"
+		if ground {
+			what = "Probe depths below the surface"
+		}
+		t.row(what, strings.Join(ps, ", "))
+	}
+	if sim := r.Simulation; sim != nil {
+		t.row("Simulated duration", hours(sim.Duration_h))
+		t.row("Time step", trimZeros(sig(sim.Step_h, 3))+" h")
+		if sim.OutputStep_h > 0 {
+			t.row("Output interval", trimZeros(sig(sim.OutputStep_h, 3))+" h")
+		}
+		t.row("Finite-volume cells", fmt.Sprint(sim.Cells))
+		if sim.SpinUpCycles > 0 {
+			t.row("Spin-up before recording", fmt.Sprintf("%d cycles; the last changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2)))
+		} else {
+			t.row("Spin-up before recording", "none")
+		}
+	}
+	t.Notes = append(t.Notes, "Material properties and their sources are in the layer table; the methods are listed at the end of the report.")
+	return &block{Table: t}
+}
+
+// rangeText describes the range of a temperature series v sampled at
+// times t: lowest, highest and the time-weighted (trapezoidal) mean, so
+// that a cycle sampled at both ends is not biased by its end point.
+func rangeText(t, v []float64) string {
+	lo, hi := minOf(v), maxOf(v)
+	if !finite(lo) || !finite(hi) {
+		return dash
+	}
+	if hi-lo < 0.05 {
+		return "constant " + degC(lo)
+	}
+	area, span := 0.0, 0.0
+	for i := 1; i < min(len(t), len(v)); i++ {
+		dt := t[i] - t[i-1]
+		if finite(v[i]) && finite(v[i-1]) && finite(dt) && dt > 0 {
+			area += dt * (v[i] + v[i-1]) / 2
+			span += dt
+		}
+	}
+	if !(span > 0) {
+		return fmt.Sprintf("%s to %s", degC(lo), degC(hi))
+	}
+	return fmt.Sprintf("%s to %s (mean %s)", degC(lo), degC(hi), degC(area/span))
+}
+
+// seconds formats a duration given in seconds.
+func seconds(s float64) string {
+	switch {
+	case !finite(s):
+		return dash
+	case s < 120:
+		return trimZeros(sig(s, 3)) + " s"
+	case s < 7200:
+		return trimZeros(sig(s/60, 3)) + " min"
+	default:
+		return hours(s / 3600)
+	}
+}
