@@ -113,9 +113,9 @@ func checkScenario(t *testing.T, s *Scenario) {
 // catalogue (all invented data).
 func FuzzDecode(f *testing.F) {
 	fsys := fuzzFS(f)
-	f.Add([]byte("title: t\nkind: ground\nlayers: [{material: sand-dry, thickness: 3}]\nsurface:\n  temperature: {file: obs.csv, column: air}\n"))
+	f.Add([]byte("title: t\nkind: ground\nlayers: [{material: dry-sand, thickness: 3}]\nsurface:\n  temperature: {file: obs.csv, column: air}\n"))
 	f.Add([]byte("title: t\nkind: wall\nlayers: [{material: clay-brick, thickness: 0.1}]\noutside:\n  temperature: 5\n  solar: {absorptance: dark, irradiance: {file: obs.csv, column: sun}}\n"))
-	f.Add([]byte("title: t\nkind: ground\nlayers: [{material: sand-dry, thickness: 3}]\nsurface:\n  temperature: {file: empty.csv, column: air}\n"))
+	f.Add([]byte("title: t\nkind: ground\nlayers: [{material: dry-sand, thickness: 3}]\nsurface:\n  temperature: {file: empty.csv, column: air}\n"))
 	f.Add([]byte("title: &a t\nkind: *a\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		const name = "fuzz.yaml"

@@ -92,7 +92,9 @@ type Simulation struct {
 	Cells                      int             `json:"cells"`
 	EnergyBalanceRelativeError float64         `json:"energy_balance_relative_error"`
 	SpinUpCycles               int             `json:"spin_up_cycles"`
-	SpinUpChange_K             float64         `json:"spin_up_change_K"` // largest change over the last spin-up cycle, where the periodic wave reaches
+	SpinUpChange_K             float64         `json:"spin_up_change_K"`    // change of the last spin-up cycle, K, as the convergence test measures it
+	SpinUpConverged            bool            `json:"spin_up_converged"`   // the last spin-up cycle repeated the one before within SpinUpTolerance_K
+	SpinUpTolerance_K          float64         `json:"spin_up_tolerance_K"` // largest change of a cell over a cycle (where the wave reaches) that counts as periodic
 	OutputStep_h               float64         `json:"output_step_h"`
 	StoredHeat_J_m2            float64         `json:"stored_heat_J_m2"`     // change of heat content over the run
 	HeatInOutside_J_m2         float64         `json:"heat_in_outside_J_m2"` // heat that entered through the outside surface

@@ -119,6 +119,13 @@ type Problem struct {
 	// Progress, when not nil, is called with the completed fraction of the
 	// run (0 to 1) about a hundred times.
 	Progress func(frac float64)
+
+	// SpinUpDepth, when positive, limits the convergence test of SpinUp
+	// and SpinUpEnthalpy to the cells whose centre lies at most this deep
+	// (m): the periodic wave settles there long before the deep mean
+	// temperature of a ground column does, which takes decades and does not
+	// change what happens above.
+	SpinUpDepth float64
 }
 
 // Result is the outcome of Simulate.
@@ -210,7 +217,7 @@ func Simulate(p Problem) (*Result, error) {
 // column with freezing layers use SpinUpEnthalpy: a temperature cannot
 // tell how much of a cell at its freezing point is frozen.
 func SpinUp(p Problem, period, tol float64, maxCycles int) (initial []float64, cycles int, err error) {
-	r, cycles, err := fvSpinUp(p, period, tol, maxCycles)
+	r, cycles, _, err := fvSpinUp(p, period, tol, maxCycles)
 	if r == nil {
 		return nil, cycles, err
 	}
@@ -220,19 +227,27 @@ func SpinUp(p Problem, period, tol float64, maxCycles int) (initial []float64, c
 // SpinUpEnthalpy is SpinUp returning the periodic state as volumetric
 // enthalpies (J/m3 per cell, for Problem.InitialEnthalpy), which keep the
 // frozen fraction of cells at their freezing point. A cell's change over a
-// cycle is measured as its enthalpy change divided by its smaller
-// (frozen or unfrozen) heat capacity, in K.
+// cycle is the larger of its temperature change and its enthalpy change
+// over its smaller sensible heat capacity plus its latent heat per kelvin,
+// in K (see Problem.SpinUpDepth for the cells tested).
 func SpinUpEnthalpy(p Problem, period, tol float64, maxCycles int) (enthalpy []float64, cycles int, err error) {
-	r, cycles, err := fvSpinUp(p, period, tol, maxCycles)
-	if r == nil {
-		return nil, cycles, err
-	}
-	return append([]float64(nil), r.H...), cycles, err
+	enthalpy, cycles, _, err = SpinUpEnthalpyChange(p, period, tol, maxCycles)
+	return enthalpy, cycles, err
 }
 
-func fvSpinUp(p Problem, period, tol float64, maxCycles int) (*fvRun, int, error) {
+// SpinUpEnthalpyChange is SpinUpEnthalpy that also returns the change of
+// the last cycle, K, as the convergence test measures it.
+func SpinUpEnthalpyChange(p Problem, period, tol float64, maxCycles int) (enthalpy []float64, cycles int, change float64, err error) {
+	r, cycles, change, err := fvSpinUp(p, period, tol, maxCycles)
+	if r == nil {
+		return nil, cycles, change, err
+	}
+	return append([]float64(nil), r.H...), cycles, change, err
+}
+
+func fvSpinUp(p Problem, period, tol float64, maxCycles int) (*fvRun, int, float64, error) {
 	if !(period > 0) || math.IsInf(period, 0) || !(tol > 0) || maxCycles < 1 {
-		return nil, 0, errors.New("solver: spin-up needs period > 0, tol > 0 and maxCycles >= 1")
+		return nil, 0, 0, errors.New("solver: spin-up needs period > 0, tol > 0 and maxCycles >= 1")
 	}
 	p.Duration = period
 	p.Probes = nil
@@ -240,17 +255,30 @@ func fvSpinUp(p Problem, period, tol float64, maxCycles int) (*fvRun, int, error
 	p.Progress = nil
 	r, err := newFvRun(&p, false)
 	if err != nil {
-		return nil, 0, err
+		return nil, 0, 0, err
 	}
-	// Heat capacity that converts an enthalpy change into kelvin.
-	cmin := make([]float64, r.n)
-	for i := range cmin {
-		cmin[i] = r.cvol[i]
+	// A cell's change over a cycle, in K: the larger of its temperature
+	// change and its enthalpy change over its smaller sensible heat
+	// capacity plus its latent heat spread over 1 K (a cell held at its
+	// freezing point that changes 1 % of its ice counts about 0.01 K).
+	ceq := make([]float64, r.n)
+	for i := range ceq {
+		ceq[i] = r.cvol[i]
 		if k := r.pidx[i]; k >= 0 {
-			cmin[i] = math.Min(r.phases[k].cf, r.phases[k].cu)
+			ceq[i] = math.Min(r.phases[k].cf, r.phases[k].cu) + r.phases[k].lat
 		}
 	}
+	last := r.n
+	if p.SpinUpDepth > 0 {
+		last = 0
+		for last < r.n && r.m.Centers[last] <= p.SpinUpDepth {
+			last++
+		}
+		last = max(last, 1)
+	}
 	prev := make([]float64, r.n)
+	prevT := make([]float64, r.n)
+	diff := math.Inf(1)
 	for cycles := 1; cycles <= maxCycles; cycles++ {
 		if !r.nonlinear {
 			for i := range r.H {
@@ -258,17 +286,18 @@ func fvSpinUp(p Problem, period, tol float64, maxCycles int) (*fvRun, int, error
 			}
 		}
 		copy(prev, r.H)
+		copy(prevT, r.T)
 		// Each run continues from the state (enthalpy) the last one left.
 		if _, err := r.run(); err != nil {
-			return nil, cycles, err
+			return nil, cycles, 0, err
 		}
-		diff := 0.0
-		for i, h := range r.H {
-			diff = math.Max(diff, math.Abs(h-prev[i])/cmin[i])
+		diff = 0.0
+		for i := 0; i < last; i++ {
+			diff = math.Max(diff, math.Max(math.Abs(r.T[i]-prevT[i]), math.Abs(r.H[i]-prev[i])/ceq[i]))
 		}
 		if diff < tol {
-			return r, cycles, nil
+			return r, cycles, diff, nil
 		}
 	}
-	return r, maxCycles, fmt.Errorf("%w after %d cycles (tolerance %g K)", ErrSpinUp, maxCycles, tol)
+	return r, maxCycles, diff, fmt.Errorf("%w after %d cycles (tolerance %g K)", ErrSpinUp, maxCycles, tol)
 }
