@@ -314,12 +314,12 @@ func usedFamilies(kind string, ls []scenarios.Layer) (used []string, of []string
 
 // legend draws one swatch per family in use, left to right from x at y;
 // it returns the height used.
-func (w *svgWriter) legend(used []string, x, y float64) float64 {
+func (w *svgWriter) legend(used []string, x, y, right float64) float64 {
 	cx, cy := x, y
 	for _, f := range used {
 		st := familyStyles[f]
 		wd := 14 + 6 + charPx*float64(len([]rune(st.label))) + 18
-		if cx+wd > svgWidth-10 {
+		if cx+wd > right && cx > x {
 			cx = x
 			cy += 20
 		}
@@ -463,26 +463,35 @@ func wallSection(r *scenarios.Results) *figure {
 			body.text(cx-8, y, "end", "nm", label)
 		}
 	}
-	h := legendY + body.legendHeight(used)
+	h := legendY + body.legendHeight(used, left, svgWidth-10)
 	var w svgWriter
-	w.open(h, "Cross-section of the construction, outside on the left")
+	w.open(0, svgWidth, h, "Cross-section of the construction, outside on the left", false)
 	w.patterns(used, true)
 	w.WriteString(body.String())
-	w.legend(used, left, legendY)
+	w.legend(used, left, legendY, svgWidth-10)
 	w.f(`</svg>`)
 	cap := "Cross-section, to scale across the construction: outside on the left, inside on the right. Tint and hatching show the material family."
 	return &figure{SVG: template.HTML(w.String()), Caption: cap, Notes: sectionNotes(r.Kind, sp)}
 }
 
-// legendHeight is the height the legend of used will take.
-func (w *svgWriter) legendHeight(used []string) float64 {
+// legendHeight is the height the legend of used will take between x and
+// right.
+func (w *svgWriter) legendHeight(used []string, x, right float64) float64 {
 	var scratch svgWriter
-	return scratch.legend(used, 110, 0) + 4
+	return scratch.legend(used, x, 0, right) + 4
 }
 
-// open writes the svg start tag with the shared styles.
-func (w *svgWriter) open(h float64, label string) {
-	w.f(`<svg class="xsec" viewBox="0 0 %d %s" role="img" aria-label="%s">`, svgWidth, svgNum(h), esc(label))
+// open writes the svg start tag with the shared styles for a viewBox
+// from x0 to x1 and 0 to h. A vertical stack (class "xsec-v") carries its
+// natural width, so that it is drawn at full size rather than stretched
+// to the text width; a horizontal one (class "xsec") fills the width.
+func (w *svgWriter) open(x0, x1, h float64, label string, vertical bool) {
+	if vertical {
+		w.f(`<svg class="xsec xsec-v" width="%s" height="%s" viewBox="%s 0 %s %s" role="img" aria-label="%s">`,
+			svgNum(x1-x0), svgNum(h), svgNum(x0), svgNum(x1-x0), svgNum(h), esc(label))
+	} else {
+		w.f(`<svg class="xsec" viewBox="%s 0 %s %s" role="img" aria-label="%s">`, svgNum(x0), svgNum(x1-x0), svgNum(h), esc(label))
+	}
 	w.f(`<style>.xsec text{font-family:%s;fill:#1F2328}.xsec .nm{font-size:12px}.xsec .sm{font-size:11px;fill:#57606A}.xsec .lg{font-size:12px;fill:#57606A}.xsec .side{font-size:13px;font-weight:600}.xsec .dt{font-size:12px;fill:#57606A}.xsec .mk{font-size:11px;paint-order:stroke;stroke:#fff;stroke-width:3px;stroke-linejoin:round}.xsec .dim,.xsec .lead{stroke:#57606A;stroke-width:0.8;fill:none}.xsec .dot{fill:#57606A}.xsec .frost{fill:#0072B2}</style>`,
 		esc(fontStack))
 }
@@ -502,7 +511,7 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 	ground := what == "ground"
 	length := 300.0
 	if ground {
-		length = 440
+		length = 320
 	}
 	ls := r.Layers
 	n := len(ls)
@@ -543,6 +552,7 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 		want[k] = top + sp[k].at + sp[k].size/2
 	}
 	got := spread(want, 2*lineH+4, top+8, top+length+30)
+	right := labelX + 200.0
 	for k, i := range order {
 		l := ls[i]
 		yl := got[k]
@@ -551,8 +561,10 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 		if sp[k].widened {
 			name += " *"
 		}
+		sub := thicknessText(r.Kind, l.Thickness_m) + " · " + familyStyles[ofDrawn[k]].label
 		body.text(labelX, yl, "start", "nm", name)
-		body.text(labelX+18, yl+lineH, "start", "sm", thicknessText(r.Kind, l.Thickness_m)+" · "+familyStyles[ofDrawn[k]].label)
+		body.text(labelX+18, yl+lineH, "start", "sm", sub)
+		right = math.Max(right, math.Max(labelX+charPx*float64(len([]rune(name))), labelX+18+0.92*charPx*float64(len([]rune(sub)))))
 	}
 	// Sides.
 	topSide, bottomSide := "Outside", "Inside"
@@ -587,17 +599,19 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 		}
 	}
 	legendY := math.Max(top+length+44, got[n-1]+lineH+28)
-	h := legendY + body.legendHeight(used)
+	const left = 70.0
+	right += 12
+	h := legendY + body.legendHeight(used, left+40, right)
 	var w svgWriter
 	label := map[string]string{
 		"ground": "Cross-section of the soil column, surface on top, depth pointing down",
 		"roof":   "Cross-section of the roof, outside on top",
 		"floor":  "Cross-section of the floor, inside on top",
 	}[what]
-	w.open(h, label)
+	w.open(left, right, h, label, true)
 	w.patterns(used, false)
 	w.WriteString(body.String())
-	w.legend(used, 110, legendY)
+	w.legend(used, left+40, legendY, right)
 	w.f(`</svg>`)
 	cap := map[string]string{
 		"ground": "Soil column from the surface down, depth written at each layer boundary; the probes and the simulated maximum frost depth are marked. Tint and hatching show the material family.",
