@@ -346,3 +346,47 @@ func sortFloats(v []float64) {
 		}
 	}
 }
+
+// recordInfo summarises a measured forcing for the results.
+func recordInfo(use string, f *Forcing) RecordInfo {
+	m := f.Measured
+	ser := m.Series
+	ri := RecordInfo{Use: use, File: m.File, Columns: ser.Columns, Rows: len(ser.T),
+		First: ser.Times[0].Format(time.RFC3339), Last: ser.Times[len(ser.Times)-1].Format(time.RFC3339),
+		Step_h: ser.Step / 3600, Bridged: []BridgedGap{}, FitMean: f.Mean}
+	for _, g := range ser.Bridged {
+		ri.Bridged = append(ri.Bridged, BridgedGap{Column: g.Column, Line: g.Line,
+			From: g.From.Format(time.RFC3339), To: g.To.Format(time.RFC3339), Filled: g.Filled})
+	}
+	for _, h := range f.Harmonics {
+		switch {
+		case math.Abs(h.Period-climate.Year) < 1:
+			ri.FitAnnualAmp, ri.FitAnnualPeak = h.Amplitude, h.Peak/climate.Day+0.5
+		case math.Abs(h.Period-climate.Day) < 1:
+			ri.FitDailyAmp, ri.FitDailyPeak = h.Amplitude, h.Peak/3600
+		}
+	}
+	return ri
+}
+
+// records lists the measured series of a scenario.
+func (s *Scenario) records() []RecordInfo {
+	var out []RecordInfo
+	use := "outside temperature"
+	if s.Kind == Ground {
+		use = "surface air temperature"
+	}
+	if f := s.Outside.Temperature; f != nil && f.Measured != nil {
+		out = append(out, recordInfo(use, f))
+	}
+	if sol := s.Outside.Solar; sol != nil && sol.Irradiance.Measured != nil {
+		out = append(out, recordInfo("solar irradiance", sol.Irradiance))
+	}
+	if f := s.Inside.Temperature; f != nil && f.Measured != nil {
+		out = append(out, recordInfo("inside temperature", f))
+	}
+	if fs := s.Analysis.Fit; fs != nil {
+		out = append(out, recordInfo("sensors", &Forcing{Measured: fs.Measured}))
+	}
+	return out
+}

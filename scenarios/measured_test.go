@@ -131,3 +131,52 @@ outside:
 		t.Errorf("sunny probe %+v, warm probe %+v", a, b)
 	}
 }
+
+// TestWallFromRecordListsBridgedGaps: a wall driven by a short hourly
+// record with a hole of three hours runs over the record's span, and the
+// results list the bridged hole (synthetic data).
+func TestWallFromRecordListsBridgedGaps(t *testing.T) {
+	dir := t.TempDir()
+	var b strings.Builder
+	b.WriteString("time;air\n")
+	origin := time.Date(2023, 6, 1, 0, 0, 0, 0, time.UTC)
+	for h := 0; h <= 10*24; h++ {
+		if h >= 50 && h < 53 {
+			continue // a three-hour hole, bridged (the limit is 6 h)
+		}
+		v := 18 + 7*math.Cos(2*math.Pi*float64(h-15)/24)
+		fmt.Fprintf(&b, "%s;%s\n", origin.Add(time.Duration(h)*time.Hour).Format("2006-01-02 15:04"), strings.Replace(fmt.Sprintf("%.2f", v), ".", ",", 1))
+	}
+	os.WriteFile(filepath.Join(dir, "air.csv"), []byte(b.String()), 0o644)
+	os.WriteFile(filepath.Join(dir, "w.yaml"), []byte(`title: wall from a record
+kind: wall
+layers:
+  - {material: concrete, thickness: 200 mm}
+outside:
+  temperature: {file: air.csv, column: air, decimal: ",", separator: ";"}
+analysis:
+  simulate: {step: 30min}
+  probes: [0.1]
+`), 0o644)
+	s, err := Load(filepath.Join(dir, "w.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Run(s, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := r.Simulation.Duration_h; math.Abs(got-240) > 1e-9 {
+		t.Errorf("simulated %g h, the record spans 240 h", got)
+	}
+	if len(r.Records) != 1 || len(r.Records[0].Bridged) != 1 || r.Records[0].Rows != 238 {
+		t.Fatalf("records: %+v", r.Records)
+	}
+	// The fitted daily harmonic of the record is the one that made it.
+	if rec := r.Records[0]; math.Abs(rec.FitDailyAmp-7) > 0.01 || math.Abs(rec.FitMean-18) > 0.01 {
+		t.Errorf("fit: mean %.3f, daily amplitude %.3f", rec.FitMean, rec.FitDailyAmp)
+	}
+	if r.Simulation.PeriodicCheck != nil {
+		t.Errorf("a measured forcing must not claim a periodic check")
+	}
+}

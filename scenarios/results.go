@@ -34,6 +34,10 @@ type Results struct {
 	Uncertainty *UncertaintyResult `json:"uncertainty,omitempty"`
 	Fit         *FitResult         `json:"fit,omitempty"`
 
+	// Records lists the measured series the run read, with every gap it
+	// bridged: nothing is dropped silently.
+	Records []RecordInfo `json:"records,omitempty"`
+
 	Warnings []string `json:"warnings,omitempty"`
 
 	// Series holds the chart data; large, so it is kept out of results.json.
@@ -373,4 +377,33 @@ type FitPair struct {
 	PhaseMethod_m2_s     float64 `json:"phase_method_m2_s"`
 	Usable               bool    `json:"usable"`
 	Note                 string  `json:"note,omitempty"`
+}
+
+// RecordInfo describes one measured series a run read.
+type RecordInfo struct {
+	Use     string       `json:"use"` // e.g. "outside temperature", "solar irradiance", "sensors"
+	File    string       `json:"file"`
+	Columns []string     `json:"columns"`
+	Rows    int          `json:"rows"`
+	First   string       `json:"first"` // first and last stamps, ISO 8601
+	Last    string       `json:"last"`
+	Step_h  float64      `json:"step_h"` // typical spacing
+	Bridged []BridgedGap `json:"bridged"`
+	// The mean and harmonics fitted to the record (least squares), for
+	// the exact analysis; amplitude K (or W/m2), peak in days from
+	// 1 January (annual) or hours (daily).
+	FitMean       float64 `json:"fit_mean"`
+	FitAnnualAmp  float64 `json:"fit_annual_amplitude,omitempty"`
+	FitAnnualPeak float64 `json:"fit_annual_peak_day,omitempty"`
+	FitDailyAmp   float64 `json:"fit_daily_amplitude,omitempty"`
+	FitDailyPeak  float64 `json:"fit_daily_peak_hour,omitempty"`
+}
+
+// BridgedGap is one hole in a record filled by linear interpolation.
+type BridgedGap struct {
+	Column string `json:"column,omitempty"` // "" when whole rows were missing
+	Line   int    `json:"line"`             // line of the last record before the hole
+	From   string `json:"from"`
+	To     string `json:"to"`
+	Filled int    `json:"filled"` // cells filled (0 for missing rows)
 }

@@ -29,6 +29,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 	if err != nil {
 		return nil, err
 	}
+	r.Records = s.records()
 	if s.Analysis.Fit != nil {
 		if err := runFit(s, r); err != nil {
 			return nil, err
