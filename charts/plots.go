@@ -2,6 +2,7 @@ package charts
 
 import (
 	"fmt"
+	"math"
 
 	ec "github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
@@ -273,6 +274,13 @@ func simTempChart(r *scenarios.Results) (*chartSpec, error) {
 		{name: n.env, y: s.SimOutsideAir_C, color: colVermilion, width: 1.2},
 		{name: n.outSurf, y: s.SimOutsideSurface_C, color: colOrange, width: 1.5},
 	}
+	caption := "Transient finite-volume simulation. Drag the slider or scroll inside the chart to zoom in time; click a legend entry to hide a line."
+	if sameSeries(s.SimOutsideAir_C, s.SimOutsideSurface_C) {
+		// No surface resistance: the environment is the surface; one line.
+		ls = ls[1:]
+		ls[0].name += " (= surface environment)"
+		caption += " With no surface resistance the surface environment temperature is the surface temperature; one line shows both."
+	}
 	if maxOf(s.SimTime_h)-minOf(s.SimTime_h) > 60*24 {
 		// Over months the daily swing of the surface lines fills a wide
 		// ribbon: draw those two faint and thin so the probes stay legible.
@@ -298,7 +306,21 @@ func simTempChart(r *scenarios.Results) (*chartSpec, error) {
 		l.x, l.xUnit, l.yUnit = t, xu, uDegC
 		thinned = addLine(c, l) || thinned
 	}
-	return finish(c, idSimTemp, "Transient finite-volume simulation. Drag the slider or scroll inside the chart to zoom in time; click a legend entry to hide a line.", thinned)
+	return finish(c, idSimTemp, caption, thinned)
+}
+
+// sameSeries reports whether a and b are the same non-empty series to
+// within 1 mK everywhere.
+func sameSeries(a, b []float64) bool {
+	if len(a) == 0 || len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if !(math.Abs(a[i]-b[i]) <= 1e-3) {
+			return false
+		}
+	}
+	return true
 }
 
 // simFluxChart: simulated heat flux at both surfaces against time.

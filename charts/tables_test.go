@@ -171,3 +171,24 @@ func TestWallInputs(t *testing.T) {
 		t.Error("warning box without warnings")
 	}
 }
+
+// With no surface resistance the simulated surface environment equals
+// the surface temperature: one line, named for both.
+func TestSurfaceEnvironmentMerged(t *testing.T) {
+	r := groundFixture()
+	r.Series.SimOutsideAir_C = append([]float64(nil), r.Series.SimOutsideSurface_C...)
+	charts, _ := chartData(t, render(t, r, Options{}))
+	var names []string
+	for _, s := range charts[idSimTemp]["series"].([]any) {
+		names = append(names, s.(map[string]any)["name"].(string))
+	}
+	got := strings.Join(names, "|")
+	if strings.Contains(got, "Surface environment|") || !strings.Contains(got, "Ground surface (= surface environment)") {
+		t.Errorf("series %q: want the surface line alone, named for both", got)
+	}
+	// Different series stay two lines.
+	charts, _ = chartData(t, render(t, groundFixture(), Options{}))
+	if n := len(charts[idSimTemp]["series"].([]any)); n != 5 {
+		t.Errorf("%d series in the simulated temperatures, want 5", n)
+	}
+}
