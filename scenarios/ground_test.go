@@ -207,3 +207,43 @@ analysis:
 		t.Errorf("warnings %q lack the shallow-domain cautions", r.Warnings)
 	}
 }
+
+// BenchmarkGroundColumn20m: a 20 m freezing soil column driven for ten
+// winters in hourly steps (the farm demo's soils and climate), the whole
+// scenario path; reports cell-steps per second of the ten-year run.
+func BenchmarkGroundColumn20m(b *testing.B) {
+	src := `
+title: bench
+kind: ground
+layers:
+  - soil: {texture: silt-clay, dry_density: 1500, water_content: 25 %}
+    thickness: 0.3 m
+  - soil: {texture: sand, dry_density: 1800, water_content: 10 %}
+    thickness: 2.2 m
+  - soil: {texture: silt-clay, dry_density: 1650, water_content: 22 %}
+    thickness: 17.5 m
+surface:
+  cover: turf
+  temperature:
+    mean: 3.5
+    annual: {amplitude: 15, peak_day: 200}
+    daily: {amplitude: 4, peak_hour: 15}
+analysis:
+  simulate: {duration: 10y, step: 1h, output_step: 24h, spin_up_cycles: 1}
+`
+	var cells, steps float64
+	for i := 0; i < b.N; i++ {
+		s, err := Decode("bench.yaml", []byte(src))
+		if err != nil {
+			b.Fatal(err)
+		}
+		r, err := Run(s, nil)
+		if err != nil {
+			b.Fatal(err)
+		}
+		cells = float64(r.Simulation.Cells)
+		steps = r.Simulation.Duration_h / r.Simulation.Step_h * 11 / 10 // ten years plus one spin-up year
+	}
+	b.ReportMetric(cells*steps*float64(b.N)/b.Elapsed().Seconds(), "cell-steps/s")
+	b.ReportMetric(cells, "cells")
+}
