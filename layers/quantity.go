@@ -32,6 +32,7 @@ const (
 	HeatTransferCoefficient             // W/(m2 K)
 	Irradiance                          // W/m2; kW/m2
 	DegreeDays                          // K day (degC day), the trade's unit of a freezing index; K h, F day
+	Effusivity                          // W s^0.5/(m2 K), thermal effusivity sqrt(lambda rho c); J/(m2 K s^0.5)
 	numKinds
 )
 
@@ -145,6 +146,9 @@ var kinds = [numKinds]kindInfo{
 	Irradiance: {noun: "an irradiance", short: "irradiance", example: "800 W/m2", units: []unit{
 		{name: "W/m2", aliases: []string{"W m-2"}, scale: 1},
 		{name: "kW/m2", aliases: []string{"kW m-2"}, scale: 1e3},
+	}},
+	Effusivity: {noun: "a thermal effusivity", short: "thermal effusivity", example: "1100 W s0.5/(m2 K)", units: []unit{
+		{name: "W s0.5/(m2 K)", aliases: []string{"W s^0.5/(m2 K)", "W s1/2/(m2 K)", "J/(m2 K s0.5)", "J m-2 K-1 s-0.5", "W s0.5 m-2 K-1"}, scale: 1},
 	}},
 	// A freezing or thawing index stays in degree-days inside the code, the
 	// unit every frost formula and table of the trade uses; ISO 13793 writes

@@ -934,7 +934,7 @@ func (d *decoder) decodeSimulate(o *object, s *Scenario) error {
 }
 
 func (d *decoder) decodeStepResponse(o *object, s *Scenario) error {
-	so, ok, err := o.child("step_response", []string{"side", "change", "duration"})
+	so, ok, err := o.child("step_response", []string{"side", "change", "duration", "contact_temperature", "contact_effusivity"})
 	if err != nil || !ok {
 		return err
 	}
@@ -963,6 +963,19 @@ func (d *decoder) decodeStepResponse(o *object, s *Scenario) error {
 		return err
 	} else if ok {
 		st.Duration = v
+	}
+	if v, ok, err := so.quantity("contact_temperature", layers.Temperature); err != nil {
+		return err
+	} else if ok {
+		st.ContactTemperature = &v
+	}
+	if v, ok, err := so.positive("contact_effusivity", layers.Effusivity); err != nil {
+		return err
+	} else if ok {
+		st.ContactEffusivity = v
+	}
+	if (st.ContactTemperature == nil) != (st.ContactEffusivity == 0) {
+		return so.errKey("contact_effusivity", "give contact_temperature and contact_effusivity together")
 	}
 	s.Analysis.StepResponse = st
 	return nil

@@ -219,6 +219,10 @@ func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
 			days += w.Days / 3
 		}
 		v, _ := m.Series.Value(m.Column)
+		if g, err := climate.GumbelFit(climate.FreezingIndices(ws), climate.Moments); err == nil {
+			s.returnPeriod = &ReturnPeriodIndex{Winters: len(complete), Method: "Gumbel, method of moments",
+				Location_Cd: g.Location, Scale_Cd: g.Scale, Years: 100, FreezingIndex_Cd: g.ReturnLevel(100)}
+		}
 		fc := ground.FrostClimate{AirIndex: design, NFactor: s.Outside.NFreezing, SurfaceIndex: s.Outside.NFreezing * design,
 			SeasonDays: days, MeanAnnual: mean(v)}
 		return fc, fmt.Sprintf("record: mean of the 3 coldest of %d complete winters", len(complete)), true
@@ -284,6 +288,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
 		fr.SeasonLength_d = fc.SeasonDays
 		fr.MeanAnnualAir_C = fc.MeanAnnual
 		fr.IndexSource = source
+		fr.ReturnPeriod = s.returnPeriod
 	}
 	fr.FreezingNFactor = s.Outside.NFreezing
 	if d := s.Analysis.DesignFreezingIndex; d != nil {

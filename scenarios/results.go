@@ -174,6 +174,21 @@ type Frost struct {
 	BerggrenAlpha           float64       `json:"berggren_alpha"`
 	BerggrenMu              float64       `json:"berggren_mu"`
 	Winters                 []FrostWinter `json:"winters,omitempty"`
+
+	// ReturnPeriod is the extreme-value view of a measured record's
+	// winters: a Gumbel fit (method of moments) of the complete winters'
+	// air freezing indices and the index of a 100-year return period.
+	ReturnPeriod *ReturnPeriodIndex `json:"return_period,omitempty"`
+}
+
+// ReturnPeriodIndex is a Gumbel fit of annual freezing indices.
+type ReturnPeriodIndex struct {
+	Winters          int     `json:"winters"`
+	Method           string  `json:"method"`
+	Location_Cd      float64 `json:"location_Cd"`
+	Scale_Cd         float64 `json:"scale_Cd"`
+	Years            float64 `json:"years"`
+	FreezingIndex_Cd float64 `json:"freezing_index_Cd"`
 }
 
 // FrostWinter is the simulated frost of one winter year (1 July to 30

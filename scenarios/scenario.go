@@ -53,8 +53,9 @@ type Scenario struct {
 
 	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
 	surfaceFitted  bool
-	surfaceInexact bool    // the fit leaves a residual: the periodic start is only a guess
-	waveDepth      float64 // ground: deepest depth a periodic swing of 0.1 K reaches, m
+	surfaceInexact bool               // the fit leaves a residual: the periodic start is only a guess
+	waveDepth      float64            // ground: deepest depth a periodic swing of 0.1 K reaches, m
+	returnPeriod   *ReturnPeriodIndex // ground from a record: Gumbel fit of its winters
 }
 
 // Side is the boundary on one face of the column.
@@ -166,6 +167,12 @@ type StepResponse struct {
 	Change   float64 // K, the step of the surface temperature
 	Duration float64 // s
 	Line     int
+
+	// ContactTemperature (degC) and ContactEffusivity (W s^0.5/(m2 K)) of
+	// a body touching the surface (a bare foot, a hand), for the contact
+	// temperature; nil/0: not asked.
+	ContactTemperature *float64
+	ContactEffusivity  float64
 }
 
 // Response is the frequency sweep of the periodic analysis.

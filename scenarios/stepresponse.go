@@ -22,6 +22,15 @@ type StepResult struct {
 	FluxAt1s_W_m2              float64 `json:"flux_at_1s_W_m2"`
 	FluxAtEnd_W_m2             float64 `json:"flux_at_end_W_m2"`
 	FluxAtEndHalfSpace_W_m2    float64 `json:"flux_at_end_half_space_W_m2"`
+
+	// Contact of a body with the surface (when asked): the surface's mean
+	// temperature before, and the contact temperature of two
+	// semi-infinite bodies Tc = (b1 T1 + b2 T2)/(b1 + b2) (Carslaw and
+	// Jaeger section 2.15; Incropera section 5.7).
+	SurfaceTemperature_C     float64  `json:"surface_temperature_C,omitempty"`
+	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
+	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`
+	ContactTemperature_C     *float64 `json:"contact_temperature_C,omitempty"`
 }
 
 // stepResponse simulates a step of Change K on the chosen surface (the
@@ -102,6 +111,20 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 		}
 	}
 	out.FluxAtEnd_W_m2 = res.FluxOutside[len(res.FluxOutside)-1]
+	if st.ContactTemperature != nil {
+		// The surface's mean temperature from the steady state of the
+		// scenario's mean forcings.
+		ts, err := surfaceMean(s, col, fromInside)
+		if err != nil {
+			return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+		}
+		bc := st.ContactEffusivity
+		tc := (b*ts + bc**st.ContactTemperature) / (b + bc)
+		out.SurfaceTemperature_C = ts
+		out.ContactBodyTemperature_C = st.ContactTemperature
+		out.ContactBodyEffusivity = bc
+		out.ContactTemperature_C = &tc
+	}
 	r.StepResponse = out
 	return nil
 }
@@ -116,4 +139,32 @@ func reversed(col solver.Column) solver.Column {
 	}
 	c.OutsideResistance, c.InsideResistance = col.InsideResistance, col.OutsideResistance
 	return c
+}
+
+// surfaceMean is the mean temperature of the outside or inside surface
+// (degC) in the steady state of the mean forcings.
+func surfaceMean(s *Scenario, col solver.Column, inside bool) (float64, error) {
+	c := col
+	c.HalfSpace = false
+	x := 0.0
+	if inside {
+		x = c.Thickness()
+	}
+	out := forcingMean(s.surfaceForcing())
+	if s.Inside.Temperature != nil {
+		T, _, err := solver.Steady(c, out, forcingMean(s.Inside.Temperature), []float64{x})
+		if err != nil {
+			return 0, err
+		}
+		return T[0], nil
+	}
+	q := 0.0
+	if s.Inside.Flux {
+		q = s.Inside.HeatFlux
+	}
+	T, err := solver.SteadyWithBottomFlux(c, out, q, []float64{x})
+	if err != nil {
+		return 0, err
+	}
+	return T[0], nil
 }
