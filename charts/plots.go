@@ -373,7 +373,11 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 	y := valueAxisY("Depth (m)", " m", true)
 	y.Scale = opts.Bool(false)
 	y.Min = 0
-	c.SetGlobalOptions(ec.WithXAxisOpts(x), ec.WithYAxisOpts(y))
+	c.SetGlobalOptions(ec.WithXAxisOpts(x), ec.WithYAxisOpts(y),
+		// Zoom in depth: the frost zone is a small part of a deep column.
+		ec.WithDataZoomOpts(
+			opts.DataZoom{Type: "slider", YAxisIndex: 0, Orient: "vertical", Start: 0, End: 100, FilterMode: "none"},
+			opts.DataZoom{Type: "inside", YAxisIndex: 0, FilterMode: "none"}))
 	pos, lo, mid, hi := s.ProfilePosition_m, s.ProfileMin_C, s.ProfileMean_C, s.ProfileMax_C
 	what := "exact periodic solution"
 	if simOK {
@@ -410,7 +414,7 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 		thinned = addLine(c, line{name: "Highest, exact periodic", x: s.ProfileMax_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colVermilion, width: 1, dash: "dotted"}) || thinned
 		thinned = addLine(c, line{name: "Lowest, exact periodic", x: s.ProfileMin_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colBlue, width: 1, dash: "dotted"}) || thinned
 	}
-	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward. Grey dashed lines mark layer boundaries, the dotted line 0 °C and the blue dashed line the simulated maximum frost depth.", thinned)
+	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward; drag the slider on the right or scroll inside the chart to zoom in depth. Grey dashed lines mark layer boundaries, the dotted line 0 °C and the blue dashed line the simulated maximum frost depth.", thinned)
 }
 
 // frostChart: the frozen ground against time (a band from the thaw depth

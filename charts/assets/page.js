@@ -87,7 +87,11 @@ var TSFN = (function () {
       hi.push(api.coord([v[2], v[3]]));
     }
     flush();
-    return {type: 'group', children: polys};
+    // Clip to the plot area: a zoomed axis must not let the band spill
+    // over the axes and the legend.
+    var cs = params.coordSys;
+    return {type: 'group', children: polys,
+      clipPath: {type: 'rect', shape: {x: cs.x, y: cs.y, width: cs.width, height: cs.height}}};
   }
   return {tipX: tip('x'), tipY: tip('y'), band: band};
 }());
