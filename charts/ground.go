@@ -243,15 +243,29 @@ func groundPeriodTables(r *scenarios.Results) []*block {
 	return out
 }
 
-// frostSummary is the frost sentence of the report summary.
-func frostSummary(f *scenarios.Frost) string {
+// frostSummary is the frost sentence of the report summary; sim tells
+// whether a transient simulation ran.
+func frostSummary(f *scenarios.Frost, sim bool) string {
 	idx, from := indexUsed(f)
-	s := fmt.Sprintf("The simulated frost reaches %s m below the surface", fixed(f.MaxFrostDepth_m, 2))
-	if k := deepestWinter(f); k >= 0 && len(f.Winters) > 1 {
-		s += fmt.Sprintf(" at its deepest (%s, %s, of %d winters)", f.Winters[k].Label, f.Winters[k].MaxFrostDate, len(f.Winters))
+	var s string
+	switch {
+	case !sim:
+		s = "No transient simulation was run, so there is no simulated frost depth"
+	case f.MaxFrostDepth_m > 0:
+		s = fmt.Sprintf("The simulated frost reaches %s m below the surface", fixed(f.MaxFrostDepth_m, 2))
+		if k := deepestWinter(f); k >= 0 && len(f.Winters) > 1 {
+			s += fmt.Sprintf(" at its deepest (%s, %s, of %d winters)", f.Winters[k].Label, f.Winters[k].MaxFrostDate, len(f.Winters))
+		}
+	default:
+		s = "The simulated ground does not freeze"
 	}
-	s += fmt.Sprintf(", with an air freezing index of %s per winter. From a surface freezing index of %s (n-factor %s × %s), the Stefan estimate is %s m and the modified Berggren estimate %s m.",
-		cd(f.FreezingIndex_Cd), cd(idx), trimZeros(sig(f.FreezingNFactor, 3)), from, fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2))
+	s += fmt.Sprintf(", with an air freezing index of %s per winter.", cd(f.FreezingIndex_Cd))
+	if f.StefanDepth_m > 0 || f.ModifiedBerggrenDepth_m > 0 {
+		s += fmt.Sprintf(" From a surface freezing index of %s (n-factor %s × %s), the Stefan estimate is %s m and the modified Berggren estimate %s m.",
+			cd(idx), trimZeros(sig(f.FreezingNFactor, 3)), from, fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2))
+	} else {
+		s += " There is no Stefan or modified Berggren estimate (no surface freezing index)."
+	}
 	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
 		s += fmt.Sprintf(" The closed forms use the design air freezing index of %s.", cd(*f.DesignFreezingIndex_Cd))
 	}

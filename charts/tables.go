@@ -51,7 +51,7 @@ func summary(r *scenarios.Results) []string {
 	var out []string
 	if r.Kind == "ground" {
 		if f := r.Frost; f != nil {
-			out = append(out, frostSummary(f))
+			out = append(out, frostSummary(f, r.Simulation != nil))
 		}
 		if g := r.Ground; g != nil && !g.DomainDeepEnough {
 			out = append(out, fmt.Sprintf("The %s m column is shallower than the depth the annual swing reaches (%s m): the deepest temperatures are disturbed by the bottom boundary.",

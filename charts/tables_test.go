@@ -5,6 +5,8 @@ import (
 	"regexp"
 	"strings"
 	"testing"
+
+	"tempstack/scenarios"
 )
 
 // tableRows returns the rows of the table with the given caption as cell
@@ -190,5 +192,31 @@ func TestSurfaceEnvironmentMerged(t *testing.T) {
 	charts, _ = chartData(t, render(t, groundFixture(), Options{}))
 	if n := len(charts[idSimTemp]["series"].([]any)); n != 5 {
 		t.Errorf("%d series in the simulated temperatures, want 5", n)
+	}
+}
+
+func TestFrostSummary(t *testing.T) {
+	f := groundFixture().Frost
+	for _, tc := range []struct {
+		name string
+		edit func(f *scenarios.Frost)
+		sim  bool
+		want []string
+	}{
+		{"frost", func(*scenarios.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 2 winters)",
+			"air freezing index of 420 °C·d", "surface freezing index of 294 °C·d (n-factor 0.7 × air index of the forcing)", "Stefan estimate is 1.21 m"}},
+		{"no simulation", func(*scenarios.Frost) {}, false, []string{"No transient simulation was run"}},
+		{"no frost", func(f *scenarios.Frost) {
+			f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m, f.Winters = 0, 0, 0, nil
+		}, true, []string{"does not freeze", "no Stefan or modified Berggren estimate"}},
+	} {
+		g := *f
+		tc.edit(&g)
+		got := frostSummary(&g, tc.sim)
+		for _, w := range tc.want {
+			if !strings.Contains(got, w) {
+				t.Errorf("%s: summary %q lacks %q", tc.name, got, w)
+			}
+		}
 	}
 }
