@@ -44,6 +44,33 @@
 // display only (each bucket keeps its minimum and maximum); the tables and
 // the CSV output keep full precision.
 //
+// # What the report holds
+//
+// Warnings from the run (counted, before everything else), a plain-words
+// summary, then: the construction or soil column as a drawn cross-section
+// and its tables; the assumptions and inputs the results record (surface
+// resistances, forcing as far as Results carries it, analysis periods,
+// probes, simulation settings, design freezing index); for a ground
+// column the frost depth three ways (simulation, Stefan, modified
+// Berggren) with the freezing index each used, the simulated frost winter
+// by winter and the exact periodic ground temperature at each probe; the
+// ISO 13786 properties; the transient simulation; the step response;
+// methods with their sources; cautions.
+//
+// # The cross-section drawing
+//
+// The layers are drawn as one inline SVG generated here (section.go), not
+// as a chart: to scale, every layer at least 8 px thick (a thinner one is
+// widened and marked *), tinted and hatched by material family so colour
+// is never the only cue. A wall is drawn horizontally, outside on the
+// left; a roof, a floor and a ground column vertically, the ground with
+// its depth axis pointing down, the depth of every boundary, the probes
+// and the simulated maximum frost depth; a deep last ground layer is
+// shortened with a break mark. Every string from the results is escaped
+// with html.EscapeString before it enters the SVG, in text and attributes
+// alike; the SVG has no scripts, links or event attributes, and its
+// pattern fills refer only to its own ids (url(#ts-fam-…)).
+//
 // Output is deterministic: chart ids are fixed, map keys are sorted by
 // encoding/json, and the only time stamp is Options.GeneratedAt, which is
 // empty unless the caller sets it.
