@@ -88,7 +88,7 @@ func parseYAML(file string, data []byte) (*yaml.Node, error) {
 		if errors.Is(err, io.EOF) {
 			return nil, &Error{File: file, Line: 1, Msg: "file is empty (only comments); start from `tempstack new wall`"}
 		}
-		return nil, yamlError(file, err)
+		return nil, yamlError(file, data, err)
 	}
 	var extra yaml.Node
 	if err := dec.Decode(&extra); err == nil {
@@ -151,7 +151,7 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS) (*Scenario, error) {
 
 // yamlError turns a yaml.v3 syntax error ("yaml: line 3: ...") into an
 // *Error with the line split out.
-func yamlError(file string, err error) error {
+func yamlError(file string, data []byte, err error) error {
 	msg := err.Error()
 	msg = strings.TrimPrefix(msg, "yaml: ")
 	line := 0
@@ -162,6 +162,15 @@ func yamlError(file string, err error) error {
 	}
 	if te := (*yaml.TypeError)(nil); errors.As(err, &te) && len(te.Errors) > 0 {
 		msg = te.Errors[0]
+	}
+	if line == 0 {
+		// yaml.v3 gives no line for some errors: an unclosed quote or
+		// bracket runs to the end of the file; others point at the top.
+		line = 1
+		if strings.Contains(msg, "end of stream") {
+			line = bytes.Count(bytes.TrimRight(data, "\n"), []byte("\n")) + 1
+			msg += " (an unclosed quote or bracket?)"
+		}
 	}
 	return &Error{File: file, Line: line, Msg: "not valid YAML: " + msg}
 }
