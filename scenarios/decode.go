@@ -73,7 +73,7 @@ func DecodeFS(file string, data []byte, fsys fs.FS) (*Scenario, error) {
 	if err != nil {
 		return nil, err
 	}
-	return decodeDoc(file, doc, fsys)
+	return decodeDoc(file, doc, fsys, nil)
 }
 
 // parseYAML parses data into its one YAML document node.
@@ -101,8 +101,11 @@ func parseYAML(file string, data []byte) (*yaml.Node, error) {
 }
 
 // decodeDoc decodes the top mapping of a scenario.
-func decodeDoc(file string, root *yaml.Node, fsys fs.FS) (*Scenario, error) {
-	d := &decoder{file: file, fsys: fsys}
+func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*Scenario, error) {
+	if cache == nil {
+		cache = &seriesCache{}
+	}
+	d := &decoder{file: file, fsys: fsys, cache: cache}
 	top, err := d.object(root, "", topKeys)
 	if err != nil {
 		return nil, err
@@ -145,7 +148,10 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS) (*Scenario, error) {
 	if err := d.decodeStudy(top, s); err != nil {
 		return nil, err
 	}
-	s.root, s.fsys = root, fsys
+	s.root, s.fsys, s.cache = root, fsys, cache
+	if err := checkStudy(s); err != nil {
+		return nil, err
+	}
 	return s, nil
 }
 

@@ -8,6 +8,7 @@ import (
 	"path"
 	"path/filepath"
 	"strings"
+	"sync"
 	"time"
 
 	"tempstack/climate"
@@ -99,6 +100,10 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 	}
 	p := path.Clean(filepath.ToSlash(name))
 	shown := filepath.Join(filepath.Dir(d.file), filepath.FromSlash(p))
+	key := fmt.Sprintf("%s|%+v", p, opt)
+	if m := d.cache.get(key); m != nil {
+		return m, nil
+	}
 	f, err := d.fsys.Open(p)
 	if err != nil {
 		msg := "cannot open the series file"
@@ -128,7 +133,38 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 	if err != nil {
 		return nil, o.errKey("column", "%v", err)
 	}
-	return &Measured{File: name, Path: shown, Column: col, Series: ser, at: at}, nil
+	m := &Measured{File: name, Path: shown, Column: col, Series: ser, at: at}
+	d.cache.put(key, m)
+	return m, nil
+}
+
+// seriesCache keeps the records a scenario read, so that the cases of a
+// study (each decoded anew) do not read and parse them again. A Measured
+// is read-only once made, and safe to share between goroutines.
+type seriesCache struct {
+	mu sync.Mutex
+	m  map[string]*Measured
+}
+
+func (c *seriesCache) get(key string) *Measured {
+	if c == nil {
+		return nil
+	}
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	return c.m[key]
+}
+
+func (c *seriesCache) put(key string, m *Measured) {
+	if c == nil {
+		return
+	}
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if c.m == nil {
+		c.m = map[string]*Measured{}
+	}
+	c.m[key] = m
 }
 
 // fitMeasured fits the mean and the annual (when the record spans most of

@@ -18,6 +18,8 @@ type decoder struct {
 	fsys fs.FS // where files named by the scenario are read; nil: none
 
 	extraColumns []string // value columns a series block reads besides its own
+
+	cache *seriesCache // records already read, shared by a study's cases
 }
 
 func (d *decoder) errf(n *yaml.Node, key, format string, args ...any) *Error {

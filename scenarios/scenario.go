@@ -48,8 +48,9 @@ type Scenario struct {
 	// Workers caps the goroutines a study uses (0: one per core).
 	Workers int
 
-	root *yaml.Node // the decoded file, for the study's cases
-	fsys fs.FS      // where the file's series are read
+	root  *yaml.Node   // the decoded file, for the study's cases
+	fsys  fs.FS        // where the file's series are read
+	cache *seriesCache // records read, shared with the study's cases
 
 	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
 	surfaceFitted  bool

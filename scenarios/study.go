@@ -500,6 +500,15 @@ type studyCase []setSpec
 
 // runCase decodes the base file with the replacements and runs it.
 func runCase(s *Scenario, c studyCase) (*Results, error) {
+	cs, err := decodeCase(s, c)
+	if err != nil {
+		return nil, err
+	}
+	return Run(cs, nil)
+}
+
+// decodeCase decodes the base file with the replacements.
+func decodeCase(s *Scenario, c studyCase) (*Scenario, error) {
 	root := cloneNode(s.root)
 	// A case is a plain scenario: drop the study keys.
 	for i := 0; i+1 < len(root.Content); {
@@ -515,11 +524,47 @@ func runCase(s *Scenario, c studyCase) (*Results, error) {
 			return nil, &Error{File: s.File, Line: st.Line, Key: st.Path, Msg: err.Error()}
 		}
 	}
-	cs, err := decodeDoc(s.File, root, s.fsys)
-	if err != nil {
-		return nil, err
+	return decodeDoc(s.File, root, s.fsys, s.cache)
+}
+
+// checkStudy decodes the cases a study will run, without running them, so
+// that `tempstack check` and the start of `run` report a bad variant,
+// path or value with its line: every variant, both ends of a sweep or
+// target range, and every parameter of an uncertainty study at its mean
+// (normal) or both ends (uniform).
+func checkStudy(s *Scenario) error {
+	st := s.Study
+	if st == nil {
+		return nil
 	}
-	return Run(cs, nil)
+	var cases []studyCase
+	for _, v := range st.Variants {
+		cases = append(cases, v.Sets)
+	}
+	at := func(path string, line int, text string) studyCase {
+		return studyCase{{Path: path, Value: scalarAt(text, line, 1), Line: line}}
+	}
+	if sw := st.Sweep; sw != nil {
+		cases = append(cases, at(sw.Parameter, sw.Line, sw.Values[0]), at(sw.Parameter, sw.Line, sw.Values[len(sw.Values)-1]))
+	}
+	if tg := st.Target; tg != nil {
+		cases = append(cases, at(tg.Parameter, tg.Line, joinNumber(tg.From, tg.Unit)), at(tg.Parameter, tg.Line, joinNumber(tg.To, tg.Unit)))
+	}
+	if u := st.Uncertainty; u != nil {
+		for _, v := range u.Vary {
+			if v.Normal {
+				cases = append(cases, at(v.Parameter, u.Line, joinNumber(v.A, v.Unit)))
+			} else {
+				cases = append(cases, at(v.Parameter, u.Line, joinNumber(v.A, v.Unit)), at(v.Parameter, u.Line, joinNumber(v.B, v.Unit)))
+			}
+		}
+	}
+	for _, c := range cases {
+		if _, err := decodeCase(s, c); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // parallel runs fn(0..n-1) on workers goroutines; results land by index,
