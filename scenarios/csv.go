@@ -104,16 +104,18 @@ func table(name string, header []string, rows [][]float64) CSVFile {
 func seriesCSV(r *Results) CSVFile {
 	s := &r.Series
 	out, in := "outside", "inside"
+	envName, surfName, inSurf := "outside_environment_C", "outside_surface_C", "inside_surface_C"
 	if r.Kind == "ground" {
 		out, in = "surface", "bottom"
+		envName, surfName, inSurf = "surface_forcing_C", "ground_surface_C", "bottom_C"
 	}
-	header := []string{"time_h", out + "_environment_C", out + "_surface_C"}
+	header := []string{"time_h", envName, surfName}
 	cols := [][]float64{s.SimTime_h, s.SimOutsideAir_C, s.SimOutsideSurface_C}
 	for j, z := range s.ProbeDepth_m {
 		header = append(header, "probe_"+strconv.FormatFloat(z, 'g', 6, 64)+"m_C")
 		cols = append(cols, s.Probes_C[j])
 	}
-	header = append(header, in+"_surface_C")
+	header = append(header, inSurf)
 	cols = append(cols, s.SimInsideSurface_C)
 	if len(s.SimInsideAir_C) > 0 {
 		header = append(header, in+"_environment_C")
@@ -125,5 +127,26 @@ func seriesCSV(r *Results) CSVFile {
 		header = append(header, "frost_depth_m", "thaw_depth_m")
 		cols = append(cols, s.FrostDepth_m, s.ThawDepth_m)
 	}
-	return table("series.csv", header, columns(cols...))
+	f := table("series.csv", header, columns(cols...))
+	if len(s.SimStamp) == len(s.SimTime_h) && len(s.SimStamp) > 0 {
+		f.Data = prependColumn(f.Data, "time", s.SimStamp)
+	}
+	return f
+}
+
+// prependColumn adds a text column in front of a rendered CSV table.
+func prependColumn(data []byte, name string, values []string) []byte {
+	lines := bytes.Split(bytes.TrimRight(data, "\n"), []byte("\n"))
+	var b bytes.Buffer
+	for i, l := range lines {
+		if i == 0 {
+			b.WriteString(name)
+		} else if i-1 < len(values) {
+			b.WriteString(values[i-1])
+		}
+		b.WriteByte(',')
+		b.Write(l)
+		b.WriteByte('\n')
+	}
+	return b.Bytes()
 }

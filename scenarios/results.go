@@ -245,6 +245,7 @@ type Series struct {
 	// Transient simulation, sampled at the output step. Probes_C[i] belongs
 	// to ProbeDepth_m[i]. Empty when no simulation ran.
 	SimTime_h           []float64
+	SimStamp            []string  // ISO 8601 time of each sample, when the run follows a dated record
 	SimOutsideAir_C     []float64 // outside (surface) environment temperature
 	SimOutsideSurface_C []float64
 	SimInsideSurface_C  []float64

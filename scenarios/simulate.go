@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"time"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -309,8 +310,15 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	r.Simulation = out
 
 	ser := &r.Series
+	var origin time.Time
+	if m := s.Outside.Temperature.Measured; m != nil {
+		origin = m.Series.Start
+	}
 	for k, t := range res.Times {
 		ser.SimTime_h = append(ser.SimTime_h, t/3600)
+		if !origin.IsZero() {
+			ser.SimStamp = append(ser.SimStamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
+		}
 		ser.SimOutsideAir_C = append(ser.SimOutsideAir_C, envAt(s.Outside, t))
 		if s.Inside.Temperature != nil {
 			ser.SimInsideAir_C = append(ser.SimInsideAir_C, envAt(s.Inside, t))
