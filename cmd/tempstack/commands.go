@@ -6,8 +6,11 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
+	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"text/tabwriter"
 
@@ -78,6 +81,7 @@ func runCommand() *cli.Command {
 			&cli.StringFlag{Name: "out", Aliases: []string{"o"}, Value: "out", Usage: "output `DIR` (created if missing)"},
 			exampleFlag(),
 			&cli.BoolFlag{Name: "quiet", Aliases: []string{"q"}, Usage: "print nothing on success"},
+			&cli.BoolFlag{Name: "force", Usage: "write into a non-empty --out folder that holds no earlier results.json"},
 		},
 		OnUsageError: usageError,
 		Action: func(c *cli.Context) error {
@@ -85,11 +89,15 @@ func runCommand() *cli.Command {
 			if err != nil {
 				return err
 			}
+			dir := c.String("out")
+			// Refuse an unusable folder before a long run, not after it.
+			if err := checkOutDir(dir, c.Bool("force")); err != nil {
+				return err
+			}
 			res, err := scenarios.Run(s, progressFor(c.App.ErrWriter))
 			if err != nil {
 				return asUserError(err)
 			}
-			dir := c.String("out")
 			written, err := writeOutputs(dir, res)
 			if err != nil {
 				return err
@@ -99,22 +107,135 @@ func runCommand() *cli.Command {
 				for _, w := range written {
 					fmt.Fprintf(c.App.Writer, "wrote %s\n", w)
 				}
+				for _, old := range leftovers(dir, written) {
+					fmt.Fprintf(c.App.Writer, "kept %s from an earlier run (this run does not produce it)\n", old)
+				}
 			}
 			return nil
 		},
 	}
 }
 
-// writeOutputs writes every output file of a run into dir. Each file is
-// written to a temporary file in dir and renamed into place only when
-// complete, so a failure never leaves a half-written file.
+// checkOutDir applies the safety rule of the output folder: it is created
+// when missing; an existing folder must be empty, or hold a results.json
+// of an earlier run (whose files are then replaced one by one), unless
+// force is set. It never deletes anything. A path that is a file, or a
+// folder that cannot be created or written, is a user error.
+func checkOutDir(dir string, force bool) error {
+	if dir == "" {
+		return userErr("--out needs a folder name")
+	}
+	fi, err := os.Stat(dir)
+	switch {
+	case err == nil && !fi.IsDir():
+		return userErr("output folder %s is a file; give --out a folder", dir)
+	case err != nil && !errors.Is(err, fs.ErrNotExist):
+		return userErr("cannot use output folder %s: %v", dir, cleanPathError(err))
+	case err != nil:
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return userErr("cannot create output folder %s: %v", dir, cleanPathError(err))
+		}
+		return probeWritable(dir)
+	}
+	entries, err := os.ReadDir(dir)
+	if err != nil {
+		return userErr("cannot read output folder %s: %v", dir, cleanPathError(err))
+	}
+	var others int
+	previous := false
+	for _, e := range entries {
+		switch {
+		case e.Name() == "results.json" && e.Type().IsRegular():
+			previous = true
+		case isTempName(e.Name()):
+			// A temporary file of an interrupted earlier run.
+		default:
+			others++
+		}
+	}
+	if others > 0 && !previous && !force {
+		return userErr("output folder %s is not empty and holds no results.json of an earlier run; "+
+			"choose a new or empty folder, or add --force to write beside its files", dir)
+	}
+	return probeWritable(dir)
+}
+
+// probeWritable checks that a file can be created in dir, so that a long
+// run does not end in a folder it cannot write.
+func probeWritable(dir string) error {
+	f, err := os.CreateTemp(dir, ".tempstack-probe.*.tmp")
+	if err != nil {
+		return userErr("cannot write in output folder %s: %v", dir, cleanPathError(err))
+	}
+	name := f.Name()
+	f.Close()
+	os.Remove(name) // our own empty probe file
+	return nil
+}
+
+// cleanPathError drops the operation and path that os errors repeat, since
+// messages already name the folder.
+func cleanPathError(err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
+}
+
+// isTempName reports whether name is a temporary file that writeFileAtomic
+// or probeWritable creates (".NAME.RANDOM.tmp").
+func isTempName(name string) bool {
+	return strings.HasPrefix(name, ".") && strings.HasSuffix(name, ".tmp")
+}
+
+// leftovers lists output-like files (.csv, .json, .html) in dir that this
+// run did not write: files of an earlier run that are kept (never deleted)
+// but no longer match the new results.
+func leftovers(dir string, written []string) []string {
+	entries, err := os.ReadDir(dir)
+	if err != nil {
+		return nil
+	}
+	done := map[string]bool{}
+	for _, w := range written {
+		done[filepath.Base(w)] = true
+	}
+	var out []string
+	for _, e := range entries {
+		n := e.Name()
+		if done[n] || strings.HasPrefix(n, ".") || !e.Type().IsRegular() {
+			continue
+		}
+		switch filepath.Ext(n) {
+		case ".csv", ".json", ".html":
+			out = append(out, filepath.Join(dir, n))
+		}
+	}
+	return out
+}
+
+// writeOutputs writes every output file of a run into dir. Every file is
+// first built in memory, then written in full to a temporary file in dir
+// (".NAME.RANDOM.tmp") and synced; only when all of them are on disk are
+// they renamed over the final names. A failure before that point removes
+// the temporary files and leaves every earlier file in dir untouched; a
+// process killed before it leaves the earlier files intact too (at worst
+// with a hidden temporary file beside them, never a half-written output).
 func writeOutputs(dir string, res *scenarios.Results) ([]string, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return nil, userErr("cannot create output folder: %v", err)
+		return nil, userErr("cannot create output folder %s: %v", dir, cleanPathError(err))
 	}
-	var files []struct {
+	type file struct {
 		name string
 		data []byte
+	}
+	var files []file
+	if at := nonFinite(reflect.ValueOf(res), ""); at != "" {
+		// results.json cannot hold NaN or infinity, and a chart of one is
+		// blank: refuse, naming the value, and write nothing.
+		return nil, cli.Exit(fmt.Sprintf("internal error: the result %s is not a finite number (NaN or infinity); "+
+			"nothing was written (please report this with the scenario file)", at), 2)
 	}
 	js, err := json.MarshalIndent(res, "", "  ")
 	if err != nil {
@@ -125,39 +246,129 @@ func writeOutputs(dir string, res *scenarios.Results) ([]string, error) {
 	if err := charts.Write(&html, res, charts.Options{ToolVersion: version}); err != nil {
 		return nil, fmt.Errorf("building report.html: %w", err)
 	}
-	files = append(files,
-		struct {
-			name string
-			data []byte
-		}{"results.json", js},
-		struct {
-			name string
-			data []byte
-		}{"report.html", html.Bytes()},
-	)
+	files = append(files, file{"results.json", js}, file{"report.html", html.Bytes()})
 	for _, extra := range scenarios.CSVFiles(res) {
-		files = append(files, struct {
-			name string
-			data []byte
-		}{extra.Name, extra.Data})
+		files = append(files, file{extra.Name, extra.Data})
+	}
+	for _, f := range files {
+		// A folder in the way would fail the renames half-way: refuse first.
+		p := filepath.Join(dir, f.name)
+		if fi, err := os.Lstat(p); err == nil && !fi.Mode().IsRegular() {
+			return nil, userErr("cannot write %s: something other than a file has that name", p)
+		}
+	}
+	var staged []string
+	cleanup := func() {
+		for _, tmp := range staged {
+			os.Remove(tmp)
+		}
+	}
+	for _, f := range files {
+		tmp, err := writeTemp(filepath.Join(dir, f.name), f.data)
+		if err != nil {
+			cleanup()
+			return nil, err
+		}
+		staged = append(staged, tmp)
 	}
 	var written []string
-	for _, f := range files {
+	for i, f := range files {
 		p := filepath.Join(dir, f.name)
-		if err := writeFileAtomic(p, f.data); err != nil {
-			return written, err
+		if err := os.Rename(staged[i], p); err != nil {
+			staged = staged[i:]
+			cleanup()
+			return written, userErr("cannot write %s: %v", p, cleanPathError(err))
 		}
 		written = append(written, p)
 	}
+	syncDir(dir)
 	return written, nil
 }
 
 // writeFileAtomic writes data to a temporary file beside path and renames
 // it over path once it is complete and synced.
 func writeFileAtomic(path string, data []byte) error {
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
+	tmp, err := writeTemp(path, data)
 	if err != nil {
-		return userErr("cannot write in %s: %v", filepath.Dir(path), err)
+		return err
+	}
+	if err := os.Rename(tmp, path); err != nil {
+		os.Remove(tmp)
+		return userErr("cannot write %s: %v", path, cleanPathError(err))
+	}
+	syncDir(filepath.Dir(path))
+	return nil
+}
+
+// nonFinite returns the JSON path (e.g. "periodic[0].decrement_factor") of
+// the first NaN or infinite number that encoding v as JSON would meet, or
+// "" when there is none.
+func nonFinite(v reflect.Value, path string) string {
+	switch v.Kind() {
+	case reflect.Pointer, reflect.Interface:
+		if v.IsNil() {
+			return ""
+		}
+		return nonFinite(v.Elem(), path)
+	case reflect.Float32, reflect.Float64:
+		if f := v.Float(); math.IsNaN(f) || math.IsInf(f, 0) {
+			if path == "" {
+				return "(top level)"
+			}
+			return path
+		}
+	case reflect.Slice, reflect.Array:
+		for i := 0; i < v.Len(); i++ {
+			if at := nonFinite(v.Index(i), fmt.Sprintf("%s[%d]", path, i)); at != "" {
+				return at
+			}
+		}
+	case reflect.Map:
+		iter := v.MapRange()
+		for iter.Next() {
+			if at := nonFinite(iter.Value(), fmt.Sprintf("%s[%v]", path, iter.Key())); at != "" {
+				return at
+			}
+		}
+	case reflect.Struct:
+		t := v.Type()
+		for i := 0; i < t.NumField(); i++ {
+			f := t.Field(i)
+			if !f.IsExported() {
+				continue
+			}
+			name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
+			if name == "-" {
+				continue
+			}
+			if name == "" {
+				name = f.Name
+			}
+			p := name
+			if f.Anonymous && f.Tag.Get("json") == "" {
+				p = strings.TrimSuffix(path, ".")
+			} else if path != "" {
+				p = path + "." + name
+			}
+			if at := nonFinite(v.Field(i), p); at != "" {
+				return at
+			}
+		}
+	}
+	return ""
+}
+
+// createTemp creates the temporary files of writeTemp; tests replace it to
+// make a write fail part-way.
+var createTemp = os.CreateTemp
+
+// writeTemp writes data in full to a new temporary file beside path
+// (".BASE.RANDOM.tmp", mode 0644), syncs and closes it, and returns its
+// name. On failure nothing is left behind.
+func writeTemp(path string, data []byte) (string, error) {
+	tmp, err := createTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
+	if err != nil {
+		return "", userErr("cannot write in %s: %v", filepath.Dir(path), cleanPathError(err))
 	}
 	name := tmp.Name()
 	_, werr := tmp.Write(data)
@@ -165,17 +376,22 @@ func writeFileAtomic(path string, data []byte) error {
 	cerr := tmp.Close()
 	if err := errors.Join(werr, serr, cerr); err != nil {
 		os.Remove(name)
-		return userErr("cannot write %s: %v", path, err)
+		return "", userErr("cannot write %s: %v", path, err)
 	}
 	if err := os.Chmod(name, 0o644); err != nil {
 		os.Remove(name)
-		return userErr("cannot write %s: %v", path, err)
+		return "", userErr("cannot write %s: %v", path, cleanPathError(err))
 	}
-	if err := os.Rename(name, path); err != nil {
-		os.Remove(name)
-		return userErr("cannot write %s: %v", path, err)
+	return name, nil
+}
+
+// syncDir flushes the folder entry of renamed files to disk where the
+// system allows it (best effort: not every platform can sync a folder).
+func syncDir(dir string) {
+	if d, err := os.Open(dir); err == nil {
+		d.Sync()
+		d.Close()
 	}
-	return nil
 }
 
 func checkCommand() *cli.Command {
