@@ -86,8 +86,12 @@ func newApp(stdout, stderr io.Writer) *cli.App {
 			newCommand(),
 			examplesCommand(),
 			indicesCommand(),
+			completionCommand(),
 		},
 		HideHelpCommand: false,
+
+		// `--generate-bash-completion` lists what may follow (completion.go).
+		EnableBashCompletion: true,
 	}
 	app.Before = func(c *cli.Context) error {
 		if name := c.Args().First(); name != "" && app.Command(name) == nil && name != "help" && name != "h" {
@@ -106,8 +110,8 @@ func usageError(c *cli.Context, err error, _ bool) error {
 // so that `tempstack run wall.yaml --out dir` works as users expect
 // (urfave/cli v2 stops flag parsing at the first positional argument).
 func hoistFlags(args []string, app *cli.App) []string {
-	if len(args) < 3 {
-		return args
+	if len(args) < 3 || args[len(args)-1] == "--generate-bash-completion" {
+		return args // too short, or a shell completion request (kept as typed)
 	}
 	cmd := app.Command(args[1])
 	if cmd == nil {
