@@ -27,7 +27,18 @@ func indexUsed(f *scenarios.Frost) (float64, string) {
 	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
 		return n * *f.DesignFreezingIndex_Cd, "design air index"
 	}
+	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
+		return f.SurfaceFreezingIndex_Cd, "air index of the record, " + strings.TrimSpace(rec)
+	}
 	return f.SurfaceFreezingIndex_Cd, "air index of the forcing"
+}
+
+// airIndexLabel names the air freezing index f.FreezingIndex_Cd holds.
+func airIndexLabel(f *scenarios.Frost) string {
+	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
+		return "Air freezing index of the record (" + strings.TrimSpace(rec) + ")"
+	}
+	return "Air freezing index of the forcing (one winter)"
 }
 
 // cd formats a freezing or thawing index in °C·d.
@@ -97,11 +108,15 @@ func freezingIndexTable(r *scenarios.Results) *block {
 	}
 	t := newTable("Freezing index and frost climate", []string{"Quantity", "Value"}, "text")
 	if f.IndexSource != "" || f.FreezingIndex_Cd > 0 {
-		t.row("Air freezing index of the forcing (one winter)", cd(f.FreezingIndex_Cd))
+		t.row(airIndexLabel(f), cd(f.FreezingIndex_Cd))
+	}
+	if rp := f.ReturnPeriod; rp != nil {
+		t.row(fmt.Sprintf("Air freezing index with a %s-year return period", fixed(rp.Years, 0)),
+			fmt.Sprintf("%s (%s fitted to %d complete winters: location %s, scale %s)", cd(rp.FreezingIndex_Cd), rp.Method, rp.Winters, cd(rp.Location_Cd), cd(rp.Scale_Cd)))
 	}
 	t.row("Freezing n-factor (surface / air freezing index)", trimZeros(sig(f.FreezingNFactor, 3)))
 	if f.SurfaceFreezingIndex_Cd > 0 {
-		t.row("Surface freezing index of the forcing (n × air)", cd(f.SurfaceFreezingIndex_Cd))
+		t.row("Surface freezing index (n × air)", cd(f.SurfaceFreezingIndex_Cd))
 	}
 	if d := f.DesignFreezingIndex_Cd; d != nil {
 		t.row("Design air freezing index", cd(*d))
@@ -131,8 +146,15 @@ func winterTable(r *scenarios.Results) *block {
 			}
 		}
 	}
+	closed := false
+	for _, w := range f.Winters {
+		closed = closed || w.StefanDepth_m > 0 || w.ModifiedBerggrenDepth_m > 0
+	}
 	head := []string{"Winter", "Days (from–to)", "Air freezing index (°C·d)", "Air thawing index (°C·d)", "Max frost depth (m)", "Reached on", "Max thaw depth (m)", "Active layer (m)"}
 	align := []string{"text", "text", "", "", "", "text"}
+	if closed {
+		head = append(head, "Stefan (m)", "Modified Berggren (m)")
+	}
 	for _, z := range depths {
 		head = append(head, "Frozen days at "+fixed(z, 2)+" m")
 	}
@@ -154,6 +176,9 @@ func winterTable(r *scenarios.Results) *block {
 		}
 		cells := []string{label, fixed(w.Start_d, 0) + "–" + fixed(w.End_d, 0), fixed(w.AirFreezingIndex_Cd, 0), fixed(w.AirThawingIndex_Cd, 0),
 			fixed(w.MaxFrostDepth_m, 2), on, fixed(w.MaxThawDepth_m, 2), active}
+		if closed {
+			cells = append(cells, posFixed(w.StefanDepth_m, 2), posFixed(w.ModifiedBerggrenDepth_m, 2))
+		}
 		for _, z := range depths {
 			d := dash
 			for _, p := range w.FrozenDays {
@@ -167,10 +192,22 @@ func winterTable(r *scenarios.Results) *block {
 	}
 	t.Notes = append(t.Notes,
 		"A winter year runs from 1 July to 30 June; days count from 1 January of the first simulated year. Frozen days: time the probe spent at or below its freezing point. Max thaw depth: deepest thaw from the surface while frost remained below. Active layer: the depth that thaws each summer, given only when frost outlasts the whole winter year (permafrost).")
+	if closed {
+		t.Notes = append(t.Notes, "Stefan and modified Berggren: the closed forms from that winter's own surface freezing index, beside the simulated depth.")
+	}
 	if partial {
 		t.Notes = append(t.Notes, "A partial winter is cut by the start or the end of the run: its indices, depths and frozen days cover only part of the season and are not comparable with a whole winter.")
 	}
 	return &block{Table: t}
+}
+
+// posFixed formats a positive value with d decimals; zero or less is a
+// dash (not computed).
+func posFixed(v float64, d int) string {
+	if !(v > 0) || !finite(v) {
+		return dash
+	}
+	return fixed(v, d)
 }
 
 func containsDepth(v []float64, z float64) bool {

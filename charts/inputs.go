@@ -12,7 +12,12 @@ import (
 // the forcing as far as the results carry it, the analysis and the
 // simulation settings), so that a reader can see what the numbers rest
 // on without the scenario file.
-func inputsTable(r *scenarios.Results) *block {
+func inputsTable(r *scenarios.Results) *block { return inputsBlocks(r)[0] }
+
+// inputsBlocks is the inputs table followed, when a measured series had
+// gaps, by the table of the gaps bridged.
+func inputsBlocks(r *scenarios.Results) []*block {
+	var gaps *block
 	ground := r.Kind == "ground"
 	t := newTable("Assumptions and inputs of this run", []string{"Input", "Value"}, "text", "text")
 	res := func(v float64) string {
@@ -57,6 +62,7 @@ func inputsTable(r *scenarios.Results) *block {
 			t.row("Inside environment temperature over the same cycle", rangeText(c.CycleTime_h, c.CycleInsideAir_C))
 		}
 	}
+	gaps = recordRows(t, r)
 	if f := r.Frost; f != nil {
 		if d := f.DesignFreezingIndex_Cd; d != nil {
 			t.row("Design air freezing index", cd(*d)+" (used by Stefan and modified Berggren)")
@@ -107,13 +113,21 @@ func inputsTable(r *scenarios.Results) *block {
 		}
 		t.row("Finite-volume cells", fmt.Sprint(sim.Cells))
 		if sim.SpinUpCycles > 0 {
-			t.row("Spin-up before recording", fmt.Sprintf("%d cycles; the last changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2)))
+			v := fmt.Sprintf("%d cycles; the last changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2))
+			if sim.SpinUpTolerance_K > 0 {
+				if sim.SpinUpConverged {
+					v += fmt.Sprintf(" (converged: within %s K)", sig(sim.SpinUpTolerance_K, 2))
+				} else {
+					v += fmt.Sprintf(" (NOT converged: the target is %s K; the first simulated cycle carries some start-up error)", sig(sim.SpinUpTolerance_K, 2))
+				}
+			}
+			t.row("Spin-up before recording", v)
 		} else {
 			t.row("Spin-up before recording", "none")
 		}
 	}
 	t.Notes = append(t.Notes, "Material properties and their sources are in the layer table; the methods are listed at the end of the report.")
-	return &block{Table: t}
+	return []*block{{Table: t}, gaps}
 }
 
 // rangeText describes the range of a temperature series v sampled at

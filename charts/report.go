@@ -187,7 +187,16 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	add(&cons, &block{Table: layerTable(r)}, frozenTable(r), steadyTable(r))
 
 	inputs := section{ID: "inputs", Heading: "Assumptions and inputs"}
-	add(&inputs, inputsTable(r))
+	add(&inputs, inputsBlocks(r)...)
+
+	study := section{ID: "study", Heading: "Options and studies"}
+	if f := variantsFigure(r); f != nil {
+		add(&study, &block{Figure: f})
+	}
+	add(&study, variantsTable(r), sweepTable(r))
+	add(&study, targetBlock(r)...)
+	add(&study, uncertaintyTables(r)...)
+	add(&study, fitTables(r)...)
 
 	// Frost and ground temperatures come first for a ground column.
 	var frost, groundT *section
@@ -222,7 +231,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		return nil, nil, firstErr
 	}
 
-	for _, s := range []*section{&cons, &inputs, frost, groundT, &per, sim, step} {
+	for _, s := range []*section{&cons, &inputs, &study, frost, groundT, &per, sim, step} {
 		if s != nil && len(s.Blocks) > 0 {
 			p.Sections = append(p.Sections, *s)
 		}

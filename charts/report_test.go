@@ -639,7 +639,7 @@ func TestSelfContained(t *testing.T) {
 		t.Error("the page names a network address")
 	}
 	// The drawing's fills refer to its own patterns; no other url().
-	own = regexp.MustCompile(`url\(#ts-fam-[a-z]+\)`).ReplaceAllString(own, "")
+	own = regexp.MustCompile(`url\(#ts-[a-z0-9]+-[a-z]+\)`).ReplaceAllString(own, "")
 	for _, re := range []string{`(?i)\b(src|href|action|poster|srcset|xlink:href)\s*=\s*["']?\s*(https?:)?//`, `(?i)@import`, `(?i)url\(`, `\bfetch\(`, `XMLHttpRequest`, `\bimport\(`, `(?i)<link\b`} {
 		if regexp.MustCompile(re).MatchString(own) {
 			t.Errorf("the page matches %s", re)

@@ -5,6 +5,7 @@ import (
 	"html"
 	"html/template"
 	"math"
+	"sort"
 	"strings"
 
 	"tempstack/layers"
@@ -131,23 +132,18 @@ type span struct {
 }
 
 // layout places the layers along a stack of length total px. Every layer
-// is drawn at least minLayerPx thick; the rest keep one common scale.
-// When breakLast is set and the last layer is more than twice as thick as
-// all the others together, it is shortened to a quarter of the length and
-// drawn with a break mark. A layer without thickness (a half-space at the
-// bottom of a ground column) gets a fifth of the length.
-func layout(ls []scenarios.Layer, total float64, breakLast bool) []span {
+// is drawn at least minLayerPx thick; the rest keep one common scale. A
+// last layer without thickness (a half-space) gets a fifth of the length.
+func layout(ls []scenarios.Layer, total float64) []span {
 	n := len(ls)
 	sp := make([]span, n)
 	if n == 0 {
 		return sp
 	}
 	th := make([]float64, n)
-	sum := 0.0
 	for i, l := range ls {
 		if l.Thickness_m > 0 && finite(l.Thickness_m) {
 			th[i] = l.Thickness_m
-			sum += th[i]
 		}
 	}
 	avail := total
@@ -157,12 +153,6 @@ func layout(ls []scenarios.Layer, total float64, breakLast bool) []span {
 		sp[last].halfSpace = true
 		fixedPx[last] = total / 5
 		avail -= fixedPx[last]
-	}
-	if breakLast && n > 1 && th[last] > 0 && th[last] > 2*(sum-th[last]) {
-		sp[last].broken = true
-		fixedPx[last] = total / 4
-		avail -= fixedPx[last]
-		sum -= th[last]
 	}
 	for i := range th {
 		if th[i] == 0 && fixedPx[i] == 0 {
@@ -220,36 +210,141 @@ func layout(ls []scenarios.Layer, total float64, breakLast bool) []span {
 	return sp
 }
 
-// depthToPx maps a depth (m from the outside or surface) to the drawn
-// position along the stack, linearly inside each layer, so that a mark
-// lands in the right layer even where the drawing is not to scale.
-// Depths below the last layer's top in a half-space map over an assumed
-// span of the half-space equal to the column depth (at least 1 m).
-func depthToPx(ls []scenarios.Layer, sp []span, z float64) float64 {
-	top := 0.0
+// depthScale maps depth below the surface (m) to drawn position (px
+// along the stack), piecewise linearly through knots. Above cut the
+// drawing is to one scale (thin layers widened); below it, when cut > 0,
+// the rest of the column is compressed behind a break mark.
+type depthScale struct {
+	z, px []float64
+	cut   float64
+}
+
+// at returns the drawn position of depth z, clamped to the column.
+func (d depthScale) at(z float64) float64 {
+	n := len(d.z)
+	if n == 0 {
+		return 0
+	}
+	if z <= d.z[0] {
+		return d.px[0]
+	}
+	for i := 1; i < n; i++ {
+		if z <= d.z[i] {
+			f := (z - d.z[i-1]) / (d.z[i] - d.z[i-1])
+			return d.px[i-1] + f*(d.px[i]-d.px[i-1])
+		}
+	}
+	return d.px[n-1]
+}
+
+// interestDepth is the depth a ground drawing must show to scale: the
+// deepest probe, simulated frost depth or closed-form estimate, with a
+// margin of 30 %; 0 when there is none.
+func interestDepth(r *scenarios.Results) float64 {
+	d := 0.0
+	for _, z := range probeDepths(r) {
+		d = math.Max(d, z)
+	}
+	if f := r.Frost; f != nil {
+		for _, z := range []float64{f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m} {
+			if finite(z) {
+				d = math.Max(d, z)
+			}
+		}
+	}
+	return 1.3 * d
+}
+
+// groundLayout places the layers of a ground column along length px.
+// When the column reaches more than 1.6 times the depth of interest, the
+// top down to that depth takes 78 % of the length to one scale and the
+// rest is compressed below a break; otherwise the whole column is to one
+// scale. Layers thinner than minLayerPx are widened either way. A
+// half-space at the bottom is drawn down to 1.5 times the depth of
+// interest (at least 1 m below the last boundary).
+func groundLayout(ls []scenarios.Layer, length, interest float64) ([]span, depthScale) {
+	n := len(ls)
+	sp := make([]span, n)
+	bounds := []float64{0}
 	for i, l := range ls {
 		t := l.Thickness_m
 		if !(t > 0) || !finite(t) {
-			if sp[i].halfSpace {
-				t = math.Max(top, 1)
+			if i == n-1 && n > 1 {
+				sp[i].halfSpace = true
+				last := bounds[len(bounds)-1]
+				t = math.Max(1.5*interest, last+1) - last
 			} else {
 				t = 0
 			}
 		}
-		if z <= top+t || i == len(ls)-1 {
-			f := 0.0
-			if t > 0 {
-				f = math.Min(math.Max((z-top)/t, 0), 1)
-			}
-			return sp[i].at + f*sp[i].size
-		}
-		top += t
+		bounds = append(bounds, bounds[len(bounds)-1]+t)
 	}
-	return 0
+	end := bounds[n]
+	cut := 0.0
+	if interest > 0 && end > 1.6*interest {
+		cut = interest
+	}
+	// Intervals between knots: the boundaries, and the cut.
+	var knots []float64
+	for _, z := range bounds {
+		if cut > 0 && z > cut && (len(knots) == 0 || knots[len(knots)-1] < cut) {
+			knots = append(knots, cut)
+		}
+		if len(knots) == 0 || z > knots[len(knots)-1] || z == 0 {
+			knots = append(knots, z)
+		}
+	}
+	// Lay the intervals above and below the cut out separately.
+	upLen, downLen := length, 0.0
+	if cut > 0 {
+		upLen, downLen = 0.78*length, 0.22*length
+	}
+	var up, down []scenarios.Layer
+	for i := 1; i < len(knots); i++ {
+		iv := scenarios.Layer{Thickness_m: knots[i] - knots[i-1]}
+		if cut > 0 && knots[i] > cut {
+			down = append(down, iv)
+		} else {
+			up = append(up, iv)
+		}
+	}
+	px := []float64{0}
+	wide := make([]bool, 0, len(knots))
+	for _, part := range []struct {
+		ivs []scenarios.Layer
+		len float64
+	}{{up, upLen}, {down, downLen}} {
+		if len(part.ivs) == 0 {
+			continue
+		}
+		base := px[len(px)-1]
+		for _, s := range layout(part.ivs, part.len) {
+			px = append(px, base+s.at+s.size)
+			wide = append(wide, s.widened)
+		}
+	}
+	scale := depthScale{z: knots, px: px, cut: cut}
+	for i := range ls {
+		a, b := scale.at(bounds[i]), scale.at(bounds[i+1])
+		sp[i].at, sp[i].size = a, b-a
+		for k := 1; k < len(knots); k++ {
+			if knots[k-1] >= bounds[i] && knots[k] <= bounds[i+1] && wide[k-1] {
+				sp[i].widened = true
+			}
+		}
+		if cut > 0 && cut > bounds[i] && cut < bounds[i+1] {
+			sp[i].broken = true
+		}
+	}
+	return sp, scale
 }
 
-// svgWriter collects SVG markup.
-type svgWriter struct{ strings.Builder }
+// svgWriter collects SVG markup. idp prefixes the ids of its hatching
+// patterns, so that two drawings on one page never share an id.
+type svgWriter struct {
+	strings.Builder
+	idp string
+}
 
 func (w *svgWriter) f(format string, a ...any) { fmt.Fprintf(&w.Builder, format, a...) }
 
@@ -270,8 +365,8 @@ func (w *svgWriter) patterns(fams []string, rotate bool) {
 		if rotate {
 			tr = ` patternTransform="rotate(90)"`
 		}
-		w.f(`<pattern id="ts-fam-%s" width="8" height="8" patternUnits="userSpaceOnUse"%s><rect width="8" height="8" fill="%s"/><g fill="%s" stroke="%s">%s</g></pattern>`,
-			famID(f), tr, st.fill, st.ink, st.ink, st.hatch)
+		w.f(`<pattern id="%s%s" width="8" height="8" patternUnits="userSpaceOnUse"%s><rect width="8" height="8" fill="%s"/><g fill="%s" stroke="%s">%s</g></pattern>`,
+			w.prefix(), famID(f), tr, st.fill, st.ink, st.ink, st.hatch)
 	}
 	w.f(`</defs>`)
 }
@@ -284,12 +379,20 @@ func famID(f string) string {
 	return f
 }
 
+// prefix is the id prefix of the writer's patterns.
+func (w *svgWriter) prefix() string {
+	if w.idp == "" {
+		return "ts-fam-"
+	}
+	return w.idp
+}
+
 // fill returns the fill of a family: its pattern, or its plain tint.
-func fill(f string) string {
+func (w *svgWriter) fill(f string) string {
 	if familyStyles[f].hatch == "" {
 		return familyStyles[f].fill
 	}
-	return "url(#ts-fam-" + famID(f) + ")"
+	return "url(#" + w.prefix() + famID(f) + ")"
 }
 
 // usedFamilies lists the families of ls in legend order, and the family
@@ -327,7 +430,7 @@ func (w *svgWriter) legend(used []string, x, y, right float64) float64 {
 		if f == layers.FamilyAir || f == "" {
 			dash = ` stroke-dasharray="3 2"`
 		}
-		w.f(`<rect x="%s" y="%s" width="14" height="14" fill="%s" stroke="#57606A" stroke-width="0.8"%s/>`, svgNum(cx), svgNum(cy-11), fill(f), dash)
+		w.f(`<rect x="%s" y="%s" width="14" height="14" fill="%s" stroke="#57606A" stroke-width="0.8"%s/>`, svgNum(cx), svgNum(cy-11), w.fill(f), dash)
 		w.text(cx+20, cy, "start", "lg", st.label)
 		cx += wd
 	}
@@ -378,7 +481,7 @@ func (w *svgWriter) drawLayer(x, y, wd, ht float64, fam, title string) {
 		dash = ` stroke-dasharray="3 2"`
 	}
 	w.f(`<rect x="%s" y="%s" width="%s" height="%s" fill="%s" stroke="#57606A" stroke-width="0.8"%s><title>%s</title></rect>`,
-		svgNum(x), svgNum(y), svgNum(wd), svgNum(ht), fill(fam), dash, esc(title))
+		svgNum(x), svgNum(y), svgNum(wd), svgNum(ht), w.fill(fam), dash, esc(title))
 }
 
 // sectionNotes returns the notes on what is not to scale.
@@ -394,7 +497,7 @@ func sectionNotes(kind string, sp []span) []string {
 		notes = append(notes, fmt.Sprintf("Layers marked * are thinner than can be drawn to scale and are drawn %g px thick.", minLayerPx))
 	}
 	if broken {
-		notes = append(notes, "The deepest layer is shortened (break mark ≈); depths are written at each boundary and at each mark.")
+		notes = append(notes, "Below the break mark (≈) the column is drawn compressed, not to scale; depths are written at each boundary, at the break and at each mark.")
 	}
 	if half {
 		notes = append(notes, "The last layer continues downward without end (half-space).")
@@ -413,7 +516,7 @@ func wallSection(r *scenarios.Results) *figure {
 	)
 	ls := r.Layers
 	length := svgWidth - left - right
-	sp := layout(ls, length, false)
+	sp := layout(ls, length)
 	used, of := usedFamilies(r.Kind, ls)
 	rowsTop := top + slabH + 26
 	legendY := rowsTop + rowH*float64(len(ls)) + 18
@@ -526,7 +629,13 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 	for k, i := range order {
 		drawn[k] = ls[i]
 	}
-	sp := layout(drawn, length, ground)
+	var sp []span
+	var scale depthScale
+	if ground {
+		sp, scale = groundLayout(drawn, length, interestDepth(r))
+	} else {
+		sp = layout(drawn, length)
+	}
 	used, ofDrawn := usedFamilies(r.Kind, drawn)
 	var body svgWriter
 	light := shaded(ofDrawn)
@@ -535,9 +644,6 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 		body.drawLayer(stackX, top+s.at, stackW, s.size, ofDrawn[k], layerTitle(r.Kind, i, ls[i], ofDrawn[k]))
 		if light[k] {
 			body.lighten(stackX, top+s.at, stackW, s.size)
-		}
-		if s.broken {
-			body.breakMark(stackX, top+s.at+s.size/2, stackW)
 		}
 		if s.halfSpace {
 			// Fade out: no bottom edge.
@@ -580,7 +686,11 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 	}
 	if ground {
 		body.f(`<path d="M%s %sh%s" stroke="#1F2328" stroke-width="2"/>`, svgNum(stackX-10), svgNum(top), svgNum(stackW+20))
-		groundMarks(&body, r, drawn, sp, stackX, stackW, top, length)
+		if scale.cut > 0 {
+			y := top + scale.at(scale.cut)
+			body.breakMark(stackX, y+math.Min(12, (top+length-y)/3), stackW)
+		}
+		groundMarks(&body, r, drawn, sp, scale, stackX, stackW, top, length)
 	} else {
 		// Depth of each boundary from the outside on the left.
 		rse, rsi := r.Steady.OutsideSurfaceResistance, r.Steady.InsideSurfaceResistance
@@ -656,18 +766,22 @@ func (w *svgWriter) lighten(x, y, wd, ht float64) {
 
 // groundMarks draws the depth axis (the depth of every boundary), the
 // probes and the simulated maximum frost depth of a ground column.
-func groundMarks(w *svgWriter, r *scenarios.Results, ls []scenarios.Layer, sp []span, x, wd, top, length float64) {
+func groundMarks(w *svgWriter, r *scenarios.Results, ls []scenarios.Layer, sp []span, scale depthScale, x, wd, top, length float64) {
 	axisX := x - 40
 	w.f(`<path d="M%s %sV%s" class="dim"/><path d="M%s %sl-4 -8h8z" class="dot"/>`,
 		svgNum(axisX), svgNum(top), svgNum(top+length+8), svgNum(axisX), svgNum(top+length+14))
 	w.text(axisX-8, top+length+14, "end", "sm", "depth")
-	// Boundary depths, pushed apart.
+	// Boundary depths (and the depth where the scale changes), pushed
+	// apart.
 	var zs, want []float64
 	z := 0.0
 	zs, want = append(zs, 0), append(want, top)
 	for i, l := range ls {
 		if !(l.Thickness_m > 0) || !finite(l.Thickness_m) {
 			break
+		}
+		if c := scale.cut; c > z && c < z+l.Thickness_m {
+			zs, want = append(zs, c), append(want, top+scale.at(c))
 		}
 		z += l.Thickness_m
 		zs, want = append(zs, z), append(want, top+sp[i].at+sp[i].size)
@@ -677,18 +791,37 @@ func groundMarks(w *svgWriter, r *scenarios.Results, ls []scenarios.Layer, sp []
 		w.f(`<path d="M%s %sh8" class="dim"/>`, svgNum(axisX-4), svgNum(want[k]))
 		w.text(axisX-8, got[k]+4, "end", "sm", depthText(zs[k]))
 	}
-	// Probes: a dot on the left of the stack and the depth.
-	for _, p := range probeDepths(r) {
-		y := top + depthToPx(ls, sp, p)
-		w.f(`<path d="M%s %sh14" stroke="#009E73" stroke-width="2"/><circle cx="%s" cy="%s" r="3.5" fill="#009E73"/>`,
-			svgNum(x), svgNum(y), svgNum(x+14), svgNum(y))
-		w.text(x+22, y+4, "start", "mk", "probe "+depthText(p))
+	// Marks across the stack: probes (a green dot on the left) and the
+	// simulated maximum frost depth (a blue dashed line); their labels
+	// sit in one column inside the stack, pushed apart.
+	type mark struct {
+		y     float64
+		label string
+		frost bool
 	}
-	// Simulated maximum frost depth.
+	var marks []mark
+	for _, p := range probeDepths(r) {
+		marks = append(marks, mark{top + scale.at(p), "probe " + depthText(p), false})
+	}
 	if f := r.Frost; f != nil && f.MaxFrostDepth_m > 0 && finite(f.MaxFrostDepth_m) {
-		y := top + depthToPx(ls, sp, f.MaxFrostDepth_m)
-		w.f(`<path d="M%s %sh%s" stroke="#0072B2" stroke-width="2" stroke-dasharray="6 3"/>`, svgNum(x-6), svgNum(y), svgNum(wd+12))
-		w.text(x+wd-6, y-5, "end", "mk frost", "simulated max frost depth "+depthText(f.MaxFrostDepth_m))
+		marks = append(marks, mark{top + scale.at(f.MaxFrostDepth_m), "simulated max frost depth " + depthText(f.MaxFrostDepth_m), true})
+	}
+	sort.SliceStable(marks, func(i, j int) bool { return marks[i].y < marks[j].y })
+	ys := make([]float64, len(marks))
+	for i, m := range marks {
+		ys[i] = m.y
+	}
+	ly := spread(ys, 14, top+6, top+length-4)
+	for i, m := range marks {
+		if m.frost {
+			w.f(`<path d="M%s %sh%s" stroke="#0072B2" stroke-width="2" stroke-dasharray="6 3"/>`, svgNum(x-6), svgNum(m.y), svgNum(wd+12))
+			w.f(`<path d="M%s %sL%s %s" class="lead"/>`, svgNum(x+16), svgNum(m.y), svgNum(x+20), svgNum(ly[i]-4))
+			w.text(x+22, ly[i], "start", "mk frost", m.label)
+			continue
+		}
+		w.f(`<path d="M%s %sh14" stroke="#009E73" stroke-width="2"/><circle cx="%s" cy="%s" r="3.5" fill="#009E73"/>`,
+			svgNum(x), svgNum(m.y), svgNum(x+14), svgNum(m.y))
+		w.text(x+22, ly[i]+4, "start", "mk", m.label)
 	}
 }
 

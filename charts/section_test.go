@@ -236,27 +236,23 @@ func TestLayout(t *testing.T) {
 		return out
 	}
 	for _, tc := range []struct {
-		name      string
-		layers    []scenarios.Layer
-		breakLast bool
-		want      []float64
-		widened   []bool
-		broken    int // index of the broken layer, -1 for none
+		name    string
+		layers  []scenarios.Layer
+		want    []float64
+		widened []bool
 	}{
-		{"to scale", l(0.1, 0.3), false, []float64{100, 300}, []bool{false, false}, -1},
+		{"to scale", l(0.1, 0.3), []float64{100, 300}, []bool{false, false}},
 		// 0.001 of 0.401 at 400 px would be 1 px: drawn 8, the rest share 392.
-		{"thin", l(0.1, 0.001, 0.3), false, []float64{98, 8, 294}, []bool{false, true, false}, -1},
-		// 17.5 m under 2.5 m: the last layer gets a quarter, the rest 300 px.
-		{"ground break", l(0.3, 2.2, 17.5), true, []float64{36, 264, 100}, []bool{false, false, false}, 2},
-		{"no break unless asked", l(1, 3, 16), false, []float64{20, 60, 320}, []bool{false, false, false}, -1},
+		{"thin", l(0.1, 0.001, 0.3), []float64{98, 8, 294}, []bool{false, true, false}},
+		{"thick last layer stays to scale", l(1, 3, 16), []float64{20, 60, 320}, []bool{false, false, false}},
 		// A half-space (no thickness) takes a fifth.
-		{"half-space", l(0.6, 2.4, 0), true, []float64{64, 256, 80}, []bool{false, false, false}, -1},
+		{"half-space", l(0.6, 2.4, 0), []float64{64, 256, 80}, []bool{false, false, false}},
 	} {
-		sp := layout(tc.layers, 400, tc.breakLast)
+		sp := layout(tc.layers, 400)
 		at := 0.0
 		for i, s := range sp {
-			if math.Abs(s.size-tc.want[i]) > 1e-9 || s.widened != tc.widened[i] || s.broken != (i == tc.broken) {
-				t.Errorf("%s: layer %d size %.3f widened %v broken %v, want %.3f %v %v", tc.name, i, s.size, s.widened, s.broken, tc.want[i], tc.widened[i], i == tc.broken)
+			if math.Abs(s.size-tc.want[i]) > 1e-9 || s.widened != tc.widened[i] {
+				t.Errorf("%s: layer %d size %.3f widened %v, want %.3f %v", tc.name, i, s.size, s.widened, tc.want[i], tc.widened[i])
 			}
 			if math.Abs(s.at-at) > 1e-9 {
 				t.Errorf("%s: layer %d at %.3f, want %.3f", tc.name, i, s.at, at)
@@ -264,15 +260,49 @@ func TestLayout(t *testing.T) {
 			at += s.size
 		}
 	}
-	// Depths map into the right drawn layer, linearly inside it.
-	ls := l(0.3, 2.2, 17.5)
-	sp := layout(ls, 400, true)
+}
+
+// A deep ground column is drawn to scale down to the depth of interest
+// (78 % of the length) and compressed below a break; marks map into the
+// right layer at the right place.
+func TestGroundLayout(t *testing.T) {
+	l := func(th ...float64) []scenarios.Layer {
+		var out []scenarios.Layer
+		for _, x := range th {
+			out = append(out, scenarios.Layer{Thickness_m: x})
+		}
+		return out
+	}
+	// 0.3 + 2.2 + 17.5 m, interest 6.5 m: 0..6.5 m over 312 px (48 px/m),
+	// 6.5..20 m over 88 px.
+	sp, sc := groundLayout(l(0.3, 2.2, 17.5), 400, 6.5)
+	if sc.cut != 6.5 {
+		t.Fatalf("cut at %g m, want 6.5", sc.cut)
+	}
+	for i, want := range [][2]float64{{0, 14.4}, {14.4, 105.6}, {120, 280}} {
+		if math.Abs(sp[i].at-want[0]) > 1e-9 || math.Abs(sp[i].size-want[1]) > 1e-9 {
+			t.Errorf("layer %d at %.3f size %.3f, want %.3f %.3f", i, sp[i].at, sp[i].size, want[0], want[1])
+		}
+	}
+	if sp[0].broken || sp[1].broken || !sp[2].broken {
+		t.Errorf("break flags %v %v %v, want the last layer broken", sp[0].broken, sp[1].broken, sp[2].broken)
+	}
 	for _, tc := range []struct{ z, want float64 }{
-		{0, 0}, {0.15, 18}, {0.3, 36}, {1.4, 36 + 264*0.5}, {2.5, 300}, {20, 400}, {25, 400},
+		{0, 0}, {0.15, 7.2}, {1.4, 67.2}, {5, 240}, {6.5, 312}, {20, 400}, {25, 400},
 	} {
-		if got := depthToPx(ls, sp, tc.z); math.Abs(got-tc.want) > 1e-9 {
+		if got := sc.at(tc.z); math.Abs(got-tc.want) > 1e-9 {
 			t.Errorf("depth %g m drawn at %.3f px, want %.3f", tc.z, got, tc.want)
 		}
+	}
+	// A shallow column (or no depth of interest) is all to one scale.
+	sp, sc = groundLayout(l(0.3, 2.2, 1.5), 400, 4.55)
+	if sc.cut != 0 || math.Abs(sp[2].size-150) > 1e-9 {
+		t.Errorf("shallow column: cut %g, last layer %.3f px, want no cut and 150 px", sc.cut, sp[2].size)
+	}
+	// A thin top layer is widened above the cut.
+	sp, _ = groundLayout(l(0.01, 2.49, 17.5), 400, 2.6)
+	if !sp[0].widened || math.Abs(sp[0].size-minLayerPx) > 1e-9 {
+		t.Errorf("thin top layer %.3f px, widened %v; want %g px, widened", sp[0].size, sp[0].widened, minLayerPx)
 	}
 }
 
@@ -308,8 +338,8 @@ func TestCrossSectionGround(t *testing.T) {
 	if len(f.Notes) == 0 || !strings.Contains(strings.Join(f.Notes, " "), "half-space") {
 		t.Errorf("no note on the half-space: %v", f.Notes)
 	}
-	// The frost line lies inside the drawn first layer (0.82 m is below
-	// its 0.6 m bottom: inside the second).
+	// The frost line lies in the second layer (0.82 m is below the first
+	// layer's 0.6 m bottom).
 	rects := layerRects(t, svg)
 	m := regexp.MustCompile(`<path d="M[-0-9.]+ ([-0-9.]+)h[0-9.]+" stroke="#0072B2"`).FindStringSubmatch(svg)
 	if m == nil {
