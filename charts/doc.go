@@ -54,7 +54,9 @@
 // column the frost depth three ways (simulation, Stefan, modified
 // Berggren) with the freezing index each used, the simulated frost winter
 // by winter and the exact periodic ground temperature at each probe; the
-// ISO 13786 properties; the transient simulation; the step response;
+// options and studies (options drawn side by side to one scale and
+// compared in a table, sweep, target search, uncertainty, diffusivity
+// fit); the ISO 13786 properties; the transient simulation; the step response;
 // methods with their sources; cautions.
 //
 // # The cross-section drawing
@@ -69,7 +71,8 @@
 // shortened with a break mark. Every string from the results is escaped
 // with html.EscapeString before it enters the SVG, in text and attributes
 // alike; the SVG has no scripts, links or event attributes, and its
-// pattern fills refer only to its own ids (url(#ts-fam-…)).
+// pattern fills refer only to its own ids (url(#ts-fam-…) in the
+// cross-section, url(#ts-opt-…) in the options drawing).
 //
 // Output is deterministic: chart ids are fixed, map keys are sorted by
 // encoding/json, and the only time stamp is Options.GeneratedAt, which is

@@ -461,7 +461,16 @@ var (
 )
 
 func hostileResults(s string) *scenarios.Results {
-	r := wallFixture()
+	r := studyFixture()
+	r.Variants[1].Name, r.Variants[1].Changes = s, []string{s}
+	r.Variants[1].Layers = append([]scenarios.Layer(nil), r.Variants[1].Layers...)
+	r.Variants[1].Layers[0].Name = s
+	r.Sweep.Parameter, r.Sweep.Unit, r.Sweep.Points[0].Text = s, s, s
+	r.Target.Parameter, r.Target.Unit, r.Target.Quantity = s, s, s
+	r.Uncertainty.Parameters[0].Parameter, r.Uncertainty.FirstRejection, r.Uncertainty.Quantities[0].Quantity = s, s, s
+	r.Fit = &scenarios.FitResult{File: s, Method: s, Diffusivity_m2_s: 6e-7, Pairs: []scenarios.FitPair{{Period_h: 24, Note: s}}}
+	r.Records = []scenarios.RecordInfo{{Use: s, File: s, Columns: []string{s}, First: s, Last: s,
+		Bridged: []scenarios.BridgedGap{{Column: s, From: s, To: s}}}}
 	r.Title, r.ScenarioFile, r.Orientation = s, s, s
 	r.Warnings = []string{s, "second " + s}
 	r.StepResponse.SurfaceLayer, r.StepResponse.Side = s, s
@@ -493,8 +502,12 @@ func TestEscaping(t *testing.T) {
 			// scripts and no other live tag; the first two script bodies
 			// are exactly our files.
 			markup := withoutScripts(html)
-			if n, ours := len(tagRe.FindAllString(markup, -1)), len(svgRe.FindAllString(markup, -1)); n != 4 || ours != 1 {
-				t.Errorf("%q: %d script/img/svg/iframe tags (%d our drawing), want exactly our 3 scripts and our 1 drawing", s, n, ours)
+			want := 4 // three scripts, the cross-section
+			if len(r.Variants) > 0 {
+				want++ // the options drawing
+			}
+			if n, ours := len(tagRe.FindAllString(markup, -1)), len(svgRe.FindAllString(markup, -1)); n != want || ours != want-3 {
+				t.Errorf("%q: %d script/img/svg/iframe tags (%d our drawings), want exactly our 3 scripts and %d drawings", s, n, ours, want-3)
 			}
 			if sc := scripts(t, html); len(sc) != 3 || sc[0] != echartsJS || sc[1] != string(pageJS) {
 				t.Errorf("%q: the echarts and page scripts are not ours", s)
