@@ -35,6 +35,19 @@ var quantities = []quantity{
 	{"freezing_index_Cd", "Air freezing index (°C·d)", func(v float64) string { return fixed(v, 0) }},
 }
 
+// nameUnit splits a label "Name (unit)" into a lower-case name for a
+// sentence and " unit" (empty when the label has no unit).
+func (q quantity) nameUnit() (string, string) {
+	name, unit := q.label, ""
+	if i := strings.LastIndex(name, " ("); i > 0 && strings.HasSuffix(name, ")") {
+		name, unit = name[:i], " "+name[i+2:len(name)-1]
+	}
+	if r := []rune(name); len(r) > 1 && !strings.HasPrefix(name, "U-") {
+		name = strings.ToLower(string(r[:1])) + string(r[1:])
+	}
+	return name, unit
+}
+
 // quantityOf returns the display of key.
 func quantityOf(key string) quantity {
 	for _, q := range quantities {
@@ -249,13 +262,14 @@ func targetBlock(r *scenarios.Results) []*block {
 	if tr.AtLeast {
 		rel = "at least"
 	}
+	name, unit := q.nameUnit()
 	var text string
 	if tr.Met {
-		text = fmt.Sprintf("Target met: %s = %s %s gives %s = %s (goal: %s %s; margin %s). %d runs.",
-			tr.Parameter, trimZeros(sig(tr.Value, 4)), tr.Unit, q.label, q.format(tr.Achieved), rel, q.format(tr.Goal), sig(tr.Margin, 2), tr.Evaluations)
+		text = fmt.Sprintf("Target met: %s = %s %s gives %s = %s%s (goal: %s %s%s; margin %s%s). %d runs.",
+			tr.Parameter, trimZeros(sig(tr.Value, 4)), tr.Unit, name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, sig(tr.Margin, 2), unit, tr.Evaluations)
 	} else {
-		text = fmt.Sprintf("Target not met between %s and %s %s: the closest, %s = %s %s, gives %s = %s (goal: %s %s). %d runs.",
-			trimZeros(sig(tr.From, 4)), trimZeros(sig(tr.To, 4)), tr.Unit, tr.Parameter, trimZeros(sig(tr.Value, 4)), tr.Unit, q.label, q.format(tr.Achieved), rel, q.format(tr.Goal), tr.Evaluations)
+		text = fmt.Sprintf("Target not met between %s and %s %s: the closest, %s = %s %s, gives %s = %s%s (goal: %s %s%s). %d runs.",
+			trimZeros(sig(tr.From, 4)), trimZeros(sig(tr.To, 4)), tr.Unit, tr.Parameter, trimZeros(sig(tr.Value, 4)), tr.Unit, name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, tr.Evaluations)
 	}
 	out := []*block{{Text: []string{text}}}
 	if len(tr.Scan) > 0 {

@@ -52,7 +52,7 @@ func TestStudySections(t *testing.T) {
 	if got := rowOf(t, sw, "50 mm"); got[1] != "0.520" {
 		t.Errorf("sweep row %q", got)
 	}
-	if !strings.Contains(page, "Target met: layers[3].thickness = 142.5 mm gives Time shift (h) = 10.0 (goal: at least 10.0; margin 0.020). 12 runs.") {
+	if !strings.Contains(page, "Target met: layers[3].thickness = 142.5 mm gives time shift = 10.0 h (goal: at least 10.0 h; margin 0.020 h). 12 runs.") {
 		t.Error("target sentence missing or wrong")
 	}
 	scan := tableRows(t, page, "Target search: scan of layers[3].thickness")
