@@ -106,7 +106,7 @@ func freezingIndexTable(r *scenarios.Results) *block {
 	if f == nil {
 		return nil
 	}
-	t := newTable("Freezing index and frost climate", []string{"Quantity", "Value"}, "text")
+	t := newTable("Freezing index and frost climate", []string{"Quantity", "Value"}, "text", "text")
 	if f.IndexSource != "" || f.FreezingIndex_Cd > 0 {
 		t.row(airIndexLabel(f), cd(f.FreezingIndex_Cd))
 	}
