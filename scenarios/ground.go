@@ -383,11 +383,19 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	for wi, w := range wins {
 		fw := FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
 			Complete: w.to-w.from > climate.Year-1}
+		// Frost left over from the last winter (deep frost still thawing
+		// in July) belongs to that winter: a winter's frost counts from the
+		// first time the ground is free of frost in its window. Ground that
+		// never thaws (permafrost) counts throughout.
+		thawed := minIn(res.FrostDepth, times, w.from, w.to) > 0
 		for k, t := range times {
 			if t < w.from || t >= w.to {
 				continue
 			}
-			if res.FrostDepth[k] > fw.MaxFrostDepth_m {
+			if res.FrostDepth[k] == 0 {
+				thawed = true
+			}
+			if thawed && res.FrostDepth[k] > fw.MaxFrostDepth_m {
 				fw.MaxFrostDepth_m = res.FrostDepth[k]
 				fw.MaxFrostDay = t / climate.Day
 			}

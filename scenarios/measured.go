@@ -426,3 +426,53 @@ func (s *Scenario) records() []RecordInfo {
 	}
 	return out
 }
+
+// forcingInfo describes the sides of a scenario for the results.
+func (s *Scenario) forcingInfo() *ForcingInfo {
+	fi := &ForcingInfo{Outside: sideInfo(s.Outside)}
+	in := sideInfo(s.Inside)
+	fi.Inside = &in
+	return fi
+}
+
+func harmonicsInfo(hs []climate.Harmonic) []HarmonicInfo {
+	var out []HarmonicInfo
+	for _, h := range hs {
+		out = append(out, HarmonicInfo{Period_h: h.Period / 3600, Amplitude: h.Amplitude, Peak_h: h.Peak / 3600})
+	}
+	return out
+}
+
+func sideInfo(sd Side) SideForcing {
+	out := SideForcing{Resistance_m2K_W: sd.Resistance, Cover: sd.Cover}
+	if sd.hasNFactors() {
+		out.NFreezing, out.NThawing = sd.NFreezing, sd.nThawing()
+	}
+	switch f := sd.Temperature; {
+	case sd.Adiabatic:
+		out.Kind = "adiabatic"
+	case sd.Flux:
+		q := sd.HeatFlux
+		out.Kind, out.HeatFlux_W_m2 = "heat_flux", &q
+	case f == nil:
+		out.Kind = "none"
+	case f.Measured != nil:
+		out.Kind, out.Record, out.Mean_C = "measured", f.Measured.File, f.Mean
+		out.Harmonics = harmonicsInfo(f.Harmonics)
+	case f.Step != nil:
+		out.Kind, out.Mean_C = "step", f.Step.From
+		out.Step = &StepInfo{From_C: f.Step.From, To_C: f.Step.To, At_h: f.Step.At / 3600}
+	default:
+		out.Kind, out.Mean_C = "harmonic", f.Mean
+		out.Harmonics = harmonicsInfo(f.Harmonics)
+	}
+	if sol := sd.Solar; sol != nil {
+		si := &SolarInfo{Absorptance: sol.Absorptance, AbsorptancePreset: sol.AbsorptanceOf, SkyCorrection_K: sol.SkyCorrection,
+			IrradianceMean_W_m2: sol.Irradiance.Mean, IrradianceHarmonics: harmonicsInfo(sol.Irradiance.Harmonics)}
+		if m := sol.Irradiance.Measured; m != nil {
+			si.IrradianceRecord = m.File
+		}
+		out.Solar = si
+	}
+	return out
+}

@@ -34,6 +34,9 @@ type Results struct {
 	Uncertainty *UncertaintyResult `json:"uncertainty,omitempty"`
 	Fit         *FitResult         `json:"fit,omitempty"`
 
+	// Forcing describes the boundary conditions as given.
+	Forcing *ForcingInfo `json:"forcing,omitempty"`
+
 	// Records lists the measured series the run read, with every gap it
 	// bridged: nothing is dropped silently.
 	Records []RecordInfo `json:"records,omitempty"`
@@ -50,6 +53,7 @@ type Layer struct {
 	Name                     string  `json:"name"`
 	Material                 string  `json:"material,omitempty"` // library key, empty for inline properties
 	Source                   string  `json:"source,omitempty"`   // where the property values come from
+	Family                   string  `json:"family,omitempty"`   // material family (concrete, masonry, insulation, soil, ...)
 	Thickness_m              float64 `json:"thickness_m"`
 	Conductivity_W_mK        float64 `json:"conductivity_W_mK,omitempty"`
 	Density_kg_m3            float64 `json:"density_kg_m3,omitempty"`
@@ -91,6 +95,8 @@ type PeriodicResult struct {
 
 // Simulation is the transient finite-volume result.
 type Simulation struct {
+	Start                      string          `json:"start,omitempty"` // calendar time of the first sample, ISO 8601, when the run follows a dated record
+	StartDay                   float64         `json:"start_day"`       // days after 1 January 00:00 of year 1 on the simulation's axis
 	Duration_h                 float64         `json:"duration_h"`
 	Step_h                     float64         `json:"step_h"`
 	Cells                      int             `json:"cells"`
@@ -296,9 +302,10 @@ type VariantResult struct {
 
 // SweepResult is a one-parameter sweep.
 type SweepResult struct {
-	Parameter string       `json:"parameter"`
-	Unit      string       `json:"unit"`
-	Points    []SweepPoint `json:"points"`
+	Parameter      string       `json:"parameter"`
+	ParameterLabel string       `json:"parameter_label"` // the path in words
+	Unit           string       `json:"unit"`
+	Points         []SweepPoint `json:"points"`
 }
 
 // SweepPoint is one value of a sweep with the quantities it gives.
@@ -310,20 +317,21 @@ type SweepPoint struct {
 
 // TargetResult is the outcome of a target search.
 type TargetResult struct {
-	Parameter   string        `json:"parameter"`
-	Unit        string        `json:"unit"`
-	Quantity    string        `json:"quantity"`
-	Goal        float64       `json:"goal"`
-	AtLeast     bool          `json:"at_least"` // false: at most
-	From        float64       `json:"from"`
-	To          float64       `json:"to"`
-	Met         bool          `json:"met"`
-	Value       float64       `json:"value"`    // the parameter value found (or the closest when not met)
-	Achieved    float64       `json:"achieved"` // the quantity there
-	Margin      float64       `json:"margin"`   // on the good side of the goal when positive
-	Message     string        `json:"message"`
-	Evaluations int           `json:"evaluations"`
-	Scan        []TargetPoint `json:"scan"`
+	Parameter      string        `json:"parameter"`
+	ParameterLabel string        `json:"parameter_label"` // the path in words
+	Unit           string        `json:"unit"`
+	Quantity       string        `json:"quantity"`
+	Goal           float64       `json:"goal"`
+	AtLeast        bool          `json:"at_least"` // false: at most
+	From           float64       `json:"from"`
+	To             float64       `json:"to"`
+	Met            bool          `json:"met"`
+	Value          float64       `json:"value"`    // the parameter value found (or the closest when not met)
+	Achieved       float64       `json:"achieved"` // the quantity there
+	Margin         float64       `json:"margin"`   // on the good side of the goal when positive
+	Message        string        `json:"message"`
+	Evaluations    int           `json:"evaluations"`
+	Scan           []TargetPoint `json:"scan"`
 }
 
 // TargetPoint is one evaluation of the grid scan of a target search.
@@ -422,4 +430,51 @@ type BridgedGap struct {
 	From   string `json:"from"`
 	To     string `json:"to"`
 	Filled int    `json:"filled"` // cells filled (0 for missing rows)
+}
+
+// ForcingInfo describes the boundary conditions of a run as given (ground:
+// the surface air temperature before n-factors).
+type ForcingInfo struct {
+	Outside SideForcing  `json:"outside"`          // ground: the surface
+	Inside  *SideForcing `json:"inside,omitempty"` // ground: the bottom
+}
+
+// SideForcing is the condition on one side.
+type SideForcing struct {
+	Kind             string         `json:"kind"` // harmonic, measured, step, heat_flux, adiabatic
+	Resistance_m2K_W float64        `json:"resistance_m2K_W"`
+	Mean_C           float64        `json:"mean_C"` // measured: the fitted mean
+	Harmonics        []HarmonicInfo `json:"harmonics,omitempty"`
+	Step             *StepInfo      `json:"step,omitempty"`
+	HeatFlux_W_m2    *float64       `json:"heat_flux_W_m2,omitempty"` // entering the column
+	Record           string         `json:"record,omitempty"`         // file of a measured series
+	Cover            string         `json:"cover,omitempty"`
+	NFreezing        float64        `json:"n_factor_freezing,omitempty"`
+	NThawing         float64        `json:"n_factor_thawing,omitempty"`
+	Solar            *SolarInfo     `json:"solar,omitempty"`
+}
+
+// HarmonicInfo is one harmonic: amplitude in K (irradiance: W/m2), peak
+// in hours after 1 January 00:00.
+type HarmonicInfo struct {
+	Period_h  float64 `json:"period_h"`
+	Amplitude float64 `json:"amplitude"`
+	Peak_h    float64 `json:"peak_h"`
+}
+
+// StepInfo is a step change of temperature.
+type StepInfo struct {
+	From_C float64 `json:"from_C"`
+	To_C   float64 `json:"to_C"`
+	At_h   float64 `json:"at_h"`
+}
+
+// SolarInfo is the sol-air part of an outside side.
+type SolarInfo struct {
+	Absorptance         float64        `json:"absorptance"`
+	AbsorptancePreset   string         `json:"absorptance_preset,omitempty"`
+	SkyCorrection_K     float64        `json:"sky_correction_K"`
+	IrradianceMean_W_m2 float64        `json:"irradiance_mean_W_m2"`
+	IrradianceHarmonics []HarmonicInfo `json:"irradiance_harmonics,omitempty"`
+	IrradianceRecord    string         `json:"irradiance_record,omitempty"`
 }

@@ -30,6 +30,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 		return nil, err
 	}
 	r.Records = s.records()
+	r.Forcing = s.forcingInfo()
 	if s.Analysis.Fit != nil {
 		if err := runFit(s, r); err != nil {
 			return nil, err
@@ -108,6 +109,7 @@ func layerResults(ls []layers.Layer, period float64) []Layer {
 			Name:               l.Name,
 			Material:           l.MaterialKey,
 			Source:             l.Source,
+			Family:             l.Family,
 			Thickness_m:        l.Thickness,
 			Conductivity_W_mK:  l.Conductivity,
 			Density_kg_m3:      l.Density,

@@ -281,6 +281,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
 	}
 	out := &Simulation{
+		StartDay:                   sim.Start / climate.Day,
 		Duration_h:                 sim.Duration / 3600,
 		Step_h:                     sim.Step / 3600,
 		OutputStep_h:               sim.Sample / 3600,
@@ -313,6 +314,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	var origin time.Time
 	if m := s.Outside.Temperature.Measured; m != nil {
 		origin = m.Series.Start
+		out.Start = origin.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
 	}
 	for k, t := range res.Times {
 		ser.SimTime_h = append(ser.SimTime_h, t/3600)
@@ -327,8 +329,11 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	}
 	ser.SimOutsideSurface_C = res.SurfaceOutside
 	ser.SimInsideSurface_C = res.SurfaceInside
-	ser.SimOutsideFlux_W_m2 = res.FluxOutside
-	ser.SimInsideFlux_W_m2 = res.FluxInside
+	// Charts and CSV show the flux averaged over each output interval (the
+	// heat that went through, as in the energy balance): an instantaneous
+	// flux into a freezing surface cell spikes between samples.
+	ser.SimOutsideFlux_W_m2 = res.MeanFluxOutside
+	ser.SimInsideFlux_W_m2 = res.MeanFluxInside
 	ser.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
 	ser.Probes_C = res.Probe
 	ser.SimProfilePosition_m = res.Mesh.Centers

@@ -193,3 +193,43 @@ analysis:
 		t.Errorf("linear run spun up %d cycles", r.Simulation.SpinUpCycles)
 	}
 }
+
+// TestStepResponseCurve: the simulated surface heat flux after the step
+// (interval means) follows the half-space closed form q = b dT /
+// sqrt(pi t) (Incropera et al., section 5.7, eq. 5.58 [read per
+// REFERENCES section 2]) within 1 % at every sample from a thousandth of
+// the duration until the step reaches the next layer, and has the sign of
+// the step from the first sample on.
+func TestStepResponseCurve(t *testing.T) {
+	r := mustRun(t, `
+title: floor touch
+kind: wall
+orientation: floor
+layers:
+  - {material: screed, thickness: 60 mm}
+  - {material: granite, thickness: 40 mm}
+outside:
+  temperature: {mean: 18}
+inside:
+  temperature: {mean: 20}
+analysis:
+  simulate: false
+  step_response: {side: inside, change: 15 K, duration: 1min}
+`)
+	ser, sr := r.Series, r.StepResponse
+	worst := 0.0
+	for k, ts := range ser.StepTime_s {
+		if ser.StepFlux_W_m2[k] <= 0 {
+			t.Fatalf("flux %.1f W/m2 at %.3g s has the wrong sign", ser.StepFlux_W_m2[k], ts)
+		}
+		if ts < sr.Duration_s/1000 || ts > sr.HalfSpaceValidFor_s {
+			continue
+		}
+		worst = math.Max(worst, math.Abs(ser.StepFlux_W_m2[k]/ser.StepFluxHalfSpace_W_m2[k]-1))
+	}
+	t.Logf("%d samples from %.2g s; worst relative error %.4f %%; flux at 1 s %.0f W/m2 (closed form %.0f)",
+		len(ser.StepTime_s), ser.StepTime_s[0], 100*worst, sr.FluxAt1s_W_m2, math.Sqrt(2.8*2600*1000)*15/math.Sqrt(math.Pi))
+	if worst > 0.01 {
+		t.Errorf("worst relative error %.3f %%", 100*worst)
+	}
+}

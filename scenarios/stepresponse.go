@@ -57,13 +57,7 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 		}
 	}
 	a := first.Diffusivity()
-	// Cells near the surface resolve the diffusion length of a time step.
-	nSteps := 2000.0
-	dt := st.Duration / nSteps
-	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(a*dt), Growth: 1.15})
-	if err != nil {
-		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
-	}
+	b := math.Sqrt(first.Conductivity * first.HeatCapacity)
 	change := st.Change
 	far := s.Inside
 	if fromInside {
@@ -73,44 +67,66 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 	if s.Kind == Ground || far.Adiabatic {
 		farB = solver.Boundary{Kind: solver.Adiabatic}
 	}
-	res, err := solver.Simulate(solver.Problem{
-		Column:   c,
-		Mesh:     mesh,
-		Outside:  solver.Boundary{Kind: solver.Environment, Resistance: 0, Temperature: func(float64) float64 { return change }},
-		Inside:   farB,
-		Initial:  make([]float64, mesh.Cells()),
-		Duration: st.Duration,
-		Step:     dt,
-	})
+	// The flux after a sudden step falls like 1/sqrt(t) over many decades
+	// of time: the run is chained over four decades of duration, each
+	// with a time step a thousandth of its end time, so every decade is
+	// resolved alike (log-spaced samples). Cells at the surface resolve
+	// the diffusion length of the first step.
+	D := st.Duration
+	dt0 := D * 1e-6
+	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(a*dt0), Growth: 1.15})
 	if err != nil {
 		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
 	}
-	b := math.Sqrt(first.Conductivity * first.HeatCapacity)
 	out := &StepResult{
 		Side:                       st.Side,
 		Change_K:                   change,
-		Duration_s:                 st.Duration,
+		Duration_s:                 D,
 		SurfaceLayer:               first.Name,
 		SurfaceEffusivity_Ws05_m2K: b,
 		HalfSpaceValidFor_s:        solver.HalfSpaceTime(a, first.Thickness, 0.01),
-		HeatAbsorbed_J_m2:          res.Energy.InflowOutside,
-		HeatAbsorbedHalfSpace_J_m2: 2 * b * change * math.Sqrt(st.Duration/math.Pi),
-		FluxAtEndHalfSpace_W_m2:    b * change / math.Sqrt(math.Pi*st.Duration),
+		HeatAbsorbedHalfSpace_J_m2: 2 * b * change * math.Sqrt(D/math.Pi),
+		FluxAtEndHalfSpace_W_m2:    b * change / math.Sqrt(math.Pi*D),
 	}
+	// Closed form: Q(t) = 2 b dT sqrt(t/pi); the mean flux over (t0, t1] is
+	// (Q(t1) - Q(t0)) / (t1 - t0), set beside the simulated interval mean.
+	Q := func(t float64) float64 { return 2 * b * change * math.Sqrt(t/math.Pi) }
 	ser := &r.Series
-	for k, t := range res.Times {
-		if k == 0 {
-			continue // the flux is singular at t = 0
+	var H []float64
+	start := 0.0
+	for seg, end := range []float64{D / 1000, D / 100, D / 10, D} {
+		p := solver.Problem{
+			Column:   c,
+			Mesh:     mesh,
+			Outside:  solver.Boundary{Kind: solver.Environment, Resistance: 0, Temperature: func(float64) float64 { return change }},
+			Inside:   farB,
+			Start:    start,
+			Duration: end - start,
+			Step:     end / 1000,
 		}
-		q := res.FluxOutside[k]
-		ser.StepTime_s = append(ser.StepTime_s, t)
-		ser.StepFlux_W_m2 = append(ser.StepFlux_W_m2, q)
-		ser.StepFluxHalfSpace_W_m2 = append(ser.StepFluxHalfSpace_W_m2, b*change/math.Sqrt(math.Pi*t))
-		if out.FluxAt1s_W_m2 == 0 && t >= 1 {
-			out.FluxAt1s_W_m2 = q
+		if seg == 0 {
+			p.Initial = make([]float64, mesh.Cells())
+		} else {
+			p.InitialEnthalpy = H
 		}
+		res, err := solver.Simulate(p)
+		if err != nil {
+			return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+		}
+		out.HeatAbsorbed_J_m2 += res.Energy.InflowOutside
+		for k := 1; k < len(res.Times); k++ {
+			t0, t1 := res.Times[k-1], res.Times[k]
+			ser.StepTime_s = append(ser.StepTime_s, t1)
+			ser.StepFlux_W_m2 = append(ser.StepFlux_W_m2, res.MeanFluxOutside[k])
+			ser.StepFluxHalfSpace_W_m2 = append(ser.StepFluxHalfSpace_W_m2, (Q(t1)-Q(t0))/(t1-t0))
+		}
+		H = res.FinalEnthalpy
+		start = end
 	}
-	out.FluxAtEnd_W_m2 = res.FluxOutside[len(res.FluxOutside)-1]
+	// Fluxes at 1 s and at the end, interpolated in log time between
+	// interval means (each placed at its interval's end).
+	out.FluxAt1s_W_m2 = logInterp(ser.StepTime_s, ser.StepFlux_W_m2, 1)
+	out.FluxAtEnd_W_m2 = ser.StepFlux_W_m2[len(ser.StepFlux_W_m2)-1]
 	if st.ContactTemperature != nil {
 		// The surface's mean temperature from the steady state of the
 		// scenario's mean forcings.
@@ -167,4 +183,15 @@ func surfaceMean(s *Scenario, col solver.Column, inside bool) (float64, error) {
 		return 0, err
 	}
 	return T[0], nil
+}
+
+// logInterp interpolates y(x) linearly in log x; NaN outside the range.
+func logInterp(x, y []float64, at float64) float64 {
+	for k := 1; k < len(x); k++ {
+		if x[k-1] <= at && at <= x[k] && x[k-1] > 0 {
+			f := math.Log(at/x[k-1]) / math.Log(x[k]/x[k-1])
+			return y[k-1] + f*(y[k]-y[k-1])
+		}
+	}
+	return math.NaN()
 }

@@ -618,7 +618,7 @@ func runStudy(s *Scenario, r *Results, workers int) error {
 		r.Variants = vr
 	}
 	if sw := st.Sweep; sw != nil {
-		res := &SweepResult{Parameter: sw.Parameter, Unit: sw.Unit}
+		res := &SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s, sw.Parameter), Unit: sw.Unit}
 		points := make([]SweepPoint, len(sw.Values))
 		errs := make([]error, len(sw.Values))
 		parallel(len(sw.Values), workers, func(i int) {
@@ -717,7 +717,7 @@ func seekTarget(s *Scenario, tg *TargetSpec, workers int) (*TargetResult, error)
 	if err := firstErr(errs); err != nil {
 		return nil, err
 	}
-	res := &TargetResult{Parameter: tg.Parameter, Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
+	res := &TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s, tg.Parameter), Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
 		From: tg.From, To: tg.To, Evaluations: n}
 	for i := range xs {
 		res.Scan = append(res.Scan, TargetPoint{Value: xs[i], Quantity: vs[i], Meets: meets(vs[i])})
@@ -892,4 +892,27 @@ func percentile(xs []float64, p float64) float64 {
 		return xs[len(xs)-1]
 	}
 	return xs[i] + (h-lo)*(xs[i+1]-xs[i])
+}
+
+// parameterLabel names a parameter path in words for reports, e.g.
+// "thickness of layer 2 (Mineral wool)".
+func parameterLabel(s *Scenario, path string) string {
+	steps, err := parsePath(path)
+	if err != nil || len(steps) == 0 {
+		return path
+	}
+	if steps[0].key == "layers" && len(steps) >= 3 && steps[1].index > 0 && steps[1].index <= len(s.Layers) {
+		var words []string
+		for _, st := range steps[2:] {
+			words = append([]string{strings.ReplaceAll(st.key, "_", " ")}, words...)
+		}
+		return fmt.Sprintf("%s of layer %d (%s)", strings.Join(words, " of "), steps[1].index, s.Layers[steps[1].index-1].Name)
+	}
+	var words []string
+	for _, st := range steps {
+		if st.key != "" {
+			words = append(words, strings.ReplaceAll(st.key, "_", " "))
+		}
+	}
+	return strings.Join(words, " ")
 }

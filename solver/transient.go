@@ -148,6 +148,15 @@ type Result struct {
 	FluxOutside    []float64 // W/m2 in +x through the outside surface (positive = into the column)
 	FluxInside     []float64 // W/m2 in +x through the inside surface (positive = out of the column)
 
+	// MeanFluxOutside and MeanFluxInside are the surface heat fluxes
+	// averaged over the interval that ends at each sample (W/m2, signs as
+	// FluxOutside and FluxInside): the heat the time scheme let through,
+	// the same sums as the energy balance, divided by the interval. They
+	// do not show the spikes of an instantaneous flux into a surface cell
+	// that is freezing, or the start-up of a sudden step. Index 0 holds
+	// the instantaneous value.
+	MeanFluxOutside, MeanFluxInside []float64
+
 	Min, Max, Mean []float64 // degC per cell over the samples
 
 	// FrostDepth is the deepest position (m) at or below the freezing

@@ -128,6 +128,8 @@ type fvRun struct {
 	dtLast        float64
 
 	eOut, eIn, eAbs fvKahan
+	lastT           float64 // time of the last sample, s
+	lastOut, lastIn float64 // eOut and eIn at the last sample, J/m2
 	iterations      int
 	unconverged     int
 
