@@ -126,7 +126,7 @@ func groundFixture() *scenarios.Results {
 					MaxThawDepth_m: 0.4, FrozenDays: []scenarios.ProbeDays{{Depth_m: 0.5, Days: 63}, {Depth_m: 2, Days: 0}}},
 			}},
 		Ground: &scenarios.GroundTemperature{SurfaceMean_C: 6.2, SurfaceAnnualAmplitude_K: 11, AnnualDampingDepth_m: 10.4, ColumnDepth_m: 3,
-			DomainDeepEnough: false, GeothermalFlux_W_m2: 0.065, NFactorFreezing: 0.7, NFactorThawing: 1.1,
+			DomainDeepEnough: false, GeothermalFlux_W_m2: ptr(0.065), NFactorFreezing: 0.7, NFactorThawing: 1.1,
 			Periodic: []scenarios.GroundPeriodic{
 				{Period_h: 8760, SurfaceAmplitude_K: 11, DampingDepth_m: 10.4, Probes: []scenarios.GroundProbe{
 					{Depth_m: 0.5, Amplitude_K: 9.1, Lag_h: 300, Lag_d: 12.5, Mean_C: 6.2, Min_C: -2.9, Max_C: 15.3},
@@ -177,3 +177,5 @@ func groundFixture() *scenarios.Results {
 	}
 	return r
 }
+
+func ptr(v float64) *float64 { return &v }

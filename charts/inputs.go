@@ -46,8 +46,8 @@ func inputsBlocks(r *scenarios.Results) []*block {
 			t.row("n-factors of the surface cover, freezing and thawing (surface / air)", trimZeros(sig(g.NFactorFreezing, 3))+" and "+trimZeros(sig(g.NFactorThawing, 3)))
 		}
 		t.row("Ground surface temperature", fmt.Sprintf("mean %s, annual swing ±%s K (n-factors applied)", degC(g.SurfaceMean_C), fixed(g.SurfaceAnnualAmplitude_K, 1)))
-		if finite(g.GeothermalFlux_W_m2) {
-			t.row("Bottom of the column", "geothermal heat flux "+trimZeros(sig(g.GeothermalFlux_W_m2*1000, 3))+" mW/m² upward")
+		if g.GeothermalFlux_W_m2 != nil {
+			t.row("Bottom of the column", "geothermal heat flux "+trimZeros(sig(*g.GeothermalFlux_W_m2*1000, 3))+" mW/m² upward")
 		} else {
 			t.row("Bottom of the column", "fixed temperature")
 		}

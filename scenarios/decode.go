@@ -1082,6 +1082,11 @@ func (d *decoder) decodeSoil(parent *object, s *Scenario) (layers.Layer, error) 
 	if !ok {
 		return layers.Layer{}, o.missing("dry_density", "kg of solids per m3 of soil, e.g. 1700")
 	}
+	if v < 200 || v > 2600 {
+		// Mineral soils lie far inside this range; values outside it are
+		// typing slips (a unit of g/cm3 given as kg/m3, say).
+		return layers.Layer{}, o.errKey("dry_density", "%g kg/m3 is not the dry density of a soil (expect 200 to 2600 kg/m3, typically 1200 to 2100)", v)
+	}
 	soil.DryDensity = v
 	w, ok, err := o.nonNegative("water_content", layers.Fraction)
 	if err != nil {

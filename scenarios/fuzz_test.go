@@ -3,6 +3,7 @@ package scenarios
 import (
 	"encoding/json"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -180,21 +181,50 @@ func FuzzRun(f *testing.F) {
 			checkDecodeError(t, "", nil, o.err)
 			return
 		}
-		if g := o.r.Ground; g != nil && math.IsNaN(g.GeothermalFlux_W_m2) && knownNaNFlux {
-			// Known defect, reported: a ground column with a fixed bottom
-			// temperature or an adiabatic bottom stores NaN here, which
-			// results.json cannot encode. Set knownNaNFlux to false once
-			// the field encodes as null.
-			g.GeothermalFlux_W_m2 = 0
-		}
 		if _, err := json.Marshal(o.r); err != nil {
 			t.Fatalf("results do not encode: %v", err)
 		}
 	})
 }
 
-// knownNaNFlux tolerates the one known non-finite result (see FuzzRun).
-const knownNaNFlux = true
+// TestRunRegressions runs inputs that once failed (found by FuzzRun or by
+// hand): each must run without panic to JSON-encodable results.
+func TestRunRegressions(t *testing.T) {
+	cases := []struct {
+		name, yaml string
+	}{
+		{"constant air under a cover (FuzzRun 7e0e1ffb)", "title: 0\nkind: ground\nlayers:\n  - soil: {texture: clay,dry_density: 1500,water_content: 20 %}\n    thickness: 1\nsurface:\n  cover: turf\n  temperature: 0"},
+		{"constant air and constant sun on a wall", "title: t\nkind: wall\nlayers:\n  - {material: clay-brick, thickness: 0.1}\noutside:\n  temperature: 5\n  solar: {absorptance: 0.5, irradiance: 100}\n"},
+		{"fixed bottom temperature", "title: g\nkind: ground\nlayers:\n  - material: wet-clay\n    thickness: 20 m\nsurface:\n  temperature: {mean: 8, annual: {amplitude: 10, peak_day: 200}}\nbottom:\n  temperature: 9\n"},
+		{"adiabatic bottom", "title: g\nkind: ground\nlayers:\n  - material: wet-clay\n    thickness: 20 m\nsurface:\n  temperature: {mean: 8, annual: {amplitude: 10, peak_day: 200}}\nbottom:\n  adiabatic: true\n"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			s, err := Decode("regression.yaml", []byte(c.yaml))
+			if err != nil {
+				t.Fatal(err)
+			}
+			s.Analysis.Simulate = nil
+			var failure string
+			func() {
+				defer func() {
+					if p := recover(); p != nil {
+						failure = fmt.Sprintf("panic: %v", p)
+					}
+				}()
+				r, err := Run(s, nil)
+				if err != nil {
+					failure = err.Error()
+				} else if _, err := json.Marshal(r); err != nil {
+					failure = "results.json: " + err.Error()
+				}
+			}()
+			if failure != "" {
+				t.Fatal(failure)
+			}
+		})
+	}
+}
 
 // unquoteCorpus reads a one-value []byte corpus file of the go fuzzing
 // format ("go test fuzz v1" then `[]byte("...")`).

@@ -102,9 +102,10 @@ func groundPeriodic(s *Scenario, col solver.Column, r *Results) error {
 	hs := col
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
-	g := &GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness(), GeothermalFlux_W_m2: math.NaN()}
+	g := &GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
 	if s.Inside.Flux {
-		g.GeothermalFlux_W_m2 = s.Inside.HeatFlux
+		q := s.Inside.HeatFlux
+		g.GeothermalFlux_W_m2 = &q
 	}
 	if s.Outside.hasNFactors() {
 		g.NFactorFreezing, g.NFactorThawing = s.Outside.NFreezing, s.Outside.nThawing()

@@ -343,6 +343,12 @@ func (s *Scenario) surfaceForcing() *Forcing {
 	if t1 <= t0 {
 		t0, t1 = 0, longest
 	}
+	if t1 <= t0 {
+		// No period and no record: a constant environment.
+		s.surface = &Forcing{Periodic: climate.Periodic{Mean: env(0)}, Line: f.Line}
+		s.surfaceFitted = true
+		return s.surface
+	}
 	step := math.Min(3600, (t1-t0)/96)
 	n := int((t1-t0)/step) + 1
 	ts := make([]float64, 0, n)

@@ -137,8 +137,8 @@ type GroundTemperature struct {
 	SurfaceAnnualAmplitude_K float64          `json:"surface_annual_amplitude_K"` // half the annual surface swing
 	AnnualDampingDepth_m     float64          `json:"annual_damping_depth_m"`     // depth where the annual swing falls below 0.1 K
 	ColumnDepth_m            float64          `json:"column_depth_m"`
-	DomainDeepEnough         bool             `json:"domain_deep_enough"`   // column deeper than AnnualDampingDepth_m
-	GeothermalFlux_W_m2      float64          `json:"geothermal_flux_W_m2"` // upward; NaN (null) with a fixed bottom temperature
+	DomainDeepEnough         bool             `json:"domain_deep_enough"`             // column deeper than AnnualDampingDepth_m
+	GeothermalFlux_W_m2      *float64         `json:"geothermal_flux_W_m2,omitempty"` // upward into the column; nil with a fixed bottom temperature or an adiabatic bottom
 	NFactorFreezing          float64          `json:"n_factor_freezing,omitempty"`
 	NFactorThawing           float64          `json:"n_factor_thawing,omitempty"`
 	Periodic                 []GroundPeriodic `json:"periodic"`
