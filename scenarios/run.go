@@ -225,7 +225,11 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 	// One cycle of the first analysis period.
 	zo, zi := phasorAt(out, P), phasorAt(s.Inside.Temperature, P)
 	if s.surfaceFitted {
-		r.Warnings = append(r.Warnings, "the outside environment is not a pure sum of harmonics (a measured series, the sun or n-factors): the one-period chart and the temperature range use its least-squares fit; the simulation uses the true series")
+		why := "the sol-air temperature (the irradiance counts as zero when its harmonics go negative at night)"
+		if s.Outside.Temperature.Measured != nil {
+			why = "the measured outside temperature"
+		}
+		r.Warnings = append(r.Warnings, why+" is not a pure sum of harmonics: the exact one-period chart and temperature range use its least-squares fit of mean and harmonics; the simulation follows it exactly")
 	}
 	if zo == 0 && zi == 0 {
 		zo = 1
