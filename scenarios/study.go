@@ -276,6 +276,26 @@ func (o *object) numberKey(key string) (float64, string, bool, error) {
 	return v, u, true, nil
 }
 
+// numberPair reads two numbers that share a unit (from/to, mean/sd,
+// min/max); what describes them for a missing-key message.
+func (o *object) numberPair(k1, k2, what string) (a, b float64, unit string, err error) {
+	a, u1, ok1, err := o.numberKey(k1)
+	if err != nil {
+		return 0, 0, "", err
+	}
+	b, u2, ok2, err := o.numberKey(k2)
+	if err != nil {
+		return 0, 0, "", err
+	}
+	if !ok1 || !ok2 {
+		return 0, 0, "", o.missing(map[bool]string{true: k2, false: k1}[ok1], what)
+	}
+	if u1 != u2 {
+		return 0, 0, "", o.errKey(k2, "%s and %s must be in the same unit (%q and %q)", k1, k2, u1, u2)
+	}
+	return a, b, u1, nil
+}
+
 func (d *decoder) decodeSweep(o *object) (*SweepSpec, error) {
 	p, err := d.pathKey(o, "parameter")
 	if err != nil {
@@ -305,19 +325,9 @@ func (d *decoder) decodeSweep(o *object) (*SweepSpec, error) {
 		}
 		return sw, nil
 	}
-	from, u1, ok1, err := o.numberKey("from")
+	from, to, u1, err := o.numberPair("from", "to", "the range of the parameter, or a list of values")
 	if err != nil {
 		return nil, err
-	}
-	to, u2, ok2, err := o.numberKey("to")
-	if err != nil {
-		return nil, err
-	}
-	if !ok1 || !ok2 {
-		return nil, o.missing(map[bool]string{true: "to", false: "from"}[ok1], "the range of the parameter, or a list of values")
-	}
-	if u1 != u2 {
-		return nil, o.errKey("to", "from and to must be in the same unit (%q and %q)", u1, u2)
 	}
 	steps := 7
 	if n, ok, err := o.integer("steps"); err != nil {
@@ -346,19 +356,9 @@ func (d *decoder) decodeTarget(o *object, s *Scenario) (*TargetSpec, error) {
 		return nil, err
 	}
 	tg := &TargetSpec{Parameter: p, Line: o.node.Line}
-	from, u1, ok1, err := o.numberKey("from")
+	from, to, u1, err := o.numberPair("from", "to", "the range to search")
 	if err != nil {
 		return nil, err
-	}
-	to, u2, ok2, err := o.numberKey("to")
-	if err != nil {
-		return nil, err
-	}
-	if !ok1 || !ok2 {
-		return nil, o.missing(map[bool]string{true: "to", false: "from"}[ok1], "the range to search")
-	}
-	if u1 != u2 {
-		return nil, o.errKey("to", "from and to must be in the same unit (%q and %q)", u1, u2)
 	}
 	if !(to > from) {
 		return nil, o.errKey("to", "must be larger than from")
@@ -450,19 +450,12 @@ func (d *decoder) decodeUncertainty(o *object) (*UncertaintySpec, error) {
 			if err != nil {
 				return nil, err
 			}
-			m, u1, ok1, err := no.numberKey("mean")
+			m, sd, u1, err := no.numberPair("mean", "sd", "mean and standard deviation, in the same unit")
 			if err != nil {
 				return nil, err
 			}
-			sd, u2, ok2, err := no.numberKey("sd")
-			if err != nil {
-				return nil, err
-			}
-			if !ok1 || !ok2 {
-				return nil, no.missing(map[bool]string{true: "sd", false: "mean"}[ok1], "mean and standard deviation, in the same unit")
-			}
-			if u1 != u2 || sd < 0 {
-				return nil, no.errKey("sd", "the standard deviation must be >= 0 and in the unit of the mean")
+			if sd < 0 {
+				return nil, no.errKey("sd", "the standard deviation must be >= 0")
 			}
 			vs.Normal, vs.A, vs.B, vs.Unit = true, m, sd, u1
 		case vo.has("uniform"):
@@ -470,19 +463,12 @@ func (d *decoder) decodeUncertainty(o *object) (*UncertaintySpec, error) {
 			if err != nil {
 				return nil, err
 			}
-			a, u1, ok1, err := uo.numberKey("min")
+			a, b, u1, err := uo.numberPair("min", "max", "the range, in one unit")
 			if err != nil {
 				return nil, err
 			}
-			b, u2, ok2, err := uo.numberKey("max")
-			if err != nil {
-				return nil, err
-			}
-			if !ok1 || !ok2 {
-				return nil, uo.missing(map[bool]string{true: "max", false: "min"}[ok1], "the range, in one unit")
-			}
-			if u1 != u2 || !(b > a) {
-				return nil, uo.errKey("max", "must be larger than min and in the same unit")
+			if !(b > a) {
+				return nil, uo.errKey("max", "must be larger than min")
 			}
 			vs.A, vs.B, vs.Unit = a, b, u1
 		default:
