@@ -464,10 +464,16 @@ func FormatQuantity(v float64, k Kind) string {
 		}
 		return formatNumber(v/hour) + " h"
 	case Fraction:
+		if math.IsInf(v*100, 0) {
+			return formatNumber(v) // too large to write in percent
+		}
 		return formatNumber(v*100) + " %"
 	}
 	u := info.units[info.show]
-	return formatNumber((v-u.offset)/u.scale) + " " + u.name
+	if x := (v - u.offset) / u.scale; !math.IsInf(x, 0) {
+		return formatNumber(x) + " " + u.name
+	}
+	return formatNumber(v) + " " + info.units[0].name
 }
 
 // formatNumber writes x with at most 6 significant digits, without an

@@ -20,6 +20,10 @@ import (
 	"tempstack/solver"
 )
 
+// maxLayers bounds the layers of a column: real constructions have a
+// handful, measured soil profiles a few dozen.
+const maxLayers = 1000
+
 // maxFileSize bounds a scenario file; anything larger is surely not one.
 const maxFileSize = 4 << 20
 
@@ -207,6 +211,9 @@ func (d *decoder) decodeLayers(top *object, s *Scenario) error {
 	}
 	if ok && len(items) == 0 {
 		return top.errKey("layers", "the list is empty; give at least one layer")
+	}
+	if len(items) > maxLayers {
+		return top.errKey("layers", "%d layers is more than the limit of %d; merge thin layers of the same material", len(items), maxLayers)
 	}
 	if !ok {
 		return top.missing("layers", "a list of layers, "+map[Kind]string{Wall: "outside first", Ground: "surface first"}[s.Kind])

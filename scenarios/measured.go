@@ -7,6 +7,7 @@ import (
 	"math"
 	"path"
 	"path/filepath"
+	"sort"
 	"strings"
 	"sync"
 	"time"
@@ -65,6 +66,9 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 	if opt.HourColumn, _, err = o.str("hour_column"); err != nil {
 		return nil, err
 	}
+	if opt.HourColumn != "" && opt.DateColumn == "" {
+		return nil, o.errKey("hour_column", "goes with date_column (a date and an hour); with a full time stamp use time_column")
+	}
 	if opt.TimeColumn == "" && opt.DateColumn == "" {
 		opt.TimeColumn = "time"
 	}
@@ -118,6 +122,9 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 	if err != nil {
 		var ce *climate.CSVError
 		if errors.As(err, &ce) {
+			if ce.Line == 0 {
+				ce.Line = 1
+			}
 			key := ce.Column
 			if key != "" {
 				key = "column " + key
@@ -381,13 +388,7 @@ func mean(v []float64) float64 {
 	return s / float64(max(1, len(v)))
 }
 
-func sortFloats(v []float64) {
-	for i := 1; i < len(v); i++ {
-		for j := i; j > 0 && v[j] < v[j-1]; j-- {
-			v[j], v[j-1] = v[j-1], v[j]
-		}
-	}
-}
+func sortFloats(v []float64) { sort.Float64s(v) }
 
 // recordInfo summarises a measured forcing for the results.
 func recordInfo(use string, f *Forcing) RecordInfo {

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"sort"
 
 	"tempstack/climate"
 	"tempstack/layers"
@@ -337,12 +338,7 @@ func envelope(mean []float64, periods []float64, amps [][]complex128) (lo, hi []
 
 func sortUnique(xs []float64, tol float64) []float64 {
 	s := append([]float64(nil), xs...)
-	// insertion sort: small slices
-	for i := 1; i < len(s); i++ {
-		for j := i; j > 0 && s[j] < s[j-1]; j-- {
-			s[j], s[j-1] = s[j-1], s[j]
-		}
-	}
+	sort.Float64s(s)
 	out := s[:0]
 	for i, x := range s {
 		if i == 0 || x-out[len(out)-1] > tol {

@@ -216,13 +216,10 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	if err != nil {
 		return nil, err
 	}
+	sim.Mesh.MaxCells = maxCells
 	mesh, err := solver.NewMesh(col, sim.Mesh)
 	if err != nil {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.mesh", Msg: err.Error()}
-	}
-	if mesh.Cells() > 200000 {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.mesh",
-			Msg: fmt.Sprintf("the mesh would have %d cells, more than the limit of 200000; use larger cells", mesh.Cells())}
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.mesh", Msg: meshMessage(err)}
 	}
 	p := solver.Problem{
 		Column:      col,
@@ -526,4 +523,16 @@ func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Pro
 		p.Initial, p.InitialFunc, p.InitialEnthalpy = nil, nil, next
 	}
 	return p.InitialEnthalpy, max, last, nil
+}
+
+// maxCells is the largest mesh a run builds: far beyond any sensible
+// column (a few hundred cells), small enough to fail fast.
+const maxCells = 200000
+
+// meshMessage words a mesh error for a user.
+func meshMessage(err error) string {
+	if errors.Is(err, solver.ErrTooManyCells) {
+		return fmt.Sprintf("the mesh would have more cells than the limit of %d (a layer with a tiny diffusivity, a very thick column or very small cells); check the properties and thicknesses, or give analysis.simulate.mesh larger cells", maxCells)
+	}
+	return err.Error()
 }

@@ -74,9 +74,9 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 	// the diffusion length of the first step.
 	D := st.Duration
 	dt0 := D * 1e-6
-	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(a*dt0), Growth: 1.15})
+	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(a*dt0), Growth: 1.15, MaxCells: maxCells})
 	if err != nil {
-		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: meshMessage(err)}
 	}
 	out := &StepResult{
 		Side:                       st.Side,

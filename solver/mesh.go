@@ -44,6 +44,11 @@ type MeshOptions struct {
 	// 0 means 3.
 	MinCellsPerLayer int
 
+	// MaxCells caps the number of cells; NewMesh returns an error (before
+	// building anything) for a mesh that would be larger. 0 means
+	// 1,000,000.
+	MaxCells int
+
 	// Refinement multiplies the number of cells of every layer while
 	// keeping the same grading (the cells follow the same size function),
 	// for convergence studies. 0 means 1.
@@ -136,6 +141,9 @@ func NewMesh(c Column, o MeshOptions) (*Mesh, error) {
 	if o.Refinement == 0 {
 		o.Refinement = 1
 	}
+	if o.MaxCells <= 0 {
+		o.MaxCells = 1000000
+	}
 
 	m := &Mesh{Faces: []float64{0}, FaceResistance: []float64{0}}
 	top := 0.0
@@ -160,7 +168,10 @@ func NewMesh(c Column, o MeshOptions) (*Mesh, error) {
 		}
 		hmax := math.Min(o.MaxCell, l.Thickness/float64(o.MinCellsPerLayer))
 		h0 = math.Min(h0, hmax)
-		xs := fvGradedFaces(l.Thickness, h0, o.Growth, hmax, hplat, yB, o.MinCellsPerLayer, o.Refinement)
+		xs, err := fvGradedFaces(l.Thickness, h0, o.Growth, hmax, hplat, yB, o.MinCellsPerLayer, o.Refinement, o.MaxCells-len(m.Layer))
+		if err != nil {
+			return nil, fmt.Errorf("solver: layer %q: %w", l.Name, err)
+		}
 		for j := 1; j < len(xs); j++ {
 			x := top + xs[j]
 			if j == len(xs)-1 {
@@ -191,7 +202,11 @@ func NewMesh(c Column, o MeshOptions) (*Mesh, error) {
 //	h(y) = hplat + c (y - yB)          beyond
 //
 // capped at hmax. With yB = 0 there is no plateau.
-func fvGradedFaces(d, h0, r, hmax, hplat, yB float64, minCells, refine int) []float64 {
+// ErrTooManyCells is returned (wrapped) by NewMesh for a mesh larger than
+// MeshOptions.MaxCells.
+var ErrTooManyCells = errors.New("the mesh would have more cells than the limit")
+
+func fvGradedFaces(d, h0, r, hmax, hplat, yB float64, minCells, refine, limit int) ([]float64, error) {
 	c := math.Log(r)
 	a := h0
 	if c > 1e-12 {
@@ -236,6 +251,9 @@ func fvGradedFaces(d, h0, r, hmax, hplat, yB float64, minCells, refine int) []fl
 		return 2*half(d/2) - half(d-x)
 	}
 	total := F(d)
+	if !(total*float64(refine) <= float64(limit)) { // also catches NaN and Inf
+		return nil, fmt.Errorf("%w of %d cells (about %.3g here); use larger cells", ErrTooManyCells, limit, total*float64(refine))
+	}
 	n := int(math.Ceil(total - 1e-9))
 	if n < minCells {
 		n = minCells
@@ -256,5 +274,5 @@ func fvGradedFaces(d, h0, r, hmax, hplat, yB float64, minCells, refine int) []fl
 		}
 		xs[j] = 0.5 * (lo + hi)
 	}
-	return xs
+	return xs, nil
 }

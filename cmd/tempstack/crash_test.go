@@ -308,7 +308,7 @@ func TestLimitsThroughTheCommand(t *testing.T) {
 		{"one-second steps for fifty years", wall(brick, "analysis:\n  simulate: {duration: 50y, step: 1s}\n"),
 			1, []string{"time steps is more than the limit of 5e7", "analysis.simulate"}},
 		{"micrometre cells", wall(brick, "analysis:\n  simulate: {duration: 1d, step: 1h, mesh: {surface_cell: 0.0005 mm, max_cell: 0.0005 mm, growth: 1}}\n"),
-			1, []string{"more than the limit of 200000", "analysis.simulate.mesh"}},
+			1, []string{"cells than the limit of 200000", "analysis.simulate.mesh"}},
 		{"a kilometre of ground", "title: deep\nkind: ground\nlayers:\n  - material: rock\n    thickness: 1000 m\n" +
 			"surface:\n  temperature: {mean: 5, annual: {amplitude: 10, peak_day: 200}}\nanalysis:\n  simulate: {duration: 1y, step: 1d}\n",
 			0, nil},

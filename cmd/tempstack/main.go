@@ -63,7 +63,9 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	if errors.As(err, &ce) {
 		return ce.ExitCode()
 	}
-	return 1
+	// Anything else is not the user's doing (a result that cannot be
+	// encoded, a write that failed for a reason we did not foresee).
+	return 2
 }
 
 func newApp(stdout, stderr io.Writer) *cli.App {

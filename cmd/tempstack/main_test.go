@@ -183,3 +183,40 @@ func TestMaterialsFilter(t *testing.T) {
 		t.Errorf("json: %d %q", code, out)
 	}
 }
+
+// TestGuardsInsteadOfCrashes: inputs that once crashed or hung are refused
+// with one line naming the limit (invented test data).
+func TestGuardsInsteadOfCrashes(t *testing.T) {
+	dir := t.TempDir()
+	var many strings.Builder
+	many.WriteString("title: many\nkind: wall\nlayers:\n")
+	for i := 0; i < 1001; i++ {
+		many.WriteString("  - {material: clay-brick, thickness: 1 mm}\n")
+	}
+	many.WriteString("outside:\n  temperature: {mean: 5}\n")
+	cases := []struct{ name, yaml, want string }{
+		{"tiny-diffusivity", `title: x
+kind: wall
+layers:
+  - {name: odd, conductivity: 1e-30, density: 1000, specific_heat: 1000, thickness: 0.1}
+outside:
+  temperature: {mean: 5, daily: {amplitude: 5, peak_hour: 15}}
+`, "cells than the limit of 200000"},
+		{"many-layers", many.String(), "more than the limit of 1000"},
+		{"huge-density", `title: x
+kind: wall
+layers:
+  - {name: odd, conductivity: 1, density: 1e30, specific_heat: 1000, thickness: 0.1}
+outside:
+  temperature: {mean: 5, daily: {amplitude: 5, peak_hour: 15}}
+`, "cells than the limit"},
+	}
+	for _, c := range cases {
+		p := filepath.Join(dir, c.name+".yaml")
+		os.WriteFile(p, []byte(c.yaml), 0o644)
+		code, _, stderr := runCLI(t, "run", p, "--out", filepath.Join(dir, "out-"+c.name), "-q")
+		if code != 1 || !strings.Contains(stderr, c.want) || strings.Count(stderr, "\n") != 1 {
+			t.Errorf("%s: exit %d, %q; want exit 1 saying %q", c.name, code, stderr, c.want)
+		}
+	}
+}
