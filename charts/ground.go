@@ -35,6 +35,9 @@ func indexUsed(f *scenarios.Frost) (float64, string) {
 
 // airIndexLabel names the air freezing index f.FreezingIndex_Cd holds.
 func airIndexLabel(f *scenarios.Frost) string {
+	if f.IndexSource == "design" {
+		return "Design air freezing index (given in the scenario)"
+	}
 	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
 		return "Air freezing index of the record (" + strings.TrimSpace(rec) + ")"
 	}
@@ -118,9 +121,8 @@ func freezingIndexTable(r *scenarios.Results) *block {
 	if f.SurfaceFreezingIndex_Cd > 0 {
 		t.row("Surface freezing index (n × air)", cd(f.SurfaceFreezingIndex_Cd))
 	}
-	if d := f.DesignFreezingIndex_Cd; d != nil {
-		t.row("Design air freezing index", cd(*d))
-		t.row("Design surface freezing index (n × design air)", cd(f.FreezingNFactor**d))
+	if fi := f.ForcingFreezingIndex_Cd; fi != nil {
+		t.row("Air freezing index of the forcing (one winter; not used by the closed forms)", cd(*fi))
 	}
 	idx, from := indexUsed(f)
 	t.row("Index used by Stefan and modified Berggren", cd(idx)+" (from the "+from+")")

@@ -111,12 +111,21 @@ func TestGroundSections(t *testing.T) {
 	}
 
 	// A design index: used by the closed forms, shown beside the forcing's.
-	d := 600.0
+	// As scenarios fills it: the headline index is the design index, the
+	// forcing's own index stays beside it.
+	d, forcing := 600.0, r.Frost.FreezingIndex_Cd
 	r.Frost.DesignFreezingIndex_Cd, r.Frost.IndexSource = &d, "design"
+	r.Frost.FreezingIndex_Cd, r.Frost.SurfaceFreezingIndex_Cd, r.Frost.ForcingFreezingIndex_Cd = d, 0.7*d, &forcing
 	page = render(t, r, Options{})
 	fi := tableRows(t, page, "Freezing index and frost climate")
-	if got := rowOf(t, fi, "Design surface freezing index"); got[1] != "420 °C·d" {
+	if got := rowOf(t, fi, "Design air freezing index"); got[1] != "600 °C·d" {
+		t.Errorf("design air index %q, want 600 °C·d", got)
+	}
+	if got := rowOf(t, fi, "Surface freezing index"); got[1] != "420 °C·d" {
 		t.Errorf("design surface index %q, want 0.7 × 600 = 420 °C·d", got)
+	}
+	if got := rowOf(t, fi, "Air freezing index of the forcing"); got[1] != cd(forcing) {
+		t.Errorf("forcing's index %q, want %s", got, cd(forcing))
 	}
 	if got := rowOf(t, fi, "Index used by Stefan"); got[1] != "420 °C·d (from the design air index)" {
 		t.Errorf("index used %q", got)

@@ -309,6 +309,15 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
 		v := *d
 		fr.DesignFreezingIndex_Cd = &v
 		fr.IndexSource = "design"
+		// The headline index is the one the closed forms use; the
+		// forcing's own index stays beside it.
+		if fr.FreezingIndex_Cd > 0 {
+			fi := fr.FreezingIndex_Cd
+			fr.ForcingFreezingIndex_Cd = &fi
+		}
+		fr.FreezingIndex_Cd = fc.AirIndex
+		fr.SurfaceFreezingIndex_Cd = fc.SurfaceIndex
+		fr.SeasonLength_d = fc.SeasonDays
 		ok = true
 	}
 	if !ok || fc.SurfaceIndex <= 0 {

@@ -175,7 +175,8 @@ type Frost struct {
 	SeasonLength_d          float64       `json:"season_length_d"`
 	MeanAnnualAir_C         float64       `json:"mean_annual_air_C"`
 	DesignFreezingIndex_Cd  *float64      `json:"design_freezing_index_Cd,omitempty"`
-	IndexSource             string        `json:"index_source"` // what the closed forms used: "forcing", "design" or "record: ..."
+	ForcingFreezingIndex_Cd *float64      `json:"forcing_freezing_index_Cd,omitempty"` // with a design index: the forcing's own air index
+	IndexSource             string        `json:"index_source"`                        // what the closed forms used: "forcing", "design" or "record: ..."
 	BerggrenLambda          float64       `json:"berggren_lambda"`
 	BerggrenAlpha           float64       `json:"berggren_alpha"`
 	BerggrenMu              float64       `json:"berggren_mu"`

@@ -28,8 +28,16 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 			s.Duration_h, s.Step_h, s.Cells, s.EnergyBalanceRelativeError)
 	}
 	if f := r.Frost; f != nil {
-		fmt.Fprintf(w, "  frost: freezing index %.0f degC day, simulated depth %.2f m, Stefan %.2f m, modified Berggren %.2f m (estimates; local codes govern)\n",
-			f.FreezingIndex_Cd, f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m)
+		sim := "not simulated"
+		if r.Simulation != nil {
+			sim = fmt.Sprintf("simulated depth %.2f m", f.MaxFrostDepth_m)
+		}
+		src := ""
+		if f.IndexSource != "" && f.IndexSource != "forcing" {
+			src = " (" + f.IndexSource + ")"
+		}
+		fmt.Fprintf(w, "  frost: air freezing index %.0f degC day%s, %s, Stefan %.2f m, modified Berggren %.2f m (estimates; local codes govern)\n",
+			f.FreezingIndex_Cd, src, sim, f.StefanDepth_m, f.ModifiedBerggrenDepth_m)
 	}
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
