@@ -247,3 +247,39 @@ analysis:
 	b.ReportMetric(cells*steps*float64(b.N)/b.Elapsed().Seconds(), "cell-steps/s")
 	b.ReportMetric(cells, "cells")
 }
+
+// TestDesignIndexDrivesClosedForms: with a design air freezing index the
+// closed forms use n x design; the Stefan depth of a homogeneous soil is
+// X = sqrt(2 k_f F 86400 / L) (Stefan's formula, REFERENCES section 4, as
+// in Handy and Spangler Example 11.7 [read]).
+func TestDesignIndexDrivesClosedForms(t *testing.T) {
+	s, err := Decode("design.yaml", []byte(`
+title: design index
+kind: ground
+layers:
+  - soil: {texture: sand, dry_density: 1800, water_content: 10 %}
+    thickness: 20 m
+surface:
+  cover: concrete
+  temperature: {mean: 4, annual: {amplitude: 13, peak_day: 200}}
+analysis:
+  design_freezing_index: 1500
+  design_season_length: 150d
+  simulate: false
+`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Run(s, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	l := s.Layers[0].Solver()
+	F := 0.75 * 1500 // UFC 3-130-04 Table 4-1: concrete, freezing n 0.75 [read]
+	want := math.Sqrt(2 * l.Freeze.ConductivityFrozen * F * 86400 / l.Freeze.LatentHeat)
+	f := r.Frost
+	if math.Abs(f.StefanDepth_m-want) > 1e-9 || f.FreezingIndex_Cd != 1500 || math.Abs(f.SurfaceFreezingIndex_Cd-F) > 1e-9 ||
+		f.ForcingFreezingIndex_Cd == nil || f.IndexSource != "design" || !(f.ModifiedBerggrenDepth_m < f.StefanDepth_m) {
+		t.Errorf("frost %+v; Stefan want %.4f m", f, want)
+	}
+}
