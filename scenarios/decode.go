@@ -1152,7 +1152,7 @@ func (d *decoder) decodeSoil(parent *object, s *Scenario) (layers.Layer, error) 
 	if soil.Model == ground.ModelJohansen {
 		model = "Johansen (1975)"
 	}
-	l.Source = "soil model: conductivity " + model + "; heat capacity of solids, water and ice; latent heat rho_d w 334 kJ/kg (see README, Methods)"
+	l.Source = "soil model: conductivity " + model + "; volumetric heat capacity of solids plus water or ice; latent heat = dry density × water content × 334 kJ/kg"
 	return l, nil
 }
 
