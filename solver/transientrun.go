@@ -914,8 +914,24 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				continue
 			}
 			ph := &r.phases[k]
-			sold, ruOld, rdOld := s[i], r.rh[i], r.rd[i]
 			rn := ph.region(H[i])
+			if rn == reg[i] && rn != 1 {
+				// Still fully frozen or fully unfrozen: the cell is linear
+				// and its slope, conductivity and resistances are those it
+				// had (updateCell would set the same values), so only its
+				// temperature changes. The formulas are those of state.
+				if rn == 2 {
+					T[i] = ph.tp + (H[i]-ph.hp)/ph.cu
+				} else {
+					T[i] = ph.tl + H[i]/ph.cf
+				}
+				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
+					errT = e
+				}
+				continue
+			}
+			sold, ruOld, rdOld := s[i], r.rh[i], r.rd[i]
+			druOld, drdOld := r.dru[i], r.drd[i]
 			if rn != reg[i] && nclip[i] < 4 && !last {
 				// Stop on the first kink crossed; continue beyond it.
 				next := reg[i] + 1
@@ -936,13 +952,18 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				r.updateCell(i)
 				reg[i] = rn
 			}
-			errT = math.Max(errT, math.Abs(T[i]-tlin[i]))
+			if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
+				errT = e
+			}
 			if r.rh[i] != ruOld || r.rd[i] != rdOld {
 				rs := r.rh[i] + r.rd[i]
 				dk = math.Max(dk, math.Max(math.Abs(r.rh[i]-ruOld), math.Abs(r.rd[i]-rdOld))/rs)
 				klo, khi = min(klo, i), max(khi, i)
 			}
-			if r.rh[i] != ruOld || r.rd[i] != rdOld || s[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 {
+			// The rows next to a cell whose slope, resistances or their
+			// derivatives are (or were, in the rows kept) not those of a
+			// linear cell are factorised again.
+			if r.rh[i] != ruOld || r.rd[i] != rdOld || s[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 || druOld != 0 || drdOld != 0 {
 				r.nlDirty = max(r.nlDirty, min(i+1, n-1))
 			}
 		}
