@@ -116,8 +116,11 @@ type fvRun struct {
 	// workspace
 	tn, rhs, lo, di, up, w, tlin, hrhs, hn, hold []float64
 	ipiv                                         []float64 // inverse pivots of the enthalpy system
+	fa, fb                                       []float64 // dF_j/dH_j and dF_j/dH_{j+1} of each face flux F_j, W/m2 per J/m3
 	reg, nclip                                   []int8
 	pcells                                       []int   // cells with a phase change
+	isoCells                                     []int   // cells with an isothermal phase change
+	regOK                                        bool    // reg holds the region of every phase cell's enthalpy
 	nlTh                                         float64 // theta*dt of the kept factorisation
 	nlDirty                                      int     // rows from here up need factorising again
 	fac                                          fvSymTridiag
@@ -227,6 +230,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
 	r.ipiv = alloc()
+	r.fa, r.fb = alloc(), alloc()
 	r.cmin = alloc()
 	for i := range r.cmin {
 		r.cmin[i] = r.cvol[i]
@@ -238,6 +242,9 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	for i := range r.pidx {
 		if r.pidx[i] >= 0 {
 			r.pcells = append(r.pcells, i)
+			if r.phases[r.pidx[i]].isoTerm {
+				r.isoCells = append(r.isoCells, i)
+			}
 		}
 	}
 
@@ -436,6 +443,7 @@ func (r *fvRun) run() (*Result, error) {
 	n := r.n
 	r.eOut, r.eIn, r.eAbs = fvKahan{}, fvKahan{}, fvKahan{}
 	r.iterations, r.unconverged = 0, 0
+	r.regOK = false
 	copy(r.T0, r.T)
 	copy(r.H0, r.H)
 	var err error
@@ -775,11 +783,20 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	lo, di, up, y, wb, ip := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n], r.ipiv[:n]
 	reg, nclip := r.reg[:n], r.nclip[:n]
 	gg := r.gg
+	fa, fb := r.fa[:max(n-1, 0)], r.fb[:max(n-1, 0)]
 	out, in := &r.out, &r.in
-	for _, i := range r.pcells {
-		reg[i] = r.phases[r.pidx[i]].region(H[i])
-		nclip[i] = 0
-		// Which side of the cell would freeze first: the colder neighbour's.
+	if !r.regOK {
+		for _, i := range r.pcells {
+			reg[i] = r.phases[r.pidx[i]].region(H[i])
+		}
+		// A stage ends on an unclipped update, which leaves reg as the
+		// region of each cell's enthalpy for the next stage.
+		r.regOK = true
+	}
+	clear(nclip)
+	for _, i := range r.isoCells {
+		// Which side of the cell would freeze first: the colder neighbour's
+		// (used by setHalves in a mushy isothermal cell only).
 		var up bool
 		switch {
 		case n == 1:
@@ -830,29 +847,38 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		if in.kind == Environment {
 			ai = -in.g*s[n-1] - (vi-T[n-1])*in.g*in.g*r.drd[n-1]
 		}
+		// Face j between cells j and j+1 carries F_j = G_j (T_j - T_{j+1});
+		// a_j = dF_j/dH_j, b_j = dF_j/dH_{j+1} (including dG/dH), kept in
+		// fa, fb for the update below. The faces of the rows kept join
+		// linear cells: their a, b depend on neither T nor H.
+		var aL, bL float64 // face below row i
+		if i := r.nlDirty; i >= 0 && i < n-1 {
+			g, dT := gg[i], T[i]-T[i+1]
+			aL = g*s[i] - dT*g*g*r.drd[i]
+			bL = -g*s[i+1] - dT*g*g*r.dru[i+1]
+			fa[i], fb[i] = aL, bL
+		}
 		for i := r.nlDirty; i >= 0; i-- {
-			// Face j between cells j and j+1 carries F_j = G_j (T_j - T_{j+1});
-			// a_j = dF_j/dH_j, b_j = dF_j/dH_{j+1} (including dG/dH).
 			var dN float64 // d(net inflow of cell i)/dH_i
+			var aU, bU float64
 			lo[i], up[i] = 0, 0
 			if i > 0 {
 				g, dT := gg[i-1], T[i-1]-T[i]
-				a := g*s[i-1] - dT*g*g*r.drd[i-1]
-				b := -g*s[i] - dT*g*g*r.dru[i]
-				dN += b
-				lo[i] = -th * a
+				aU = g*s[i-1] - dT*g*g*r.drd[i-1]
+				bU = -g*s[i] - dT*g*g*r.dru[i]
+				fa[i-1], fb[i-1] = aU, bU
+				dN += bU
+				lo[i] = -th * aU
 			} else {
 				dN += ao
 			}
 			if i < n-1 {
-				g, dT := gg[i], T[i]-T[i+1]
-				a := g*s[i] - dT*g*g*r.drd[i]
-				b := -g*s[i+1] - dT*g*g*r.dru[i+1]
-				dN -= a
-				up[i] = th * b
+				dN -= aL
+				up[i] = th * bL
 			} else {
 				dN += ai
 			}
+			aL, bL = aU, bU
 			di[i] = h[i] - th*dN
 			piv := di[i]
 			if i < n-1 {
@@ -894,10 +920,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				xn := y[i+1] - wb[i+1]*x
 				tlin[i+1] = T[i+1] + s[i+1]*xn
 				// Linearised face flux F_i + a_i delta_i + b_i delta_{i+1}.
-				g, dT := gg[i], T[i]-T[i+1]
-				a := g*s[i] - dT*g*g*r.drd[i]
-				b := -g*s[i+1] - dT*g*g*r.dru[i+1]
-				fBelow = g*dT + a*x + b*xn
+				fBelow = gg[i]*(T[i]-T[i+1]) + fa[i]*x + fb[i]*xn
 				x = xn
 			} else {
 				qi = in.inflow(vi, T[i]) + ai*x
