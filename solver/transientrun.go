@@ -784,6 +784,8 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	reg, nclip := r.reg[:n], r.nclip[:n]
 	gg := r.gg
 	fa, fb := r.fa[:max(n-1, 0)], r.fb[:max(n-1, 0)]
+	pidx, phases := r.pidx[:n], r.phases
+	dru, drd := r.dru[:n], r.drd[:n]
 	out, in := &r.out, &r.in
 	if !r.regOK {
 		for _, i := range r.pcells {
@@ -854,8 +856,8 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		var aL, bL float64 // face below row i
 		if i := r.nlDirty; i >= 0 && i < n-1 {
 			g, dT := gg[i], T[i]-T[i+1]
-			aL = g*s[i] - dT*g*g*r.drd[i]
-			bL = -g*s[i+1] - dT*g*g*r.dru[i+1]
+			aL = g*s[i] - dT*g*g*drd[i]
+			bL = -g*s[i+1] - dT*g*g*dru[i+1]
 			fa[i], fb[i] = aL, bL
 		}
 		for i := r.nlDirty; i >= 0; i-- {
@@ -864,8 +866,8 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			lo[i], up[i] = 0, 0
 			if i > 0 {
 				g, dT := gg[i-1], T[i-1]-T[i]
-				aU = g*s[i-1] - dT*g*g*r.drd[i-1]
-				bU = -g*s[i] - dT*g*g*r.dru[i]
+				aU = g*s[i-1] - dT*g*g*drd[i-1]
+				bU = -g*s[i] - dT*g*g*dru[i]
 				fa[i-1], fb[i-1] = aU, bU
 				dN += bU
 				lo[i] = -th * aU
@@ -928,7 +930,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			}
 			H[i] = hrhs[i] + th*invh[i]*(fAbove-fBelow)
 			fAbove = fBelow
-			k := r.pidx[i]
+			k := pidx[i]
 			if k < 0 {
 				T[i] = H[i] * s[i]
 				if e := math.Abs(T[i] - tlin[i]); e > errT {
@@ -936,23 +938,25 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				}
 				continue
 			}
-			ph := &r.phases[k]
-			rn := ph.region(H[i])
-			if rn == reg[i] && rn != 1 {
-				// Still fully frozen or fully unfrozen: the cell is linear
-				// and its slope, conductivity and resistances are those it
-				// had (updateCell would set the same values), so only its
-				// temperature changes. The formulas are those of state.
-				if rn == 2 {
-					T[i] = ph.tp + (H[i]-ph.hp)/ph.cu
-				} else {
-					T[i] = ph.tl + H[i]/ph.cf
+			ph := &phases[k]
+			// A cell still fully unfrozen or fully frozen is linear: its
+			// slope, conductivity and resistances are those it had
+			// (updateCell would set the same values), so only its
+			// temperature changes, by the formulas of state.
+			if hi := H[i]; reg[i] == 2 && hi >= ph.hp {
+				T[i] = ph.tp + (hi-ph.hp)/ph.cu
+				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
+					errT = e
 				}
+				continue
+			} else if reg[i] == 0 && hi <= 0 {
+				T[i] = ph.tl + hi/ph.cf
 				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
 					errT = e
 				}
 				continue
 			}
+			rn := ph.region(H[i])
 			sold, ruOld, rdOld := s[i], r.rh[i], r.rd[i]
 			druOld, drdOld := r.dru[i], r.drd[i]
 			if rn != reg[i] && nclip[i] < 4 && !last {
