@@ -125,7 +125,7 @@ func (r *fvRun) probe(x, qo, qi, tso, tsi float64) float64 {
 		tu, tl := T[c]+qa*r.rh[c], T[c]-qb*r.rd[c]
 		f := (1 - r.phi[c]) * r.h[c]
 		xf := m.Faces[c] + f
-		if !r.frozenUp[c] {
+		if !r.sideUp(c) {
 			xf = m.Faces[c+1] - f
 		}
 		if x <= xf {
@@ -220,7 +220,7 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		if tso < thr[0] {
 			frost = cross(0, tso, m.Centers[0], T[0], thr[0])
 		}
-	case iso(deep) && !r.frozenUp[deep]:
+	case iso(deep) && !r.sideUp(deep):
 		frost = m.Faces[deep+1] // the ice lies at the bottom of the cell
 	case iso(deep) || thin(deep, deep-1):
 		frost = m.Faces[deep] + (1-r.phi[deep])*r.h[deep]
@@ -239,7 +239,7 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		top++
 	}
 	switch {
-	case iso(top) && r.frozenUp[top]:
+	case iso(top) && r.sideUp(top):
 		thaw = m.Faces[top] // the ice lies at the top of the cell
 	case iso(top) || thin(top, top+1):
 		thaw = m.Faces[top] + r.phi[top]*r.h[top]

@@ -94,7 +94,9 @@ type fvRun struct {
 	kc       []float64 // current conductivity, W/(m K)
 	rh       []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
 	rd       []float64 // resistance from the node to the lower face, m2 K/W
-	frozenUp []bool    // the frozen part of a mushy isothermal cell lies on its upper side
+	frozenUp []bool    // the side (sideUp) the resistances of a mushy isothermal cell were last set for
+	tStart   []float64 // temperatures at the start of the current implicit stage, degC
+	tStartOK bool      // tStart is set
 	cmin     []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
 	lagG     bool      // keep the conductances of the current iteration (see implicit)
 	dru, drd []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
@@ -198,6 +200,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	r.h, r.invh, r.cvol, r.capc, r.kc, r.rh, r.thr = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.rd, r.dru, r.drd = alloc(), alloc(), alloc()
 	r.frozenUp = make([]bool, n)
+	r.tStart = alloc()
 	for i := range r.frozenUp {
 		r.frozenUp[i] = true
 	}
@@ -360,7 +363,7 @@ func (r *fvRun) updateCell(i int) {
 // distances wherever the front is, and the temperatures near the front
 // saw-tooth with an error of first order in the cell size: 0.19 K instead
 // of 0.008 K on the Neumann test case at the default mesh.) The frozen
-// side (frozenUp) is chosen at the start of each implicit stage from the
+// side (sideUp) is chosen at the start of each implicit stage from the
 // neighbours' temperatures.
 func (r *fvRun) setHalves(i int) {
 	if r.lagG {
@@ -380,7 +383,9 @@ func (r *fvRun) setHalves(i int) {
 		if ru < 0.02*h/ph.ku {
 			ru, duf = 0.02*h/ph.ku, 0
 		}
-		if r.frozenUp[i] {
+		up := r.sideUp(i)
+		r.frozenUp[i] = up
+		if up {
 			r.rh[i], r.rd[i], r.dru[i], r.drd[i] = rf, ru, dfz, duf
 		} else {
 			r.rh[i], r.rd[i], r.dru[i], r.drd[i] = ru, rf, duf, dfz
@@ -395,6 +400,23 @@ func (r *fvRun) setHalves(i int) {
 		d := -h / (2 * r.kc[i] * r.kc[i]) * (ph.ku - ph.kf) * r.slope[i] / ph.rng
 		r.dru[i], r.drd[i] = d, d
 	}
+}
+
+// sideUp reports whether the frozen part of a partly frozen isothermal
+// cell i lies on its upper side: the side of its colder neighbour at the
+// start of the current implicit stage (the upper side before the first
+// stage).
+func (r *fvRun) sideUp(i int) bool {
+	T, n := r.tStart, r.n
+	switch {
+	case !r.tStartOK || n == 1:
+		return true
+	case i == 0:
+		return T[1] > T[0]
+	case i == n-1:
+		return T[i-1] < T[i]
+	}
+	return T[i-1] < T[i+1]
 }
 
 // endLag ends a stage whose conductances were held: the resistances and
@@ -796,27 +818,17 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		r.regOK = true
 	}
 	clear(nclip)
+	// The side on which an isothermal cell freezes first is decided from
+	// the temperatures at the start of the stage (sideUp); a partly
+	// frozen cell whose side changed gets new resistances. The other cells
+	// take their side when they become partly frozen.
+	copy(r.tStart, T)
+	r.tStartOK = true
 	for _, i := range r.isoCells {
-		// Which side of the cell would freeze first: the colder neighbour's
-		// (used by setHalves in a mushy isothermal cell only).
-		var up bool
-		switch {
-		case n == 1:
-			up = true
-		case i == 0:
-			up = T[1] > T[0]
-		case i == n-1:
-			up = T[i-1] < T[i]
-		default:
-			up = T[i-1] < T[i+1]
-		}
-		if up != r.frozenUp[i] {
-			r.frozenUp[i] = up
-			if reg[i] == 1 {
-				r.setHalves(i)
-				r.nlDirty = n - 1
-				r.updateConductances()
-			}
+		if reg[i] == 1 && r.sideUp(i) != r.frozenUp[i] {
+			r.setHalves(i)
+			r.nlDirty = n - 1
+			r.updateConductances()
 		}
 	}
 	if th != r.nlTh {
