@@ -121,8 +121,8 @@ type fvRun struct {
 	fa, fb                                       []float64 // dF_j/dH_j and dF_j/dH_{j+1} of each face flux F_j, W/m2 per J/m3
 	reg, nclip                                   []int8
 	pcells                                       []int   // cells with a phase change
-	isoCells                                     []int   // cells with an isothermal phase change
 	regOK                                        bool    // reg holds the region of every phase cell's enthalpy
+	mLo, mHi                                     int     // the cells in their freezing range lie from mLo to mHi
 	nlTh                                         float64 // theta*dt of the kept factorisation
 	nlDirty                                      int     // rows from here up need factorising again
 	fac                                          fvSymTridiag
@@ -245,9 +245,6 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	for i := range r.pidx {
 		if r.pidx[i] >= 0 {
 			r.pcells = append(r.pcells, i)
-			if r.phases[r.pidx[i]].isoTerm {
-				r.isoCells = append(r.isoCells, i)
-			}
 		}
 	}
 
@@ -740,10 +737,21 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 		if err != nil {
 			return err
 		}
-		qo0, qi0 := r.netFlux(r.T, vo0, vi0, f)
+		// Stage 1 right-hand side H + th/h (net inflow), as netFlux.
+		T, gg, invh := r.T[:n], r.gg, r.invh[:n]
+		qo0, qi0 := r.out.inflow(vo0, T[0]), r.in.inflow(vi0, T[n-1])
+		fl := qo0
 		for i := range H {
-			hn[i] = H[i]
-			hrhs[i] = H[i] + th*r.invh[i]*f[i]
+			hi := H[i]
+			hn[i] = hi
+			var fr float64
+			if i < n-1 {
+				fr = gg[i] * (T[i] - T[i+1])
+			} else {
+				fr = -qi0
+			}
+			hrhs[i] = hi + th*invh[i]*(fl-fr)
+			fl = fr
 		}
 		qom, qim := r.implicit(th, vom, vim)
 		for i := range H {
@@ -810,11 +818,16 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	dru, drd := r.dru[:n], r.drd[:n]
 	out, in := &r.out, &r.in
 	if !r.regOK {
+		r.mLo, r.mHi = n, -1
 		for _, i := range r.pcells {
 			reg[i] = r.phases[r.pidx[i]].region(H[i])
+			if reg[i] == 1 {
+				r.mLo, r.mHi = min(r.mLo, i), max(r.mHi, i)
+			}
 		}
 		// A stage ends on an unclipped update, which leaves reg as the
-		// region of each cell's enthalpy for the next stage.
+		// region of each cell's enthalpy for the next stage, and mLo, mHi
+		// around the cells in their freezing range.
 		r.regOK = true
 	}
 	clear(nclip)
@@ -824,8 +837,8 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	// take their side when they become partly frozen.
 	copy(r.tStart, T)
 	r.tStartOK = true
-	for _, i := range r.isoCells {
-		if reg[i] == 1 && r.sideUp(i) != r.frozenUp[i] {
+	for i := max(r.mLo, 0); i <= min(r.mHi, n-1); i++ {
+		if reg[i] == 1 && phases[pidx[i]].isoTerm && r.sideUp(i) != r.frozenUp[i] {
 			r.setHalves(i)
 			r.nlDirty = n - 1
 			r.updateConductances()
@@ -922,6 +935,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		// known, and the new state of the cell.
 		last := it+1 >= fvMaxIter
 		errT, dk := 0.0, 0.0
+		mLo, mHi := n, -1 // cells left in their freezing range
 		clipped := false
 		klo, khi := n, -1
 		x := y[0] // delta_i
@@ -940,7 +954,8 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 				qi = in.inflow(vi, T[i]) + ai*x
 				fBelow = -qi
 			}
-			H[i] = hrhs[i] + th*invh[i]*(fAbove-fBelow)
+			hi := hrhs[i] + th*invh[i]*(fAbove-fBelow)
+			H[i] = hi
 			fAbove = fBelow
 			k := pidx[i]
 			if k < 0 {
@@ -955,7 +970,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			// slope, conductivity and resistances are those it had
 			// (updateCell would set the same values), so only its
 			// temperature changes, by the formulas of state.
-			if hi := H[i]; reg[i] == 2 && hi >= ph.hp {
+			if reg[i] == 2 && hi >= ph.hp {
 				T[i] = ph.tp + (hi-ph.hp)/ph.cu
 				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
 					errT = e
@@ -990,6 +1005,9 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			} else {
 				r.updateCell(i)
 				reg[i] = rn
+			}
+			if reg[i] == 1 {
+				mLo, mHi = min(mLo, i), max(mHi, i)
 			}
 			if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
 				errT = e
@@ -1042,11 +1060,13 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		}
 		if !clipped && errT <= fvTolT && dk <= fvTolK {
 			r.endLag()
+			r.mLo, r.mHi = mLo, mHi
 			return qo, qi
 		}
 		if last {
 			r.unconverged++
 			r.endLag()
+			r.mLo, r.mHi = mLo, mHi
 			return qo, qi
 		}
 	}
