@@ -959,7 +959,7 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 			fAbove = fBelow
 			k := pidx[i]
 			if k < 0 {
-				T[i] = H[i] * s[i]
+				T[i] = hi * s[i]
 				if e := math.Abs(T[i] - tlin[i]); e > errT {
 					errT = e
 				}
