@@ -805,7 +805,12 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 // The system is eliminated from the bottom up and its pivots are kept
 // between iterations and steps: only the rows above the deepest cell whose
 // slope or conductivity changed are factorised again (in a ground column
-// the frost stays near the surface, so the deep rows are reused).
+// the frost stays near the surface, so the deep rows are reused), and
+// the derivatives of the face fluxes are kept with them. A freezing cell
+// that stays fully frozen or fully unfrozen is linear: only its
+// temperature is updated; its slope, conductivity and resistances stand
+// (TestEnthalpyCachedStateMatchesFresh checks that they equal a fresh
+// evaluation).
 func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	n := r.n
 	H, T, s, kc := r.H[:n], r.T[:n], r.slope[:n], r.kc[:n]
