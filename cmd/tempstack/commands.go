@@ -13,6 +13,7 @@ import (
 	"reflect"
 	"strings"
 	"text/tabwriter"
+	"time"
 
 	"github.com/urfave/cli/v2"
 
@@ -82,6 +83,7 @@ func runCommand() *cli.Command {
 			exampleFlag(),
 			&cli.BoolFlag{Name: "quiet", Aliases: []string{"q"}, Usage: "print nothing on success"},
 			&cli.BoolFlag{Name: "force", Usage: "write into a non-empty --out folder that holds no earlier results.json"},
+			&cli.BoolFlag{Name: "date", Usage: "print today's date in the report (off by default, so the same input gives a byte-identical report)"},
 		},
 		OnUsageError: usageError,
 		Action: func(c *cli.Context) error {
@@ -98,7 +100,11 @@ func runCommand() *cli.Command {
 			if err != nil {
 				return asUserError(err)
 			}
-			written, err := writeOutputs(dir, res)
+			opt := charts.Options{ToolVersion: version}
+			if c.Bool("date") {
+				opt.GeneratedAt = time.Now().Format("2 January 2006")
+			}
+			written, err := writeOutputs(dir, res, opt)
 			if err != nil {
 				return err
 			}
@@ -222,7 +228,7 @@ func leftovers(dir string, written []string) []string {
 // the temporary files and leaves every earlier file in dir untouched; a
 // process killed before it leaves the earlier files intact too (at worst
 // with a hidden temporary file beside them, never a half-written output).
-func writeOutputs(dir string, res *scenarios.Results) ([]string, error) {
+func writeOutputs(dir string, res *scenarios.Results, opt charts.Options) ([]string, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, userErr("cannot create output folder %s: %v", dir, cleanPathError(err))
 	}
@@ -243,7 +249,7 @@ func writeOutputs(dir string, res *scenarios.Results) ([]string, error) {
 	}
 	js = append(js, '\n')
 	var html bytes.Buffer
-	if err := charts.Write(&html, res, charts.Options{ToolVersion: version}); err != nil {
+	if err := charts.Write(&html, res, opt); err != nil {
 		return nil, fmt.Errorf("building report.html: %w", err)
 	}
 	files = append(files, file{"results.json", js}, file{"report.html", html.Bytes()})

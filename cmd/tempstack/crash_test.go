@@ -11,6 +11,7 @@ import (
 	"regexp"
 	"strings"
 	"syscall"
+	"tempstack/charts"
 	"testing"
 	"time"
 
@@ -356,7 +357,7 @@ func TestLimitsThroughTheCommand(t *testing.T) {
 func TestNonFiniteResultsAreRefused(t *testing.T) {
 	res := &scenarios.Results{Title: "t", Kind: "wall", Periodic: []scenarios.PeriodicResult{{Period_h: 24}, {Period_h: 12, DecrementFactor: math.Inf(1)}}}
 	dir := t.TempDir()
-	_, err := writeOutputs(dir, res)
+	_, err := writeOutputs(dir, res, charts.Options{ToolVersion: version})
 	if err == nil || !strings.Contains(err.Error(), "periodic[1].decrement_factor") {
 		t.Fatalf("err = %v, want one naming periodic[1].decrement_factor", err)
 	}

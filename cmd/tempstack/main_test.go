@@ -220,3 +220,34 @@ outside:
 		}
 	}
 }
+
+// TestReportIsDeterministicUnlessDated: two runs give byte-identical
+// outputs; --date adds a date to the report only.
+func TestReportIsDeterministicUnlessDated(t *testing.T) {
+	dir := t.TempDir()
+	read := func(sub string, args ...string) map[string][]byte {
+		out := filepath.Join(dir, sub)
+		code, _, stderr := runCLI(t, append([]string{"run", "--out", out, "-q"}, args...)...)
+		if code != 0 {
+			t.Fatalf("exit %d: %s", code, stderr)
+		}
+		files, _ := filepath.Glob(filepath.Join(out, "*"))
+		m := map[string][]byte{}
+		for _, f := range files {
+			m[filepath.Base(f)], _ = os.ReadFile(f)
+		}
+		return m
+	}
+	a, b, c := read("a"), read("b"), read("c", "--date")
+	for name, data := range a {
+		if !bytes.Equal(data, b[name]) {
+			t.Errorf("%s differs between two runs", name)
+		}
+		if name != "report.html" && !bytes.Equal(data, c[name]) {
+			t.Errorf("%s differs with --date", name)
+		}
+	}
+	if bytes.Equal(a["report.html"], c["report.html"]) {
+		t.Error("--date left the report unchanged")
+	}
+}
