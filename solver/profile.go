@@ -239,17 +239,10 @@ func tmPositions(c Column, x []float64) ([]float64, error) {
 // side (see the package-level comment in profile.go, the file of this
 // function).
 func Harmonic(c Column, period float64, outside, inside complex128, x []float64) (temp, flux []complex128, err error) {
-	if err := tmCheckColumn(c); err != nil {
-		return nil, nil, err
-	}
-	if err := tmCheckPeriod(period); err != nil {
-		return nil, nil, err
-	}
-	xs, err := tmPositions(c, x)
+	ch, xs, err := tmPrepare(c, period, x, false)
 	if err != nil {
 		return nil, nil, err
 	}
-	ch := tmBuildChain(c, period, xs, false)
 	so := ch.fromOutside(outside)
 	var si tmSide
 	if !c.HalfSpace {
@@ -277,16 +270,9 @@ func Harmonic(c Column, period float64, outside, inside complex128, x []float64)
 	return temp, flux, nil
 }
 
-// HarmonicInsulated is Harmonic for a column whose inside face carries no
-// periodic heat flux: an adiabatic face, or a face with a constant
-// prescribed heat flux (a geothermal flux at the bottom of a finite ground
-// column), whose harmonic part is zero. InsideResistance and c.HalfSpace
-// are ignored (the column ends at its last layer); x must lie in
-// [0, Thickness]. Returned values follow the conventions of Harmonic. This
-// is the periodic state a finite-depth simulation with a flux or adiabatic
-// bottom starts from.
-func HarmonicInsulated(c Column, period float64, outside complex128, x []float64) (temp, flux []complex128, err error) {
-	c.HalfSpace = false
+// tmPrepare checks the column, period and positions of Harmonic and
+// HarmonicInsulated and builds their transfer-matrix chain.
+func tmPrepare(c Column, period float64, x []float64, insulated bool) (*tmChain, []float64, error) {
 	if err := tmCheckColumn(c); err != nil {
 		return nil, nil, err
 	}
@@ -297,7 +283,23 @@ func HarmonicInsulated(c Column, period float64, outside complex128, x []float64
 	if err != nil {
 		return nil, nil, err
 	}
-	ch := tmBuildChain(c, period, xs, true)
+	return tmBuildChain(c, period, xs, insulated), xs, nil
+}
+
+// HarmonicInsulated is Harmonic for a column whose inside face carries no
+// periodic heat flux: an adiabatic face, or a face with a constant
+// prescribed heat flux (a geothermal flux at the bottom of a finite ground
+// column), whose harmonic part is zero. InsideResistance and c.HalfSpace
+// are ignored (the column ends at its last layer); x must lie in
+// [0, Thickness]. Returned values follow the conventions of Harmonic. This
+// is the periodic state a finite-depth simulation with a flux or adiabatic
+// bottom starts from.
+func HarmonicInsulated(c Column, period float64, outside complex128, x []float64) (temp, flux []complex128, err error) {
+	c.HalfSpace = false
+	ch, xs, err := tmPrepare(c, period, x, true)
+	if err != nil {
+		return nil, nil, err
+	}
 	so := ch.fromOutside(outside)
 	temp = make([]complex128, len(xs))
 	flux = make([]complex128, len(xs))
