@@ -180,9 +180,16 @@ func (r *fvRun) frozen(i int) bool {
 // state; tso is the outside surface temperature. In a cell with isothermal
 // freezing, or with a freezing range narrower than the cell (a partly
 // frozen cell next to a fully frozen one), the front is placed inside the
-// cell by its frozen fraction (the ice assumed on the cold side, as in
-// enthalpy front tracking); elsewhere the freezing-point isotherm is
-// interpolated linearly between cell centres (or the surface).
+// cell by its ice content: the deepest ice reaches the cell's upper face
+// plus its frozen fraction of the cell width, and the thawed part of the
+// topmost frozen cell is its liquid fraction of the width from its upper
+// face (the enthalpy method's front position, Voller and Cross, Int. J.
+// Heat Mass Transfer 24 (1981) 545 [memory]). The front so moves
+// continuously with the ice: a cell's last ice shrinks towards the frozen
+// ground it belongs to, and never stands at the cell's far face (which
+// read a thin lens as frost one whole cell deeper). Elsewhere the
+// freezing-point isotherm is interpolated linearly between cell centres
+// (or the surface).
 func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 	m, T, n, thr := r.m, r.T, r.n, r.thr
 	iso := func(i int) bool { k := r.pidx[i]; return k >= 0 && r.phases[k].isoTerm }
@@ -220,8 +227,6 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		if tso < thr[0] {
 			frost = cross(0, tso, m.Centers[0], T[0], thr[0])
 		}
-	case iso(deep) && !r.sideUp(deep):
-		frost = m.Faces[deep+1] // the ice lies at the bottom of the cell
 	case iso(deep) || thin(deep, deep-1):
 		frost = m.Faces[deep] + (1-r.phi[deep])*r.h[deep]
 	case deep == n-1:
@@ -239,8 +244,6 @@ func (r *fvRun) frost(tso float64) (frost, thaw float64) {
 		top++
 	}
 	switch {
-	case iso(top) && r.sideUp(top):
-		thaw = m.Faces[top] // the ice lies at the top of the cell
 	case iso(top) || thin(top, top+1):
 		thaw = m.Faces[top] + r.phi[top]*r.h[top]
 	case top == 0:
