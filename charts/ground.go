@@ -21,22 +21,49 @@ func capitalise(s string) string {
 }
 
 // indexUsed returns the surface freezing index (°C·d) the closed forms
-// used and a phrase naming where it came from.
-func indexUsed(f *scenarios.Frost) (float64, string) {
+// used (nil when there is none) and a phrase naming where it came from.
+func indexUsed(f *scenarios.Frost) (*float64, string) {
 	n := f.FreezingNFactor
 	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
-		return n * *f.DesignFreezingIndex_Cd, "design air index"
+		v := n * *f.DesignFreezingIndex_Cd
+		return &v, "design air index"
 	}
 	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
 		return f.SurfaceFreezingIndex_Cd, "air index of the record, " + strings.TrimSpace(rec)
 	}
+	if f.IndexSource == "simulated period" {
+		return f.SurfaceFreezingIndex_Cd, "air index of the simulated cold period"
+	}
 	return f.SurfaceFreezingIndex_Cd, "air index of the forcing"
 }
+
+// notComputed is the text shown for a frost value under the JSON key
+// that was not computed.
+func notComputed(f *scenarios.Frost, key string) string {
+	if why := f.NotComputed[key]; why != "" {
+		return "not computed: " + why
+	}
+	return "not computed"
+}
+
+// optText formats *v with format, or says why it was not computed.
+func optText(f *scenarios.Frost, key string, v *float64, format func(float64) string) string {
+	if v == nil || !finite(*v) {
+		return notComputed(f, key)
+	}
+	return format(*v)
+}
+
+// depth2 formats a depth in m with two decimals.
+func depth2(v float64) string { return fixed(v, 2) }
 
 // airIndexLabel names the air freezing index f.FreezingIndex_Cd holds.
 func airIndexLabel(f *scenarios.Frost) string {
 	if f.IndexSource == "design" {
 		return "Design air freezing index (given in the scenario)"
+	}
+	if f.IndexSource == "simulated period" {
+		return "Air freezing index of the simulated cold period"
 	}
 	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
 		return "Air freezing index of the record (" + strings.TrimSpace(rec) + ")"
@@ -57,29 +84,27 @@ func frostCompareTable(r *scenarios.Results) *block {
 	t := newTable("Frost depth, three ways", []string{"Method", "Frost depth (m)", "Driven by"}, "text", "", "text")
 	sim := dash
 	driver := "the surface temperature of the scenario, hour by hour"
-	if len(f.Winters) > 0 || f.MaxFrostDepth_m > 0 {
-		sim = fixed(f.MaxFrostDepth_m, 2)
-		if k := deepestWinter(f); k >= 0 {
-			w := f.Winters[k]
-			driver += fmt.Sprintf("; deepest in %s (%s), of %d winters simulated", w.Label, w.MaxFrostDate, len(f.Winters))
-		}
-	} else if r.Simulation == nil {
+	if r.Simulation == nil {
 		driver = "no simulation was run"
+	} else {
+		sim = optText(f, "max_frost_depth_m", f.MaxFrostDepth_m, depth2)
+		if k := headlineWinter(f); k >= 0 {
+			w := f.Winters[k]
+			driver += fmt.Sprintf("; deepest in %s (%s), of %d complete and settled winters", w.Label, w.MaxFrostDate, countHeadline(f))
+		}
 	}
 	t.row("Simulation (finite volumes, latent heat)", sim, driver)
 	idx, from := indexUsed(f)
-	by := fmt.Sprintf("surface freezing index %s (freezing n-factor %s × %s)", cd(idx), trimZeros(sig(f.FreezingNFactor, 3)), from)
-	stefan, berg := dash, dash
-	if f.StefanDepth_m > 0 {
-		stefan = fixed(f.StefanDepth_m, 2)
+	by := "no surface freezing index"
+	if idx != nil {
+		by = fmt.Sprintf("surface freezing index %s (freezing n-factor %s × %s)", cd(*idx), trimZeros(sig(f.FreezingNFactor, 3)), from)
 	}
-	if f.ModifiedBerggrenDepth_m > 0 {
-		berg = fixed(f.ModifiedBerggrenDepth_m, 2)
-	}
+	stefan := optText(f, "stefan_depth_m", f.StefanDepth_m, depth2)
+	berg := optText(f, "modified_berggren_depth_m", f.ModifiedBerggrenDepth_m, depth2)
 	t.row("Stefan (closed form)", stefan, by)
 	bb := by
-	if f.BerggrenLambda > 0 {
-		bb += fmt.Sprintf("; coefficient λ = %s from α = %s and μ = %s", sig(f.BerggrenLambda, 3), sig(f.BerggrenAlpha, 3), sig(f.BerggrenMu, 3))
+	if f.BerggrenLambda != nil && f.BerggrenAlpha != nil && f.BerggrenMu != nil {
+		bb += fmt.Sprintf("; coefficient λ = %s from α = %s and μ = %s", sig(*f.BerggrenLambda, 3), sig(*f.BerggrenAlpha, 3), sig(*f.BerggrenMu, 3))
 	}
 	t.row("Modified Berggren (closed form)", berg, bb)
 	t.Notes = append(t.Notes,
@@ -90,16 +115,29 @@ func frostCompareTable(r *scenarios.Results) *block {
 	return &block{Table: t}
 }
 
-// deepestWinter returns the index of the winter with the deepest frost,
-// or -1.
-func deepestWinter(f *scenarios.Frost) int {
-	k := -1
+// headlineWinter returns the index of the winter that gives the headline
+// frost depth (the deepest of the complete, settled winters), or -1.
+func headlineWinter(f *scenarios.Frost) int {
+	if f.MaxFrostDepth_m == nil || f.HeadlineWinter == "" {
+		return -1
+	}
 	for i, w := range f.Winters {
-		if w.MaxFrostDepth_m > 0 && (k < 0 || w.MaxFrostDepth_m > f.Winters[k].MaxFrostDepth_m) {
-			k = i
+		if w.Label == f.HeadlineWinter {
+			return i
 		}
 	}
-	return k
+	return -1
+}
+
+// countHeadline counts the complete, settled winters.
+func countHeadline(f *scenarios.Frost) int {
+	n := 0
+	for _, w := range f.Winters {
+		if w.Complete && w.Settled {
+			n++
+		}
+	}
+	return n
 }
 
 // freezingIndexTable lists the freezing index and the quantities the
@@ -110,26 +148,27 @@ func freezingIndexTable(r *scenarios.Results) *block {
 		return nil
 	}
 	t := newTable("Freezing index and frost climate", []string{"Quantity", "Value"}, "text", "text")
-	if f.IndexSource != "" || f.FreezingIndex_Cd > 0 {
-		t.row(airIndexLabel(f), cd(f.FreezingIndex_Cd))
-	}
+	t.row(airIndexLabel(f), optText(f, "freezing_index_Cd", f.FreezingIndex_Cd, cd))
 	if rp := f.ReturnPeriod; rp != nil {
 		t.row(fmt.Sprintf("Air freezing index with a %s-year return period", fixed(rp.Years, 0)),
 			fmt.Sprintf("%s (%s fitted to %d complete winters: location %s, scale %s)", cd(rp.FreezingIndex_Cd), rp.Method, rp.Winters, cd(rp.Location_Cd), cd(rp.Scale_Cd)))
 	}
 	t.row("Freezing n-factor (surface / air freezing index)", trimZeros(sig(f.FreezingNFactor, 3)))
-	if f.SurfaceFreezingIndex_Cd > 0 {
-		t.row("Surface freezing index (n × air)", cd(f.SurfaceFreezingIndex_Cd))
+	if f.SurfaceFreezingIndex_Cd != nil {
+		t.row("Surface freezing index (n × air)", cd(*f.SurfaceFreezingIndex_Cd))
 	}
 	if fi := f.ForcingFreezingIndex_Cd; fi != nil {
 		t.row("Air freezing index of the forcing (one winter; not used by the closed forms)", cd(*fi))
 	}
-	idx, from := indexUsed(f)
-	t.row("Index used by Stefan and modified Berggren", cd(idx)+" (from the "+from+")")
-	if f.SeasonLength_d > 0 {
-		t.row("Length of the freezing season", fixed(f.SeasonLength_d, 0)+" d")
+	if idx, from := indexUsed(f); idx != nil {
+		t.row("Index used by Stefan and modified Berggren", cd(*idx)+" (from the "+from+")")
 	}
-	t.row("Mean annual air temperature", degC(f.MeanAnnualAir_C))
+	t.row("Length of the freezing season", optText(f, "season_length_d", f.SeasonLength_d, func(v float64) string { return fixed(v, 0) + " d" }))
+	meanLabel := "Mean annual air temperature"
+	if f.IndexSource == "simulated period" {
+		meanLabel = "Initial temperature (the mean of modified Berggren)"
+	}
+	t.row(meanLabel, optText(f, "mean_annual_air_C", f.MeanAnnualAir_C, degC))
 	t.Notes = append(t.Notes, "A freezing index is the sum over the freezing season of the degrees below 0 °C times the days (°C·d). The n-factor converts the air index to the ground surface (cover, snow, vegetation).")
 	return &block{Table: t}
 }
@@ -290,20 +329,35 @@ func frostSummary(f *scenarios.Frost, sim bool) string {
 	switch {
 	case !sim:
 		s = "No transient simulation was run, so there is no simulated frost depth"
-	case f.MaxFrostDepth_m > 0:
-		s = fmt.Sprintf("The simulated frost reaches %s m below the surface", fixed(f.MaxFrostDepth_m, 2))
-		if k := deepestWinter(f); k >= 0 && len(f.Winters) > 1 {
-			s += fmt.Sprintf(" at its deepest (%s, %s, of %d winters)", f.Winters[k].Label, f.Winters[k].MaxFrostDate, len(f.Winters))
+	case f.MaxFrostDepth_m == nil:
+		s = "There is no headline simulated frost depth (" + notComputed(f, "max_frost_depth_m") + ")"
+	case *f.MaxFrostDepth_m > 0:
+		s = fmt.Sprintf("The simulated frost reaches %s m below the surface", fixed(*f.MaxFrostDepth_m, 2))
+		if k := headlineWinter(f); k >= 0 && len(f.Winters) > 1 {
+			s += fmt.Sprintf(" at its deepest (%s, %s, of %d complete and settled winters)", f.Winters[k].Label, f.Winters[k].MaxFrostDate, countHeadline(f))
 		}
 	default:
 		s = "The simulated ground does not freeze"
 	}
-	s += fmt.Sprintf(", with an air freezing index of %s per winter.", cd(f.FreezingIndex_Cd))
-	if f.StefanDepth_m > 0 || f.ModifiedBerggrenDepth_m > 0 {
-		s += fmt.Sprintf(" From a surface freezing index of %s (n-factor %s × %s), the Stefan estimate is %s m and the modified Berggren estimate %s m.",
-			cd(idx), trimZeros(sig(f.FreezingNFactor, 3)), from, fixed(f.StefanDepth_m, 2), fixed(f.ModifiedBerggrenDepth_m, 2))
+	if f.FreezingIndex_Cd != nil {
+		per := " per winter"
+		if f.IndexSource == "simulated period" {
+			per = " over the simulated cold period"
+		} else if strings.HasPrefix(f.IndexSource, "record:") {
+			per = " (" + strings.TrimSpace(strings.TrimPrefix(f.IndexSource, "record:")) + ")"
+		}
+		s += fmt.Sprintf(", with an air freezing index of %s%s.", cd(*f.FreezingIndex_Cd), per)
 	} else {
-		s += " There is no Stefan or modified Berggren estimate (no surface freezing index)."
+		s += "; the air freezing index was " + notComputed(f, "freezing_index_Cd") + "."
+	}
+	switch {
+	case f.StefanDepth_m != nil || f.ModifiedBerggrenDepth_m != nil:
+		s += fmt.Sprintf(" From a surface freezing index of %s (n-factor %s × %s), the Stefan estimate is %s and the modified Berggren estimate %s.",
+			cd(*idx), trimZeros(sig(f.FreezingNFactor, 3)), from,
+			optText(f, "stefan_depth_m", f.StefanDepth_m, func(v float64) string { return fixed(v, 2) + " m" }),
+			optText(f, "modified_berggren_depth_m", f.ModifiedBerggrenDepth_m, func(v float64) string { return fixed(v, 2) + " m" }))
+	default:
+		s += " There is no Stefan or modified Berggren estimate (" + notComputed(f, "stefan_depth_m") + ")."
 	}
 	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
 		s += fmt.Sprintf(" The closed forms use the design air freezing index of %s.", cd(*f.DesignFreezingIndex_Cd))

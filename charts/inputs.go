@@ -40,7 +40,9 @@ func inputsBlocks(r *scenarios.Results) []*block {
 	// Forcing, as far as the results carry it.
 	if g := r.Ground; ground && g != nil {
 		if f := r.Frost; f != nil {
-			t.row("Mean annual air temperature", degC(f.MeanAnnualAir_C))
+			if f.MeanAnnualAir_C != nil && f.IndexSource != "simulated period" {
+				t.row("Mean annual air temperature", degC(*f.MeanAnnualAir_C))
+			}
 		}
 		if g.NFactorFreezing > 0 || g.NFactorThawing > 0 {
 			t.row("n-factors of the surface cover, freezing and thawing (surface / air)", trimZeros(sig(g.NFactorFreezing, 3))+" and "+trimZeros(sig(g.NFactorThawing, 3)))

@@ -396,10 +396,11 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 		}),
 	}
 	var frost []ec.SeriesOpts
-	if r.Frost != nil && finite(r.Frost.MaxFrostDepth_m) && r.Frost.MaxFrostDepth_m > 0 {
+	if r.Frost != nil && r.Frost.MaxFrostDepth_m != nil && finite(*r.Frost.MaxFrostDepth_m) && *r.Frost.MaxFrostDepth_m > 0 {
+		d := *r.Frost.MaxFrostDepth_m
 		frost = []ec.SeriesOpts{
 			ec.WithMarkLineNameYAxisItemOpts(opts.MarkLineNameYAxisItem{
-				Name: "simulated max frost depth " + fixed(r.Frost.MaxFrostDepth_m, 2) + " m", YAxis: num(r.Frost.MaxFrostDepth_m)}),
+				Name: "simulated max frost depth " + fixed(d, 2) + " m", YAxis: num(d)}),
 			ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
 				Symbol:    []string{"none", "none"},
 				LineStyle: &opts.LineStyle{Color: colBlue, Width: 1.5, Type: "dashed"},

@@ -615,7 +615,7 @@ func TestNaNNeverReachesACharts(t *testing.T) {
 		res.Steady.UValue_W_m2K = math.Inf(1)
 		res.Layers[0].Thickness_m = math.NaN()
 		if res.Frost != nil {
-			res.Frost.StefanDepth_m = math.NaN()
+			res.Frost.StefanDepth_m = ptr(math.NaN())
 		}
 		html := render(t, res, Options{})
 		sc := scripts(t, html)

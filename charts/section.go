@@ -246,9 +246,9 @@ func interestDepth(r *scenarios.Results) float64 {
 		d = math.Max(d, z)
 	}
 	if f := r.Frost; f != nil {
-		for _, z := range []float64{f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m} {
-			if finite(z) {
-				d = math.Max(d, z)
+		for _, z := range []*float64{f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m} {
+			if z != nil && finite(*z) {
+				d = math.Max(d, *z)
 			}
 		}
 	}
@@ -803,8 +803,8 @@ func groundMarks(w *svgWriter, r *scenarios.Results, ls []scenarios.Layer, sp []
 	for _, p := range probeDepths(r) {
 		marks = append(marks, mark{top + scale.at(p), "probe " + depthText(p), false})
 	}
-	if f := r.Frost; f != nil && f.MaxFrostDepth_m > 0 && finite(f.MaxFrostDepth_m) {
-		marks = append(marks, mark{top + scale.at(f.MaxFrostDepth_m), "simulated max frost depth " + depthText(f.MaxFrostDepth_m), true})
+	if f := r.Frost; f != nil && f.MaxFrostDepth_m != nil && *f.MaxFrostDepth_m > 0 && finite(*f.MaxFrostDepth_m) {
+		marks = append(marks, mark{top + scale.at(*f.MaxFrostDepth_m), "simulated max frost depth " + depthText(*f.MaxFrostDepth_m), true})
 	}
 	sort.SliceStable(marks, func(i, j int) bool { return marks[i].y < marks[j].y })
 	ys := make([]float64, len(marks))

@@ -113,9 +113,9 @@ func TestGroundSections(t *testing.T) {
 	// A design index: used by the closed forms, shown beside the forcing's.
 	// As scenarios fills it: the headline index is the design index, the
 	// forcing's own index stays beside it.
-	d, forcing := 600.0, r.Frost.FreezingIndex_Cd
+	d, forcing := 600.0, *r.Frost.FreezingIndex_Cd
 	r.Frost.DesignFreezingIndex_Cd, r.Frost.IndexSource = &d, "design"
-	r.Frost.FreezingIndex_Cd, r.Frost.SurfaceFreezingIndex_Cd, r.Frost.ForcingFreezingIndex_Cd = d, 0.7*d, &forcing
+	r.Frost.FreezingIndex_Cd, r.Frost.SurfaceFreezingIndex_Cd, r.Frost.ForcingFreezingIndex_Cd = ptr(d), ptr(0.7*d), &forcing
 	page = render(t, r, Options{})
 	fi := tableRows(t, page, "Freezing index and frost climate")
 	if got := rowOf(t, fi, "Design air freezing index"); got[1] != "600 °C·d" {
@@ -212,12 +212,17 @@ func TestFrostSummary(t *testing.T) {
 		sim  bool
 		want []string
 	}{
-		{"frost", func(*scenarios.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 2 winters)",
+		{"frost", func(*scenarios.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 1 complete and settled winters)",
 			"air freezing index of 420 °C·d", "surface freezing index of 294 °C·d (n-factor 0.7 × air index of the forcing)", "Stefan estimate is 1.21 m"}},
 		{"no simulation", func(*scenarios.Frost) {}, false, []string{"No transient simulation was run"}},
 		{"no frost", func(f *scenarios.Frost) {
-			f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m, f.Winters = 0, 0, 0, nil
-		}, true, []string{"does not freeze", "no Stefan or modified Berggren estimate"}},
+			f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m, f.Winters = ptr(0), nil, nil, nil
+			f.NotComputed = map[string]string{"stefan_depth_m": "the surface temperature never falls below 0 degC"}
+		}, true, []string{"does not freeze", "no Stefan or modified Berggren estimate (not computed: the surface temperature never falls below 0 degC)"}},
+		{"unsettled", func(f *scenarios.Frost) {
+			f.MaxFrostDepth_m, f.HeadlineWinter = nil, ""
+			f.NotComputed = map[string]string{"max_frost_depth_m": "no simulated winter had settled"}
+		}, true, []string{"no headline simulated frost depth (not computed: no simulated winter had settled)", "Stefan estimate is 1.21 m"}},
 	} {
 		g := *f
 		tc.edit(&g)

@@ -125,9 +125,11 @@ type BerggrenInput struct {
 	// is its difference above freezing. The manuals use the mean annual air
 	// temperature.
 	MeanAnnual float64
-	// Layers is the soil profile from the surface down, each a massive layer
-	// with Freeze set and LatentHeat > 0; the last layer continues downward
-	// without end. A homogeneous soil is one layer (any thickness).
+	// Layers is the profile from the surface down; the last layer, which
+	// continues downward without end, must have Freeze set with
+	// LatentHeat > 0. Layers above it may lack latent heat (pavement,
+	// insulation, a dry base) or be massless resistances (see
+	// ModifiedBerggren). A homogeneous soil is one layer (any thickness).
 	Layers []solver.Layer
 }
 
@@ -175,6 +177,13 @@ type BerggrenResult struct {
 // (bisection as a fallback). For identical layers this reduces
 // exactly to the homogeneous formula. When F_s exceeds the sum for all
 // layers, the last layer is taken to continue downward.
+//
+// Pavement and insulation layers (no latent heat) need no index of their
+// own (dF = 0 with L_n = 0): the frost passes them at once, they add their
+// resistance (conductivity, or the mean of frozen and unfrozen when both
+// are given) to the layers below and their heat capacity (with zero
+// latent heat) to the weighted means, as the multilayer procedure of the
+// manuals treats them; a massless layer adds its resistance only.
 func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 	if err := in.validate(); err != nil {
 		return BerggrenResult{}, err
@@ -190,20 +199,40 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 	needed := func(l solver.Layer, x float64) (dF, lambda, mu, xi float64, err error) {
 		k := meanConductivity(l)
 		c := meanHeatCapacity(l)
+		lat := latentHeat(l)
+		if lat == 0 {
+			return 0, 1, math.Inf(1), 0, nil
+		}
 		d := sumD + x
 		cAvg := (sumC + c*x) / d
-		lAvg := (sumL + l.Freeze.LatentHeat*x) / d
+		lAvg := (sumL + lat*x) / d
 		mu = cAvg * vs / lAvg
 		lambda, xi, err = BerggrenCoefficient(alpha, mu)
 		if err != nil {
 			return 0, 0, 0, 0, err
 		}
-		dF = l.Freeze.LatentHeat * x * (sumR + x/(2*k)) / (secondsPerDay * lambda * lambda)
+		dF = lat * x * (sumR + x/(2*k)) / (secondsPerDay * lambda * lambda)
 		return dF, lambda, mu, xi, nil
 	}
 
 	last := len(in.Layers) - 1
 	for i, l := range in.Layers {
+		if i == last && (l.IsResistance() || latentHeat(l) == 0) {
+			return BerggrenResult{}, fmt.Errorf("berggren: the frost reaches the deepest layer %d (%q), which has no latent heat, so the method puts no bound on the frost depth", i+1, l.Name)
+		}
+		if l.IsResistance() {
+			sumR += l.Resistance
+			res.Needed = append(res.Needed, cum)
+			continue
+		}
+		if i < last && latentHeat(l) == 0 {
+			// Freezes at once: adds its resistance and heat capacity.
+			res.Needed = append(res.Needed, cum)
+			sumR += l.Thickness / meanConductivity(l)
+			sumD += l.Thickness
+			sumC += meanHeatCapacity(l) * l.Thickness
+			continue
+		}
 		if i < last {
 			dF, lambda, mu, xi, err := needed(l, l.Thickness)
 			if err != nil {
@@ -215,7 +244,7 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 				sumR += l.Thickness / meanConductivity(l)
 				sumD += l.Thickness
 				sumC += meanHeatCapacity(l) * l.Thickness
-				sumL += l.Freeze.LatentHeat * l.Thickness
+				sumL += latentHeat(l) * l.Thickness
 				if cum == in.SurfaceIndex {
 					res.Depth, res.Lambda, res.Mu, res.Xi, res.Layer = sumD, lambda, mu, xi, i
 					return res, nil
@@ -241,7 +270,7 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 			return BerggrenResult{}, err
 		}
 		for n := 0; n < fixedPointSteps; n++ {
-			q := rest * secondsPerDay * lambda * lambda / l.Freeze.LatentHeat
+			q := rest * secondsPerDay * lambda * lambda / latentHeat(l)
 			xn := 2 * q / (sumR + math.Sqrt(sumR*sumR+2*q/k))
 			if !(xn > 0 && xn <= maxX) {
 				break
@@ -306,12 +335,30 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 // the fallback).
 var fixedPointSteps = 50
 
+// meanConductivity is the mean of the frozen and unfrozen conductivity,
+// W/(m K); a layer without freezing data has one conductivity.
 func meanConductivity(l solver.Layer) float64 {
+	if l.Freeze == nil || !(l.Freeze.ConductivityFrozen > 0) {
+		return l.Conductivity
+	}
 	return 0.5 * (l.Conductivity + l.Freeze.ConductivityFrozen)
 }
 
+// meanHeatCapacity is the mean of the frozen and unfrozen volumetric heat
+// capacity, J/(m3 K).
 func meanHeatCapacity(l solver.Layer) float64 {
+	if l.Freeze == nil || !(l.Freeze.HeatCapacityFrozen > 0) {
+		return l.HeatCapacity
+	}
 	return 0.5 * (l.HeatCapacity + l.Freeze.HeatCapacityFrozen)
+}
+
+// latentHeat is the layer's latent heat, J/m3 (0 without freezing data).
+func latentHeat(l solver.Layer) float64 {
+	if l.Freeze == nil || !(l.Freeze.LatentHeat > 0) {
+		return 0
+	}
+	return l.Freeze.LatentHeat
 }
 
 func (in BerggrenInput) validate() error {
@@ -328,12 +375,6 @@ func (in BerggrenInput) validate() error {
 	for i, l := range in.Layers {
 		if err := l.Validate(); err != nil {
 			return fmt.Errorf("berggren: layer %d: %w", i+1, err)
-		}
-		if l.IsResistance() {
-			return fmt.Errorf("berggren: layer %d (%q) is a massless resistance; the method needs massive soil layers", i+1, l.Name)
-		}
-		if l.Freeze == nil || l.Freeze.LatentHeat <= 0 {
-			return fmt.Errorf("berggren: layer %d (%q) has no latent heat; the method needs freezing water in every layer", i+1, l.Name)
 		}
 	}
 	return nil

@@ -2,6 +2,7 @@ package ground
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"tempstack/solver"
@@ -331,7 +332,8 @@ func TestModifiedBerggrenBadInputs(t *testing.T) {
 		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: -2, Layers: []solver.Layer{good}},
 		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: 5},
 		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{dry}},
-		{SurfaceIndex: 500, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{{Name: "gap", Resistance: 0.2}, good}},
+		{SurfaceIndex: 5000, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{good, dry}}, // frost reaches a dry deepest layer: no bound
+		{SurfaceIndex: 5000, SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{good, {Name: "gap", Resistance: 0.2}}},
 		{SurfaceIndex: math.NaN(), SeasonDays: 100, MeanAnnual: 5, Layers: []solver.Layer{good}},
 	}
 	for i, in := range bad {
@@ -432,5 +434,103 @@ func TestModifiedBerggrenBisectionFallback(t *testing.T) {
 		if math.Abs(fast.Depth-slow.Depth) > 1e-10*fast.Depth || fast.Layer != slow.Layer {
 			t.Errorf("F %g: fixed point %.12f (layer %d), bisection %.12f (layer %d)", F, fast.Depth, fast.Layer, slow.Depth, slow.Layer)
 		}
+	}
+}
+
+// Pavement and insulation layers in the layered closed forms, checked by
+// hand against the multilayer procedure of the US Army frost manuals
+// (TM 5-852-6 / AFR 88-19 Vol. 6, 1988, "Calculation methods for
+// determination of depths of freeze and thaw in soils"; Aldrich and
+// Paynter 1953) [memory]: a layer without latent heat freezes at once and
+// adds only its resistance d/k (and, for modified Berggren, its heat
+// capacity to the weighted means); Stefan's equation is summed layer by
+// layer, dF_n = L_n d_n (sum_{i<n} R_i + d_n/(2 k_n)) / 86400. Layer
+// values are invented for the test (asphalt 0.75 W/(m K); silty clay
+// L = 1600 kg/m3 x 20 % x 334 kJ/kg; XPS 0.035 W/(m K)).
+func TestPavementLayers(t *testing.T) {
+	asphalt := solver.Layer{Name: "asphalt", Thickness: 0.1, Conductivity: 0.75, HeatCapacity: 1.9e6}
+	clay := freezeLayer("silty clay", 3, 1.6, 1.3, 2.2e6, 2.9e6, 1600*0.2*334e3)
+	gravel := freezeLayer("gravel base", 0.3, 2.2, 1.9, 1.8e6, 2.0e6, 2000*0.03*334e3)
+	xps := solver.Layer{Name: "XPS board", Thickness: 0.05, Conductivity: 0.035, HeatCapacity: 35 * 1450}
+	const F = 700.0 // surface freezing index, K day
+
+	// Stefan, 100 mm asphalt over clay: the clay part x must need exactly
+	// the index left, L x (R_asphalt + x/(2 kf)) / 86400 = F.
+	X, needed, err := StefanLayered([]solver.Layer{asphalt, clay}, F)
+	if err != nil {
+		t.Fatal(err)
+	}
+	x := X - 0.1
+	if got := clay.Freeze.LatentHeat * x * (0.1/0.75 + x/(2*1.6)) / 86400; math.Abs(got-F) > 1e-9*F || needed[0] != 0 {
+		t.Errorf("asphalt over clay: X = %.4f m needs %.6f K day, want %g; asphalt needs %g, want 0", X, got, F, needed[0])
+	}
+	// The asphalt's resistance makes the frost shallower than in bare clay
+	// by less than the asphalt thickness would add.
+	bare, _ := Stefan(1.6, clay.Freeze.LatentHeat, F)
+	if !(X < bare+0.1 && X > 0.1) {
+		t.Errorf("asphalt over clay %.4f m, bare clay %.4f m", X, bare)
+	}
+
+	// Stefan, 300 mm gravel, 50 mm XPS, clay: the gravel needs
+	// L_g d_g (d_g/(2 k_g)), the board none, and the clay the rest through
+	// R = 0.3/2.2 + 0.05/0.035.
+	X2, needed2, err := StefanLayered([]solver.Layer{gravel, xps, clay}, F)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fg := gravel.Freeze.LatentHeat * 0.3 * (0.3 / (2 * 2.2)) / 86400
+	x2 := X2 - 0.35
+	fc := clay.Freeze.LatentHeat * x2 * (0.3/2.2 + 0.05/0.035 + x2/(2*1.6)) / 86400
+	if math.Abs(needed2[0]-fg) > 1e-9*fg || math.Abs(needed2[1]-fg) > 1e-9*fg || math.Abs(fg+fc-F) > 1e-9*F {
+		t.Errorf("gravel/XPS/clay: needed %v, want [%g %g ...]; gravel + clay %g, want %g", needed2, fg, fg, fg+fc, F)
+	}
+	t.Logf("Stefan: asphalt over clay %.3f m (bare clay %.3f m); gravel + XPS + clay %.3f m (gravel needs %.1f K day)", X, bare, X2, fg)
+
+	// Modified Berggren, asphalt over clay, by the same procedure: alpha
+	// = v0/vs, vs = F/t; over the frozen depth 0.1 + x the weighted means
+	// C = (C_a 0.1 + C_c x)/(0.1 + x), L = L_c x/(0.1 + x), mu = C vs / L;
+	// dF = L_c x (R_a + x/(2 k_c)) / (86400 lambda^2) = F with k the means
+	// of frozen and unfrozen.
+	in := BerggrenInput{SurfaceIndex: F, SeasonDays: 110, MeanAnnual: 6, Layers: []solver.Layer{asphalt, clay}}
+	b, err := ModifiedBerggren(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	vs := F / 110
+	xb := b.Depth - 0.1
+	cAvg := (1.9e6*0.1 + 0.5*(2.2e6+2.9e6)*xb) / (0.1 + xb)
+	lAvg := clay.Freeze.LatentHeat * xb / (0.1 + xb)
+	lam, _, err := BerggrenCoefficient(6/vs, cAvg*vs/lAvg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	kc := 0.5 * (1.6 + 1.3)
+	dF := clay.Freeze.LatentHeat * xb * (0.1/0.75 + xb/(2*kc)) / (86400 * lam * lam)
+	if math.Abs(dF-F) > 1e-8*F || math.Abs(b.Lambda-lam) > 1e-12 || !(b.Depth < X) {
+		t.Errorf("Berggren asphalt over clay: X = %.4f m needs %.6f K day (want %g), lambda %.6f vs %.6f; Stefan %.4f m", b.Depth, dF, F, b.Lambda, lam, X)
+	}
+	// With the board: gravel frozen through first, the board adds its
+	// resistance and heat capacity, then the clay.
+	b2, err := ModifiedBerggren(BerggrenInput{SurfaceIndex: F, SeasonDays: 110, MeanAnnual: 6, Layers: []solver.Layer{gravel, xps, clay}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(b2.Depth < X2 && b2.Depth > 0.35) || len(b2.Needed) != 3 || b2.Needed[0] != b2.Needed[1] {
+		t.Errorf("Berggren gravel/XPS/clay %.4f m (Stefan %.4f m), needed %v", b2.Depth, X2, b2.Needed)
+	}
+	t.Logf("modified Berggren: asphalt over clay %.3f m (lambda %.4f); gravel + XPS + clay %.3f m", b.Depth, b.Lambda, b2.Depth)
+
+	// A dry deepest layer that the frost reaches: no bound, said so by
+	// both; one it does not reach changes nothing.
+	thin := clay
+	thin.Thickness = 0.5
+	if _, _, err := StefanLayered([]solver.Layer{thin, asphalt}, F); err == nil || !strings.Contains(err.Error(), "no bound") {
+		t.Errorf("Stefan, dry deepest layer: err %v", err)
+	}
+	if _, err := ModifiedBerggren(BerggrenInput{SurfaceIndex: F, SeasonDays: 110, MeanAnnual: 6, Layers: []solver.Layer{thin, asphalt}}); err == nil || !strings.Contains(err.Error(), "no bound") {
+		t.Errorf("Berggren, dry deepest layer: err %v", err)
+	}
+	if d, _, err := StefanLayered([]solver.Layer{clay, asphalt}, F); err != nil || math.Abs(d-bare) > 1e-12 {
+		t.Errorf("Stefan, dry layer below the frost: %v, %g m (bare clay %g m)", err, d, bare)
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"strings"
 
 	"tempstack/climate"
 	"tempstack/ground"
@@ -84,7 +85,7 @@ func runGround(s *Scenario, progress Progress) (*Results, error) {
 		if err := frostAnalysis(s, col, r, res); err != nil {
 			return nil, err
 		}
-	} else if err := frostClosedForms(s, col, r); err != nil {
+	} else if err := frostClosedForms(s, col, r, 0, 0); err != nil {
 		return nil, err
 	}
 	if s.Analysis.StepResponse != nil {
@@ -189,20 +190,31 @@ func frostLayers(col solver.Column) []solver.Layer {
 }
 
 // frostClimate reads the air freezing index, season length and mean
-// annual temperature of the forcing (periodic forcings: one year sampled
-// daily, cumulative-curve season; REFERENCES section 4).
-func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
+// annual temperature of the forcing for the closed forms, with a label of
+// where they come from, or the reason why there are none.
+//
+//   - A record: the design freezing index, the mean of the three coldest
+//     complete winters of the latest 30 (US Army TM 5-852-6 / AFR 88-19
+//     Vol. 6, 1988, for pavements [memory]), with the mean season length of
+//     those winters; with one or two complete winters, the coldest one, as
+//     the frost manuals do when fewer winters are at hand (common
+//     practice), said so in the label.
+//   - A periodic forcing with an annual component: one year sampled daily,
+//     the season from the cumulative degree-day curve.
+//   - A step, a constant or only short periods: the simulated period
+//     (from to), the index of its cold time and the initial temperature
+//     as the mean (the ground's starting excess over freezing of the
+//     Neumann problem behind modified Berggren).
+func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source, why string) {
 	f := s.Outside.Temperature
-	if f == nil || f.Step != nil {
-		return ground.FrostClimate{}, "", false
+	if f == nil {
+		return fc, "", "the surface has no temperature"
 	}
+	nf := s.Outside.NFreezing
 	if m := f.Measured; m != nil {
-		// A record: the design freezing index, the mean of the three
-		// coldest complete winters of the latest 30 (REFERENCES section 4
-		// [read]), with the mean season length of those winters.
 		ws, err := recordWinters(m)
 		if err != nil {
-			return ground.FrostClimate{}, "", false
+			return fc, "", "the record could not be split into winters: " + err.Error()
 		}
 		var complete []climate.Winter
 		for _, w := range ws {
@@ -210,41 +222,77 @@ func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
 				complete = append(complete, w)
 			}
 		}
-		design, err := climate.DesignFreezingIndex(climate.FreezingIndices(ws))
-		if err != nil || len(complete) < 3 {
-			return ground.FrostClimate{}, "", false
-		}
-		sortWinters(complete)
-		var days float64
-		for _, w := range complete[:3] {
-			days += w.Days / 3
+		if len(complete) == 0 {
+			return fc, "", "the record holds no complete winter year (1 July to 30 June)"
 		}
 		v, _ := m.Series.Value(m.Column)
-		if g, err := climate.GumbelFit(climate.FreezingIndices(ws), climate.Moments); err == nil {
+		if g, err := climate.GumbelFit(climate.FreezingIndices(complete), climate.Moments); err == nil && len(complete) >= 3 {
 			s.returnPeriod = &ReturnPeriodIndex{Winters: len(complete), Method: "Gumbel, method of moments",
 				Location_Cd: g.Location, Scale_Cd: g.Scale, Years: 100, FreezingIndex_Cd: g.ReturnLevel(100)}
 		}
-		fc := ground.FrostClimate{AirIndex: design, NFactor: s.Outside.NFreezing, SurfaceIndex: s.Outside.NFreezing * design,
-			SeasonDays: days, MeanAnnual: mean(v)}
-		return fc, fmt.Sprintf("record: mean of the 3 coldest of %d complete winters", len(complete)), true
+		if len(complete) > 30 {
+			complete = complete[len(complete)-30:]
+		}
+		byIndex := append([]climate.Winter(nil), complete...)
+		sortWinters(byIndex)
+		use := 3
+		source = fmt.Sprintf("record: mean of the 3 coldest of %d complete winters", len(complete))
+		if len(complete) < 3 {
+			use = 1
+			source = fmt.Sprintf("record: the coldest of %d complete winters (%s; a design index needs 3)", len(complete), byIndex[0].Label)
+		}
+		var idx, days float64
+		for _, w := range byIndex[:use] {
+			idx += w.FreezingIndex / float64(use)
+			days += w.Days / float64(use)
+		}
+		if idx <= 0 {
+			return fc, "", "no complete winter of the record falls below 0 degC"
+		}
+		return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
 	}
-	if _, ok := annualHarmonic(f); !ok {
-		return ground.FrostClimate{}, "", false
+	if _, ok := annualHarmonic(f); ok && f.Step == nil {
+		// Freezing indices are sums of daily mean temperatures (ISO 13793
+		// [memory]): components shorter than two days average out of
+		// daily means, and sampling them once a day would alias them.
+		slow := climate.Periodic{Mean: f.Mean}
+		for _, h := range f.Harmonics {
+			if h.Period >= 2*climate.Day {
+				slow.Harmonics = append(slow.Harmonics, h)
+			}
+		}
+		fc, err := ground.PeriodicFrostClimate(slow, climate.Year, climate.Day, nf)
+		if err != nil {
+			return fc, "", "no freezing season in the forcing: " + err.Error()
+		}
+		if fc.AirIndex <= 0 {
+			return fc, "", "the surface temperature never falls below 0 degC"
+		}
+		return fc, "forcing", ""
 	}
-	// Freezing indices are sums of daily mean temperatures (REFERENCES
-	// section 4; ISO 13793): components shorter than two days average out
-	// of daily means, and sampling them once a day would alias them.
-	slow := climate.Periodic{Mean: f.Mean}
-	for _, h := range f.Harmonics {
-		if h.Period >= 2*climate.Day {
-			slow.Harmonics = append(slow.Harmonics, h)
+	// A step, a constant or only short periods: the simulated cold period.
+	if !(to > from) {
+		return fc, "", "a step or constant surface temperature has no freezing season of its own; give analysis.simulate (its duration is the cold period) or analysis.design_freezing_index"
+	}
+	ts, vs := sampleForcing(f, from, to)
+	var idx, cold float64
+	for k := 1; k < len(ts); k++ {
+		dt := ts[k] - ts[k-1]
+		v := 0.5 * (vs[k] + vs[k-1])
+		if v < 0 {
+			idx += -v * dt / climate.Day
+			cold += dt / climate.Day
 		}
 	}
-	fc, err := ground.PeriodicFrostClimate(slow, climate.Year, climate.Day, s.Outside.NFreezing)
-	if err != nil {
-		return ground.FrostClimate{}, "", false
+	if idx <= 0 {
+		return fc, "", "the surface temperature never falls below 0 degC in the simulated period"
 	}
-	return fc, "forcing", true
+	initial := forcingMean(f)
+	if v := s.Analysis.Simulate; v != nil && v.Initial != nil {
+		initial = *v.Initial
+	}
+	return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
+		"simulated period", ""
 }
 
 // recordWinters splits a measured air-temperature record into winters.
@@ -276,25 +324,31 @@ func closedForms(col solver.Column, fc ground.FrostClimate) (stefan float64, b g
 }
 
 // frostClosedForms fills the Stefan and modified Berggren depths of
-// r.Frost from the forcing's (or the design) freezing index.
-func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
-	fc, source, ok := frostClimate(s)
+// r.Frost from the forcing's (or the design) freezing index over the
+// simulated period [from, to] (to <= from: not simulated). Values it
+// cannot compute stay nil, with the reason in NotComputed.
+func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float64) error {
+	fc, source, why := frostClimate(s, from, to)
+	ok := why == ""
 	if r.Frost == nil {
 		r.Frost = &Frost{}
 	}
 	fr := r.Frost
 	if ok {
-		fr.FreezingIndex_Cd = fc.AirIndex
-		fr.SurfaceFreezingIndex_Cd = fc.SurfaceIndex
-		fr.SeasonLength_d = fc.SeasonDays
-		fr.MeanAnnualAir_C = fc.MeanAnnual
+		fr.FreezingIndex_Cd = ptr(fc.AirIndex)
+		fr.SurfaceFreezingIndex_Cd = ptr(fc.SurfaceIndex)
+		fr.SeasonLength_d = ptr(fc.SeasonDays)
+		fr.MeanAnnualAir_C = ptr(fc.MeanAnnual)
 		fr.IndexSource = source
 		fr.ReturnPeriod = s.returnPeriod
+		if strings.Contains(source, "a design index needs 3") {
+			r.Warnings = append(r.Warnings, "the record has fewer than 3 complete winters: the closed forms use its coldest complete winter, which understates a design freezing index (the mean of the 3 coldest of 30 winters)")
+		}
 	}
 	fr.FreezingNFactor = s.Outside.NFreezing
 	if d := s.Analysis.DesignFreezingIndex; d != nil {
 		if !ok {
-			fc = ground.FrostClimate{MeanAnnual: s.Outside.Temperature.Mean}
+			fc = ground.FrostClimate{MeanAnnual: forcingMean(s.Outside.Temperature)}
 		}
 		fc.AirIndex = *d
 		fc.NFactor = s.Outside.NFreezing
@@ -306,37 +360,60 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
 			return &Error{File: s.File, Line: s.Analysis.DesignLine, Key: "analysis.design_season_length",
 				Msg: "the forcing has no freezing season to take the season length from; give design_season_length"}
 		}
-		v := *d
-		fr.DesignFreezingIndex_Cd = &v
+		fr.DesignFreezingIndex_Cd = ptr(*d)
 		fr.IndexSource = "design"
 		// The headline index is the one the closed forms use; the
 		// forcing's own index stays beside it.
-		if fr.FreezingIndex_Cd > 0 {
-			fi := fr.FreezingIndex_Cd
-			fr.ForcingFreezingIndex_Cd = &fi
+		if fr.FreezingIndex_Cd != nil {
+			fr.ForcingFreezingIndex_Cd = ptr(*fr.FreezingIndex_Cd)
 		}
-		fr.FreezingIndex_Cd = fc.AirIndex
-		fr.SurfaceFreezingIndex_Cd = fc.SurfaceIndex
-		fr.SeasonLength_d = fc.SeasonDays
-		ok = true
+		fr.FreezingIndex_Cd = ptr(fc.AirIndex)
+		fr.SurfaceFreezingIndex_Cd = ptr(fc.SurfaceIndex)
+		fr.SeasonLength_d = ptr(fc.SeasonDays)
+		fr.MeanAnnualAir_C = ptr(fc.MeanAnnual)
+		ok, why = true, ""
 	}
-	if !ok || fc.SurfaceIndex <= 0 {
-		fr.StefanDepth_m, fr.ModifiedBerggrenDepth_m = 0, 0
+	if !ok {
+		for _, k := range []string{"freezing_index_Cd", "surface_freezing_index_Cd", "season_length_d", "mean_annual_air_C"} {
+			fr.notComputed(k, why)
+		}
+	}
+	if ok && fc.SurfaceIndex <= 0 {
+		ok, why = false, "the surface freezing index is 0 (an n-factor of 0)"
+	}
+	if !ok {
+		for _, k := range []string{"stefan_depth_m", "modified_berggren_depth_m", "berggren_lambda", "berggren_alpha", "berggren_mu"} {
+			fr.notComputed(k, why)
+		}
 		return nil
 	}
-	depth, b, err := closedForms(col, fc)
-	if err != nil {
-		r.Warnings = append(r.Warnings, "no closed-form frost depth: "+err.Error())
-		return nil
+	ls := frostLayers(col)
+	if depth, _, err := ground.StefanLayered(ls, fc.SurfaceIndex); err != nil {
+		fr.notComputed("stefan_depth_m", err.Error())
+	} else {
+		fr.StefanDepth_m = ptr(depth)
 	}
-	fr.StefanDepth_m = depth
-	fr.ModifiedBerggrenDepth_m = b.Depth
-	fr.BerggrenLambda, fr.BerggrenAlpha, fr.BerggrenMu = b.Lambda, b.Alpha, b.Mu
+	in := fc.Berggren(ls)
+	in.MeanAnnual = math.Max(0, in.MeanAnnual)
+	if b, err := ground.ModifiedBerggren(in); err != nil {
+		for _, k := range []string{"modified_berggren_depth_m", "berggren_lambda", "berggren_alpha", "berggren_mu"} {
+			fr.notComputed(k, err.Error())
+		}
+	} else {
+		fr.ModifiedBerggrenDepth_m = ptr(b.Depth)
+		fr.BerggrenLambda, fr.BerggrenAlpha, fr.BerggrenMu = ptr(b.Lambda), ptr(b.Alpha), ptr(b.Mu)
+	}
 	if fc.MeanAnnual < 0 {
 		r.Warnings = append(r.Warnings, "the mean annual temperature is below 0 degC (permafrost conditions): modified Berggren is used with alpha = 0 and does not describe the active layer")
 	}
-	if math.Max(depth, b.Depth) > col.Thickness() {
-		r.Warnings = append(r.Warnings, fmt.Sprintf("the closed-form frost depth (%.2f m) exceeds the column depth (%.2f m): make the last layer thicker", math.Max(depth, b.Depth), col.Thickness()))
+	deepest := 0.0
+	for _, v := range []*float64{fr.StefanDepth_m, fr.ModifiedBerggrenDepth_m} {
+		if v != nil {
+			deepest = math.Max(deepest, *v)
+		}
+	}
+	if deepest > col.Thickness() {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("the closed-form frost depth (%.2f m) exceeds the column depth (%.2f m): make the last layer thicker", deepest, col.Thickness()))
 	}
 	return nil
 }
@@ -345,25 +422,32 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results) error {
 // 1 July to 30 June on the simulation's time axis, t = 0 on 1 January),
 // frozen days at each probe, and the closed forms.
 func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Result) error {
-	if err := frostClosedForms(s, col, r); err != nil {
+	times := res.Times
+	if err := frostClosedForms(s, col, r, times[0], times[len(times)-1]); err != nil {
 		return err
 	}
 	fr := r.Frost
-	times := res.Times
 	dt := 0.0
 	if len(times) > 1 {
 		dt = times[1] - times[0]
 	}
 	end := times[len(times)-1]
-	// Winter-year windows.
+	// Winter-year windows: from the warmest time of the forcing when the
+	// run starts there (a harmonic ground run does by default), else from
+	// 1 July, as the freezing-index tables count winters.
+	anchor := 181 * climate.Day
+	sim := s.Analysis.Simulate
+	f := s.Outside.Temperature
+	if f.Measured == nil && f.Step == nil && sim.set["start"] == 0 {
+		if t, ok := warmestTime(f); ok {
+			anchor = t
+		}
+	}
 	type window struct{ from, to float64 }
 	var wins []window
-	for y := -1; ; y++ {
-		from := 181*climate.Day + float64(y)*climate.Year
+	first := math.Floor((times[0]-anchor)/climate.Year) * climate.Year
+	for from := anchor + first; from < end; from += climate.Year {
 		to := from + climate.Year
-		if from >= end {
-			break
-		}
 		if to <= times[0] {
 			continue
 		}
@@ -372,8 +456,12 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 			wins = append(wins, w)
 		}
 	}
-	if len(wins) == 0 || s.Outside.Temperature.Step != nil {
+	whole := false
+	if _, annual := annualHarmonic(f); len(wins) == 0 || f.Step != nil || (f.Measured == nil && !annual) {
+		// No annual cycle (a step, a constant or only short periods):
+		// the whole run is the one cold period.
 		wins = []window{{times[0], end}}
+		whole = true
 	}
 	// Air indices per winter from the forcing, sampled hourly.
 	var winters []climate.Winter
@@ -392,12 +480,17 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	}
 	for wi, w := range wins {
 		fw := FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
-			Complete: w.to-w.from > climate.Year-1}
+			Complete: whole || w.to-w.from > climate.Year-1}
+		if whole {
+			fw.Label = "whole run"
+		}
 		// Frost left over from the last winter (deep frost still thawing
 		// in July) belongs to that winter: a winter's frost counts from the
 		// first time the ground is free of frost in its window. Ground that
-		// never thaws (permafrost) counts throughout.
-		thawed := minIn(res.FrostDepth, times, w.from, w.to) > 0
+		// never thaws (permafrost) counts throughout, and so does the frost
+		// of the window the run starts in (a partial winter keeps its true
+		// maximum).
+		thawed := w.from <= times[0] || minIn(res.FrostDepth, times, w.from, w.to) > 0
 		for k, t := range times {
 			if t < w.from || t >= w.to {
 				continue
@@ -446,12 +539,40 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 			}
 		}
 		fr.Winters = append(fr.Winters, fw)
-		fr.MaxFrostDepth_m = math.Max(fr.MaxFrostDepth_m, fw.MaxFrostDepth_m)
 	}
-	if fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
-		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", fr.MaxFrostDepth_m, col.Thickness()))
+	// Settled winters: all when the start had settled; otherwise, for a
+	// periodic forcing, a complete winter whose deepest frost repeats the
+	// complete winter before it within the spin-up's front tolerance.
+	settled := r.Simulation == nil || r.Simulation.SpinUpConverged
+	periodic := f.Measured == nil && f.Step == nil
+	for i := range fr.Winters {
+		w := &fr.Winters[i]
+		w.Settled = settled
+		if !settled && periodic && i > 0 && w.Complete && fr.Winters[i-1].Complete &&
+			math.Abs(w.MaxFrostDepth_m-fr.Winters[i-1].MaxFrostDepth_m) < spinUpFrontTolerance {
+			w.Settled = true
+			settled = true
+		}
 	}
-	if s.Outside.Temperature.Measured != nil && fr.IndexSource != "design" {
+	// The headline: the deepest frost of the complete, settled winters.
+	for _, w := range fr.Winters {
+		if w.Complete && w.Settled && (fr.MaxFrostDepth_m == nil || w.MaxFrostDepth_m > *fr.MaxFrostDepth_m) {
+			fr.MaxFrostDepth_m = ptr(w.MaxFrostDepth_m)
+			fr.HeadlineWinter = w.Label
+		}
+	}
+	if fr.MaxFrostDepth_m == nil {
+		why := "no complete winter year was simulated; simulate at least one whole year (analysis.simulate.duration)"
+		for _, w := range fr.Winters {
+			if w.Complete {
+				why = "no simulated winter had settled (the spin-up did not converge); raise analysis.simulate.spin_up_cycles"
+			}
+		}
+		fr.notComputed("max_frost_depth_m", why)
+	} else if *fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", *fr.MaxFrostDepth_m, col.Thickness()))
+	}
+	if s.Outside.Temperature.Measured != nil && strings.HasPrefix(fr.IndexSource, "record: mean") {
 		r.Warnings = append(r.Warnings, "the headline Stefan and modified Berggren depths use the record's design freezing index (mean of the 3 coldest complete winters); each winter's own closed-form depths are in the winter table")
 	}
 	if fr.IndexSource == "design" {

@@ -278,8 +278,8 @@ analysis:
 	F := 0.75 * 1500 // UFC 3-130-04 Table 4-1: concrete, freezing n 0.75 [read]
 	want := math.Sqrt(2 * l.Freeze.ConductivityFrozen * F * 86400 / l.Freeze.LatentHeat)
 	f := r.Frost
-	if math.Abs(f.StefanDepth_m-want) > 1e-9 || f.FreezingIndex_Cd != 1500 || math.Abs(f.SurfaceFreezingIndex_Cd-F) > 1e-9 ||
-		f.ForcingFreezingIndex_Cd == nil || f.IndexSource != "design" || !(f.ModifiedBerggrenDepth_m < f.StefanDepth_m) {
+	if math.Abs(*f.StefanDepth_m-want) > 1e-9 || *f.FreezingIndex_Cd != 1500 || math.Abs(*f.SurfaceFreezingIndex_Cd-F) > 1e-9 ||
+		f.ForcingFreezingIndex_Cd == nil || f.IndexSource != "design" || !(*f.ModifiedBerggrenDepth_m < *f.StefanDepth_m) {
 		t.Errorf("frost %+v; Stefan want %.4f m", f, want)
 	}
 }

@@ -164,23 +164,32 @@ type GroundProbe struct {
 }
 
 // Frost is the frost-depth result of a ground scenario.
+//
+// A value that was not computed is nil (null in results.json), never 0,
+// and NotComputed says why under the value's JSON key.
 type Frost struct {
-	FreezingIndex_Cd        float64 `json:"freezing_index_Cd"`
-	MaxFrostDepth_m         float64 `json:"max_frost_depth_m"`
-	StefanDepth_m           float64 `json:"stefan_depth_m"`
-	ModifiedBerggrenDepth_m float64 `json:"modified_berggren_depth_m"`
+	// FreezingIndex_Cd is the air freezing index the closed forms use,
+	// degC day.
+	FreezingIndex_Cd *float64 `json:"freezing_index_Cd"`
+	// MaxFrostDepth_m is the headline simulated frost depth: the deepest
+	// frost of the complete, settled winters (HeadlineWinter names it), m.
+	MaxFrostDepth_m         *float64 `json:"max_frost_depth_m"`
+	StefanDepth_m           *float64 `json:"stefan_depth_m"`
+	ModifiedBerggrenDepth_m *float64 `json:"modified_berggren_depth_m"`
+	HeadlineWinter          string   `json:"headline_winter,omitempty"`
 
-	SurfaceFreezingIndex_Cd float64       `json:"surface_freezing_index_Cd"` // n-factor x air index
-	FreezingNFactor         float64       `json:"freezing_n_factor"`
-	SeasonLength_d          float64       `json:"season_length_d"`
-	MeanAnnualAir_C         float64       `json:"mean_annual_air_C"`
-	DesignFreezingIndex_Cd  *float64      `json:"design_freezing_index_Cd,omitempty"`
-	ForcingFreezingIndex_Cd *float64      `json:"forcing_freezing_index_Cd,omitempty"` // with a design index: the forcing's own air index
-	IndexSource             string        `json:"index_source"`                        // what the closed forms used: "forcing", "design" or "record: ..."
-	BerggrenLambda          float64       `json:"berggren_lambda"`
-	BerggrenAlpha           float64       `json:"berggren_alpha"`
-	BerggrenMu              float64       `json:"berggren_mu"`
-	Winters                 []FrostWinter `json:"winters,omitempty"`
+	SurfaceFreezingIndex_Cd *float64          `json:"surface_freezing_index_Cd"` // n-factor x air index
+	FreezingNFactor         float64           `json:"freezing_n_factor"`
+	SeasonLength_d          *float64          `json:"season_length_d"`
+	MeanAnnualAir_C         *float64          `json:"mean_annual_air_C"`
+	DesignFreezingIndex_Cd  *float64          `json:"design_freezing_index_Cd,omitempty"`
+	ForcingFreezingIndex_Cd *float64          `json:"forcing_freezing_index_Cd,omitempty"` // with a design index: the forcing's own air index
+	IndexSource             string            `json:"index_source"`                        // what the closed forms used: "forcing", "design", "simulated period", "record: ..."
+	BerggrenLambda          *float64          `json:"berggren_lambda"`
+	BerggrenAlpha           *float64          `json:"berggren_alpha"`
+	BerggrenMu              *float64          `json:"berggren_mu"`
+	NotComputed             map[string]string `json:"not_computed,omitempty"` // JSON key of a null value -> the reason
+	Winters                 []FrostWinter     `json:"winters,omitempty"`
 
 	// ReturnPeriod is the extreme-value view of a measured record's
 	// winters: a Gumbel fit (method of moments) of the complete winters'
@@ -198,13 +207,15 @@ type ReturnPeriodIndex struct {
 	FreezingIndex_Cd float64 `json:"freezing_index_Cd"`
 }
 
-// FrostWinter is the simulated frost of one winter year (1 July to 30
-// June on the simulation's axis; t = 0 is 1 January of year 1).
+// FrostWinter is the simulated frost of one winter year (from the warmest
+// time of a harmonic forcing, else 1 July, to the same time a year later,
+// on the simulation's axis; t = 0 is 1 January of year 1).
 type FrostWinter struct {
 	Label                   string      `json:"label"`
 	Start_d                 float64     `json:"start_d"`
 	End_d                   float64     `json:"end_d"`
 	Complete                bool        `json:"complete"` // the run covers the whole winter year
+	Settled                 bool        `json:"settled"`  // the start state had settled (or the winter repeats the one before within 1 mm)
 	AirFreezingIndex_Cd     float64     `json:"air_freezing_index_Cd"`
 	AirThawingIndex_Cd      float64     `json:"air_thawing_index_Cd"`
 	MaxFrostDepth_m         float64     `json:"max_frost_depth_m"`
@@ -478,4 +489,15 @@ type SolarInfo struct {
 	IrradianceMean_W_m2 float64        `json:"irradiance_mean_W_m2"`
 	IrradianceHarmonics []HarmonicInfo `json:"irradiance_harmonics,omitempty"`
 	IrradianceRecord    string         `json:"irradiance_record,omitempty"`
+}
+
+// ptr returns a pointer to a copy of v.
+func ptr(v float64) *float64 { return &v }
+
+// notComputed records that the value under key was not computed and why.
+func (f *Frost) notComputed(key, why string) {
+	if f.NotComputed == nil {
+		f.NotComputed = map[string]string{}
+	}
+	f.NotComputed[key] = why
 }

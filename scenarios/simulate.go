@@ -32,6 +32,14 @@ func simDefaults(s *Scenario) {
 			sim.Duration = t1 - t0
 		}
 	}
+	if s.Kind == Ground && s.Outside.Temperature != nil && s.Outside.Temperature.Measured == nil &&
+		s.Outside.Temperature.Step == nil && sim.set["start"] == 0 {
+		// A harmonic ground run starts at the warmest time of the year, the
+		// start of a winter year, so that every simulated winter is whole.
+		if t, ok := warmestTime(s.Outside.Temperature); ok {
+			sim.Start = t
+		}
+	}
 	if sim.Duration == 0 {
 		switch {
 		case s.Outside.Temperature != nil && s.Outside.Temperature.Step != nil:
@@ -69,13 +77,10 @@ func simDefaults(s *Scenario) {
 		sim.Mesh.MaxCell = minPenetrationDepth(s, p) / 20
 	}
 	if sim.MaxSpinUpCycles == 0 {
-		// Each cycle of a ground column is a whole year: keep the default
-		// modest; the frost depth settles within millimetres long before
-		// the deep ground temperature does.
-		sim.MaxSpinUpCycles = 20
-		if s.Kind == Ground {
-			sim.MaxSpinUpCycles = 6
-		}
+		// The settled start (spinUp) ends as soon as the whole column and
+		// the frost depth repeat; the limit only stops a run that cannot
+		// settle.
+		sim.MaxSpinUpCycles = 40
 	}
 }
 
@@ -95,6 +100,28 @@ func shortestPeriod(s *Scenario) float64 {
 		}
 	}
 	return p
+}
+
+// warmestTime returns the time of year (s after 1 January 00:00) at which
+// the slow part of the forcing (components of two days and longer) is
+// warmest, to the hour, and whether the forcing has an annual component.
+func warmestTime(f *Forcing) (float64, bool) {
+	if _, ok := annualHarmonic(f); !ok {
+		return 0, false
+	}
+	slow := climate.Periodic{Mean: f.Mean}
+	for _, h := range f.Harmonics {
+		if h.Period >= 2*climate.Day {
+			slow.Harmonics = append(slow.Harmonics, h)
+		}
+	}
+	best, tb := math.Inf(-1), 0.0
+	for t := 0.0; t < climate.Year; t += 3600 {
+		if v := slow.At(t); v > best {
+			best, tb = v, t
+		}
+	}
+	return tb, true
 }
 
 // boundary turns a scenario side into a solver boundary.
@@ -140,6 +167,12 @@ func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 // linear run that needs no spin-up. A flux or adiabatic inside (ground
 // bottom) carries no periodic flux; a ground column ends at its meshed
 // depth, as the simulation does.
+//
+// In a freezing layer a cell whose mean temperature lies above its
+// freezing point starts unfrozen, at no less than the freezing point: the
+// linear solution knows no latent heat, and its winter cold wave at depth
+// would otherwise start as ice that takes decades to thaw (relic frost).
+// Where the mean is below freezing (permafrost) the cell starts frozen.
 func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
 	xs := mesh.Centers
 	c := col
@@ -159,6 +192,7 @@ func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64)
 	if err != nil {
 		return nil, err
 	}
+	meanT := append([]float64(nil), T...)
 	hs := forcingHarmonics(out, s.Inside.Temperature)
 	for i, p := range hs.periods {
 		var amp []complex128
@@ -173,6 +207,11 @@ func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64)
 		rot := cmplx.Exp(complex(0, 2*math.Pi*t0/p))
 		for j := range T {
 			T[j] += real(amp[j] * rot)
+		}
+	}
+	for j := range T {
+		if fr := col.Layers[mesh.Layer[j]].Freeze; fr != nil && meanT[j] > fr.Point && T[j] < fr.Point {
+			T[j] = fr.Point
 		}
 	}
 	return T, nil
@@ -235,6 +274,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	spin := 0
 	spinConverged := true
 	spinChange := 0.0
+	var settled *solver.Settled
 	switch {
 	case sim.Initial != nil:
 		p.Initial = uniform(mesh.Cells(), *sim.Initial)
@@ -252,17 +292,16 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 				if progress != nil {
 					progress("spin-up", 0)
 				}
-				var H []float64
-				H, spin, spinChange, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
-				spinConverged = spinChange < spinUpTolerance
+				settled, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
 				if err != nil {
 					return nil, &Error{File: s.File, Msg: "spin-up: " + err.Error()}
 				}
-				p.Initial, p.InitialEnthalpy = nil, H
+				spin, spinChange, spinConverged = settled.Cycles, settled.Change, settled.Converged
+				p.Initial, p.InitialEnthalpy = nil, settled.Enthalpy
 				if !spinConverged {
 					r.Warnings = append(r.Warnings, fmt.Sprintf(
-						"after %d spin-up cycles the state still changed by %.3f K per cycle (target %g K) where the periodic wave reaches; the first simulated cycle carries some start-up error; raise analysis.simulate.spin_up_cycles for a tighter start",
-						spin, spinChange, spinUpTolerance))
+						"not settled: after %d spin-up cycles the column still changed by %.3f K per cycle (target %g K) and the deepest frost by %s (target 1 mm); the simulated winters carry start-up error and none is used as the headline frost depth; raise analysis.simulate.spin_up_cycles",
+						spin, spinChange, spinUpTolerance, fmtMM(settled.FrontChange)))
 				}
 			}
 		}
@@ -489,40 +528,40 @@ func minPenetrationDepth(s *Scenario, p float64) float64 {
 	return d
 }
 
-// spinUpTolerance is the largest change (K) between the states at the
-// start of two successive cycles that counts as periodic.
+// spinUpTolerance is the largest change (K) of any cell of the column
+// between the states at the start of two successive cycles that counts as
+// periodic.
 const spinUpTolerance = 0.02
 
-// spinUp repeats one period of p until the state at the start of a cycle
-// repeats the last within spinUpTolerance in the cells the periodic wave
-// reaches (for a ground column: above the depth where the wave of that
-// period falls below 0.1 K; the mean temperature deeper down drifts over
-// decades and does not change the frost). It returns the state, the number
-// of cycles run (max+1 when it did not converge) and an error only for a
+// spinUpFrontTolerance is the largest change (m) of a cycle's deepest
+// frost from the cycle before that counts as settled.
+const spinUpFrontTolerance = 1e-3
+
+// spinUp repeats one period of p until the whole column and the deepest
+// frost of a cycle repeat the last cycle (solver.Settle: within
+// spinUpTolerance in every cell and spinUpFrontTolerance in the frost
+// depth), the quiet deep ground set to its steady profile between cycles
+// when the bottom condition is constant. It returns an error only for a
 // failed simulation.
-func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Progress) ([]float64, int, float64, error) {
-	if s.Kind == Ground && s.waveDepth > 0 {
-		p.SpinUpDepth = s.waveDepth
+func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
+	constInside := s.Inside.Temperature == nil ||
+		(len(s.Inside.Temperature.Harmonics) == 0 && s.Inside.Temperature.Measured == nil && s.Inside.Temperature.Step == nil)
+	o := solver.SettleOptions{
+		Period: period, MaxCycles: max, Tolerance: spinUpTolerance, FrontTolerance: spinUpFrontTolerance,
+		ConstantInside: constInside,
 	}
-	// Enthalpies keep the frozen fraction of cells at their freezing point,
-	// which a temperature cannot (solver.SpinUpEnthalpy). One cycle per
-	// call, so progress can be shown.
-	last := math.Inf(1)
-	for c := 1; c <= max; c++ {
-		next, _, change, err := solver.SpinUpEnthalpyChange(p, period, spinUpTolerance, 1)
-		if progress != nil {
-			progress("spin-up", float64(c)/float64(max))
-		}
-		if err == nil {
-			return next, c, change, nil
-		}
-		if !errors.Is(err, solver.ErrSpinUp) {
-			return nil, c, 0, err
-		}
-		last = change
-		p.Initial, p.InitialFunc, p.InitialEnthalpy = nil, nil, next
+	if progress != nil {
+		o.Progress = func(c int) { progress("spin-up", float64(c)/float64(max)) }
 	}
-	return p.InitialEnthalpy, max, last, nil
+	return solver.Settle(p, o)
+}
+
+// fmtMM formats a length in metres as millimetres for a message.
+func fmtMM(x float64) string {
+	if math.IsInf(x, 0) || math.IsNaN(x) {
+		return "an unknown amount"
+	}
+	return fmt.Sprintf("%.1f mm", x*1000)
 }
 
 // maxCells is the largest mesh a run builds: far beyond any sensible

@@ -97,16 +97,16 @@ var quantities = map[string]func(r *Results) (float64, bool){
 		return first(r, func(p PeriodicResult) float64 { return p.InsideArealHeatCapacity_kJ_m2K })
 	},
 	"max_frost_depth_m": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
+		return frostQ(r, func(f *Frost) *float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
 	},
 	"stefan_depth_m": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) float64 { return f.StefanDepth_m }, true)
+		return frostQ(r, func(f *Frost) *float64 { return f.StefanDepth_m }, true)
 	},
 	"modified_berggren_depth_m": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) float64 { return f.ModifiedBerggrenDepth_m }, true)
+		return frostQ(r, func(f *Frost) *float64 { return f.ModifiedBerggrenDepth_m }, true)
 	},
 	"freezing_index_Cd": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) float64 { return f.FreezingIndex_Cd }, true)
+		return frostQ(r, func(f *Frost) *float64 { return f.FreezingIndex_Cd }, true)
 	},
 }
 
@@ -117,11 +117,13 @@ func first(r *Results, f func(PeriodicResult) float64) (float64, bool) {
 	return f(r.Periodic[0]), true
 }
 
-func frostQ(r *Results, f func(*Frost) float64, ok bool) (float64, bool) {
-	if r.Frost == nil || !ok {
+// frostQ reads a frost quantity; a value that was not computed is not
+// defined (NaN, false).
+func frostQ(r *Results, f func(*Frost) *float64, ok bool) (float64, bool) {
+	if r.Frost == nil || !ok || f(r.Frost) == nil {
 		return math.NaN(), false
 	}
-	return f(r.Frost), true
+	return *f(r.Frost), true
 }
 
 // quantityNames lists the quantities a scenario kind has, sorted.

@@ -28,16 +28,31 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 			s.Duration_h, s.Step_h, s.Cells, s.EnergyBalanceRelativeError)
 	}
 	if f := r.Frost; f != nil {
+		// A value that was not computed says so, with the reason.
+		val := func(key string, v *float64, format string) string {
+			if v == nil {
+				why := f.NotComputed[key]
+				if why == "" {
+					return "not computed"
+				}
+				return "not computed (" + why + ")"
+			}
+			return fmt.Sprintf(format, *v)
+		}
 		sim := "not simulated"
 		if r.Simulation != nil {
-			sim = fmt.Sprintf("simulated depth %.2f m", f.MaxFrostDepth_m)
+			sim = "simulated depth " + val("max_frost_depth_m", f.MaxFrostDepth_m, "%.2f m")
+			if f.HeadlineWinter != "" {
+				sim += " (" + f.HeadlineWinter + ")"
+			}
 		}
 		src := ""
 		if f.IndexSource != "" && f.IndexSource != "forcing" {
 			src = " (" + f.IndexSource + ")"
 		}
-		fmt.Fprintf(w, "  frost: air freezing index %.0f degC day%s, %s, Stefan %.2f m, modified Berggren %.2f m (estimates; local codes govern)\n",
-			f.FreezingIndex_Cd, src, sim, f.StefanDepth_m, f.ModifiedBerggrenDepth_m)
+		fmt.Fprintf(w, "  frost: air freezing index %s%s, %s, Stefan %s, modified Berggren %s (estimates; local codes govern)\n",
+			val("freezing_index_Cd", f.FreezingIndex_Cd, "%.0f degC day"), src, sim,
+			val("stefan_depth_m", f.StefanDepth_m, "%.2f m"), val("modified_berggren_depth_m", f.ModifiedBerggrenDepth_m, "%.2f m"))
 	}
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
