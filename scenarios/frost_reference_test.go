@@ -41,14 +41,14 @@ analysis:
 // refWinter is what the reference simulation reads from one settled
 // winter year (from one warmest time of the surface to the next).
 type refWinter struct {
-	frost        float64 // deepest ice, m
-	thaw         float64 // deepest thaw above ice that outlasts the year, m
-	frozenAll    bool    // ice somewhere all year round
-	years        int     // years run until successive winters agreed within 1 mm
-	cells        int
-	step         float64 // s
-	elapsed      time.Duration
-	history      []float64 // deepest ice of each year, m
+	frost     float64 // deepest ice, m
+	thaw      float64 // deepest thaw above ice that outlasts the year, m
+	frozenAll bool    // ice somewhere all year round
+	years     int     // years run until successive winters agreed within 1 mm
+	cells     int
+	step      float64 // s
+	elapsed   time.Duration
+	history   []float64 // deepest ice of each year, m
 }
 
 // referenceFrost is an independent settled reference for a homogeneous
