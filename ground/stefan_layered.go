@@ -19,8 +19,9 @@ import (
 //	dF_i = L_i d_i (R_above + d_i / (2 k_i)) / 86400,  R_above = sum_{j<i} d_j / k_j,
 //
 // the layered form of Stefan's formula used by the multilayer procedure of
-// the US Army frost manuals (TM 5-852-6 / UFC 3-130-06, procedure from
-// memory, as REFERENCES section 4 describes; with lambda = 1). The frost
+// the US Army frost manuals (TM 5-852-6 / AFR 88-19 Vol. 6, 1988,
+// "Calculation methods for determination of depths of freeze and thaw in
+// soils"; UFC 3-130-06; procedure [memory]; with lambda = 1). The frost
 // line lies in the first layer whose cumulative index exceeds F; there the
 // partial depth x solves L x (R_above + x/(2k)) = (F - F_above) 86400. The
 // last layer continues downward. For one layer it is X = sqrt(2 k F 86400

@@ -196,7 +196,7 @@ func TestSimulatePeriodicHalfSpace(t *testing.T) {
 	// the heat equation [derived]). Start from the exact periodic state,
 	// default mesh, run two periods and fit the first harmonic of the last
 	// period by least squares. Amplitudes within 0.5 %.
-	soil := Layer{Name: "sand", Thickness: 1, Conductivity: 0.24, HeatCapacity: 0.24 / 0.19e-6} // Moene and van Dam Table 2.2 dry sand [read]
+	soil := Layer{Name: "sand", Thickness: 1, Conductivity: 0.24, HeatCapacity: 0.24 / 0.19e-6} // Moene and van Dam Table 2.2 dry sand [2nd-hand]
 	P := 86400.0
 	a := soil.Diffusivity()
 	d := math.Sqrt(a * P / math.Pi)
