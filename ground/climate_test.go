@@ -190,7 +190,7 @@ func TestGroundWaveHeatEquation(t *testing.T) {
 
 func TestGroundWaveDepths(t *testing.T) {
 	// Dry sand, a = 0.19e-6 m2/s (Moene and van Dam 2014 Table 2.2 after
-	// de Vries 1963 [read]): annual damping depth sqrt(a P / pi) =
+	// de Vries 1963 [2nd-hand]): annual damping depth sqrt(a P / pi) =
 	// sqrt(0.19e-6 31.536e6 / pi) = 1.3811 m [derived by hand].
 	w, _ := Kusuda(8, 10, 15*climate.Day, 0.19e-6)
 	if d := w.DampingDepth(); math.Abs(d-1.3811) > 1e-4 {

@@ -191,8 +191,8 @@ func TestObservedOrderTime(t *testing.T) {
 
 func TestSimulatePeriodicHalfSpace(t *testing.T) {
 	// Periodic surface temperature on a homogeneous half-space: amplitude
-	// ratio exp(-z/d) and lag z/d P/(2 pi), d = sqrt(a P/pi) (REFERENCES
-	// section 3, Kusuda and Achenbach 1965 form [memory], checked against
+	// ratio exp(-z/d) and lag z/d P/(2 pi), d = sqrt(a P/pi) (Kusuda
+	// and Achenbach 1965 form [memory], checked against
 	// the heat equation [derived]). Start from the exact periodic state,
 	// default mesh, run two periods and fit the first harmonic of the last
 	// period by least squares. Amplitudes within 0.5 %.
