@@ -21,16 +21,16 @@ import (
 // "sol-air temperature" [read].)
 
 // ExternalSurfaceCoefficient is h_e = 1/Rse = 25 W/(m2 K), from the external
-// surface resistance Rse = 0.04 m2 K/W of ISO 6946 [read, REFERENCES.md
-// section 1].
+// surface resistance Rse = 0.04 m2 K/W of ISO 6946:2017 [2nd-hand; memory
+// agrees].
 const ExternalSurfaceCoefficient = 1 / 0.04
 
 // Long-wave sky corrections eps dR / h_e (K) for SolAir's skyCorrection:
 // about 7 degF (3.9 K) for horizontal surfaces, which see the cold sky, and
 // zero for vertical surfaces, whose sky deficit is taken as offset by warm
 // ground and surroundings (ASHRAE Handbook, Fundamentals, sol-air
-// temperature [memory]; quoted as "0 K vertical, 4 K horizontal, common
-// practice" in secondary sources [2nd-hand]). Night-sky cooling of a clear,
+// temperature [memory]; 0 K vertical and about 4 K horizontal are common
+// practice). Night-sky cooling of a clear,
 // dry climate can be several times larger.
 const (
 	SkyCorrectionHorizontal = 7 * 5.0 / 9 // K (7 degF)

@@ -190,7 +190,8 @@ func frostLayers(col solver.Column) []solver.Layer {
 
 // frostClimate reads the air freezing index, season length and mean
 // annual temperature of the forcing (periodic forcings: one year sampled
-// daily, cumulative-curve season; REFERENCES section 4).
+// daily, cumulative-curve season, as defined in TM 5-852-6 / AFR 88-19
+// Vol. 6, 1988 [memory]).
 func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
 	f := s.Outside.Temperature
 	if f == nil || f.Step != nil {
@@ -198,8 +199,10 @@ func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
 	}
 	if m := f.Measured; m != nil {
 		// A record: the design freezing index, the mean of the three
-		// coldest complete winters of the latest 30 (REFERENCES section 4
-		// [read]), with the mean season length of those winters.
+		// coldest complete winters of the latest 30 (the pavement criterion
+		// named in UFC 3-130-04 (TM 5-852-4) chapter 4 [read]; the rule as
+		// set out in TM 5-852-6 / AFR 88-19 Vol. 6, 1988 [memory]), with the
+		// mean season length of those winters.
 		ws, err := recordWinters(m)
 		if err != nil {
 			return ground.FrostClimate{}, "", false
@@ -231,8 +234,8 @@ func frostClimate(s *Scenario) (ground.FrostClimate, string, bool) {
 	if _, ok := annualHarmonic(f); !ok {
 		return ground.FrostClimate{}, "", false
 	}
-	// Freezing indices are sums of daily mean temperatures (REFERENCES
-	// section 4; ISO 13793): components shorter than two days average out
+	// Freezing indices are sums of daily mean temperatures (ISO 13793
+	// [2nd-hand]; TM 5-852-6 [memory]): components shorter than two days average out
 	// of daily means, and sampling them once a day would alias them.
 	slow := climate.Periodic{Mean: f.Mean}
 	for _, h := range f.Harmonics {
