@@ -101,7 +101,7 @@ func tooltipPointer(tip string) *opts.AxisPointer {
 }
 
 func splitLine() *opts.SplitLine {
-	return &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: "#E4E7EB"}}
+	return &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: colGrid}}
 }
 
 func valueAxisX(name, unitLabel string, min, max any, log bool) opts.XAxis {
@@ -121,7 +121,7 @@ func valueAxisX(name, unitLabel string, min, max any, log bool) opts.XAxis {
 // draws an axis through the other axis' zero, which would pass for a data
 // line (the 0 °C line of a ground chart).
 func axisLine() *opts.AxisLine {
-	return &opts.AxisLine{Show: opts.Bool(true), OnZero: opts.Bool(false), LineStyle: &opts.LineStyle{Color: "#8C959F"}}
+	return &opts.AxisLine{Show: opts.Bool(true), OnZero: opts.Bool(false), LineStyle: &opts.LineStyle{Color: colAxis}}
 }
 
 func valueAxisY(name, unitLabel string, inverse bool) opts.YAxis {

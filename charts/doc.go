@@ -56,7 +56,7 @@
 // by winter and the exact periodic ground temperature at each probe; the
 // options and studies (options drawn side by side to one scale and
 // compared in a table, sweep, target search, uncertainty, diffusivity
-// fit); the ISO 13786 properties; the transient simulation; the step response;
+// fit); the ISO 13786 properties; the transient simulation; the surface heat uptake after a step;
 // methods with their sources; cautions.
 //
 // # The cross-section drawing

@@ -74,7 +74,7 @@ func inputsBlocks(r *scenarios.Results) []*block {
 		}
 	}
 	if st := r.StepResponse; st != nil {
-		t.row("Step response", fmt.Sprintf("the %s surface temperature steps by %s K, followed for %s", st.Side, fixed(st.Change_K, 1), seconds(st.Duration_s)))
+		t.row("Surface heat uptake after a step", fmt.Sprintf("the %s surface temperature steps by %s K, followed for %s", st.Side, fixed(st.Change_K, 1), seconds(st.Duration_s)))
 	}
 
 	// Analysis.

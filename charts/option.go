@@ -124,7 +124,7 @@ const (
 	colVermilion = "#D55E00"
 	colPurple    = "#CC79A7"
 	colGrey      = "#6B6B6B"
-	colText      = "#1F2328"
+	colText      = "#182126"               // page text, derived: see palette.go
 	colBand      = "rgba(86,180,233,0.28)" // sky blue, translucent
 )
 

@@ -528,7 +528,7 @@ func stepChart(r *scenarios.Results) (*chartSpec, error) {
 			}
 		}
 	}
-	c := newChart(idStep, "Step response of the "+side+" surface", "tipX", 56)
+	c := newChart(idStep, "Heat uptake of the "+side+" surface after a step", "tipX", 56)
 	y := valueAxisY("Surface heat flux (W/m²)", "", false)
 	if minOf(s.StepFlux_W_m2) > 0 && !(minOf(s.StepFluxHalfSpace_W_m2) <= 0) {
 		// q ∝ 1/√t for the half-space: a straight line on log-log axes.

@@ -224,7 +224,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 
 	var step *section
 	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
-		step = &section{ID: "step", Heading: "Step response"}
+		step = &section{ID: "step", Heading: "Surface heat uptake after a step"}
 		add(step, stepTable(r), chart(stepChart))
 	}
 	if firstErr != nil {

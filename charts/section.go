@@ -66,10 +66,10 @@ var familyStyles = map[string]familyStyle{
 	layers.FamilyMetal:      {"metal", "#A9B2BC", "#3D4650", ""},
 	layers.FamilyGlass:      {"glass", "#EAF6FC", "#56B4E9", `<path d="M0 8l8-8" stroke-width="0.5" fill="none"/>`},
 	layers.FamilyLiquid:     {"liquid", "#BCDDF2", "#0072B2", `<path d="M0 4q2-1.5 4 0t4 0" stroke-width="0.6" fill="none"/>`},
-	layers.FamilyAir:        {"air layer", "#FFFFFF", "#8C959F", ""},
+	layers.FamilyAir:        {"air layer", "#FFFFFF", "#7C929E", ""},
 	"soil":                  {"soil and rock", "#E7DCBC", "#6B5A2E", `<circle cx="1.5" cy="2" r="0.8"/><circle cx="5.5" cy="6" r="0.6"/><path d="M4 2.5h2.5M0.5 6.5h2" stroke-width="0.6" fill="none"/>`},
-	layers.FamilyOther:      {"other", "#E4E7EB", "#57606A", `<path d="M0 4h1.5M4 0v1.5" stroke-width="0.6" fill="none"/>`},
-	"":                      {"family not known", "#EEF0F2", "#8C959F", ""},
+	layers.FamilyOther:      {"other", "#E5E9EC", "#506D7D", `<path d="M0 4h1.5M4 0v1.5" stroke-width="0.6" fill="none"/>`},
+	"":                      {"family not known", "#EAEDEF", "#7C929E", ""},
 }
 
 // familyOrderDrawn is the order of the legend.
@@ -430,7 +430,7 @@ func (w *svgWriter) legend(used []string, x, y, right float64) float64 {
 		if f == layers.FamilyAir || f == "" {
 			dash = ` stroke-dasharray="3 2"`
 		}
-		w.f(`<rect x="%s" y="%s" width="14" height="14" fill="%s" stroke="#57606A" stroke-width="0.8"%s/>`, svgNum(cx), svgNum(cy-11), w.fill(f), dash)
+		w.f(`<rect x="%s" y="%s" width="14" height="14" fill="%s" stroke="#506D7D" stroke-width="0.8"%s/>`, svgNum(cx), svgNum(cy-11), w.fill(f), dash)
 		w.text(cx+20, cy, "start", "lg", st.label)
 		cx += wd
 	}
@@ -480,7 +480,7 @@ func (w *svgWriter) drawLayer(x, y, wd, ht float64, fam, title string) {
 	if fam == layers.FamilyAir || fam == "" {
 		dash = ` stroke-dasharray="3 2"`
 	}
-	w.f(`<rect x="%s" y="%s" width="%s" height="%s" fill="%s" stroke="#57606A" stroke-width="0.8"%s><title>%s</title></rect>`,
+	w.f(`<rect x="%s" y="%s" width="%s" height="%s" fill="%s" stroke="#506D7D" stroke-width="0.8"%s><title>%s</title></rect>`,
 		svgNum(x), svgNum(y), svgNum(wd), svgNum(ht), w.fill(fam), dash, esc(title))
 }
 
@@ -595,7 +595,7 @@ func (w *svgWriter) open(x0, x1, h float64, label string, vertical bool) {
 	} else {
 		w.f(`<svg class="xsec" viewBox="%s 0 %s %s" role="img" aria-label="%s">`, svgNum(x0), svgNum(x1-x0), svgNum(h), esc(label))
 	}
-	w.f(`<style>.xsec text{font-family:%s;fill:#1F2328}.xsec .nm{font-size:12px}.xsec .sm{font-size:11px;fill:#57606A}.xsec .lg{font-size:12px;fill:#57606A}.xsec .side{font-size:13px;font-weight:600}.xsec .dt{font-size:12px;fill:#57606A}.xsec .mk{font-size:11px;paint-order:stroke;stroke:#fff;stroke-width:3px;stroke-linejoin:round}.xsec .dim,.xsec .lead{stroke:#57606A;stroke-width:0.8;fill:none}.xsec .dot{fill:#57606A}.xsec .frost{fill:#0072B2}</style>`,
+	w.f(`<style>.xsec text{font-family:%s;fill:#182126}.xsec .nm{font-size:12px}.xsec .sm{font-size:11px;fill:#506D7D}.xsec .lg{font-size:12px;fill:#506D7D}.xsec .side{font-size:13px;font-weight:600}.xsec .dt{font-size:12px;fill:#506D7D}.xsec .mk{font-size:11px;paint-order:stroke;stroke:#fff;stroke-width:3px;stroke-linejoin:round}.xsec .dim,.xsec .lead{stroke:#506D7D;stroke-width:0.8;fill:none}.xsec .dot{fill:#506D7D}.xsec .frost{fill:#0072B2}</style>`,
 		esc(fontStack))
 }
 
@@ -685,7 +685,7 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 		body.text(stackX+stackW/2, top+length+20, "middle", "side", bottomSide)
 	}
 	if ground {
-		body.f(`<path d="M%s %sh%s" stroke="#1F2328" stroke-width="2"/>`, svgNum(stackX-10), svgNum(top), svgNum(stackW+20))
+		body.f(`<path d="M%s %sh%s" stroke="#182126" stroke-width="2"/>`, svgNum(stackX-10), svgNum(top), svgNum(stackW+20))
 		if scale.cut > 0 {
 			y := top + scale.at(scale.cut)
 			body.breakMark(stackX, y+math.Min(12, (top+length-y)/3), stackW)

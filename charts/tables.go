@@ -267,7 +267,7 @@ func stepTable(r *scenarios.Results) *block {
 	if st == nil {
 		return nil
 	}
-	t := newTable("Step response", []string{"Quantity", "Simulated", "Half-space closed form", "Unit"}, "text", "", "", "text")
+	t := newTable("Surface heat uptake after a step", []string{"Quantity", "Simulated", "Half-space closed form", "Unit"}, "text", "", "", "text")
 	t.row("Step of the "+st.Side+" surface temperature", fixed(st.Change_K, 1), "", "K")
 	t.row("Duration", trimZeros(sig(st.Duration_s, 4)), "", "s")
 	t.row("Surface layer", st.SurfaceLayer, "", "")
@@ -352,7 +352,7 @@ func methods(r *scenarios.Results) []string {
 			"Modified Berggren frost depth (Aldrich and Paynter, 1953; US Army TM 5-852-6 / UFC 3-130-06): the Stefan form with the mean of frozen and unfrozen conductivity, multiplied by a coefficient λ that depends on the thermal ratio α and the fusion parameter μ.")
 	}
 	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
-		m = append(m, "Step response closed form: a semi-infinite solid whose surface temperature changes by ΔT, q = λ ΔT / √(π a t) (Carslaw and Jaeger, Conduction of Heat in Solids, §2.4; Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7).")
+		m = append(m, "Surface heat uptake after a step, closed form: a semi-infinite solid whose surface temperature changes by ΔT, q = λ ΔT / √(π a t) (Carslaw and Jaeger, Conduction of Heat in Solids, §2.4; Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7).")
 	}
 	m = append(m, "Charts: Apache ECharts 5.6.0, embedded in this file. Long time series are thinned for display only.")
 	return m

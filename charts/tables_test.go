@@ -150,7 +150,7 @@ func TestWallInputs(t *testing.T) {
 		"Inside surface resistance Rsi":                       "0.13 m²·K/W",
 		"Outside environment temperature over the 24 h cycle": "4.0 °C to 20.0 °C (mean 12.0 °C)",
 		"Inside environment temperature":                      "constant 20.0 °C",
-		"Step response":                                       "the outside surface temperature steps by 10.0 K, followed for 27.8 h",
+		"Surface heat uptake after a step":                    "the outside surface temperature steps by 10.0 K, followed for 27.8 h",
 		"Spin-up before recording":                            "none",
 		"Probe positions from the outside surface":            "50 mm, 200 mm",
 		"Periods of the exact periodic analysis":              "24 h, 7 d",

@@ -16,7 +16,7 @@ import (
 // With daily means (step = Day) and threshold 0 this is the usual air
 // freezing and thawing degree-day sum; ISO 13793 writes the freezing index
 // in K h, that is 24 times the sum of daily mean degrees below 0 degC
-// [read, as quoted in REFERENCES.md section 4]. With hourly samples it is
+// [2nd-hand]. With hourly samples it is
 // the time integral, which is larger on days that cross the threshold.
 func DegreeDays(values []float64, step, threshold float64) (below, above float64) {
 	for _, v := range values {
@@ -305,8 +305,11 @@ func FreezingIndices(ws []Winter) []float64 {
 // DesignFreezingIndex returns the mean of the three largest freezing
 // indices (degC day) among the latest 30 of indices, which are in
 // chronological order: the design air freezing index "average of the three
-// coldest winters in 30 years" used for pavements (REFERENCES.md section 4
-// [read]). Records shorter than 30 winters use all they have; fewer than
+// coldest winters in 30 years" used for pavements (the criterion named in
+// UFC 3-130-04 (TM 5-852-4 / AFM 88-19 Chap. 4), chapter 4, beside Table
+// 4-1 [read]; the rule as set
+// out in TM 5-852-6 / AFR 88-19 Vol. 6, 1988, "Calculation methods for
+// determination of depths of freeze and thaw in soils" [memory]). Records shorter than 30 winters use all they have; fewer than
 // three winters is an error. The caller should say how many winters were
 // used: a short record understates the design value. Design frost depths
 // are set by local codes and a licensed engineer; this index is an input

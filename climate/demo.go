@@ -41,6 +41,8 @@ func DemoComments(seed uint64, years int) []string {
 	return []string{
 		"INVENTED DATA for demonstrations and tests of tempstack. Not a measurement:",
 		"no real station, place or year is described. Do not use for design.",
+		fmt.Sprintf("The calendar years (%d to %d) are placeholders far in the future, so that", DemoStart.Year(), DemoStart.Year()+years),
+		"no one mistakes the record for observations.",
 		fmt.Sprintf("Station: %s. Hourly air temperature, degC, UTC.", DemoName),
 		fmt.Sprintf("Made by climate.GenerateDemo(seed %d, years %d): annual and daily", seed, years),
 		"harmonics, a random severity per winter and AR(1) weather noise.",
@@ -48,9 +50,11 @@ func DemoComments(seed uint64, years int) []string {
 	}
 }
 
-// DemoStart is the first record of the demo series: 1 July 2014 00:00 UTC,
-// so that the record holds whole winters.
-var DemoStart = time.Date(2014, time.July, 1, 0, 0, 0, 0, time.UTC)
+// DemoStart is the first record of the demo series: 1 July 2914 00:00 UTC,
+// so that the record holds whole winters. The year is a placeholder far in
+// the future, so the invented record cannot be mistaken for observations;
+// it has the leap years of a present-day decade (2916, 2920, 2924).
+var DemoStart = time.Date(2914, time.July, 1, 0, 0, 0, 0, time.UTC)
 
 // GenerateDemo returns an invented hourly air-temperature record of the
 // given number of years (365 or 366 days each, real calendar) from

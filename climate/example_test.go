@@ -156,7 +156,7 @@ func ExampleGenerateDemo() {
 		fmt.Printf("%s: %s to %s, %.0f degC day\n", w.Label, w.StartTime.Format("Jan 2"), w.EndTime.Format("Jan 2"), w.FreezingIndex)
 	}
 	// Output:
-	// 17545 hourly records from 2014-07-01
-	// 2014/15: Oct 25 to Apr 16, 1291 degC day
-	// 2015/16: Oct 30 to Apr 1, 1133 degC day
+	// 17545 hourly records from 2914-07-01
+	// 2914/15: Oct 25 to Apr 16, 1291 degC day
+	// 2915/16: Oct 30 to Apr 1, 1133 degC day
 }

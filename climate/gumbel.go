@@ -107,8 +107,9 @@ const eulerGamma = 0.57721566490153286060651209008240243
 // GumbelFit fits a Gumbel distribution of maxima to x (at least 3 values,
 // not all equal), for example the freezing indices of the complete winters
 // of a record (FreezingIndices). Frost-protected shallow foundations use
-// the 100-year return-period air freezing index (ASCE 32-01, as quoted in
-// REFERENCES.md section 4 [read]): g.ReturnLevel(100). A 100-year value
+// the 100-year return-period air freezing index (ASCE 32-01, Design and
+// Construction of Frost-Protected Shallow Foundations [2nd-hand]):
+// g.ReturnLevel(100). A 100-year value
 // from a ten-year record is an extrapolation with a wide uncertainty;
 // report the method, the number of winters and the fitted parameters with
 // it, and prefer the values of local codes, which a licensed engineer

@@ -4,6 +4,7 @@ import (
 	"math"
 	"testing"
 
+	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/gonum/stat/distuv"
 	"math/rand/v2"
 	"strings"
@@ -32,20 +33,40 @@ func TestReducedVariateStatsTable(t *testing.T) {
 	}
 }
 
-func TestGumbelReducedVariateCalculator(t *testing.T) {
-	// Ten annual maxima and the return levels an online Gumbel calculator
-	// gave for them (rounded to whole units): T = 25, 50, 100 years ->
-	// 21, 25, 28. Quoted in the blog of "Mathematics for Sustainability",
-	// July 2017, supplement to section 5.3 [2nd-hand].
-	x := []float64{12.1, 11, 2, 1.8, 16.4, 6.7, 8, 3, 4, 9}
+func TestGumbelReducedVariateFrequencyFactor(t *testing.T) {
+	// Gumbel's method for a short record: x_T = mean + K_T s with the
+	// frequency factor K_T = (y_T - y_n)/s_n, y_T = -ln(-ln(1 - 1/T)), s the
+	// sample standard deviation (n - 1 divisor) and y_n, s_n the mean and
+	// standard deviation of the reduced variates of the plotting positions
+	// (Gumbel, Statistics of Extremes, 1958; Chow, Maidment and Mays,
+	// Applied Hydrology, 1988, frequency factors [memory]). The reference
+	// here is written out from that equation, with the sample statistics
+	// from gonum's stat.MeanStdDev and y_n, s_n from the plotting positions
+	// i/(n+1) [derived]. Ten invented annual maxima (degC day).
+	x := []float64{412, 385, 170, 160, 530, 290, 320, 190, 215, 350}
 	g, err := GumbelFit(x, ReducedVariate)
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, c := range []struct{ T, want float64 }{{25, 21}, {50, 25}, {100, 28}} {
-		if got := g.ReturnLevel(c.T); math.Round(got) != c.want {
-			t.Errorf("T %v: return level %.3f, want %v after rounding", c.T, got, c.want)
+	mean, s := stat.MeanStdDev(x, nil)
+	var yn, yy float64
+	n := float64(len(x))
+	for i := 1; i <= len(x); i++ {
+		y := -math.Log(-math.Log(float64(i) / (n + 1)))
+		yn += y / n
+		yy += y * y / n
+	}
+	sn := math.Sqrt(yy - yn*yn)
+	for _, T := range []float64{2, 10, 25, 50, 100} {
+		yT := -math.Log(-math.Log(1 - 1/T))
+		want := mean + (yT-yn)/sn*s
+		if got := g.ReturnLevel(T); math.Abs(got-want) > 1e-9*want {
+			t.Errorf("T %v: return level %.6f, frequency-factor form %.6f", T, got, want)
 		}
+	}
+	// n = 10: y_n = 0.4952, s_n = 0.9496 in the printed tables [memory].
+	if math.Abs(yn-0.4952) > 6e-5 || math.Abs(sn-0.9496) > 6e-5 {
+		t.Errorf("n 10: y_n %.5f s_n %.5f", yn, sn)
 	}
 	// The method of moments gives a lower 100-year value for the same
 	// data (the n-dependent factors widen the short-record estimate).

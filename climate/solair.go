@@ -21,16 +21,16 @@ import (
 // "sol-air temperature" [read].)
 
 // ExternalSurfaceCoefficient is h_e = 1/Rse = 25 W/(m2 K), from the external
-// surface resistance Rse = 0.04 m2 K/W of ISO 6946 [read, REFERENCES.md
-// section 1].
+// surface resistance Rse = 0.04 m2 K/W of ISO 6946:2017 [2nd-hand; memory
+// agrees].
 const ExternalSurfaceCoefficient = 1 / 0.04
 
 // Long-wave sky corrections eps dR / h_e (K) for SolAir's skyCorrection:
 // about 7 degF (3.9 K) for horizontal surfaces, which see the cold sky, and
 // zero for vertical surfaces, whose sky deficit is taken as offset by warm
 // ground and surroundings (ASHRAE Handbook, Fundamentals, sol-air
-// temperature [memory]; quoted as "0 K vertical, 4 K horizontal, common
-// practice" in secondary sources [2nd-hand]). Night-sky cooling of a clear,
+// temperature [memory]; 0 K vertical and about 4 K horizontal are common
+// practice). Night-sky cooling of a clear,
 // dry climate can be several times larger.
 const (
 	SkyCorrectionHorizontal = 7 * 5.0 / 9 // K (7 degF)
@@ -122,13 +122,21 @@ var absorptancePresets = []AbsorptancePreset{
 	{"light", 0.3, "light colours; common practice (round value) [memory]"},
 	{"medium", 0.6, "medium colours; 0.6 is the default for opaque elements in ISO 52016-1 [memory]"},
 	{"dark", 0.9, "dark colours; common practice (round value) [memory]"},
-	{"ashrae-light", 0.45, "ASHRAE Fundamentals a/h_o = 0.15 h ft2 degF/Btu, light surfaces, with h_o = 3.0 Btu/(h ft2 degF) [memory]"},
-	{"ashrae-dark", 0.90, "ASHRAE Fundamentals a/h_o = 0.30 h ft2 degF/Btu, dark surfaces, with h_o = 3.0 Btu/(h ft2 degF) [memory]"},
+	{"light-handbook", 0.45, "ASHRAE Handbook, Fundamentals, sol-air temperature: a/h_o = 0.15 h ft2 degF/Btu for light surfaces, with h_o = 3.0 Btu/(h ft2 degF) [memory]"},
+	{"dark-handbook", 0.90, "ASHRAE Handbook, Fundamentals, sol-air temperature: a/h_o = 0.30 h ft2 degF/Btu for dark surfaces, with h_o = 3.0 Btu/(h ft2 degF) [memory]"},
 	{"white-paint", 0.25, "white paint, clean; handbook absorptance tables [memory]"},
 	{"red-brick", 0.65, "red brick; handbook absorptance tables [memory]"},
 	{"concrete", 0.65, "concrete, grey; handbook absorptance tables [memory]"},
 	{"black-roofing", 0.90, "black bitumen roofing felt or membrane; handbook absorptance tables [memory]"},
 	{"asphalt", 0.90, "asphalt paving; handbook absorptance tables [memory]"},
+}
+
+// renamedAbsorptance maps preset keys of earlier releases, which carried a
+// trade society's name, to the descriptive keys that replaced them. They
+// are refused with a pointer to the new key.
+var renamedAbsorptance = map[string]string{
+	"ashrae-light": "light-handbook",
+	"ashrae-dark":  "dark-handbook",
 }
 
 // AbsorptancePresets returns the named solar absorptances, sorted by name.
@@ -151,7 +159,9 @@ func Absorptance(name string) (float64, error) {
 		names = append(names, p.Name)
 	}
 	msg := fmt.Sprintf("climate: no absorptance preset %q", name)
-	if s := closest(key, names); s != "" {
+	if s, ok := renamedAbsorptance[key]; ok {
+		msg += fmt.Sprintf(" (renamed); did you mean %q?", s)
+	} else if s := closest(key, names); s != "" {
 		msg += fmt.Sprintf("; did you mean %q?", s)
 	}
 	sort.Strings(names)

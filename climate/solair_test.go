@@ -94,4 +94,13 @@ func TestAbsorptancePresets(t *testing.T) {
 	if _, err := Absorptance("red brik"); err == nil || !strings.Contains(err.Error(), `did you mean "red-brick"`) {
 		t.Errorf("misspelt preset: %v", err)
 	}
+	// Keys of earlier releases are refused and point to their new names.
+	for old, want := range map[string]string{"ashrae-light": "light-handbook", "ASHRAE dark": "dark-handbook"} {
+		if _, err := Absorptance(old); err == nil || !strings.Contains(err.Error(), `did you mean "`+want+`"`) {
+			t.Errorf("old key %q: %v, want a pointer to %q", old, err, want)
+		}
+	}
+	if a, err := Absorptance("light-handbook"); err != nil || a != 0.45 {
+		t.Errorf("light-handbook = %v, %v", a, err)
+	}
 }

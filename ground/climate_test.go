@@ -190,13 +190,14 @@ func TestGroundWaveHeatEquation(t *testing.T) {
 
 func TestGroundWaveDepths(t *testing.T) {
 	// Dry sand, a = 0.19e-6 m2/s (Moene and van Dam 2014 Table 2.2 after
-	// de Vries 1963 [read]): annual damping depth sqrt(a P / pi) =
+	// de Vries 1963 [2nd-hand]): annual damping depth sqrt(a P / pi) =
 	// sqrt(0.19e-6 31.536e6 / pi) = 1.3811 m [derived by hand].
 	w, _ := Kusuda(8, 10, 15*climate.Day, 0.19e-6)
 	if d := w.DampingDepth(); math.Abs(d-1.3811) > 1e-4 {
 		t.Errorf("damping depth %g", d)
 	}
-	// Amplitude ratio exp(-z/d) and lag z/d P/(2 pi) (REFERENCES section 3):
+	// Amplitude ratio exp(-z/d) and lag z/d P/(2 pi) (Kusuda and Achenbach
+	// 1965 form [memory]; Carslaw and Jaeger, section 2.6 [memory]):
 	// the minimum at depth z comes LagAt(z) after the surface minimum.
 	z := 2.0
 	lag := w.LagAt(z)
@@ -250,7 +251,7 @@ func TestGroundWaveDepths(t *testing.T) {
 
 func TestDiffusivityFromHarmonics(t *testing.T) {
 	// A GroundWave with a = 0.45e-6 m2/s (wet clay, Moene and van Dam 2014
-	// Table 2.2 [read]) sampled daily for two years at 0.2 and 1.0 m; the
+	// Table 2.2 [2nd-hand]) sampled daily for two years at 0.2 and 1.0 m; the
 	// annual harmonics fitted by climate.FitHarmonics give back a by both
 	// methods [derived: amplitude ratio exp(-dz/d), lag dz/d P/(2 pi)].
 	const a = 0.45e-6

@@ -25,7 +25,7 @@ func synthWaves(a float64) []GroundWave {
 // the exact periodic temperature under synthWaves(a) read at the given
 // depths every hour for the given number of days, plus Gaussian noise of
 // standard deviation sigma (K) from a seeded generator. Each harmonic is
-// the closed form of Kusuda and Achenbach (GroundWave; REFERENCES section 3
+// the closed form of Kusuda and Achenbach (1965) (GroundWave; form
 // [memory], checked against the heat equation in
 // TestGroundWaveHeatEquation [derived]); the heat equation is linear, so
 // their sum is the exact periodic solution.
@@ -68,7 +68,8 @@ func relErr(got, want float64) float64 { return math.Abs(got/want - 1) }
 // known diffusivity with the exact periodic solution (synthRecord) back:
 // the harmonic methods within 2 %, the inversion within 1 %. The
 // diffusivities are those of wet clay, dry sand and rock in Moene and van
-// Dam (2014), Table 2.2, after de Vries 1963 (REFERENCES section 3 [read]);
+// Dam (2014), Transport in the Atmosphere-Vegetation-Soil Continuum,
+// Table 2.2, after de Vries 1963 [2nd-hand];
 // the noise of 0.05 K is an invented logger noise.
 //
 // Runtime on the shared 2-core machine: 2 to 4 s for the table; the
@@ -170,8 +171,8 @@ func TestFitDiffusivitySynthetic(t *testing.T) {
 // TestFitDiffusivityWeather: SYNTHETIC record under irregular "weather"
 // made of 24 harmonics with periods from 2.3 to 45 days (random
 // amplitudes up to 2 K and phases, seeded) on top of the annual and daily
-// waves. Each harmonic is exact (GroundWave, REFERENCES section 3
-// [memory]), so the sum is the exact response to that surface history. The
+// waves. Each harmonic is exact (GroundWave, Kusuda and
+// Achenbach 1965 form [memory]), so the sum is the exact response to that surface history. The
 // inversion, which needs no periodic forcing, must still land within 1 %;
 // the harmonic methods, fitting only the daily wave, are logged.
 func TestFitDiffusivityWeather(t *testing.T) {
@@ -270,7 +271,7 @@ func TestFitDiffusivityStdErr(t *testing.T) {
 
 // TestFitDiffusivityPhaseUnwrap: between 0.05 and 0.9 m the daily wave in
 // a soil of 0.5e-6 m2/s lags by (0.85/d) P/(2 pi) = 1.16 days (GroundWave,
-// REFERENCES section 3 [derived]): the phase method must add one period.
+// lag z/d P/(2 pi) of the Kusuda and Achenbach form [derived]): the phase method must add one period.
 // SYNTHETIC noise-free record of the daily wave alone, harmonic methods
 // only.
 func TestFitDiffusivityPhaseUnwrap(t *testing.T) {

@@ -21,8 +21,7 @@ const secondsPerDay = 86400.0
 // with k the conductivity of the layer the heat crosses (W/(m K)): the
 // frozen conductivity for frost depth, the unfrozen one for thaw depth;
 // I the surface freezing (thawing) index, K day, >= 0; L the latent heat,
-// J/m3, > 0 (Stefan 1891, from memory; the form of REFERENCES section 4 as
-// used in Handy and Spangler, Geotechnical Engineering, 5th ed. 2007,
+// J/m3, > 0 (Stefan 1891, from memory; the form as used in Handy and Spangler, Geotechnical Engineering, 5th ed. 2007,
 // Example 11.7). Stefan's depth is an upper bound of the
 // modified Berggren depth for the same k.
 func Stefan(k, latent, index float64) (float64, error) {
@@ -63,7 +62,7 @@ func checkStefan(k, latent float64) error {
 // mu > 0, and the root xi it comes from.
 //
 // lambda is computed from the two-phase Neumann solution with equal frozen
-// and unfrozen properties (REFERENCES section 4, derived), not read from the
+// and unfrozen properties (Aldrich and Paynter 1953 [memory]; [derived]), not read from the
 // manuals' chart: xi solves
 //
 //	f(xi) = mu exp(-xi^2) [1/erf(xi) - alpha/erfc(xi)] - sqrt(pi) xi = 0
@@ -159,7 +158,8 @@ type BerggrenResult struct {
 // heat (J/m3), F_s the surface index (K day), and lambda from
 // BerggrenCoefficient(alpha, mu), alpha = v0/vs, vs = F_s/t,
 // mu = C vs / L, C the mean of the frozen and unfrozen volumetric heat
-// capacities (REFERENCES section 4; Aldrich and Paynter 1953; TM 5-852-6).
+// capacities (Aldrich and Paynter 1953; TM 5-852-6 / AFR 88-19 Vol. 6,
+// 1988 [memory]).
 //
 // Layered soil (multilayer procedure of TM 5-852-6 / UFC 3-130-06 as this
 // package implements it; procedure from memory): layer i has thickness d_i,

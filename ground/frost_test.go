@@ -10,7 +10,7 @@ import (
 
 func TestStefanHandySpangler(t *testing.T) {
 	// Handy and Spangler, Geotechnical Engineering, 5th ed. 2007, Example
-	// 11.7 [read, REFERENCES section 4]: k_frozen 3.3 W/(m K), L about
+	// 11.7 [read]: k_frozen 3.3 W/(m K), L about
 	// 77,000 kJ/m3, 10 days at -5 degC (50 degC day): X = 0.6 m
 	// (0.609 m [derived]).
 	x, err := Stefan(3.3, 77e6, 50)
@@ -64,12 +64,12 @@ func TestBerggrenCoefficient(t *testing.T) {
 		alpha, mu, lambda, tol float64
 		src                    string
 	}{
-		{0, 0.5, 0.930, 0.0005, "REFERENCES section 4 [derived]"},
-		{1, 0.2, 0.776, 0.0005, "REFERENCES section 4 [derived]"},
+		{0, 0.5, 0.930, 0.0005, "Neumann solution, equal properties [derived]"},
+		{1, 0.2, 0.776, 0.0005, "Neumann solution, equal properties [derived]"},
 		// alpha = 0 is the one-phase Stefan problem with St = mu:
 		// xi exp(xi^2) erf(xi) = St/sqrt(pi); xi = 0.22002, 0.46479,
-		// 0.62006, 0.80060 for St 0.1, 0.5, 1, 2 (REFERENCES section 4
-		// [derived; textbook tables from memory agree]); lambda =
+		// 0.62006, 0.80060 for St 0.1, 0.5, 1, 2 [derived: roots of that
+		// equation]; lambda =
 		// xi sqrt(2/St).
 		{0, 0.1, 0.22002 * math.Sqrt(20), 2e-5, "one-phase Stefan St 0.1"},
 		{0, 1, 0.62006 * math.Sqrt(2), 2e-5, "one-phase Stefan St 1"},
@@ -166,7 +166,7 @@ func neumannTwoPhase(kf, ku, cf, cu, latent, vs, v0 float64) float64 {
 
 func TestNeumannOracle(t *testing.T) {
 	// The oracle against Lunardini (1981), Heat Transfer in Cold Climates,
-	// with Jumikis (1966) soil data [2nd-hand, REFERENCES section 4]:
+	// with Jumikis (1966) soil data [2nd-hand]:
 	// m = 3.6 cm/h^0.5 (3.5945 [derived]); X(60 days) = 1.364 m.
 	m := neumannTwoPhase(2.324, 1.860, 1.966e6, 2.862e6, 1.1045e8, 10, 2)
 	cmh := m * 100 * 60
@@ -187,7 +187,8 @@ func TestModifiedBerggrenIsNeumann(t *testing.T) {
 	// With equal frozen and unfrozen properties and a surface held vs below
 	// freezing for the whole season over soil starting v0 above it, the
 	// modified Berggren depth is the exact two-phase Neumann front
-	// (REFERENCES section 4: lambda is derived from that solution).
+	// (Aldrich and Paynter 1953: lambda is derived from that solution
+	// [derived]).
 	cases := []struct{ k, c, L, vs, v0, days float64 }{
 		{2.0, 2.0e6, 1.0e8, 8, 3, 100},
 		{1.2, 2.6e6, 1.4e8, 5, 8, 120},
@@ -218,7 +219,8 @@ func TestModifiedBerggrenIsNeumann(t *testing.T) {
 
 func TestModifiedBerggrenHomogeneous(t *testing.T) {
 	// One soil layer: X = lambda sqrt(2 k F 86400 / L) with k and C the means
-	// of frozen and unfrozen values (REFERENCES section 4).
+	// of frozen and unfrozen values (modified Berggren formula, Aldrich
+	// and Paynter 1953; TM 5-852-6 [memory]).
 	l := freezeLayer("silt", 0.3, 1.8, 1.4, 1.9e6, 2.6e6, 1.0e8)
 	in := BerggrenInput{SurfaceIndex: 900, SeasonDays: 110, MeanAnnual: 6, Layers: []solver.Layer{l}}
 	r, err := ModifiedBerggren(in)

@@ -138,8 +138,8 @@ func newInvModel(rec SensorRecord, o FitOptions, fits []climate.Periodic, ad flo
 	m.first = sort.SearchFloat64s(rec.Times, t0+discard)
 
 	// Uniform cells between the outer sensors: CellsPerDepth per periodic
-	// penetration depth sqrt(a P / pi) of the shortest period (ISO 13786,
-	// REFERENCES section 1), at most L/40 and a quarter of the closest
+	// penetration depth sqrt(a P / pi) of the shortest period (the periodic
+	// penetration depth of ISO 13786 [memory]), at most L/40 and a quarter of the closest
 	// sensor spacing.
 	cpd := o.CellsPerDepth
 	if cpd == 0 {
@@ -219,7 +219,7 @@ func (m *invModel) initial(a float64) func(x float64) float64 {
 		t := deep.Mean + miss*math.Exp(-xi/dmin)
 		for _, h := range deep.Harmonics {
 			// T = Mean + A exp(-xi/d) cos(omega (t - peak) - xi/d),
-			// REFERENCES section 3 (Kusuda and Achenbach form, from memory).
+			// Kusuda and Achenbach (1965) form [memory].
 			d := math.Sqrt(a * h.Period / math.Pi)
 			t += h.Amplitude * math.Exp(-xi/d) * math.Cos(2*math.Pi*(t0-h.Peak)/h.Period-xi/d)
 		}

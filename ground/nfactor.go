@@ -39,7 +39,7 @@ func (n NFactors) Thawing() (float64, bool) {
 	return n.ThawingMin, true
 }
 
-const nFactorSource = "UFC 3-130-04 (TM 5-852-4) Table 4-1"
+const nFactorSource = "UFC 3-130-04 (TM 5-852-4) Table 4-1 [read]"
 
 var nFactors = []NFactors{
 	{Surface: "snow", Description: "snow surface", Freezing: 1.0},

@@ -46,7 +46,7 @@ func (p SoilPreset) Diffusivity() (float64, error) {
 	return pr.ConductivityUnfrozen / pr.HeatCapacityUnfrozen, nil
 }
 
-const deVries = "Moene and van Dam (2014), Transport in the Atmosphere-Vegetation-Soil Continuum, Table 2.2, after de Vries (1963) [read]; heat capacity = conductivity / diffusivity"
+const deVries = "Moene and van Dam (2014), Transport in the Atmosphere-Vegetation-Soil Continuum, Table 2.2, after de Vries (1963) [2nd-hand]; heat capacity = conductivity / diffusivity"
 
 const kerstenState = "a state measured by Kersten (1949), as tabulated in Handy and Spangler (2007) Table 11.1 [read]; properties from Kersten's equations"
 

@@ -89,14 +89,15 @@ const (
 	// manuals' heat-capacity formula C = rho_d (0.17 + w) Btu/(ft3 degF)
 	// (from memory; textbooks give 0.71 to 0.84 kJ/(kg K) for minerals).
 	DefaultSolidsHeat = 0.17 * 4186.8
-	// WaterHeat is the specific heat of liquid water, J/(kg K)
-	// (REFERENCES section 1, from memory).
+	// WaterHeat is the specific heat of liquid water near 10 degC, J/(kg K)
+	// (CRC Handbook of Chemistry and Physics, properties of water
+	// [memory]).
 	WaterHeat = 4190.0
-	// IceHeat is the specific heat of ice, J/(kg K) (REFERENCES section 1,
-	// from memory).
+	// IceHeat is the specific heat of ice near -10 degC, J/(kg K) (CRC
+	// Handbook of Chemistry and Physics [memory]).
 	IceHeat = 2000.0
 	// LatentHeatFusion is the latent heat of fusion of water, J/kg
-	// (334 kJ/kg, REFERENCES section 4).
+	// (334 kJ/kg; CRC Handbook of Chemistry and Physics [memory]).
 	LatentHeatFusion = 334e3
 )
 
@@ -215,10 +216,8 @@ func JohansenSolids(t Texture, quartz float64) float64 {
 
 // JohansenDry returns the conductivity of a dry natural soil, W/(m K), from
 // its dry density rho_d (kg/m3), Johansen (1975) as given by Farouki (1981)
-// (form 2nd-hand: quoted identically, with the coefficient 0.135, by the
-// DuMux porous-media library documentation and by several land-surface
-// model codes that cite Farouki or the CLM technical note; stated accuracy
-// +-20 %):
+// (Farouki 1981, Thermal Properties of Soils, CRREL Monograph 81-1,
+// equation for dry natural soils [memory]; stated accuracy +-20 %):
 //
 //	k_dry = (0.135 rho_d + 64.7) / (2700 - 0.947 rho_d)
 func JohansenDry(dryDensity float64) float64 {
@@ -385,7 +384,10 @@ func (s Soil) HeatCapacity() (frozen, unfrozen float64) {
 }
 
 // LatentHeat is the latent heat released when all pore water freezes, J/m3
-// of soil: L = rho_d w 334 kJ/kg (REFERENCES section 4).
+// of soil: L = rho_d w 334 kJ/kg (the latent heat per volume used with
+// Stefan's formula; Handy and Spangler, Geotechnical Engineering, 5th ed.
+// 2007, Example 11.7, find about 77,000 kJ/m3 for 18.9 kN/m3 and w 12 %
+// [read]).
 func (s Soil) LatentHeat() float64 { return s.DryDensity * s.WaterContent * LatentHeatFusion }
 
 // Properties collects the derived thermal properties of a soil, SI units.

@@ -11,7 +11,7 @@ const lbPerFt3 = 16.018463373960138
 
 func TestKerstenTable(t *testing.T) {
 	// Handy and Spangler, Geotechnical Engineering, 5th ed. 2007, Table 11.1
-	// (Kersten 1949 measurements) [read, via REFERENCES section 4]:
+	// (from Kersten's charts) [read]:
 	// frozen / unfrozen conductivity, W/(m K), at dry density (pcf) and
 	// water content (%). Kersten's equations reproduce them within
 	// 0.1 W/(m K) [derived].
@@ -47,7 +47,7 @@ func TestKerstenTable(t *testing.T) {
 func TestKerstenTableException(t *testing.T) {
 	// The one entry of Handy and Spangler Table 11.1 the equations miss:
 	// frozen sand 120 pcf, w 15 %: equation 4.31, table 4.0 W/(m K)
-	// [derived, REFERENCES section 4]. Hand computation of the frozen sand
+	// [derived from Kersten's frozen-sand equation]. Hand computation of the frozen sand
 	// equation: 0.076 10^1.56 + 0.032 10^1.752 15 = 29.88 Btu in/(ft2 h F)
 	// = 4.309 W/(m K).
 	kf, err := KerstenFrozen(Sand, 120*lbPerFt3, 0.15)
@@ -125,7 +125,7 @@ func TestJohansenDryPublished(t *testing.T) {
 	// Johansen's dry-soil formula at rho_d = 1600 kg/m3: (0.135 1600 + 64.7)
 	// / (2700 - 0.947 1600) = 280.7 / 1184.8 = 0.2369 W/(m K) [derived by
 	// hand]; it lies inside the dry-sand value 0.24 W/(m K) of Moene and van
-	// Dam (2014) Table 2.2 after de Vries (1963) [read] with Johansen's
+	// Dam (2014) Table 2.2 after de Vries (1963) [2nd-hand] with Johansen's
 	// stated +-20 % accuracy.
 	got := JohansenDry(1600)
 	if math.Abs(got-0.23692) > 1e-4 {
@@ -225,7 +225,7 @@ func TestSoilBadInputs(t *testing.T) {
 }
 
 func TestSoilHeatAndLatent(t *testing.T) {
-	// Handy and Spangler Example 11.7 [read, REFERENCES section 4]: dry unit
+	// Handy and Spangler (2007) Example 11.7 [read]: dry unit
 	// weight 18.9 kN/m3, w 12 %: L about 77,000 kJ/m3. rho_d = 18900/9.81.
 	s := Soil{Texture: Sand, DryDensity: 18900 / 9.81, WaterContent: 0.12}
 	if L := s.LatentHeat(); math.Abs(L-77e6)/77e6 > 0.01 {

@@ -21,7 +21,8 @@ import (
 // the layered form of Stefan's formula of the multilayer procedure of the
 // US Army frost manuals (TM 5-852-6 / AFR 88-19 Vol. 6, 1988, "Calculation
 // methods for determination of depths of freeze and thaw in soils";
-// Aldrich and Paynter 1953; procedure [memory]). The frost line lies in the
+// UFC 3-130-06; Aldrich and Paynter 1953; procedure [memory]; with
+// lambda = 1). The frost line lies in the
 // first layer whose cumulative index exceeds F; there the partial depth x
 // solves L x (R_above + x/(2k)) = (F - F_above) 86400. The last layer
 // continues downward. For one layer it is X = sqrt(2 k F 86400 / L),

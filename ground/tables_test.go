@@ -7,8 +7,7 @@ import (
 
 func TestNFactors(t *testing.T) {
 	// UFC 3-130-04 Table 4-1 [read]: freezing n-factors snow 1.0, concrete
-	// 0.75, asphalt 0.7, bare soil 0.7, turf 0.5, tree-covered 0.3 (also in
-	// REFERENCES section 4); shaded surface 0.9. Thawing: concrete 1.5,
+	// 0.75, asphalt 0.7, bare soil 0.7, turf 0.5, tree-covered 0.3; shaded surface 0.9. Thawing: concrete 1.5,
 	// bituminous 1.6 to 2+, bare soil 1.4 to 2+, shaded 1.0, turf 0.8,
 	// tree-covered 0.4, snow none.
 	cases := []struct {
@@ -63,7 +62,7 @@ func TestNFactors(t *testing.T) {
 }
 
 func TestPresets(t *testing.T) {
-	// Moene and van Dam (2014) Table 2.2 after de Vries (1963) [read]:
+	// Moene and van Dam (2014) Table 2.2 after de Vries (1963) [2nd-hand]:
 	// dry sand 0.24 W/(m K), 0.19e-6 m2/s; wet clay 1.4, 0.45e-6; rock 2.9,
 	// 1.4e-6.
 	fixed := []struct {

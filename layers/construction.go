@@ -68,7 +68,7 @@ func ParseOrientation(s string) (Orientation, error) {
 // Conventional surface resistances of ISO 6946 (Table 7 of the 2017
 // edition, table number from memory), m2 K/W: inside Rsi 0.10 for upward, 0.13 for horizontal and 0.17
 // for downward heat flow; outside Rse 0.04 in all directions. Source:
-// REFERENCES.md section 1 [read, quoted from the standard's table; memory
+// ISO 6946:2017 [2nd-hand: quoted from the standard's table; memory
 // agrees].
 const (
 	RsiUp         = 0.10
@@ -248,7 +248,9 @@ func (l Layer) Diffusivity() float64 {
 // Effusivity is the thermal effusivity b = sqrt(lambda rho c),
 // W s^0.5/(m2 K). Two semi-infinite bodies brought into contact settle at
 // the contact temperature (b1 T1 + b2 T2)/(b1 + b2) (a standard result of
-// conduction in semi-infinite solids, see REFERENCES section 2). It is 0
+// conduction in semi-infinite solids: Carslaw and Jaeger, Conduction of
+// Heat in Solids, 2nd ed., chapter II [memory]; [derived] from the
+// equal surface fluxes of the two erf solutions). It is 0
 // for a resistance layer.
 func (l Layer) Effusivity() float64 {
 	if l.IsResistance() {

@@ -8,7 +8,7 @@ import (
 )
 
 // tabulaWall is the Italian TABULA construction sheet Wall_01.03
-// (REFERENCES.md section 1 [2nd-hand]), written outside first as a
+// (Italian national building typology of the TABULA project) [2nd-hand], written outside first as a
 // Construction wants it.
 func tabulaWall() Construction {
 	return Construction{Orientation: Wall, Layers: []Layer{
@@ -65,8 +65,8 @@ func TestUValueHandbook(t *testing.T) {
 }
 
 func TestSurfaceResistances(t *testing.T) {
-	// ISO 6946 conventional surface resistances, REFERENCES.md section 1
-	// [read, quoted from the standard's table; memory agrees].
+	// ISO 6946:2017 conventional surface resistances (table of surface
+	// resistances) [2nd-hand; memory agrees].
 	tests := []struct {
 		o        Orientation
 		rsi, rse float64
@@ -240,7 +240,7 @@ func TestLayerSolverAndValidate(t *testing.T) {
 
 func TestDerivedProperties(t *testing.T) {
 	day := 86400.0
-	// Moene and van Dam (2014) Table 2.2 [read, via REFERENCES]: dry sand
+	// Moene and van Dam (2014) Table 2.2 [2nd-hand]: dry sand
 	// lambda 0.24 W/(m K), a 0.19e-6 m2/s; rock 2.9, 1.4e-6.
 	sand := Layer{Thickness: 1, Conductivity: 0.24, Density: 0.24 / 0.19e-6, SpecificHeat: 1}
 	rock := Layer{Thickness: 1, Conductivity: 2.9, Density: 2.9 / 1.4e-6, SpecificHeat: 1}
@@ -262,7 +262,7 @@ func TestDerivedProperties(t *testing.T) {
 	}
 	// The penetration depth is the one for which T = exp(-x/delta)
 	// cos(omega t - x/delta) solves the heat equation dT/dt = a d2T/dx2
-	// (REFERENCES section 3 [derived]). Check with central differences.
+	// ([derived] by substitution). Check with central differences.
 	conc := Layer{Thickness: 0.2, Conductivity: 2, Density: 2400, SpecificHeat: 1000}
 	a, delta, omega := conc.Diffusivity(), conc.PenetrationDepth(day), 2*math.Pi/day
 	T := func(x, t float64) float64 { return math.Exp(-x/delta) * math.Cos(omega*t-x/delta) }
@@ -285,14 +285,30 @@ func TestDerivedProperties(t *testing.T) {
 	if b := conc.Effusivity(); math.Abs(b-conc.Conductivity/math.Sqrt(conc.Diffusivity())) > 1e-9 {
 		t.Errorf("effusivity identity: %g", b)
 	}
-	// Contact temperature of two half-spaces (REFERENCES section 2
-	// [standard]): a 32 degC hand on 20 degC steel
-	// or softwood. The hand (b about 1000, common practice) feels steel
-	// near 20.8 degC and softwood near 28.7 degC [derived].
-	soft, _ := NewLayer("softwood", 0.02)
+	// Contact temperature of two half-spaces, Tc = (b1 T1 + b2 T2)/(b1 +
+	// b2) (Carslaw and Jaeger, Conduction of Heat in Solids, chapter II
+	// [memory]; [derived]: the two erf solutions of Incropera et al. section
+	// 5.7 carry equal fluxes b (T - Tc)/sqrt(pi t) through the interface).
+	// A 20 degC cement screed (library: 1.4 W/(m K), 2000 kg/m3, 1000
+	// J/(kg K), b = sqrt(2.8e6) = 1673.3) laid on 5 degC granite (2.8,
+	// 2600, 1000: b = sqrt(7.28e6) = 2698.1) meets it at 10.742 degC; on
+	// 5 degC EPS (0.035, 20, 1450: b = sqrt(1015) = 31.859) at 19.720 degC
+	// [derived by hand].
+	screed, _ := NewLayer("screed", 0.05)
+	granite, _ := NewLayer("granite", 0.05)
+	eps, _ := NewLayer("eps", 0.05)
 	contact := func(b1, t1, b2, t2 float64) float64 { return (b1*t1 + b2*t2) / (b1 + b2) }
-	if ts, tw := contact(1000, 32, steel.Effusivity(), 20), contact(1000, 32, soft.Effusivity(), 20); !(ts < 21 && tw > 28 && tw < 29.5) {
-		t.Errorf("contact temperatures: steel %g, softwood %g", ts, tw)
+	if tg, te := contact(screed.Effusivity(), 20, granite.Effusivity(), 5), contact(screed.Effusivity(), 20, eps.Effusivity(), 5); math.Abs(tg-10.742) > 5e-4 || math.Abs(te-19.720) > 5e-4 {
+		t.Errorf("contact temperatures: screed on granite %.4f degC (want 10.742), on EPS %.4f degC (want 19.720)", tg, te)
+	}
+	// The same interface temperature from the erf solutions themselves:
+	// after any time t the two fluxes through the interface are equal.
+	tg := contact(screed.Effusivity(), 20, granite.Effusivity(), 5)
+	tt := 90.0
+	q1 := screed.Effusivity() * (20 - tg) / math.Sqrt(math.Pi*tt)
+	q2 := granite.Effusivity() * (tg - 5) / math.Sqrt(math.Pi*tt)
+	if math.Abs(q1-q2) > 1e-9*q1 {
+		t.Errorf("interface fluxes differ: screed side %g, granite side %g W/m2", q1, q2)
 	}
 	// Resistance layers store nothing.
 	gap, _ := NewLayer("air-gap-wall", 0.025)

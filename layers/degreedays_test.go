@@ -6,8 +6,8 @@ import (
 )
 
 // TestDegreeDays: a freezing index in degC day, K h or degF day. ISO 13793
-// writes F in K h = 24 x the sum of daily degrees below 0 degC [read, per
-// REFERENCES section 4]; a degF interval is exactly 5/9 K (NIST SP 811).
+// writes F in K h = 24 x the sum of daily degrees below 0 degC
+// [2nd-hand]; a degF interval is exactly 5/9 K (NIST SP 811).
 func TestDegreeDays(t *testing.T) {
 	cases := []struct {
 		in   string

@@ -81,20 +81,20 @@ func familyRank(f string) int {
 
 // Sources of the library values. The tag says how the value reached this
 // table: [read] seen in the source named, [2nd-hand] quoted from that source
-// by another document, [memory] recalled and to be checked. Values the
-// project's REFERENCES.md quotes carry its tag.
+// by another document, [memory] recalled and to be checked. A value seen
+// only as quoted by another document is [2nd-hand], never [read].
 const (
-	srcRefsISO10456 = "ISO 10456:2007 Table 3 [read, as quoted in REFERENCES]"
-	srcRefsMemory   = "design value as quoted in REFERENCES [memory]"
-	srcISO10456     = "ISO 10456:2007 Table 3 [memory]"
-	srcISO10456Ins  = "conductivity: typical declared value of current products, common practice [memory]; specific heat: ISO 10456:2007 [memory]"
-	srcEN12524      = "EN 12524 design values, as tabulated on the userdeck.net page '05.06 Material Properties' (after prEN 12524:1998) [2nd-hand]"
-	srcCIBSE336     = "CIBSE Guide A, Table 3.36 (impermeable materials) [read]"
-	srcCIBSE337     = "CIBSE Guide A, Table 3.37 (non-hygroscopic materials) [read]"
-	srcCIBSEBlock   = "CIBSE Guide A, typical UK values for brickwork and concrete blocks [memory]"
-	srcDataholz     = "dataholz.eu component catalogue, layer data of an external timber-frame wall [read]"
-	srcTypical      = "typical value, no single source [memory]; use the product's declared value"
-	srcISO6946Air   = "ISO 6946:2007 Table 2, unventilated air layer, high-emissivity faces [memory]"
+	srcISO10456Quoted = "ISO 10456:2007 Table 3 [2nd-hand; memory agrees]"
+	srcWaterIce       = "CRC Handbook of Chemistry and Physics, properties of water and ice, rounded [memory]"
+	srcISO10456       = "ISO 10456:2007 Table 3 [memory]"
+	srcISO10456Ins    = "conductivity: typical declared value of current products, common practice [memory]; specific heat: ISO 10456:2007 [memory]"
+	srcEN12524        = "ISO 10456:2007 Table 3, the values of EN 12524:2000 it took over [memory]"
+	srcCIBSE336       = "CIBSE Guide A, Table 3.36 (impermeable materials) [read]"
+	srcCIBSE337       = "CIBSE Guide A, Table 3.37 (non-hygroscopic materials) [read]"
+	srcCIBSEBlock     = "CIBSE Guide A, typical UK values for brickwork and concrete blocks [memory]"
+	srcDataholz       = "dataholz.eu component catalogue, layer data of an external timber-frame wall [read]"
+	srcTypical        = "typical value, no single source [memory]; use the product's declared value"
+	srcISO6946Air     = "ISO 6946:2007 Table 2, unventilated air layer, high-emissivity faces [memory]"
 )
 
 // library is the built-in material table.
@@ -109,7 +109,7 @@ var library = []Material{
 	// Concrete.
 	{Key: "concrete", Name: "Concrete, high density (2400 kg/m3)", Family: FamilyConcrete, Conductivity: 2.0, Density: 2400, SpecificHeat: 1000, Source: srcISO10456},
 	{Key: "concrete-medium", Name: "Concrete, medium density (2000 kg/m3)", Family: FamilyConcrete, Conductivity: 1.35, Density: 2000, SpecificHeat: 1000, Source: srcISO10456},
-	{Key: "reinforced-concrete", Name: "Reinforced concrete", Family: FamilyConcrete, Conductivity: 2.3, Density: 2400, SpecificHeat: 1000, Source: srcRefsISO10456 + "; specific heat ISO 10456:2007 Table 3 [memory]"},
+	{Key: "reinforced-concrete", Name: "Reinforced concrete", Family: FamilyConcrete, Conductivity: 2.3, Density: 2400, SpecificHeat: 1000, Source: "ISO 10456:2007 Table 3, reinforced concrete: conductivity 2.3 W/(m K) as for 1 % steel, density 2400 kg/m3 and specific heat 1000 J/(kg K) as for 2 % steel [memory]"},
 	{Key: "lightweight-concrete", Name: "Lightweight aggregate concrete (1400 kg/m3)", Family: FamilyConcrete, Conductivity: 0.57, Density: 1400, SpecificHeat: 1000, Source: srcTypical},
 	{Key: "aerated-concrete", Name: "Autoclaved aerated concrete (500 kg/m3)", Family: FamilyConcrete, Conductivity: 0.14, Density: 500, SpecificHeat: 1000, Source: srcTypical, Note: "AAC varies with density and moisture: 0.09 to 0.20 W/(m K)"},
 	{Key: "screed", Name: "Cement-sand screed", Family: FamilyConcrete, Conductivity: 1.4, Density: 2000, SpecificHeat: 1000, Source: srcTypical},
@@ -145,7 +145,7 @@ var library = []Material{
 	{Key: "fibreboard", Name: "Fibreboard incl. MDF (600 kg/m3)", Family: FamilyBoard, Conductivity: 0.14, Density: 600, SpecificHeat: 1700, Source: srcISO10456},
 
 	// Timber.
-	{Key: "softwood", Name: "Softwood timber (500 kg/m3)", Family: FamilyTimber, Conductivity: 0.13, Density: 500, SpecificHeat: 1600, Source: srcRefsISO10456},
+	{Key: "softwood", Name: "Softwood timber (500 kg/m3)", Family: FamilyTimber, Conductivity: 0.13, Density: 500, SpecificHeat: 1600, Source: srcISO10456Quoted},
 	{Key: "softwood-light", Name: "Softwood construction timber (450 kg/m3)", Family: FamilyTimber, Conductivity: 0.12, Density: 450, SpecificHeat: 1600, Source: srcDataholz},
 	{Key: "hardwood", Name: "Hardwood timber (700 kg/m3)", Family: FamilyTimber, Conductivity: 0.18, Density: 700, SpecificHeat: 1600, Source: srcEN12524},
 
@@ -165,7 +165,7 @@ var library = []Material{
 	{Key: "cellular-glass", Name: "Cellular (foam) glass", Family: FamilyInsulation, Conductivity: 0.052, Density: 140, SpecificHeat: 840, Source: srcCIBSE336},
 
 	// Metals.
-	{Key: "steel", Name: "Steel", Family: FamilyMetal, Conductivity: 50, Density: 7800, SpecificHeat: 450, Source: srcRefsISO10456},
+	{Key: "steel", Name: "Steel", Family: FamilyMetal, Conductivity: 50, Density: 7800, SpecificHeat: 450, Source: srcISO10456Quoted},
 	{Key: "stainless-steel", Name: "Stainless steel", Family: FamilyMetal, Conductivity: 17, Density: 7900, SpecificHeat: 460, Source: srcEN12524},
 	{Key: "aluminium", Name: "Aluminium alloy", Family: FamilyMetal, Conductivity: 160, Density: 2800, SpecificHeat: 880, Source: srcEN12524},
 	{Key: "copper", Name: "Copper", Family: FamilyMetal, Conductivity: 380, Density: 8900, SpecificHeat: 380, Source: srcEN12524},
@@ -174,8 +174,8 @@ var library = []Material{
 	{Key: "glass", Name: "Glass, soda-lime", Family: FamilyGlass, Conductivity: 1.0, Density: 2500, SpecificHeat: 750, Source: srcEN12524},
 
 	// Water and its solid forms.
-	{Key: "water", Name: "Water (about 10 degC)", Family: FamilyLiquid, Conductivity: 0.60, Density: 1000, SpecificHeat: 4190, Source: srcRefsMemory},
-	{Key: "ice", Name: "Ice (about -10 degC)", Family: FamilyOther, Conductivity: 2.30, Density: 920, SpecificHeat: 2000, Source: srcRefsMemory},
+	{Key: "water", Name: "Water (about 10 degC)", Family: FamilyLiquid, Conductivity: 0.60, Density: 1000, SpecificHeat: 4190, Source: srcWaterIce},
+	{Key: "ice", Name: "Ice (about -10 degC)", Family: FamilyOther, Conductivity: 2.30, Density: 920, SpecificHeat: 2000, Source: srcWaterIce},
 	{Key: "snow", Name: "Snow, soft (200 kg/m3)", Family: FamilyOther, Conductivity: 0.12, Density: 200, SpecificHeat: 2000, Source: srcISO10456},
 	{Key: "snow-compacted", Name: "Snow, compacted (500 kg/m3)", Family: FamilyOther, Conductivity: 0.60, Density: 500, SpecificHeat: 2000, Source: srcISO10456},
 

@@ -458,7 +458,7 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 		case s.Kind == Ground:
 			// Default bottom: the continental mean geothermal heat flux,
 			// 65 mW/m2 (Pollack, Hurter and Johnson 1993, Rev. Geophys.
-			// 31:267 [read, per REFERENCES section 3]).
+			// 31:267, abstract [read]).
 			side.HeatFlux, side.Flux = DefaultGeothermalFlux, true
 			return side, nil
 		}

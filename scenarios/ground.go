@@ -194,8 +194,9 @@ func frostLayers(col solver.Column) []solver.Layer {
 // where they come from, or the reason why there are none.
 //
 //   - A record: the design freezing index, the mean of the three coldest
-//     complete winters of the latest 30 (US Army TM 5-852-6 / AFR 88-19
-//     Vol. 6, 1988, for pavements [memory]), with the mean season length of
+//     complete winters of the latest 30 (the pavement criterion named in
+//     UFC 3-130-04 (TM 5-852-4) chapter 4 [read]; the rule as set out in
+//     TM 5-852-6 / AFR 88-19 Vol. 6, 1988 [memory]), with the mean season length of
 //     those winters; with one or two complete winters, the coldest one, as
 //     the frost manuals do when fewer winters are at hand (common
 //     practice), said so in the label.
@@ -253,7 +254,7 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 	}
 	if _, ok := annualHarmonic(f); ok && f.Step == nil {
 		// Freezing indices are sums of daily mean temperatures (ISO 13793
-		// [memory]): components shorter than two days average out of
+		// [2nd-hand]; TM 5-852-6 [memory]): components shorter than two days average out of
 		// daily means, and sampling them once a day would alias them.
 		slow := climate.Periodic{Mean: f.Mean}
 		for _, h := range f.Harmonics {

@@ -14,7 +14,7 @@ import (
 
 // TestGroundNeumannLunardini runs the two-phase Neumann problem of
 // Lunardini (1981), Heat Transfer in Cold Climates, with Jumikis (1966)
-// soil data [2nd-hand, per REFERENCES section 4] through a whole ground
+// soil data [2nd-hand] through a whole ground
 // scenario: soil at +2 degC, surface stepped to -10 degC, k_f 2.324,
 // k_u 1.860 W/(m K), C_f 1.966e6, C_u 2.862e6 J/(m3 K), L 1.1045e8 J/m3.
 // The front reaches X = m sqrt(t), m = 3.5945 cm/h^0.5 [derived]:
@@ -49,7 +49,7 @@ analysis:
 		t.Errorf("frost depth %.4f m differs from the Neumann solution %.4f m by more than 1 %%", got, want)
 	}
 	if math.Abs(want-1.364) > 0.001 {
-		t.Errorf("test set-up: Neumann depth %.4f m, REFERENCES gives 1.364 m", want)
+		t.Errorf("test set-up: Neumann depth %.4f m, Lunardini's case gives 1.364 m", want)
 	}
 	if e := r.Simulation.EnergyBalanceRelativeError; e > 1e-8 {
 		t.Errorf("energy balance error %g with freezing", e)
@@ -60,8 +60,8 @@ analysis:
 // annual surface temperature swing; the transient run's amplitude and lag
 // at several depths match the half-space solution T = Tm + As exp(-z/d)
 // cos(w t - z/d), d = sqrt(a P / pi) (Kusuda and Achenbach 1965 form
-// [memory], checked against the heat equation [derived]; REFERENCES
-// section 3). Required: within 1 %.
+// [memory], checked against the heat equation [derived]). Required:
+// within 1 %.
 func TestGroundPeriodicHalfSpace(t *testing.T) {
 	r := mustRun(t, `
 title: annual wave in rock
@@ -128,8 +128,9 @@ analysis:
 // soil initially at or above freezing) the simulated frost depth lies
 // between the two-phase Neumann solution (which also pays for cooling the
 // unfrozen soil; Carslaw and Jaeger section 11.2) and Stefan's formula
-// (which ignores all sensible heat and so overestimates; Handy and
-// Spangler section 11.x per REFERENCES section 4). The Neumann bound gets
+// (which ignores all sensible heat and so overestimates: closed forms of
+// this kind "generally overestimate" freezing depths, UFC 3-130-05,
+// chapter 12 [read]). The Neumann bound gets
 // a 1 % allowance for discretisation.
 func TestFrostBetweenNeumannAndStefan(t *testing.T) {
 	rng := rand.New(rand.NewPCG(7, 11))
@@ -250,8 +251,8 @@ analysis:
 
 // TestDesignIndexDrivesClosedForms: with a design air freezing index the
 // closed forms use n x design; the Stefan depth of a homogeneous soil is
-// X = sqrt(2 k_f F 86400 / L) (Stefan's formula, REFERENCES section 4, as
-// in Handy and Spangler Example 11.7 [read]).
+// X = sqrt(2 k_f F 86400 / L) (Stefan's formula as in Handy and Spangler,
+// Geotechnical Engineering, 5th ed. 2007, Example 11.7 [read]).
 func TestDesignIndexDrivesClosedForms(t *testing.T) {
 	s, err := Decode("design.yaml", []byte(`
 title: design index

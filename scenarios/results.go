@@ -2,8 +2,8 @@ package scenarios
 
 // Results is everything one run of a scenario produces. It is defined once
 // here and passed unchanged to the JSON writer, the CSV writer and the
-// report (package charts). JSON keys follow the output contract of
-// DESIGN.md: core keys are never renamed; new keys may be added.
+// report (package charts). JSON keys are an output contract (README,
+// "Outputs"): core keys are never renamed; new keys may be added.
 //
 // Units are in the key names (…_m, …_h, …_C, …_W_m2K); inside Go the
 // fields hold the same values in those same units, converted from SI at the
@@ -282,8 +282,8 @@ type Series struct {
 	SimProfileMean_C     []float64
 	SimProfileMax_C      []float64
 
-	// Step response of the outside surface (touch and floor-warmth
-	// questions): numerical curve against the half-space closed form.
+	// Surface heat uptake after a step of the surface temperature:
+	// numerical curve against the half-space closed form.
 	StepTime_s             []float64
 	StepFlux_W_m2          []float64 // simulated surface heat flux
 	StepFluxHalfSpace_W_m2 []float64 // closed form, semi-infinite first layer

@@ -90,7 +90,7 @@ type Side struct {
 // DefaultGeothermalFlux is the heat flux entering a ground column from
 // below when the scenario gives no bottom condition: the continental mean
 // of Pollack, Hurter and Johnson (1993), Reviews of Geophysics 31:267,
-// 65 mW/m2 [read, per REFERENCES section 3].
+// 65 mW/m2 (abstract [read]).
 const DefaultGeothermalFlux = 0.065
 
 // Forcing is an environment temperature over time: a mean plus harmonics,
@@ -161,8 +161,8 @@ type Simulate struct {
 }
 
 // StepResponse is a sudden change of one surface temperature of a column
-// that starts uniform: how fast does the surface take up heat (touch and
-// floor-warmth questions)?
+// that starts uniform: the surface heat uptake after a step (how much heat
+// a floor or wall surface draws in its first minutes).
 type StepResponse struct {
 	Side     string  // "outside" or "inside" (ground: "surface")
 	Change   float64 // K, the step of the surface temperature
@@ -170,8 +170,9 @@ type StepResponse struct {
 	Line     int
 
 	// ContactTemperature (degC) and ContactEffusivity (W s^0.5/(m2 K)) of
-	// a body touching the surface (a bare foot, a hand), for the contact
-	// temperature; nil/0: not asked.
+	// a second body laid against the surface (a warm screed poured on
+	// cold stone, a slab on a board), for the contact temperature of the
+	// two; nil/0: not asked.
 	ContactTemperature *float64
 	ContactEffusivity  float64
 }

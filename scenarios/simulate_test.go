@@ -90,7 +90,7 @@ inside:
 // stepped from 20 to -10 degC (zero surface resistance) and compares a
 // probe with the semi-infinite solid solution T = Ts + (Ti - Ts)
 // erf(x / (2 sqrt(a t))) (Incropera et al., section 5.7, eq. 5.57
-// [read per REFERENCES section 2]), valid while the far face is not yet
+// [2nd-hand]), valid while the far face is not yet
 // reached.
 func TestStepForcingMatchesErf(t *testing.T) {
 	r := mustRun(t, `
@@ -131,7 +131,7 @@ analysis:
 // is stepped by 15 K for a minute: the granite acts as a half-space for
 // about 110 s.
 const stoneFloor = `
-title: floor touch
+title: stone floor, heat uptake after a step
 kind: wall
 orientation: floor
 layers:
@@ -201,8 +201,8 @@ analysis:
 
 // TestStepResponseCurve: the simulated surface heat flux after the step
 // (interval means) follows the half-space closed form q = b dT /
-// sqrt(pi t) (Incropera et al., section 5.7, eq. 5.58 [read per
-// REFERENCES section 2]) within 1 % at every sample from a thousandth of
+// sqrt(pi t) (Incropera et al., section 5.7, eq. 5.58
+// [2nd-hand]) within 1 % at every sample from a thousandth of
 // the duration until the step reaches the next layer, and has the sign of
 // the step from the first sample on.
 func TestStepResponseCurve(t *testing.T) {

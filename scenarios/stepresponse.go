@@ -9,7 +9,8 @@ import (
 // StepResult is the response of one surface of a column to a sudden change
 // of its temperature: the heat flux into the surface and the heat taken up
 // over the first minutes, set beside the closed form for a semi-infinite
-// body of the surface layer's material (touch and floor-warmth questions).
+// body of the surface layer's material: the surface heat uptake after a
+// step.
 type StepResult struct {
 	Side                       string  `json:"side"`
 	Change_K                   float64 `json:"change_K"`
@@ -23,10 +24,11 @@ type StepResult struct {
 	FluxAtEnd_W_m2             float64 `json:"flux_at_end_W_m2"`
 	FluxAtEndHalfSpace_W_m2    float64 `json:"flux_at_end_half_space_W_m2"`
 
-	// Contact of a body with the surface (when asked): the surface's mean
-	// temperature before, and the contact temperature of two
+	// Contact of a second body with the surface (when asked): the
+	// surface's mean temperature before, and the contact temperature of two
 	// semi-infinite bodies Tc = (b1 T1 + b2 T2)/(b1 + b2) (Carslaw and
-	// Jaeger section 2.15; Incropera section 5.7).
+	// Jaeger, chapter II [memory]; [derived] from equal surface fluxes of
+	// the two erf solutions of Incropera et al. section 5.7).
 	SurfaceTemperature_C     float64  `json:"surface_temperature_C,omitempty"`
 	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
 	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`

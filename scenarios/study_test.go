@@ -205,7 +205,7 @@ func TestFitSyntheticSensors(t *testing.T) {
 		t.Skip("fit inversion takes a few seconds")
 	}
 	dir := t.TempDir()
-	const k, C = 1.4, 3.111e6 // wet clay, Moene and van Dam (2014) Table 2.2 [read]
+	const k, C = 1.4, 3.111e6 // wet clay, Moene and van Dam (2014) Table 2.2 [2nd-hand]
 	a := k / C
 	col := solver.Column{Layers: []solver.Layer{{Name: "clay", Thickness: 10, Conductivity: k, HeatCapacity: C}}, HalfSpace: true}
 	depths := []float64{0.1, 0.5, 1.0}

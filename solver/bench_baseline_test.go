@@ -22,8 +22,8 @@ import (
 //     reference itself. The wall is thinner than three penetration depths,
 //     so the default mesh is nearly uniform here.
 //   - ground: 2 m of wet clay (lambda 1.4 W/(m K), a 0.45e-6 m2/s; Moene
-//     and van Dam 2014, Table 2.2 [read]) under Rse 0.04 m2 K/W (ISO 6946
-//     [read]), adiabatic at the bottom. Measured: the temperature at a
+//     and van Dam 2014, Table 2.2 [2nd-hand]) under Rse 0.04 m2 K/W (ISO 6946
+//     [2nd-hand]), adiabatic at the bottom. Measured: the temperature at a
 //     probe 0.2 m deep. Reference: HarmonicInsulated (transfer matrices).
 //     Here the default mesh grows with depth below three penetration
 //     depths (0.33 m).

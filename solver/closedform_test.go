@@ -50,8 +50,9 @@ func TestStepIsothermDepthIncroperaExample56(t *testing.T) {
 }
 
 func TestStefanRootTable(t *testing.T) {
-	// One-phase Stefan problem, REFERENCES section 4 [derived; textbook
-	// tables from memory agree].
+	// One-phase Stefan problem: roots of lambda exp(lambda^2) erf(lambda)
+	// = St/sqrt(pi) [derived] (Carslaw and Jaeger, Conduction of Heat in
+	// Solids, 2nd ed., chapter XI, form [memory]).
 	for _, c := range []struct{ st, want float64 }{
 		{0.1, 0.22002}, {0.5, 0.46479}, {1, 0.62006}, {2, 0.80060},
 	} {
@@ -72,7 +73,8 @@ func TestStefanRootTable(t *testing.T) {
 }
 
 // fvLunardini is the two-phase Neumann case of Lunardini (1981) with
-// Jumikis (1966) soil data, REFERENCES section 4 [2nd-hand].
+// Jumikis (1966) soil data (Lunardini, Heat Transfer in Cold Climates)
+// [2nd-hand].
 var fvLunardini = NeumannProblem{
 	ConductivityFrozen: 2.324, HeatCapacityFrozen: 1.966e6,
 	ConductivityUnfrozen: 1.860, HeatCapacityUnfrozen: 2.862e6,

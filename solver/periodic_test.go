@@ -11,7 +11,7 @@ import (
 const tmDay = 86400.0 // s
 
 // Material values used by the checks. Steel and softwood are the ISO 10456
-// design values quoted in REFERENCES section 1 [read]; the TABULA layers are
+// design values of ISO 10456:2007 Table 3 [2nd-hand; memory agrees]; the TABULA layers are
 // those of the TABULA sheet [2nd-hand]; the others are plausible values for
 // checks whose expected result is derived from the equations, so the
 // property values themselves are not under test.
@@ -40,8 +40,9 @@ func tmCRel(got, want complex128) float64 {
 	return cmplx.Abs(got-want) / cmplx.Abs(want)
 }
 
-// tmTabula is the Italian TABULA construction sheet Wall_01.03 (REFERENCES
-// section 1) [2nd-hand], listed outside first.
+// tmTabula is the Italian TABULA construction sheet Wall_01.03 (TABULA
+// project, Italian national building typology) [2nd-hand], listed outside
+// first.
 func tmTabula() Column {
 	return Column{Layers: []Layer{
 		{Name: "outer plaster", Thickness: 0.02, Conductivity: 0.9, HeatCapacity: 1800 * 840},
@@ -77,8 +78,8 @@ func tmLagByFrequency(t *testing.T, c Column, period float64) float64 {
 }
 
 // TestLayerMatrixExpandedForm compares LayerMatrix with the real/imaginary
-// expansion of ISO 13786 (REFERENCES section 1, [memory] of the standard,
-// confirmed by derivation), a different formula for the same matrix.
+// expansion of ISO 13786:2017, clause 6, heat transfer matrix of a
+// homogeneous layer ([memory] of the standard, confirmed by derivation), a different formula for the same matrix.
 func TestLayerMatrixExpandedForm(t *testing.T) {
 	for _, xiWant := range []float64{0.05, 0.3, 0.9, 1.0, 1.1, 2.5, 7, 25} {
 		l := tmWith(tmBrick, 1)
@@ -100,7 +101,7 @@ func TestLayerMatrixExpandedForm(t *testing.T) {
 			}
 		}
 	}
-	// Massless layer: [[1, -R], [0, 1]] (ISO 13786, REFERENCES section 1).
+	// Massless layer: [[1, -R], [0, 1]] (ISO 13786:2017, clause 6 [memory]).
 	if got, want := LayerMatrix(Layer{Resistance: 0.18}, tmDay), (Matrix{{1, -0.18}, {0, 1}}); got != want {
 		t.Errorf("air layer matrix = %v, want %v", got, want)
 	}
@@ -135,8 +136,8 @@ func TestDetIsOne(t *testing.T) {
 	}
 }
 
-// TestTabulaWall: TABULA sheet Wall_01.03 (REFERENCES section 1)
-// [2nd-hand]: U = 1.611 W/(m2 K), |Y12| = 0.266 W/(m2 K) at 24 h, both
+// TestTabulaWall: TABULA sheet Wall_01.03 (Italian national building
+// typology of the TABULA project) [2nd-hand]: U = 1.611 W/(m2 K), |Y12| = 0.266 W/(m2 K) at 24 h, both
 // quoted to three decimals.
 func TestTabulaWall(t *testing.T) {
 	p, err := Periodic(tmTabula(), tmDay)
@@ -156,7 +157,8 @@ func TestTabulaWall(t *testing.T) {
 
 // TestHalfSpaceAdmittance: the admittance of a semi-infinite solid with no
 // surface resistance is lambda k, |Y| = sqrt(lambda rho c omega), leading
-// the temperature by exactly T/8 (REFERENCES section 1, [derived]). A wall
+// the temperature by exactly T/8 (from Y11 = lambda (1+i)/delta of ISO 13786
+// in the limit [derived]). A wall
 // 40 penetration depths thick is a half-space to exp(-80) on both faces.
 func TestHalfSpaceAdmittance(t *testing.T) {
 	for _, tc := range []struct {
@@ -190,8 +192,8 @@ func TestHalfSpaceAdmittance(t *testing.T) {
 }
 
 // TestThinLayerLimits: as d/delta -> 0, kappa1 + kappa2 -> rho c d (with no
-// surface resistances, each tends to rho c d / 2) and f -> 1 (REFERENCES
-// section 1, [derived]); the relative deviation is O(xi^2).
+// surface resistances, each tends to rho c d / 2) and f -> 1 (ISO 13786
+// definitions [derived]); the relative deviation is O(xi^2).
 func TestThinLayerLimits(t *testing.T) {
 	for _, l := range []Layer{tmSteel, tmPlaster, tmSoftwood} {
 		for _, xi := range []float64{1e-2, 1e-3} {
@@ -216,8 +218,8 @@ func TestThinLayerLimits(t *testing.T) {
 }
 
 // TestPureResistance: a component of massless layers only has f = 1,
-// lag 0, Y11 = Y22 = Y12 = U and no areal heat capacity (REFERENCES
-// section 1, [derived]).
+// lag 0, Y11 = Y22 = Y12 = U and no areal heat capacity (ISO 13786
+// definitions with massless layers [derived]).
 func TestPureResistance(t *testing.T) {
 	c := Column{Layers: []Layer{{Resistance: 0.18}, {Resistance: 2.5}}, OutsideResistance: 0.04, InsideResistance: 0.13}
 	p, err := Periodic(c, tmDay)
@@ -258,7 +260,7 @@ func tmThickLag(l Layer, d, a, b, period float64) (lag, y12 float64) {
 // TestThickSlab: the unwrapped lag and |Y12| of thick homogeneous slabs
 // against the asymptotic closed form tmThickLag [derived]; adding 0.1 m to a
 // thick slab multiplies |Y12| by exp(-0.1/delta) and adds 0.1 T/(2 pi delta)
-// to the lag (REFERENCES section 1, [derived]); TimeShift is the unwrapped
+// to the lag (exp(-(1+i) d/delta) of a thick layer [derived]); TimeShift is the unwrapped
 // lag modulo the period. Covers lags of several periods and xi up to 1e4.
 func TestThickSlab(t *testing.T) {
 	for _, tc := range []struct {
@@ -385,7 +387,7 @@ func TestUnwrapRandomWalls(t *testing.T) {
 // TestReverseLayers: reversing a component (layers and surface
 // resistances) swaps Y11/Y22 and kappa1/kappa2 and keeps Y12 (reciprocity,
 // det Z = 1); reversing only the layers changes f when Rsi != Rse, and
-// not when they are equal (REFERENCES section 1 pitfalls, [derived]).
+// not when they are equal ([derived] from Z = Z_se Z_N ... Z_1 Z_si).
 func TestReverseLayers(t *testing.T) {
 	layers := []Layer{tmWith(tmBrick, 0.1), tmWith(tmMinWool, 0.12), {Resistance: 0.17}, tmWith(tmConcrete, 0.2), tmWith(tmPlaster, 0.015)}
 	rev := make([]Layer, len(layers))

@@ -253,7 +253,8 @@ func Harmonic(c Column, period float64, outside, inside complex128, x []float64)
 	for i, v := range xs {
 		if c.HalfSpace && v > ch.x0 {
 			// Half-space below x0: theta = theta0 exp(-k (x - x0)), q(+x) = lambda k theta
-			// (REFERENCES section 3; Carslaw and Jaeger, section 2.6).
+			// (Carslaw and Jaeger, Conduction of Heat in Solids, 2nd ed.,
+			// section 2.6 [memory]).
 			lam, k := ch.hsK()
 			t := so.theta[ch.inside] * cmplx.Exp(-k*complex(v-ch.x0, 0))
 			temp[i], flux[i] = t, lam*k*t
@@ -565,7 +566,8 @@ func DampingDepth(c Column, period, surfaceAmplitude, threshold float64) (float6
 		}
 		return 0.5 * (a + b), nil
 	}
-	// Homogeneous half-space: A(z) = A(x0) exp(-(z - x0)/delta) (REFERENCES section 3).
+	// Homogeneous half-space: A(z) = A(x0) exp(-(z - x0)/delta) (Carslaw and
+	// Jaeger, section 2.6 [memory]).
 	delta := LayerPenetrationDepth(ch.hs, period)
 	return ch.x0 + delta*math.Log(amp(ch.inside)/threshold), nil
 }

@@ -6,8 +6,9 @@ import (
 	"testing"
 )
 
-// Soil values of Moene and van Dam (2014), Table 2.2 after de Vries 1963,
-// as quoted in REFERENCES section 3 [read]: conductivity W/(m K) and
+// Soil values of Moene and van Dam (2014), Transport in the
+// Atmosphere-Vegetation-Soil Continuum, Table 2.2 after de Vries 1963
+// [2nd-hand]: conductivity W/(m K) and
 // diffusivity m2/s, so HeatCapacity = lambda / a.
 var (
 	tmDrySand = Layer{Name: "dry sand", Conductivity: 0.24, HeatCapacity: 0.24 / 0.19e-6}
@@ -19,7 +20,7 @@ const tmYear = 365 * tmDay
 
 // TestHarmonicSurfaceRelations: the profile at x = 0 and x = Thickness
 // reproduces the ISO 13786 definitions of Y12, Y11 and Y22 [derived from
-// the definitions in REFERENCES section 1]: with the outside environment
+// the definitions of ISO 13786:2017, clause 6]: with the outside environment
 // forced (inside 0) the flux into the room is Y12 and the flux entering at
 // the outside is Y22; with the inside forced the flux leaving the room into
 // the wall is Y11 and the flux reaching the outside environment is Y12
@@ -80,7 +81,7 @@ func TestHarmonicSurfaceRelations(t *testing.T) {
 // TestHalfSpaceHomogeneous: with no surface resistance the periodic
 // temperature in a homogeneous half-space is theta(z) = theta_s
 // exp(-(1+i) z/d), d = sqrt(a P / pi): amplitude ratio exp(-z/d), lag
-// z/d P/(2 pi) (REFERENCES section 3, Kusuda and Achenbach form [memory],
+// z/d P/(2 pi) (Kusuda and Achenbach 1965 form [memory],
 // checked against the heat equation [derived]), to 1e-9. Depths reach far
 // below the layer's nominal thickness (the layer continues) and past one
 // period of lag (z > 2 pi d).
@@ -261,8 +262,8 @@ func TestLongPeriodIsSteady(t *testing.T) {
 
 // TestSteadyGeothermal: with an upward geothermal flux q the temperature
 // rises with depth by q integral dz/lambda (Fourier's law; 0.065 W/m2 is the
-// continental mean of Pollack, Hurter and Johnson 1993, REFERENCES section
-// 3 [read]). A half-space without bottom flux is uniform.
+// continental mean of Pollack, Hurter and Johnson 1993, Heat flow from the
+// Earth's interior, Rev. Geophys. 31:267, abstract [read]). A half-space without bottom flux is uniform.
 func TestSteadyGeothermal(t *testing.T) {
 	c := Column{Layers: []Layer{tmWith(tmDrySand, 2), tmWith(tmRock, 10)}, HalfSpace: true}
 	z := []float64{0, 1, 2, 7, 12, 50}
@@ -289,7 +290,7 @@ func TestSteadyGeothermal(t *testing.T) {
 
 // TestDampingDepth: in a homogeneous half-space with no surface resistance
 // the swing A exp(-z/d) reaches the threshold at z = d ln(A/threshold)
-// (REFERENCES section 3 [derived]); in a layered column the returned depth
+// (from the amplitude ratio exp(-z/d) [derived]); in a layered column the returned depth
 // has exactly the threshold amplitude in the exact solution (bisection
 // branch) [derived].
 func TestDampingDepth(t *testing.T) {

@@ -6,7 +6,7 @@ import (
 )
 
 // TestResponse: Response is Periodic applied period by period, and the
-// frequency response has the limits of REFERENCES section 1 [derived]:
+// frequency response has the limits of the ISO 13786 matrices [derived]:
 // f -> 1 and lag -> 0 as the period grows, and the unwrapped lag grows
 // without jumps as the period shrinks.
 func TestResponse(t *testing.T) {

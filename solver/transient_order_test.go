@@ -191,12 +191,12 @@ func TestObservedOrderTime(t *testing.T) {
 
 func TestSimulatePeriodicHalfSpace(t *testing.T) {
 	// Periodic surface temperature on a homogeneous half-space: amplitude
-	// ratio exp(-z/d) and lag z/d P/(2 pi), d = sqrt(a P/pi) (REFERENCES
-	// section 3, Kusuda and Achenbach 1965 form [memory], checked against
+	// ratio exp(-z/d) and lag z/d P/(2 pi), d = sqrt(a P/pi) (Kusuda
+	// and Achenbach 1965 form [memory], checked against
 	// the heat equation [derived]). Start from the exact periodic state,
 	// default mesh, run two periods and fit the first harmonic of the last
 	// period by least squares. Amplitudes within 0.5 %.
-	soil := Layer{Name: "sand", Thickness: 1, Conductivity: 0.24, HeatCapacity: 0.24 / 0.19e-6} // Moene and van Dam Table 2.2 dry sand [read]
+	soil := Layer{Name: "sand", Thickness: 1, Conductivity: 0.24, HeatCapacity: 0.24 / 0.19e-6} // Moene and van Dam Table 2.2 dry sand [2nd-hand]
 	P := 86400.0
 	a := soil.Diffusivity()
 	d := math.Sqrt(a * P / math.Pi)

@@ -71,7 +71,7 @@ func fvtFill(c Column, v float64) []float64 {
 func TestSimulateFluxAndConvectiveSteps(t *testing.T) {
 	// Incropera section 5.7 cases 2 (constant surface flux, eq. 5.59) and 3
 	// (surface convection, eq. 5.60), in a wet clay half-space (Moene and
-	// van Dam 2014, Table 2.2 [read]: k 1.4 W/(m K), a 0.45e-6 m2/s).
+	// van Dam 2014, Table 2.2 [2nd-hand]: k 1.4 W/(m K), a 0.45e-6 m2/s).
 	clay := Layer{Name: "clay", Thickness: 4, Conductivity: 1.4, HeatCapacity: 1.4 / 0.45e-6}
 	col := Column{Layers: []Layer{clay}, HalfSpace: true}
 	probes := []float64{0, 0.02, 0.1, 0.3, 0.6}

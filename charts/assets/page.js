@@ -62,7 +62,7 @@ var TSFN = (function () {
         var val = along === 'y' ? v[0] : v[1];
         rows.push(p.marker + esc(p.seriesName) + ': <b>' + esc(fmt(along === 'y' ? u.x : u.y, val)) + '</b>');
       });
-      return '<div style="margin-bottom:2px;color:#57606a">' + esc(head) + '</div>' + rows.join('<br>');
+      return '<div style="margin-bottom:2px;color:#506d7d">' + esc(head) + '</div>' + rows.join('<br>');
     };
   }
   // renderItem of the min/max band. Each data item holds the low and the

@@ -327,7 +327,9 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	}
 
 	// Design freezing index: mean of the 3 coldest of the latest 30
-	// winters, pavements (REFERENCES.md section 4 [read]; common practice).
+	// winters, the pavement criterion named in UFC 3-130-04 (TM 5-852-4),
+	// chapter 4 [read]; rule as set out in TM 5-852-6 / AFR 88-19 Vol. 6,
+	// 1988 [memory].
 	if d, err := climate.DesignFreezingIndex(fi); err == nil {
 		rep.DesignFreezingIndex_Cd = &d
 		rep.DesignWinters = min(len(fi), 30)
@@ -339,7 +341,7 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	}
 
 	// Gumbel fit and return-period index (ASCE 32-01 uses the 100-year
-	// air freezing index, REFERENCES.md section 4 [read]).
+	// air freezing index, ASCE 32-01 [2nd-hand]).
 	if g, err := climate.GumbelFit(fi, method); err == nil {
 		key, _ := method.MarshalText()
 		rep.Gumbel = &indicesGumbel{

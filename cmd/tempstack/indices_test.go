@@ -30,7 +30,7 @@ func indicesJSON(t *testing.T, args ...string) indicesReport {
 func near(a, b, tol float64) bool { return math.Abs(a-b) <= tol }
 
 // TestIndicesDemoAgreesWithClimate runs the command on the committed demo
-// record (invented data, 10 whole winter years from 1 July 2014) and sets
+// record (invented data, 10 whole winter years from 1 July 2914) and sets
 // every printed figure beside the climate package called directly. The
 // design index 1672 degC day is a regression figure of the invented record
 // (climate.GenerateDemo), not an outside check; the outside checks of the

@@ -87,7 +87,7 @@ func TestRunDemoWritesOutputs(t *testing.T) {
 	if err := json.Unmarshal(data, &res); err != nil {
 		t.Fatal(err)
 	}
-	// Core keys of the output contract (DESIGN.md).
+	// Core keys of the output contract (README, "Outputs": marked *).
 	for _, k := range []string{"title", "kind", "steady", "periodic"} {
 		if _, ok := res[k]; !ok {
 			t.Errorf("results.json lacks %q", k)
