@@ -355,8 +355,18 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		dt = times[1] - times[0]
 	}
 	end := times[len(times)-1]
-	// Winter-year windows.
-	type window struct{ from, to float64 }
+	// Winter-year windows. A winter is complete when the forcing covers
+	// its whole winter year, by the rule the indices command uses
+	// (climate.WinterYearCovered; a record covers its last sample's step,
+	// climate.Series.Covered).
+	coverFrom, coverTo := times[0], end
+	if m := s.Outside.Temperature.Measured; m != nil {
+		coverFrom, coverTo = m.Series.Covered()
+	}
+	type window struct {
+		from, to float64
+		complete bool
+	}
 	var wins []window
 	for y := -1; ; y++ {
 		from := 181*climate.Day + float64(y)*climate.Year
@@ -367,13 +377,13 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		if to <= times[0] {
 			continue
 		}
-		w := window{math.Max(from, times[0]), math.Min(to, end)}
+		w := window{math.Max(from, times[0]), math.Min(to, end), climate.WinterYearCovered(coverFrom, coverTo, from, to)}
 		if w.to-w.from >= 30*climate.Day {
 			wins = append(wins, w)
 		}
 	}
 	if len(wins) == 0 || s.Outside.Temperature.Step != nil {
-		wins = []window{{times[0], end}}
+		wins = []window{{times[0], end, end-times[0] > climate.Year-1}}
 	}
 	// Air indices per winter from the forcing, sampled hourly.
 	var winters []climate.Winter
@@ -392,7 +402,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	}
 	for wi, w := range wins {
 		fw := FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
-			Complete: w.to-w.from > climate.Year-1}
+			Complete: w.complete}
 		// Frost left over from the last winter (deep frost still thawing
 		// in July) belongs to that winter: a winter's frost counts from the
 		// first time the ground is free of frost in its window. Ground that
@@ -435,6 +445,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 				fw.AirThawingIndex_Cd = cw.ThawingIndex
 				if s.Outside.Temperature.Measured != nil && cw.Label != "" {
 					fw.Label = cw.Label
+					fw.Complete = cw.Complete // the record's winter, as `indices` calls it
 				}
 				if s.Outside.Temperature.Measured != nil && cw.Complete && cw.FreezingIndex > 0 {
 					if fc, err := ground.FrostClimateFromWinter(cw, s.Outside.NFreezing); err == nil {

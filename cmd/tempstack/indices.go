@@ -427,10 +427,12 @@ const dayMeanEps = 1e-5
 // dayMeanEps s before the next midnight, both with the row's value. The
 // linear interpolant, which climate integrates for daily means, degree-days
 // and means, then reproduces each day's value (to about 1e-10 of the day),
-// so a file of daily mean temperatures gives the usual sums of daily means,
-// and its last day counts as a whole day. Read as instantaneous midnight
-// samples instead, each day would be the mean of two neighbouring rows
-// and the record would end one day early.
+// so a file of daily mean temperatures gives the usual sums of daily means.
+// The last row keeps only its 00:00 point: climate's coverage rule
+// (Series.Covered: a sample stands for the step it begins, here one day)
+// holds it through its day, so the last day counts as a whole day, as it
+// does for the same record in a scenario. Read as instantaneous midnight
+// samples instead, each day would be the mean of two neighbouring rows.
 func asDayMeans(s *climate.Series, col string) *climate.Series {
 	v := s.Values[col]
 	n := len(s.T)
@@ -442,11 +444,17 @@ func asDayMeans(s *climate.Series, col string) *climate.Series {
 	}
 	vv := make([]float64, 0, 2*n)
 	for i, t := range s.T {
-		end := t + climate.Day - dayMeanEps
-		out.T = append(out.T, t, end)
-		out.Times = append(out.Times, s.Times[i], s.Times[i].Add(time.Duration((climate.Day-dayMeanEps)*float64(time.Second))))
-		out.Lines = append(out.Lines, s.Lines[i], s.Lines[i])
-		vv = append(vv, v[i], v[i])
+		out.T = append(out.T, t)
+		out.Times = append(out.Times, s.Times[i])
+		out.Lines = append(out.Lines, s.Lines[i])
+		vv = append(vv, v[i])
+		if i == n-1 {
+			break // held through its day by Series.Covered
+		}
+		out.T = append(out.T, t+climate.Day-dayMeanEps)
+		out.Times = append(out.Times, s.Times[i].Add(time.Duration((climate.Day-dayMeanEps)*float64(time.Second))))
+		out.Lines = append(out.Lines, s.Lines[i])
+		vv = append(vv, v[i])
 	}
 	out.Values[col] = vv
 	return out
