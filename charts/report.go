@@ -220,6 +220,9 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	if r.Simulation != nil || len(r.Series.SimTime_h) > 0 {
 		sim = &section{ID: "simulation", Heading: "Transient simulation"}
 		add(sim, energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
+	} else if r.SimulationSkipped != "" {
+		sim = &section{ID: "simulation", Heading: "Transient simulation"}
+		add(sim, &block{Text: []string{"Not run: " + r.SimulationSkipped + "."}})
 	}
 
 	var step *section

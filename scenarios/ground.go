@@ -52,12 +52,8 @@ func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 
 // runGround solves a ground column: exact periodic ground temperatures,
 // the transient simulation with freezing, and the frost analysis.
-func runGround(s *Scenario, progress Progress) (*Results, error) {
-	col := s.column()
-	col.InsideResistance = 0
-	if err := col.Validate(); err != nil {
-		return nil, &Error{File: s.File, Key: "layers", Msg: err.Error()}
-	}
+func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+	col := p.col // no inside resistance: the column ends at the bottom condition
 	c := s.construction()
 	r := &Results{Title: s.Title, Kind: string(s.Kind), ScenarioFile: s.File}
 	r.Layers = layerResults(s.Layers, climate.Year)
@@ -74,7 +70,7 @@ func runGround(s *Scenario, progress Progress) (*Results, error) {
 	if err := groundPeriodic(s, col, r); err != nil {
 		return nil, err
 	}
-	if s.Analysis.Simulate != nil {
+	if p.simulate {
 		res, err := simulate(s, col, r, progress)
 		if err != nil {
 			return nil, err

@@ -27,6 +27,9 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 		fmt.Fprintf(w, "  simulated %g h in steps of %g h on %d cells; energy balance error %.1e\n",
 			s.Duration_h, s.Step_h, s.Cells, s.EnergyBalanceRelativeError)
 	}
+	if r.SimulationSkipped != "" {
+		fmt.Fprintf(w, "  simulation skipped: %s\n", r.SimulationSkipped)
+	}
 	if f := r.Frost; f != nil {
 		sim := "not simulated"
 		if r.Simulation != nil {
