@@ -240,6 +240,6 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		}
 	}
 	p.Methods = methods(r)
-	p.Cautions = cautions(r)
+	p.Cautions = scenarios.Cautions(r) // the same list as results.json and the terminal
 	return p, specs, nil
 }

@@ -373,3 +373,29 @@ func DesignFreezingIndex(indices []float64) (float64, error) {
 	sort.Sort(sort.Reverse(sort.Float64Slice(s)))
 	return (s[0] + s[1] + s[2]) / 3, nil
 }
+
+// RecordWarnings returns the warnings that a record's winters call for
+// before their indices are used for design, in plain words: winter years
+// the record covers only partly (left out of the design index and the
+// return-period fit), too few complete winters for a design index (it
+// needs 3), fewer than the 30 winters the design index asks for (it then
+// likely understates the design value), and a return period of
+// returnPeriod years (0: none) longer than the record. The indices command
+// and the report of a run that follows a record print the same warnings.
+func RecordWarnings(ws []Winter, returnPeriod float64) []string {
+	n := len(FreezingIndices(ws))
+	var out []string
+	if n < len(ws) {
+		out = append(out, fmt.Sprintf("%d of %d winter years are only partly covered by the record; their indices are shown but not used for the design index or the return-period fit", len(ws)-n, len(ws)))
+	}
+	switch {
+	case n < 3:
+		out = append(out, fmt.Sprintf("no design freezing index: it needs at least 3 complete winters, the record has %d", n))
+	case n < 30:
+		out = append(out, fmt.Sprintf("design freezing index from %d winters, fewer than the 30 the rule asks for: it likely understates the design value", n))
+	}
+	if n >= 3 && returnPeriod > float64(n) {
+		out = append(out, fmt.Sprintf("the %g-year index extrapolates from %d winters: its uncertainty is wide; compare the methods and local code values", returnPeriod, n))
+	}
+	return out
+}

@@ -48,6 +48,11 @@ type Results struct {
 
 	Warnings []string `json:"warnings,omitempty"`
 
+	// Cautions are the limits of the result in plain sentences (see
+	// Cautions): for ground runs always the frost cautions, plus the
+	// record's warnings; for walls the limits of the one-dimensional model.
+	Cautions []string `json:"cautions"`
+
 	// Series holds the chart data; large, so it is kept out of results.json.
 	Series Series `json:"-"`
 }

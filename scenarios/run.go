@@ -40,6 +40,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 		return nil, err
 	}
 	r.SimulationSkipped = p.skipped
+	r.Cautions = cautions(r, recordWarnings(s, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()
 	if s.Analysis.Fit != nil {

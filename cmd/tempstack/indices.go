@@ -313,9 +313,9 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	}
 	fi := climate.FreezingIndices(ws)
 	rep.CompleteWinters = len(fi)
-	if len(fi) < len(ws) {
-		note("%d of %d winter years are only partly covered by the record; their indices are shown but not used below", len(ws)-len(fi), len(ws))
-	}
+	// The short-record warnings, worded as in the report of a run that
+	// follows a record (climate.RecordWarnings).
+	rep.Notes = append(rep.Notes, climate.RecordWarnings(ws, T)...)
 
 	// Mean annual temperature over the whole winter years covered.
 	if m, from, to, years, ok := meanOverWholeYears(s, col, ws, rep.Southern); ok {
@@ -331,11 +331,6 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	if d, err := climate.DesignFreezingIndex(fi); err == nil {
 		rep.DesignFreezingIndex_Cd = &d
 		rep.DesignWinters = min(len(fi), 30)
-		if len(fi) < 30 {
-			note("design freezing index from %d winters, fewer than the 30 the rule asks for: it likely understates the design value", len(fi))
-		}
-	} else {
-		note("no design freezing index: it needs at least 3 complete winters, the record has %d", len(fi))
 	}
 
 	// Gumbel fit and return-period index (ASCE 32-01 uses the 100-year
@@ -354,9 +349,6 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 				k, _ := m.MarshalText()
 				rep.Gumbel.ByMethod_Cd[string(k)] = gm.ReturnLevel(T)
 			}
-		}
-		if float64(g.N) < T {
-			note("the %g-year index extrapolates from %d winters: its uncertainty is wide; compare the methods and local code values", T, g.N)
 		}
 	} else {
 		note("no Gumbel fit: %s", strings.TrimPrefix(err.Error(), "climate: "))

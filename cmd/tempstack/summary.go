@@ -45,6 +45,9 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
 	}
+	for _, c := range scenarios.Cautions(r) {
+		fmt.Fprintf(w, "  caution: %s\n", c)
+	}
 }
 
 // progressFor returns a progress printer for long runs when w is a
