@@ -108,7 +108,7 @@ func frostCompareTable(r *scenarios.Results) *block {
 	}
 	t.row("Modified Berggren (closed form)", berg, bb)
 	t.Notes = append(t.Notes,
-		"Stefan neglects the heat stored in the soil above freezing and tends to overestimate; modified Berggren reduces the Stefan depth by the coefficient λ for that heat. The simulation follows the whole temperature history through the layers. All three are estimates for planning only; see the cautions.")
+		"Stefan neglects the heat stored in the soil above freezing and so gives a deeper front than modified Berggren, which reduces the Stefan depth by the coefficient λ for that heat. The simulation follows the whole temperature history through the layers. All three are estimates for planning only, and none is a safe upper bound; see the cautions.")
 	if f.IndexSource == "design" {
 		t.Notes = append(t.Notes, "The closed forms use the design freezing index; the simulation follows the surface temperature of the scenario, so the two need not agree.")
 	}

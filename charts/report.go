@@ -220,6 +220,9 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	if r.Simulation != nil || len(r.Series.SimTime_h) > 0 {
 		sim = &section{ID: "simulation", Heading: "Transient simulation"}
 		add(sim, energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
+	} else if r.SimulationSkipped != "" {
+		sim = &section{ID: "simulation", Heading: "Transient simulation"}
+		add(sim, &block{Text: []string{"Not run: " + r.SimulationSkipped + "."}})
 	}
 
 	var step *section
@@ -237,6 +240,6 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		}
 	}
 	p.Methods = methods(r)
-	p.Cautions = cautions(r)
+	p.Cautions = scenarios.Cautions(r) // the same list as results.json and the terminal
 	return p, specs, nil
 }

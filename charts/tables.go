@@ -357,22 +357,3 @@ func methods(r *scenarios.Results) []string {
 	m = append(m, "Charts: Apache ECharts 5.6.0, embedded in this file. Long time series are thinned for display only.")
 	return m
 }
-
-// cautions lists what the results assume and, for ground results, the
-// frost-depth cautions that must always be printed.
-func cautions(r *scenarios.Results) []string {
-	if r.Kind == "ground" {
-		return []string{
-			"These results are an estimate for planning only.",
-			"The design frost depth is set by local codes and a licensed geotechnical engineer.",
-			"Closed-form frost depths (Stefan, modified Berggren) tend to overestimate.",
-			"Measured local frost depths and local records govern over any computed value.",
-			"Results assume one-dimensional heat flow through horizontal, homogeneous layers with the stated properties; snow cover, vegetation, groundwater flow, buildings nearby and frost heave change real ground temperatures.",
-		}
-	}
-	return []string{
-		"Results assume one-dimensional heat flow through plane, homogeneous layers with the stated, constant properties; thermal bridges, edges, moisture and air movement are not included.",
-		"Material values are those listed in the layer table with their sources; check them against the products actually used.",
-		"The forcing (outside climate, inside temperature) and the surface resistances are those of the scenario; other conditions give other numbers.",
-	}
-}

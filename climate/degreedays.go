@@ -127,6 +127,42 @@ type WinterOptions struct {
 	// winter years are split at real calendar dates and Winter carries
 	// dates and a label; when zero, years are 365 days from t = 0.
 	Origin time.Time
+	// End is the end of the time the record covers, s on the axis (see
+	// Series.Covered, which Series.Winters uses). Between the last sample
+	// and End the last value is held. Zero, or a time not after the last
+	// sample, ends the record at its last sample.
+	End float64
+}
+
+// Covered returns the span of time the record covers, s on the series
+// axis: [T[0], T[n-1]+Step). Each sample stands for the interval of one
+// typical step (Step) that it begins: an hourly value stamped 23:00 stands
+// for 23:00 to 24:00, a daily value stamped 00:00 for its day. So an
+// hourly record whose last sample is 30 June 23:00 covers its winter year
+// (1 July to 30 June) to the end (common practice for hourly and daily
+// climate records, whose values are means or samples of the interval they
+// begin). The record's value is held over that last step. Records
+// sparser than one value a day are read as points of a curve and end at
+// their last sample. Winters, and with it every caller of Series.Winters
+// (the indices command and the runs that follow a record), use this one
+// rule to call a winter year complete (see WinterYearCovered).
+func (s *Series) Covered() (from, to float64) {
+	n := len(s.T)
+	if n == 0 {
+		return 0, 0
+	}
+	to = s.T[n-1]
+	if s.Step > 0 && s.Step <= Day*(1+1e-9) {
+		to += s.Step
+	}
+	return s.T[0], to
+}
+
+// WinterYearCovered reports whether data covering [from, to) (s) covers
+// the whole winter year [a, b) (s), within 1 s of round-off: the rule by
+// which a winter is Complete. For a record, [from, to) is Series.Covered.
+func WinterYearCovered(from, to, a, b float64) bool {
+	return from <= a+1 && to >= b-1
 }
 
 // Winter is one freezing season, read from the cumulative degree-day curve.
@@ -156,9 +192,10 @@ type Winter struct {
 	// MeanTemperature is the mean of the daily means over the winter year
 	// (1 July to 30 June), degC: the mean annual temperature for that year.
 	MeanTemperature float64
-	// Complete is true when the record covers the whole winter year; the
-	// first and last winters of a record are often partial and then
-	// understate the index.
+	// Complete is true when the record covers the whole winter year
+	// (WinterYearCovered; a record's last sample stands for one step, see
+	// Series.Covered); the first and last winters of a record are often
+	// partial and then understate the index.
 	Complete bool
 	// ThawComplete is true when the record reaches the next freezing
 	// season, so that ThawingIndex covers the whole warm season.
@@ -168,9 +205,15 @@ type Winter struct {
 // Winters splits a record (t in s on the series axis, v in degC) into
 // winter years and reads each freezing season from the cumulative daily
 // degree-day curve (see Winter for the definition). It needs at least two
-// whole days. Winters that overlap the record only partly are returned with
-// Complete false.
+// whole days. The record covers [t[0], o.End) (to t[n-1] when End is not
+// after it); winters that it covers only partly are returned with Complete
+// false (WinterYearCovered).
 func Winters(t, v []float64, o WinterOptions) ([]Winter, error) {
+	if n := len(t); n > 0 && n == len(v) && o.End > t[n-1] {
+		// The last value holds to the end of the covered span.
+		t = append(t[:n:n], o.End)
+		v = append(v[:n:n], v[n-1])
+	}
 	first, m, err := DailyMeans(t, v)
 	if err != nil {
 		return nil, err
@@ -212,7 +255,7 @@ func Winters(t, v []float64, o WinterOptions) ([]Winter, error) {
 	var ws []Winter
 	for ; boundary(y) < lastDay; y++ {
 		a, b := boundary(y), boundary(y+1)
-		complete := a >= first && b <= lastDay
+		complete := WinterYearCovered(t[0], t[len(t)-1], float64(a)*Day, float64(b)*Day)
 		ia, ib := max(a, first)-first, min(b, lastDay)-first // indices into C
 		if ib-ia < 1 {
 			continue
@@ -276,13 +319,16 @@ func Winters(t, v []float64, o WinterOptions) ([]Winter, error) {
 
 // Winters reads the freezing seasons of a temperature column; the
 // options' Origin is set to the series start so that winters are split at
-// real calendar dates. See the package function Winters.
+// real calendar dates, and End to the end of the span the record covers
+// (Covered: the last sample stands for one step). See the package function
+// Winters.
 func (s *Series) Winters(column string, o WinterOptions) ([]Winter, error) {
 	v, err := s.Value(column)
 	if err != nil {
 		return nil, err
 	}
 	o.Origin = s.Start
+	_, o.End = s.Covered()
 	ws, err := Winters(s.T, v, o)
 	if err != nil {
 		return nil, fmt.Errorf("%s: column %q: %w", s.Name, column, err)
@@ -329,4 +375,30 @@ func DesignFreezingIndex(indices []float64) (float64, error) {
 	s := append([]float64(nil), indices...)
 	sort.Sort(sort.Reverse(sort.Float64Slice(s)))
 	return (s[0] + s[1] + s[2]) / 3, nil
+}
+
+// RecordWarnings returns the warnings that a record's winters call for
+// before their indices are used for design, in plain words: winter years
+// the record covers only partly (left out of the design index and the
+// return-period fit), too few complete winters for a design index (it
+// needs 3), fewer than the 30 winters the design index asks for (it then
+// likely understates the design value), and a return period of
+// returnPeriod years (0: none) longer than the record. The indices command
+// and the report of a run that follows a record print the same warnings.
+func RecordWarnings(ws []Winter, returnPeriod float64) []string {
+	n := len(FreezingIndices(ws))
+	var out []string
+	if n < len(ws) {
+		out = append(out, fmt.Sprintf("%d of %d winter years are only partly covered by the record; their indices are shown but not used for the design index or the return-period fit", len(ws)-n, len(ws)))
+	}
+	switch {
+	case n < 3:
+		out = append(out, fmt.Sprintf("no design freezing index: it needs at least 3 complete winters, the record has %d", n))
+	case n < 30:
+		out = append(out, fmt.Sprintf("design freezing index from %d winters, fewer than the 30 the rule asks for: it likely understates the design value", n))
+	}
+	if n >= 3 && returnPeriod > float64(n) {
+		out = append(out, fmt.Sprintf("the %g-year index extrapolates from %d winters: its uncertainty is wide; compare the methods and local code values", returnPeriod, n))
+	}
+	return out
 }

@@ -118,7 +118,8 @@ func TestWintersSeveralYearsAndCalendar(t *testing.T) {
 			j++
 		}
 	}
-	b.WriteString(d.Format("2006-01-02") + ",5\n") // closes the last day
+	// No closing row: the row of 30 June 2024 stands for its whole day
+	// (Series.Covered), so the third winter year is complete.
 	s, err := ReadCSV(strings.NewReader(b.String()), "winters.csv", CSVOptions{TimeColumn: "date", Columns: []string{"t"}, MaxGap: 25 * time.Hour})
 	if err != nil {
 		t.Fatal(err)
@@ -232,5 +233,89 @@ func TestWintersThawSpellAndSouthern(t *testing.T) {
 	}
 	if ws[0].FreezingIndex != 0 || ws[0].Days != 0 {
 		t.Errorf("threshold -10: %+v, want no season", ws[0])
+	}
+}
+
+// hourlyCSV writes an invented hourly record from start (inclusive) to end
+// (inclusive): +5 degC, with -10 degC from 1 November to 28 February.
+func hourlyCSV(start, end time.Time) string {
+	var b strings.Builder
+	b.WriteString("# invented test data\ntime,t\n")
+	for d := start; !d.After(end); d = d.Add(time.Hour) {
+		u := 5.0
+		if m := d.Month(); m >= time.November || m <= time.February {
+			u = -10
+		}
+		b.WriteString(d.Format("2006-01-02T15:04") + "," + ftoa(u) + "\n")
+	}
+	return b.String()
+}
+
+// TestWinterCoverage checks the coverage rule of Series.Covered: the last
+// sample of an hourly or daily record stands for the step it begins, so a
+// record whose last sample is 30 June 23:00 (hourly) or 30 June (daily)
+// covers the winter year to its end, and one that stops an hour (a day)
+// earlier does not. [derived: the rule as documented on Series.Covered]
+func TestWinterCoverage(t *testing.T) {
+	utc := func(y int, m time.Month, d, h int) time.Time { return time.Date(y, m, d, h, 0, 0, 0, time.UTC) }
+	start := utc(2022, time.July, 1, 0)
+	tests := []struct {
+		name     string
+		end      time.Time
+		daily    bool
+		complete bool
+	}{
+		{"hourly to 30 June 23:00", utc(2023, time.June, 30, 23), false, true},
+		{"hourly to 30 June 22:00", utc(2023, time.June, 30, 22), false, false},
+		{"hourly to 1 July 00:00", utc(2023, time.July, 1, 0), false, true},
+		{"daily to 30 June", utc(2023, time.June, 30, 0), true, true},
+		{"daily to 29 June", utc(2023, time.June, 29, 0), true, false},
+	}
+	var reference float64 // freezing index of the first complete case
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			text := hourlyCSV(start, tc.end)
+			if tc.daily {
+				var b strings.Builder
+				for i, line := range strings.Split(text, "\n") {
+					if i < 2 || strings.Contains(line, "T00:00") {
+						b.WriteString(strings.Replace(line, "T00:00", "", 1) + "\n")
+					}
+				}
+				text = b.String()
+			}
+			s, err := ReadCSV(strings.NewReader(text), "c.csv", CSVOptions{TimeColumn: "time", Columns: []string{"t"}, MaxGap: 25 * time.Hour})
+			if err != nil {
+				t.Fatal(err)
+			}
+			_, to := s.Covered()
+			if want := s.T[len(s.T)-1] + s.Step; to != want {
+				t.Errorf("covered to %v s, want the last sample plus one step %v s", to, want)
+			}
+			ws, err := s.Winters("t", WinterOptions{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(ws) != 1 || ws[0].Label != "2022/23" {
+				t.Fatalf("winters %+v, want 2022/23 only", ws)
+			}
+			if ws[0].Complete != tc.complete {
+				t.Errorf("complete = %v, want %v", ws[0].Complete, tc.complete)
+			}
+			if !tc.daily && tc.complete {
+				// The held last hour changes nothing in the winter: the
+				// index equals that of the record one hour longer.
+				if reference == 0 {
+					reference = ws[0].FreezingIndex
+				} else if math.Abs(ws[0].FreezingIndex-reference) > 1e-9 {
+					t.Errorf("freezing index %v, want %v as for the other complete record", ws[0].FreezingIndex, reference)
+				}
+			}
+		})
+	}
+	// A record sparser than daily ends at its last sample.
+	s := &Series{T: []float64{0, 10 * Day, 20 * Day}, Step: 10 * Day}
+	if _, to := s.Covered(); to != 20*Day {
+		t.Errorf("sparse record covered to %v s, want its last sample %v s", to, 20*Day)
 	}
 }

@@ -229,6 +229,7 @@ func (d *decoder) decodeLayers(top *object, s *Scenario) error {
 			return err
 		}
 		s.Layers = append(s.Layers, l)
+		s.LayerLines = append(s.LayerLines, n.Line)
 	}
 	return nil
 }

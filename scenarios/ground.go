@@ -53,12 +53,8 @@ func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 
 // runGround solves a ground column: exact periodic ground temperatures,
 // the transient simulation with freezing, and the frost analysis.
-func runGround(s *Scenario, progress Progress) (*Results, error) {
-	col := s.column()
-	col.InsideResistance = 0
-	if err := col.Validate(); err != nil {
-		return nil, &Error{File: s.File, Key: "layers", Msg: err.Error()}
-	}
+func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+	col := p.col // no inside resistance: the column ends at the bottom condition
 	c := s.construction()
 	r := &Results{Title: s.Title, Kind: string(s.Kind), ScenarioFile: s.File}
 	r.Layers = layerResults(s.Layers, climate.Year)
@@ -75,7 +71,7 @@ func runGround(s *Scenario, progress Progress) (*Results, error) {
 	if err := groundPeriodic(s, col, r); err != nil {
 		return nil, err
 	}
-	if s.Analysis.Simulate != nil {
+	if p.simulate {
 		res, err := simulate(s, col, r, progress)
 		if err != nil {
 			return nil, err
@@ -435,7 +431,10 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	end := times[len(times)-1]
 	// Winter-year windows: from the warmest time of the forcing when the
 	// run starts there (a harmonic ground run does by default), else from
-	// 1 July, as the freezing-index tables count winters.
+	// 1 July, as the freezing-index tables count winters. A winter is
+	// complete when the forcing covers its whole winter year, by the rule
+	// the indices command uses (climate.WinterYearCovered; a record covers
+	// its last sample's step, climate.Series.Covered).
 	anchor := 181 * climate.Day
 	sim := s.Analysis.Simulate
 	f := s.Outside.Temperature
@@ -444,7 +443,14 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 			anchor = t
 		}
 	}
-	type window struct{ from, to float64 }
+	coverFrom, coverTo := times[0], end
+	if m := f.Measured; m != nil {
+		coverFrom, coverTo = m.Series.Covered()
+	}
+	type window struct {
+		from, to float64
+		complete bool
+	}
 	var wins []window
 	first := math.Floor((times[0]-anchor)/climate.Year) * climate.Year
 	for from := anchor + first; from < end; from += climate.Year {
@@ -452,7 +458,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		if to <= times[0] {
 			continue
 		}
-		w := window{math.Max(from, times[0]), math.Min(to, end)}
+		w := window{math.Max(from, times[0]), math.Min(to, end), climate.WinterYearCovered(coverFrom, coverTo, from, to)}
 		if w.to-w.from >= 30*climate.Day {
 			wins = append(wins, w)
 		}
@@ -461,7 +467,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	if _, annual := annualHarmonic(f); len(wins) == 0 || f.Step != nil || (f.Measured == nil && !annual) {
 		// No annual cycle (a step, a constant or only short periods):
 		// the whole run is the one cold period.
-		wins = []window{{times[0], end}}
+		wins = []window{{times[0], end, true}}
 		whole = true
 	}
 	// Air indices per winter from the forcing, sampled hourly.
@@ -481,7 +487,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	}
 	for wi, w := range wins {
 		fw := FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
-			Complete: whole || w.to-w.from > climate.Year-1}
+			Complete: w.complete}
 		if whole {
 			fw.Label = "whole run"
 		}
@@ -529,6 +535,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 				fw.AirThawingIndex_Cd = cw.ThawingIndex
 				if s.Outside.Temperature.Measured != nil && cw.Label != "" {
 					fw.Label = cw.Label
+					fw.Complete = cw.Complete // the record's winter, as `indices` calls it
 				}
 				if s.Outside.Temperature.Measured != nil && cw.Complete && cw.FreezingIndex > 0 {
 					if fc, err := ground.FrostClimateFromWinter(cw, s.Outside.NFreezing); err == nil {

@@ -18,10 +18,15 @@ type Results struct {
 	Steady   Steady           `json:"steady"`
 	Periodic []PeriodicResult `json:"periodic"`
 
-	// Simulation and Frost are filled by later stages; nil when not run.
-	Simulation *Simulation        `json:"simulation,omitempty"`
-	Frost      *Frost             `json:"frost,omitempty"`
-	Ground     *GroundTemperature `json:"ground,omitempty"`
+	// Simulation is the transient simulation; nil (null in results.json)
+	// when it was not run. SimulationSkipped says why a simulation that
+	// the scenario asks for was not run (e.g. a wall of resistance layers
+	// only, whose exact solution is the whole answer).
+	Simulation        *Simulation `json:"simulation"`
+	SimulationSkipped string      `json:"simulation_skipped,omitempty"`
+	// Frost and Ground are filled for ground columns; nil otherwise.
+	Frost  *Frost             `json:"frost,omitempty"`
+	Ground *GroundTemperature `json:"ground,omitempty"`
 
 	// StepResponse is filled when analysis.step_response asks for it.
 	StepResponse *StepResult `json:"step_response,omitempty"`
@@ -42,6 +47,11 @@ type Results struct {
 	Records []RecordInfo `json:"records,omitempty"`
 
 	Warnings []string `json:"warnings,omitempty"`
+
+	// Cautions are the limits of the result in plain sentences (see
+	// Cautions): for ground runs always the frost cautions, plus the
+	// record's warnings; for walls the limits of the one-dimensional model.
+	Cautions []string `json:"cautions"`
 
 	// Series holds the chart data; large, so it is kept out of results.json.
 	Series Series `json:"-"`

@@ -16,20 +16,31 @@ import (
 // and returns the collected results in the units of the output contract.
 //
 // progress, when not nil, is told how far a long simulation has come.
+//
+// Run first makes every check that Check makes (the plan), so a scenario
+// is refused before anything is solved.
 func Run(s *Scenario, progress Progress) (*Results, error) {
-	var r *Results
-	var err error
-	switch s.Kind {
-	case Wall:
-		r, err = runWall(s, progress)
-	case Ground:
-		r, err = runGround(s, progress)
-	default:
+	if s.Kind != Wall && s.Kind != Ground {
 		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
+	}
+	p, err := s.plan()
+	if err != nil {
+		return nil, err
+	}
+	if err := planStudy(s); err != nil {
+		return nil, err
+	}
+	var r *Results
+	if s.Kind == Wall {
+		r, err = runWall(s, p, progress)
+	} else {
+		r, err = runGround(s, p, progress)
 	}
 	if err != nil {
 		return nil, err
 	}
+	r.SimulationSkipped = p.skipped
+	r.Cautions = cautions(r, recordWarnings(s, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()
 	if s.Analysis.Fit != nil {
@@ -56,11 +67,8 @@ func (s *Scenario) column() solver.Column {
 	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
 }
 
-func runWall(s *Scenario, progress Progress) (*Results, error) {
-	col := s.column()
-	if err := col.Validate(); err != nil {
-		return nil, &Error{File: s.File, Key: "layers", Msg: err.Error()}
-	}
+func runWall(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+	col := p.col
 	c := s.construction()
 	r := &Results{
 		Title:        s.Title,
@@ -78,8 +86,8 @@ func runWall(s *Scenario, progress Progress) (*Results, error) {
 	}
 	r.Layers = layerResults(s.Layers, s.Analysis.Periods[0])
 
-	for _, p := range s.Analysis.Periods {
-		pp, err := solver.Periodic(col, p)
+	for _, per := range s.Analysis.Periods {
+		pp, err := solver.Periodic(col, per)
 		if err != nil {
 			return nil, &Error{File: s.File, Key: "analysis.periods", Msg: err.Error()}
 		}
@@ -88,7 +96,7 @@ func runWall(s *Scenario, progress Progress) (*Results, error) {
 	if err := wallSeries(s, col, r); err != nil {
 		return nil, err
 	}
-	if s.Analysis.Simulate != nil {
+	if p.simulate {
 		res, err := simulate(s, col, r, progress)
 		if err != nil {
 			return nil, err

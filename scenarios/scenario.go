@@ -37,6 +37,7 @@ type Scenario struct {
 	Kind        Kind
 	Orientation layers.Orientation // wall kind: heat-flow direction for Rsi
 	Layers      []layers.Layer     // outside (ground: surface) first
+	LayerLines  []int              // line of each layer in the file, for messages
 
 	Outside Side // wall: outside; ground: the surface
 	Inside  Side // wall: inside; ground: the bottom

@@ -232,33 +232,9 @@ func forcingMean(f *Forcing) float64 {
 // simulated series.
 func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*solver.Result, error) {
 	sim := s.Analysis.Simulate
-	simDefaults(s)
-	if sim.Step > sim.Duration {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.step",
-			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))}
-	}
-	if m := s.Outside.Temperature.Measured; m != nil {
-		if _, t1 := m.Span(); sim.Start+sim.Duration > t1+1 {
-			return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.duration",
-				Msg: fmt.Sprintf("the series covers %s; the simulation cannot run for %s", fmtDuration(t1-sim.Start), fmtDuration(sim.Duration))}
-		}
-	}
-	if st := s.Outside.Temperature.Step; st != nil && st.At >= sim.Start+sim.Duration {
-		return nil, &Error{File: s.File, Line: s.Outside.Temperature.Line, Key: "step.at",
-			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", fmtDuration(st.At), fmtDuration(sim.Duration))}
-	}
-	if n := sim.Duration / sim.Step; n > 5e7 {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate",
-			Msg: fmt.Sprintf("%.3g time steps is more than the limit of 5e7; use a longer step or a shorter duration", n)}
-	}
-	probes, err := s.solverProbes(col)
+	mesh, probes, err := planSimulation(s, col)
 	if err != nil {
 		return nil, err
-	}
-	sim.Mesh.MaxCells = maxCells
-	mesh, err := solver.NewMesh(col, sim.Mesh)
-	if err != nil {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate.mesh", Msg: meshMessage(err)}
 	}
 	p := solver.Problem{
 		Column:      col,

@@ -45,19 +45,11 @@ type StepResult struct {
 // so the heat taken up is Q(t) = 2 b dT sqrt(t / pi).
 func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 	st := s.Analysis.StepResponse
-	c := col
+	c, first, mesh, err := stepMesh(s, col)
+	if err != nil {
+		return err
+	}
 	fromInside := st.Side == "inside"
-	if fromInside {
-		c = reversed(col)
-	}
-	c.HalfSpace = false
-	first := c.Layers[0]
-	for _, l := range c.Layers {
-		if !l.IsResistance() {
-			first = l
-			break
-		}
-	}
 	a := first.Diffusivity()
 	b := math.Sqrt(first.Conductivity * first.HeatCapacity)
 	change := st.Change
@@ -75,11 +67,6 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 	// resolved alike (log-spaced samples). Cells at the surface resolve
 	// the diffusion length of the first step.
 	D := st.Duration
-	dt0 := D * 1e-6
-	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(a*dt0), Growth: 1.15, MaxCells: maxCells})
-	if err != nil {
-		return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: meshMessage(err)}
-	}
 	out := &StepResult{
 		Side:                       st.Side,
 		Change_K:                   change,
@@ -149,6 +136,32 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 
 // reversed returns col seen from the inside: layers and surface
 // resistances swapped.
+// stepMesh returns the column of a step response seen from the stepped
+// surface, its first layer with heat capacity, and the mesh: cells at the
+// surface resolve the diffusion length of the first of the chained time
+// steps (a millionth of the duration, see stepResponse).
+func stepMesh(s *Scenario, col solver.Column) (solver.Column, solver.Layer, *solver.Mesh, error) {
+	st := s.Analysis.StepResponse
+	c := col
+	if st.Side == "inside" {
+		c = reversed(col)
+	}
+	c.HalfSpace = false
+	first := c.Layers[0]
+	for _, l := range c.Layers {
+		if !l.IsResistance() {
+			first = l
+			break
+		}
+	}
+	dt0 := st.Duration * 1e-6
+	mesh, err := solver.NewMesh(c, solver.MeshOptions{SurfaceCell: 0.5 * math.Sqrt(first.Diffusivity()*dt0), Growth: 1.15, MaxCells: maxCells})
+	if err != nil {
+		return c, first, nil, &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: meshMessage(err)}
+	}
+	return c, first, mesh, nil
+}
+
 func reversed(col solver.Column) solver.Column {
 	c := col
 	c.Layers = make([]solver.Layer, len(col.Layers))

@@ -415,6 +415,10 @@ func checkCommand() *cli.Command {
 			if err != nil {
 				return err
 			}
+			// Every check that run makes before solving (scenarios.Check).
+			if err := scenarios.Check(s); err != nil {
+				return asUserError(err)
+			}
 			fmt.Fprintf(c.App.Writer, "%s: ok: %s scenario %q, %d layers\n", s.File, s.Kind, s.Title, len(s.Layers))
 			return nil
 		},

@@ -313,9 +313,9 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	}
 	fi := climate.FreezingIndices(ws)
 	rep.CompleteWinters = len(fi)
-	if len(fi) < len(ws) {
-		note("%d of %d winter years are only partly covered by the record; their indices are shown but not used below", len(ws)-len(fi), len(ws))
-	}
+	// The short-record warnings, worded as in the report of a run that
+	// follows a record (climate.RecordWarnings).
+	rep.Notes = append(rep.Notes, climate.RecordWarnings(ws, T)...)
 
 	// Mean annual temperature over the whole winter years covered.
 	if m, from, to, years, ok := meanOverWholeYears(s, col, ws, rep.Southern); ok {
@@ -333,11 +333,6 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 	if d, err := climate.DesignFreezingIndex(fi); err == nil {
 		rep.DesignFreezingIndex_Cd = &d
 		rep.DesignWinters = min(len(fi), 30)
-		if len(fi) < 30 {
-			note("design freezing index from %d winters, fewer than the 30 the rule asks for: it likely understates the design value", len(fi))
-		}
-	} else {
-		note("no design freezing index: it needs at least 3 complete winters, the record has %d", len(fi))
 	}
 
 	// Gumbel fit and return-period index (ASCE 32-01 uses the 100-year
@@ -356,9 +351,6 @@ func computeIndices(file string, c *cli.Context) (*indicesReport, error) {
 				k, _ := m.MarshalText()
 				rep.Gumbel.ByMethod_Cd[string(k)] = gm.ReturnLevel(T)
 			}
-		}
-		if float64(g.N) < T {
-			note("the %g-year index extrapolates from %d winters: its uncertainty is wide; compare the methods and local code values", T, g.N)
 		}
 	} else {
 		note("no Gumbel fit: %s", strings.TrimPrefix(err.Error(), "climate: "))
@@ -429,10 +421,12 @@ const dayMeanEps = 1e-5
 // dayMeanEps s before the next midnight, both with the row's value. The
 // linear interpolant, which climate integrates for daily means, degree-days
 // and means, then reproduces each day's value (to about 1e-10 of the day),
-// so a file of daily mean temperatures gives the usual sums of daily means,
-// and its last day counts as a whole day. Read as instantaneous midnight
-// samples instead, each day would be the mean of two neighbouring rows
-// and the record would end one day early.
+// so a file of daily mean temperatures gives the usual sums of daily means.
+// The last row keeps only its 00:00 point: climate's coverage rule
+// (Series.Covered: a sample stands for the step it begins, here one day)
+// holds it through its day, so the last day counts as a whole day, as it
+// does for the same record in a scenario. Read as instantaneous midnight
+// samples instead, each day would be the mean of two neighbouring rows.
 func asDayMeans(s *climate.Series, col string) *climate.Series {
 	v := s.Values[col]
 	n := len(s.T)
@@ -444,11 +438,17 @@ func asDayMeans(s *climate.Series, col string) *climate.Series {
 	}
 	vv := make([]float64, 0, 2*n)
 	for i, t := range s.T {
-		end := t + climate.Day - dayMeanEps
-		out.T = append(out.T, t, end)
-		out.Times = append(out.Times, s.Times[i], s.Times[i].Add(time.Duration((climate.Day-dayMeanEps)*float64(time.Second))))
-		out.Lines = append(out.Lines, s.Lines[i], s.Lines[i])
-		vv = append(vv, v[i], v[i])
+		out.T = append(out.T, t)
+		out.Times = append(out.Times, s.Times[i])
+		out.Lines = append(out.Lines, s.Lines[i])
+		vv = append(vv, v[i])
+		if i == n-1 {
+			break // held through its day by Series.Covered
+		}
+		out.T = append(out.T, t+climate.Day-dayMeanEps)
+		out.Times = append(out.Times, s.Times[i].Add(time.Duration((climate.Day-dayMeanEps)*float64(time.Second))))
+		out.Lines = append(out.Lines, s.Lines[i])
+		vv = append(vv, v[i])
 	}
 	out.Values[col] = vv
 	return out

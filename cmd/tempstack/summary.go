@@ -27,6 +27,9 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 		fmt.Fprintf(w, "  simulated %g h in steps of %g h on %d cells; energy balance error %.1e\n",
 			s.Duration_h, s.Step_h, s.Cells, s.EnergyBalanceRelativeError)
 	}
+	if r.SimulationSkipped != "" {
+		fmt.Fprintf(w, "  simulation skipped: %s\n", r.SimulationSkipped)
+	}
 	if f := r.Frost; f != nil {
 		// A value that was not computed says so, with the reason.
 		val := func(key string, v *float64, format string) string {
@@ -56,6 +59,9 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 	}
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
+	}
+	for _, c := range scenarios.Cautions(r) {
+		fmt.Fprintf(w, "  caution: %s\n", c)
 	}
 }
 
