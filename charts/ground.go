@@ -94,6 +94,10 @@ func frostCompareTable(r *scenarios.Results) *block {
 		}
 	}
 	t.row("Simulation (finite volumes, latent heat)", sim, driver)
+	if f.ActiveLayer_m != nil {
+		t.row("Simulation: active layer over permafrost", fixed(*f.ActiveLayer_m, 2),
+			"the deepest summer thaw of the complete, settled winters; the ground below stays frozen all year")
+	}
 	idx, from := indexUsed(f)
 	by := "no surface freezing index"
 	if idx != nil {

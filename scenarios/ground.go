@@ -563,13 +563,32 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		}
 	}
 	// The headline: the deepest frost of the complete, settled winters.
+	// Where the ground stays frozen all year (permafrost) the deepest ice
+	// is the permafrost base, not a seasonal frost depth: the headline is
+	// then the active layer (the deepest summer thaw).
+	permafrost := false
 	for _, w := range fr.Winters {
-		if w.Complete && w.Settled && (fr.MaxFrostDepth_m == nil || w.MaxFrostDepth_m > *fr.MaxFrostDepth_m) {
+		if !w.Complete || !w.Settled {
+			continue
+		}
+		if w.FrozenAllYear {
+			permafrost = true
+			if fr.ActiveLayer_m == nil || w.ActiveLayer_m > *fr.ActiveLayer_m {
+				fr.ActiveLayer_m = ptr(w.ActiveLayer_m)
+				fr.HeadlineWinter = w.Label
+			}
+			continue
+		}
+		if fr.MaxFrostDepth_m == nil || w.MaxFrostDepth_m > *fr.MaxFrostDepth_m {
 			fr.MaxFrostDepth_m = ptr(w.MaxFrostDepth_m)
 			fr.HeadlineWinter = w.Label
 		}
 	}
-	if fr.MaxFrostDepth_m == nil {
+	if permafrost {
+		fr.MaxFrostDepth_m = nil
+		fr.notComputed("max_frost_depth_m", fmt.Sprintf("permafrost: the ground below the active layer (%.2f m) stays frozen all year, so the deepest ice is the permafrost base, not a seasonal frost depth", *fr.ActiveLayer_m))
+		r.Warnings = append(r.Warnings, fmt.Sprintf("permafrost: the ground stays frozen all year below an active layer of %.2f m; the headline is the active layer, and the permafrost base depends on the column depth and the deep heat flow", *fr.ActiveLayer_m))
+	} else if fr.MaxFrostDepth_m == nil {
 		why := "no complete winter year was simulated; simulate at least one whole year (analysis.simulate.duration)"
 		for _, w := range fr.Winters {
 			if w.Complete {

@@ -187,6 +187,10 @@ type Frost struct {
 	StefanDepth_m           *float64 `json:"stefan_depth_m"`
 	ModifiedBerggrenDepth_m *float64 `json:"modified_berggren_depth_m"`
 	HeadlineWinter          string   `json:"headline_winter,omitempty"`
+	// ActiveLayer_m is the headline where the ground stays frozen all
+	// year (permafrost): the deepest summer thaw of the complete, settled
+	// winters, m; nil otherwise.
+	ActiveLayer_m *float64 `json:"active_layer_m,omitempty"`
 
 	SurfaceFreezingIndex_Cd *float64          `json:"surface_freezing_index_Cd"` // n-factor x air index
 	FreezingNFactor         float64           `json:"freezing_n_factor"`

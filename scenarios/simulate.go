@@ -172,7 +172,9 @@ func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 // freezing point starts unfrozen, at no less than the freezing point: the
 // linear solution knows no latent heat, and its winter cold wave at depth
 // would otherwise start as ice that takes decades to thaw (relic frost).
-// Where the mean is below freezing (permafrost) the cell starts frozen.
+// Where the mean is below freezing (permafrost) the cell starts frozen, at
+// no more than the freezing point (a summer talik in the linear solution
+// would otherwise take decades to refreeze).
 func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
 	xs := mesh.Centers
 	c := col
@@ -210,8 +212,13 @@ func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64)
 		}
 	}
 	for j := range T {
-		if fr := col.Layers[mesh.Layer[j]].Freeze; fr != nil && meanT[j] > fr.Point && T[j] < fr.Point {
-			T[j] = fr.Point
+		fr := col.Layers[mesh.Layer[j]].Freeze
+		switch {
+		case fr == nil:
+		case meanT[j] > fr.Point && T[j] < fr.Point:
+			T[j] = fr.Point // unfrozen at the freezing point
+		case meanT[j] < fr.Point && T[j] > fr.Point:
+			T[j] = math.Nextafter(fr.Point, math.Inf(-1)) // frozen at the freezing point
 		}
 	}
 	return T, nil

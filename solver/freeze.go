@@ -118,3 +118,16 @@ func (p *fvPhase) kink(atHp bool, next int8) (t, phi, slope, k float64) {
 	}
 	return t, phi, slope, k
 }
+
+// cond returns the conductivity (W/(m K)) at temperature t: kf below the
+// range, ku above, blended by the liquid fraction within it.
+func (p *fvPhase) cond(t float64) float64 {
+	switch {
+	case t >= p.tp:
+		return p.ku
+	case t <= p.tl:
+		return p.kf
+	}
+	phi := (t - p.tl) / p.rng
+	return p.kf + phi*(p.ku-p.kf)
+}

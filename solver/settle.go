@@ -18,7 +18,8 @@ type SettleOptions struct {
 	// the whole column.
 	Tolerance float64
 	// FrontTolerance is the largest change of the cycle's deepest frost
-	// (Result.FrostDepth) between two successive cycles that counts as
+	// (Result.FrostDepth; with ground frozen all year, the deepest thaw,
+	// Result.ThawDepth) between two successive cycles that counts as
 	// settled, m (> 0).
 	FrontTolerance float64
 	// ConstantInside tells Settle that the inside boundary does not vary
@@ -47,8 +48,12 @@ type Settled struct {
 	// FrontChange is the change of the deepest frost between the last two
 	// cycles, m (+Inf after a single cycle).
 	FrontChange float64
-	// MaxFrost is the deepest frost of each cycle, m.
-	MaxFrost []float64
+	// MaxFrost is the deepest frost of each cycle, m; MaxThaw the deepest
+	// thaw above frozen ground; FrozenAllCycle tells whether some ground
+	// stayed frozen through the whole cycle (permafrost), in which case
+	// FrontChange measures the thaw front (the active layer).
+	MaxFrost, MaxThaw []float64
+	FrozenAllCycle    []bool
 	// DeepResets counts the cycles after which the quiet deep part of the
 	// column was set to its steady profile.
 	DeepResets int
@@ -59,25 +64,25 @@ type Settled struct {
 // the column) is below Tolerance and the deepest frost of the cycle
 // differs from the last cycle's by less than FrontTolerance.
 //
-// Deep reset. The deep part of a column, below the reach of the periodic
-// wave, relaxes to its periodic state (a steady profile carrying the mean
-// flux) on the diffusion time scale of its whole depth, decades for tens
-// of metres of ground, while the frost above settles within a few cycles.
-// After each unsettled cycle, when the inside boundary is constant in
-// time, the cells from the deepest one up to the first whose temperature
-// moved by more than deepQuiet over the cycle, or that holds a phase
-// boundary, are set to the steady profile below the shallowest of them:
+// Deep reset. The deep part of a column, below the freezing zone,
+// relaxes to its periodic state (a steady mean profile carrying the mean
+// flux, with the periodic wave on top) on the diffusion time scale of its
+// whole depth, decades for tens of metres of ground, while the frost above
+// settles within a few cycles. After each unsettled cycle, when the inside
+// boundary is constant in time, the cells below the deepest one that
+// changed phase during the cycle keep their periodic part and have their
+// cycle mean replaced by the steady profile below the shallowest of them,
 //
 //	T_{i+1} = T_i - f / G_i
 //
 // with G_i the conductance between centres i and i+1 and f the heat flux
 // in +x that the inside boundary carries in steady state (minus the
-// prescribed inflow; 0 when adiabatic; (T_a - T_env) over the resistance
-// to the environment otherwise). In the periodic state that profile is
-// exact where the wave has died out (the cycle-mean flux equals the
-// inside flux at every depth), so the reset removes the slow mode of the
-// cycle-to-cycle map and leaves the fixed point unchanged. The reset is
-// skipped when it would move any cell across a phase boundary.
+// prescribed inflow; 0 when adiabatic; the mean temperature difference to
+// the environment over the resistance otherwise). In the periodic state
+// that is exact (the cycle-mean flux equals the inside flux at every depth
+// and, without a phase change, the wave is linear on top of the mean), so
+// the reset removes the slow mode of the cycle-to-cycle map and leaves the
+// fixed point unchanged. See deepReset for a permafrost base.
 //
 // Settle returns an error only for a failed simulation or bad options; a
 // state that does not settle within MaxCycles is returned with Converged
@@ -128,14 +133,25 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 		for i := 0; i < r.n; i++ {
 			change = math.Max(change, math.Max(math.Abs(r.T[i]-prevT[i]), math.Abs(r.H[i]-prevH[i])/ceq[i]))
 		}
-		front := 0.0
-		for _, f := range res.FrostDepth {
+		front, thaw, least := 0.0, 0.0, math.Inf(1)
+		for k, f := range res.FrostDepth {
 			front = math.Max(front, f)
+			thaw = math.Max(thaw, res.ThawDepth[k])
+			least = math.Min(least, f)
 		}
+		frozenAll := least > 0
 		if c > 1 {
-			out.FrontChange = math.Abs(front - out.MaxFrost[len(out.MaxFrost)-1])
+			if frozenAll && out.FrozenAllCycle[c-2] {
+				// Permafrost: the front that moves with the seasons is
+				// the thaw front (the active layer).
+				out.FrontChange = math.Abs(thaw - out.MaxThaw[c-2])
+			} else {
+				out.FrontChange = math.Abs(front - out.MaxFrost[c-2])
+			}
 		}
 		out.MaxFrost = append(out.MaxFrost, front)
+		out.MaxThaw = append(out.MaxThaw, thaw)
+		out.FrozenAllCycle = append(out.FrozenAllCycle, frozenAll)
 		out.Cycles, out.Change = c, change
 		if o.Progress != nil {
 			o.Progress(c)
@@ -158,30 +174,58 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 	return out, nil
 }
 
-// deepQuiet is the largest temperature range over a cycle, K, of a cell
-// that the deep reset of Settle may set to the steady profile.
+// deepQuiet is the largest temperature range over a cycle, K, of a
+// partly frozen cell that the deep reset of Settle may treat as a
+// stationary front (a permafrost base).
 const deepQuiet = 0.05
 
-// deepReset sets the quiet deep cells of the current state to the steady
-// profile below them (see Settle) and reports whether it did. res holds
-// the per-cell range of the cycle just run.
+// deepReset corrects the mean of the deep cells that stayed in one phase
+// through the cycle just run to the steady profile below them (see
+// Settle) and reports whether it did. res holds the per-cell mean and
+// range of the cycle.
+//
+// The zone is the deepest run of cells that stayed frozen or unfrozen
+// through the cycle (a lone front at the freezing point under such cells,
+// with a temperature range below deepQuiet, as at a permafrost base, may
+// lie in it). Its shallowest cell is the anchor. The steady profile is
+// marched from the anchor's cycle mean down through each half cell and
+// face resistance with dT/dx = -f / k(T), the frozen conductivity below
+// the freezing point and the unfrozen one above (blended within a
+// freezing range). Each cell keeps its periodic part and gets the steady
+// mean: T += steady - mean. Where the profile crosses an isothermal
+// freezing point inside a cell, the cell gets the ice of the part of it
+// that lies below that point, so a permafrost base lands at its steady
+// depth (no latent heat flows at a stationary front).
 func (r *fvRun) deepReset(res *Result) bool {
 	n := r.n
 	if n < 3 {
 		return false
 	}
-	single := func(i int) bool {
+	linear := func(i int) bool {
 		k := r.pidx[i]
-		return k < 0 || r.phases[k].region(r.H[i]) != 1
+		if k < 0 {
+			return true
+		}
+		ph := &r.phases[k]
+		return res.Min[i] > ph.tp || res.Max[i] < ph.tl
+	}
+	ok := func(i int) bool {
+		if linear(i) {
+			return true
+		}
+		return r.isoMushy(i) && res.Max[i]-res.Min[i] < deepQuiet && i > 0 && linear(i-1)
 	}
 	ib := n
-	for ib > 0 && res.Max[ib-1]-res.Min[ib-1] < deepQuiet && single(ib-1) {
+	for ib > 0 && ok(ib-1) {
 		ib--
 	}
-	if ib == 0 || ib >= n-1 {
+	for ib < n-1 && !linear(ib) {
+		ib++
+	}
+	if ib >= n-1 {
 		return false
 	}
-	// The flux in +x the inside boundary carries in steady state.
+	// The mean flux in +x the inside boundary carries in steady state.
 	t0 := r.p.Start
 	var f float64
 	switch r.in.kind {
@@ -195,36 +239,111 @@ func (r *fvRun) deepReset(res *Result) bool {
 		for i := ib; i < n-1; i++ {
 			rr += 1 / r.gg[i]
 		}
-		f = (r.T[ib] - v) / rr
+		f = (res.Mean[ib] - v) / rr
 	default:
 		return false
 	}
 	if math.IsNaN(f) || math.IsInf(f, 0) {
 		return false
 	}
-	newT := make([]float64, n)
-	copy(newT, r.T)
-	for i := ib; i < n-1; i++ {
-		newT[i+1] = newT[i] - f/r.gg[i]
-	}
 	newH := make([]float64, n)
-	for i := ib + 1; i < n; i++ {
-		if k := r.pidx[i]; k >= 0 {
-			newH[i] = r.phases[k].enthalpy(newT[i])
-			if r.phases[k].region(newH[i]) != r.phases[k].region(r.H[i]) || newT[i] == r.phases[k].tp {
-				return false
+	T := res.Mean[ib]
+	T, _ = r.walk(ib, T, r.h[ib]/2, f)
+	for j := ib + 1; j < n; j++ {
+		T -= f * r.rf[j]
+		steady, frozenUp := r.walk(j, T, r.h[j]/2, f)
+		down, frozenDown := r.walk(j, steady, r.h[j]/2, f)
+		T = down
+		k := r.pidx[j]
+		if k < 0 {
+			newH[j] = r.cvol[j] * (r.T[j] + steady - res.Mean[j])
+			continue
+		}
+		ph := &r.phases[k]
+		ice := (frozenUp + frozenDown) / r.h[j]
+		switch {
+		case ph.isoTerm && ice > 1e-9 && ice < 1-1e-9:
+			newH[j] = (1 - ice) * ph.lat
+		case linear(j):
+			t := r.T[j] + steady - res.Mean[j]
+			// Keep the cell on the side of the freezing point the steady
+			// profile puts it.
+			if steady >= ph.tp {
+				t = math.Max(t, ph.tp)
+			} else {
+				t = math.Min(t, math.Nextafter(ph.tl, math.Inf(-1)))
 			}
-		} else {
-			newH[i] = r.cvol[i] * newT[i]
+			newH[j] = ph.enthalpy(t)
+		default:
+			newH[j] = ph.enthalpy(steady)
 		}
 	}
-	for i := ib + 1; i < n; i++ {
-		r.H[i] = newH[i]
-		r.updateCell(i)
+	for j := ib + 1; j < n; j++ {
+		if math.IsNaN(newH[j]) || math.IsInf(newH[j], 0) {
+			return false
+		}
+	}
+	for j := ib + 1; j < n; j++ {
+		r.H[j] = newH[j]
+		r.updateCell(j)
 	}
 	r.updateConductances()
 	r.nlTh, r.nlDirty, r.regOK = math.NaN(), n-1, false
 	return true
+}
+
+// isoMushy reports whether cell i is partly frozen at an isothermal
+// freezing point.
+func (r *fvRun) isoMushy(i int) bool {
+	k := r.pidx[i]
+	return k >= 0 && r.phases[k].isoTerm && r.phases[k].region(r.H[i]) == 1
+}
+
+// walk integrates the steady profile dT/dx = -f/k(T) through length (m) of
+// the material of cell i from the temperature t0 and returns the
+// temperature at the end and the length that lies below the freezing
+// point (isothermal phases; 0 otherwise).
+func (r *fvRun) walk(i int, t0, length, f float64) (t1, frozen float64) {
+	k := r.pidx[i]
+	if k < 0 {
+		return t0 - f*length/r.kc[i], 0
+	}
+	ph := &r.phases[k]
+	if !ph.isoTerm {
+		// Blended conductivity within the range: small steps.
+		const steps = 32
+		dx := length / steps
+		t := t0
+		for s := 0; s < steps; s++ {
+			mid := t - 0.5*f*dx/ph.cond(t)
+			t -= f * dx / ph.cond(mid)
+		}
+		return t, 0
+	}
+	// Isothermal: kf below the point, ku above; split at the crossing.
+	frozenSide := t0 < ph.tp || (t0 == ph.tp && f > 0)
+	kA := ph.ku
+	if frozenSide {
+		kA = ph.kf
+	}
+	t1 = t0 - f*length/kA
+	crosses := (frozenSide && t1 > ph.tp) || (!frozenSide && t1 < ph.tp)
+	if !crosses || f == 0 {
+		if frozenSide {
+			return t1, length
+		}
+		return t1, 0
+	}
+	d1 := (t0 - ph.tp) * kA / f // distance to the freezing point
+	kB := ph.kf
+	if frozenSide {
+		kB = ph.ku
+	}
+	t1 = ph.tp - f*(length-d1)/kB
+	if frozenSide {
+		return t1, d1
+	}
+	return t1, length - d1
 }
 
 // String describes the outcome for a log line.

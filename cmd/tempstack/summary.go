@@ -45,6 +45,9 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 		sim := "not simulated"
 		if r.Simulation != nil {
 			sim = "simulated depth " + val("max_frost_depth_m", f.MaxFrostDepth_m, "%.2f m")
+			if f.ActiveLayer_m != nil {
+				sim += fmt.Sprintf(", active layer %.2f m over permafrost", *f.ActiveLayer_m)
+			}
 			if f.HeadlineWinter != "" {
 				sim += " (" + f.HeadlineWinter + ")"
 			}
