@@ -60,3 +60,43 @@ func TestProbesInsideSurfaceCells(t *testing.T) {
 		}
 	}
 }
+
+// TestMasslessSurfaceLayers puts massless layers (a cladding air gap and a
+// foil, R 0.18 and 0.05 m2 K/W) on both surfaces of a massive layer: in
+// the steady state the flux is (T_o - T_i) / sum R and each surface sits
+// behind its surface resistance (Fourier's law in series [derived]). A
+// simulation started from that state must keep it; a surface conductance
+// that forgets the massless layers on its face lets too much heat through.
+func TestMasslessSurfaceLayers(t *testing.T) {
+	col := Column{Layers: []Layer{
+		{Name: "air gap", Resistance: 0.18},
+		{Name: "block", Thickness: 0.2, Conductivity: 0.5, HeatCapacity: 1.2e6},
+		{Name: "foil", Resistance: 0.05},
+	}, OutsideResistance: 0.04, InsideResistance: 0.13}
+	to, ti := -5.0, 20.0
+	q := (to - ti) / (0.04 + 0.18 + 0.2/0.5 + 0.05 + 0.13)
+	exact := func(x float64) float64 { return to - q*(0.04+0.18+x/0.5) }
+	mesh, err := NewMesh(col, MeshOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, in := ColumnBoundaries(col, fvtConst(to), fvtConst(ti))
+	res, err := Simulate(Problem{
+		Column: col, Mesh: mesh, Outside: out, Inside: in,
+		InitialFunc: exact, Duration: 10 * 86400, Step: 3600,
+		Probes: []float64{0.1},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	k := len(res.Times) - 1
+	if math.Abs(res.FluxOutside[k]-q) > 1e-9 || math.Abs(res.FluxInside[k]-q) > 1e-9 {
+		t.Errorf("fluxes %.6f %.6f W/m2, want %.6f", res.FluxOutside[k], res.FluxInside[k], q)
+	}
+	if got := res.Probe[0][k]; math.Abs(got-exact(0.1)) > 1e-9 {
+		t.Errorf("mid-block %.6f degC, want %.6f", got, exact(0.1))
+	}
+	if math.Abs(res.SurfaceOutside[k]-(to-q*0.04)) > 1e-9 || math.Abs(res.SurfaceInside[k]-(ti+q*0.13)) > 1e-9 {
+		t.Errorf("surface temperatures %.6f %.6f, want %.6f %.6f", res.SurfaceOutside[k], res.SurfaceInside[k], to-q*0.04, ti+q*0.13)
+	}
+}

@@ -135,9 +135,9 @@ var mutants = []Mutant{
 	{ID: "freeze-unfrozen-slope", File: "solver/freeze.go",
 		Old: "return p.tp + (h-p.hp)/p.cu, 1, 1 / p.cu, p.ku", New: "return p.tp + (h-p.hp)/p.cf, 1, 1 / p.cu, p.ku",
 		Desc: "unfrozen temperature from the frozen heat capacity", Pkgs: pSolverSc},
-	{ID: "freeze-mushy-k", File: "solver/freeze.go",
-		Old: "return p.tp, phi, 0, p.kf + phi*(p.ku-p.kf)", New: "return p.tp, phi, 0, p.ku + phi*(p.ku-p.kf)",
-		Desc: "conductivity of a partly frozen cell from the wrong end", Pkgs: pSolver},
+	{ID: "freeze-range-k", File: "solver/freeze.go",
+		Old: "return p.tl + u, phi, 1 / (p.qb + 2*p.qa*u), p.kf + phi*(p.ku-p.kf)", New: "return p.tl + u, phi, 1 / (p.qb + 2*p.qa*u), p.ku + phi*(p.kf-p.ku)",
+		Desc: "conductivity within a freezing range interpolated from the wrong end", Pkgs: pSolverSc},
 
 	// --- layers ---
 	{ID: "layers-rsi-swap", File: "layers/construction.go",
@@ -152,8 +152,8 @@ var mutants = []Mutant{
 		New:  "case Roof:\n\t\t\treturn r.downw\n\t\tcase Floor:\n\t\t\treturn r.up",
 		Desc: "air layer resistance of up and down heat flow swapped", Pkgs: pLayers},
 	{ID: "layers-airlayer-interp", File: "layers/construction.go",
-		Old: "return pick(i-1) + t*(pick(i)-pick(i-1)), nil", New: "return pick(i-1), nil",
-		Desc: "air layer resistance not interpolated", Pkgs: pLayers},
+		Old: "return pick(i-1) + t*(pick(i)-pick(i-1)), nil", New: "return pick(i) + t*(pick(i)-pick(i-1)), nil",
+		Desc: "air layer resistance interpolated from the wrong row", Pkgs: pLayers},
 	{ID: "layers-effusivity", File: "layers/construction.go",
 		Old: "return math.Sqrt(l.Conductivity * l.HeatCapacity())", New: "return math.Sqrt(l.Conductivity / l.HeatCapacity())",
 		Desc: "effusivity as sqrt(lambda / rho c)", Pkgs: pLayers},
