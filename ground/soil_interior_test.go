@@ -4,6 +4,7 @@ import (
 	"math"
 	"testing"
 
+	"tempstack/climate"
 	"tempstack/solver"
 )
 
@@ -150,5 +151,19 @@ func TestStefanLayeredFrozenConductivity(t *testing.T) {
 	}
 	if len(needed) == 0 || math.Abs(needed[0]-F1/86400) > 1e-9 {
 		t.Errorf("index to freeze the first layer %v K day, want %.4f", needed, F1/86400)
+	}
+}
+
+// TestFrostClimateFromWinterNFactor: a winter's surface freezing index is
+// the n-factor times its air index (UFC 3-130-04 Table 4-1, "ratio of
+// surface index to air index" [read]); season and mean pass through.
+func TestFrostClimateFromWinterNFactor(t *testing.T) {
+	w := climate.Winter{Label: "test", FreezingIndex: 850, Days: 120, MeanTemperature: 3.5}
+	fc, err := FrostClimateFromWinter(w, 0.7)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fc.AirIndex != 850 || math.Abs(fc.SurfaceIndex-595) > 1e-9 || fc.NFactor != 0.7 || fc.SeasonDays != 120 || fc.MeanAnnual != 3.5 {
+		t.Errorf("frost climate %+v: want surface index 0.7 x 850 = 595, 120 days, mean 3.5", fc)
 	}
 }

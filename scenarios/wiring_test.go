@@ -382,3 +382,28 @@ analysis:
 		t.Errorf("mean profile differs from the steady state by %.4f K", worst)
 	}
 }
+
+// TestDefaultGeothermalFlux: a ground column without a bottom condition
+// gets the continental mean heat flow, 65 mW/m2 (Pollack, Hurter and
+// Johnson 1993, Reviews of Geophysics 31:267 [memory]), upward into the
+// column, and its exact mean profile is the geotherm 5 + q z / k [derived].
+func TestDefaultGeothermalFlux(t *testing.T) {
+	r := mustRun(t, `
+title: default bottom
+kind: ground
+layers:
+  - {name: rock, conductivity: 2.6, density: 2600, specific_heat: 850, thickness: 30 m}
+surface:
+  temperature: {mean: 5, annual: {amplitude: 10, peak_day: 200}}
+analysis:
+  probes: [20]
+  simulate: false
+`)
+	g := r.Ground
+	if g.GeothermalFlux_W_m2 == nil || *g.GeothermalFlux_W_m2 != 0.065 {
+		t.Fatalf("geothermal flux %v, want 0.065 W/m2", g.GeothermalFlux_W_m2)
+	}
+	if p := g.Periodic[0].Probes[0]; math.Abs(p.Mean_C-(5+0.065*20/2.6)) > 1e-9 {
+		t.Errorf("mean at 20 m %.4f degC, geotherm %.4f", p.Mean_C, 5+0.065*20/2.6)
+	}
+}
