@@ -186,19 +186,6 @@ func snapshotNoDirs(t *testing.T, dir string) map[string][]byte {
 	return out
 }
 
-func TestOutputFolderReadOnly(t *testing.T) {
-	if os.Geteuid() == 0 {
-		t.Skip("root writes into read-only folders")
-	}
-	dir := t.TempDir()
-	ro := filepath.Join(dir, "ro")
-	os.Mkdir(ro, 0o555)
-	code, _, stderr := runCLI(t, "run", "--out", ro)
-	oneLine(t, code, stderr, 1, "cannot write in output folder", ro)
-	code, _, stderr = runCLI(t, "run", "--out", filepath.Join(ro, "sub"))
-	oneLine(t, code, stderr, 1, "cannot create output folder")
-}
-
 // TestFailedWriteKeepsEarlierResults makes the third temporary file fail to
 // be created: nothing may be renamed, the earlier results stay byte for
 // byte, and no temporary file is left.
