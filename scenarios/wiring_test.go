@@ -55,8 +55,8 @@ analysis:
 		g.NFactorFreezing != 0.5 || g.NFactorThawing != 1.5 {
 		t.Errorf("ground summary %+v: want surface mean %.3f and n-factors 0.5 / 1.5", g, 10/math.Pi)
 	}
-	if f := r.Frost; f == nil || math.Abs(f.FreezingIndex_Cd/air-1) > 0.005 ||
-		math.Abs(f.SurfaceFreezingIndex_Cd-0.5*f.FreezingIndex_Cd) > 1e-9 {
+	if f := r.Frost; f == nil || f.FreezingIndex_Cd == nil || math.Abs(*f.FreezingIndex_Cd/air-1) > 0.005 ||
+		math.Abs(*f.SurfaceFreezingIndex_Cd-0.5**f.FreezingIndex_Cd) > 1e-9 {
 		t.Errorf("frost summary %+v: want air index %.1f and surface index half of it", f, air)
 	}
 }
@@ -177,15 +177,18 @@ surface:
 	if f == nil {
 		t.Fatal("no frost results")
 	}
-	t.Logf("design index %.1f (hand %.1f) degC day, season %.1f (hand %.1f) d", f.FreezingIndex_Cd, design, f.SeasonLength_d, season)
-	if math.Abs(f.FreezingIndex_Cd/design-1) > 0.005 {
-		t.Errorf("design freezing index %.1f degC day, mean of the 3 coldest winters %.1f", f.FreezingIndex_Cd, design)
+	if f.FreezingIndex_Cd == nil || f.SeasonLength_d == nil || f.SurfaceFreezingIndex_Cd == nil {
+		t.Fatalf("frost climate not computed: %v", f.NotComputed)
 	}
-	if math.Abs(f.SeasonLength_d-season) > 1.5 {
-		t.Errorf("design season %.1f d, mean of the 3 coldest winters' seasons %.1f d", f.SeasonLength_d, season)
+	t.Logf("design index %.1f (hand %.1f) degC day, season %.1f (hand %.1f) d", *f.FreezingIndex_Cd, design, *f.SeasonLength_d, season)
+	if math.Abs(*f.FreezingIndex_Cd/design-1) > 0.005 {
+		t.Errorf("design freezing index %.1f degC day, mean of the 3 coldest winters %.1f", *f.FreezingIndex_Cd, design)
 	}
-	if math.Abs(f.SurfaceFreezingIndex_Cd-0.6*f.FreezingIndex_Cd) > 1e-9 || f.FreezingNFactor != 0.6 {
-		t.Errorf("surface index %.2f with n-factor %g, want 0.6 x %.2f", f.SurfaceFreezingIndex_Cd, f.FreezingNFactor, f.FreezingIndex_Cd)
+	if math.Abs(*f.SeasonLength_d-season) > 1.5 {
+		t.Errorf("design season %.1f d, mean of the 3 coldest winters' seasons %.1f d", *f.SeasonLength_d, season)
+	}
+	if math.Abs(*f.SurfaceFreezingIndex_Cd-0.6**f.FreezingIndex_Cd) > 1e-9 || f.FreezingNFactor != 0.6 {
+		t.Errorf("surface index %.2f with n-factor %g, want 0.6 x %.2f", *f.SurfaceFreezingIndex_Cd, f.FreezingNFactor, *f.FreezingIndex_Cd)
 	}
 }
 
