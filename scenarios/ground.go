@@ -513,7 +513,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		}
 		// Frost that outlasts the whole winter year: permafrost below an
 		// active layer.
-		fw.FrozenAllYear = fw.Complete && minIn(res.FrostDepth, times, w.from, w.to) > 0
+		fw.FrozenAllYear = fw.Complete && !whole && minIn(res.FrostDepth, times, w.from, w.to) > 0
 		if fw.FrozenAllYear {
 			fw.ActiveLayer_m = fw.MaxThawDepth_m
 		}
