@@ -254,3 +254,27 @@ analysis:
 	}
 	t.Logf("F = %.1f degC day: Stefan %.3f m, modified Berggren %.3f m", F, *f.StefanDepth_m, *f.ModifiedBerggrenDepth_m)
 }
+
+// A run that cannot settle within its limit says so and keeps its
+// winters out of the headline.
+func TestUnsettledRunHasNoHeadline(t *testing.T) {
+	s := refSoil{ku: 1.5, kf: 1.5, cu: 2e6, cf: 2e6, latent: 100e6, mean: 0.5, amp: 8, peakDay: 200, depth: 20, flux: 0.065}
+	y := strings.Replace(s.yaml(), "simulate: {}", "simulate: {spin_up_cycles: 1, duration: 1y}", 1)
+	r := mustRun(t, y)
+	f := r.Frost
+	if r.Simulation.SpinUpConverged || f.MaxFrostDepth_m != nil || !strings.Contains(f.NotComputed["max_frost_depth_m"], "settled") {
+		t.Errorf("converged %v, headline %v, reason %q", r.Simulation.SpinUpConverged, f.MaxFrostDepth_m, f.NotComputed["max_frost_depth_m"])
+	}
+	said := false
+	for _, w := range r.Warnings {
+		said = said || strings.HasPrefix(w, "not settled")
+	}
+	if !said {
+		t.Errorf("no 'not settled' warning: %q", r.Warnings)
+	}
+	for _, w := range f.Winters {
+		if w.Settled {
+			t.Errorf("%s marked settled", w.Label)
+		}
+	}
+}
