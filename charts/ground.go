@@ -236,7 +236,7 @@ func winterTable(r *scenarios.Results) *block {
 		t.row(cells...)
 	}
 	t.Notes = append(t.Notes,
-		"A winter year runs from 1 July to 30 June; days count from 1 January of the first simulated year. Frozen days: time the probe spent at or below its freezing point. Max thaw depth: deepest thaw from the surface while frost remained below. Active layer: the depth that thaws each summer, given only when frost outlasts the whole winter year (permafrost).")
+		"A winter year runs from "+winterStart(f)+" to the same day a year later; days count from 1 January of the first simulated year. Frozen days: time the probe spent at or below its freezing point. Max thaw depth: deepest thaw from the surface while frost remained below. Active layer: the depth that thaws each summer, given only when frost outlasts the whole winter year (permafrost).")
 	if closed {
 		t.Notes = append(t.Notes, "Stefan and modified Berggren: the closed forms from that winter's own surface freezing index, beside the simulated depth.")
 	}
@@ -367,4 +367,15 @@ func frostSummary(f *scenarios.Frost, sim bool) string {
 		s += fmt.Sprintf(" The closed forms use the design air freezing index of %s.", cd(*f.DesignFreezingIndex_Cd))
 	}
 	return s
+}
+
+// winterStart names the day the winter years of f begin.
+func winterStart(f *scenarios.Frost) string {
+	if f.WinterYearStartDate == "" {
+		return "1 July"
+	}
+	if f.WinterYearStartDate == "1 Jul" {
+		return "1 July"
+	}
+	return f.WinterYearStartDate + " (the warmest time of the forcing)"
 }

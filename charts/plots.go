@@ -464,7 +464,7 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 		for _, w := range fr.Winters {
 			x := w.Start_d * 24 * f
 			if x > minOf(t) && x < maxOf(t) {
-				items = append(items, opts.MarkLineNameXAxisItem{Name: "1 July", XAxis: num(x)})
+				items = append(items, opts.MarkLineNameXAxisItem{Name: "winter year", XAxis: num(x)})
 			}
 		}
 		if len(items) > 0 {
@@ -491,7 +491,7 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 	}
 	caption := "Simulated frozen ground (shaded) between the thaw front moving down from the surface (dashed) and the freezing front (solid, the deepest point at or below the freezing point). Depth increases downward."
 	if len(marks) > 0 {
-		caption += " Dotted vertical lines mark 1 July, the start of each winter year of the winter table."
+		caption += " Dotted vertical lines mark " + winterStart(r.Frost) + ", the start of each winter year of the winter table."
 	}
 	return finish(c, idFrost, caption, thinned)
 }

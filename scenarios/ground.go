@@ -443,6 +443,8 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 			anchor = t
 		}
 	}
+	fr.WinterYearStart = anchor/climate.Day + 1
+	fr.WinterYearStartDate = dayOfYear(anchor / climate.Day)
 	coverFrom, coverTo := times[0], end
 	if m := f.Measured; m != nil {
 		coverFrom, coverTo = m.Series.Covered()
@@ -470,13 +472,36 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		wins = []window{{times[0], end, true}}
 		whole = true
 	}
-	// Air indices per winter from the forcing, sampled hourly.
+	// Air indices per winter: a record's own winters; for a forcing given
+	// as a function, each window's own, sampled hourly from its start (a
+	// whole window over two years, so the thawing season after the winter
+	// is complete too; the forcing repeats).
 	var winters []climate.Winter
 	if m := s.Outside.Temperature.Measured; m != nil {
 		winters, _ = recordWinters(m)
-	} else {
-		airT, airV := sampleForcing(s.Outside.Temperature, times[0], end)
-		winters, _ = climate.Winters(airT, airV, climate.WinterOptions{})
+	}
+	windowIndices := func(w window) (climate.Winter, bool) {
+		to := w.to
+		if w.complete && !whole {
+			to = w.from + 2*climate.Year
+		}
+		ts, vs := sampleForcing(f, w.from, to)
+		// climate.Winters splits winter years at 1 July (day 181 of its
+		// axis): put the window's start there.
+		july := 181 * climate.Day
+		for k := range ts {
+			ts[k] += july - w.from
+		}
+		ws, err := climate.Winters(ts, vs, climate.WinterOptions{})
+		if err != nil {
+			return climate.Winter{}, false
+		}
+		for _, cw := range ws {
+			if cw.Start >= july && cw.Start < july+climate.Year {
+				return cw, true
+			}
+		}
+		return climate.Winter{}, false
 	}
 	freezePoint := func(z float64) float64 {
 		l := col.Layers[col.LayerAt(z)]
@@ -527,6 +552,12 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 				}
 			}
 			fw.FrozenDays = append(fw.FrozenDays, ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
+		}
+		if f.Measured == nil {
+			if cw, ok := windowIndices(w); ok {
+				fw.AirFreezingIndex_Cd = cw.FreezingIndex
+				fw.AirThawingIndex_Cd = cw.ThawingIndex
+			}
 		}
 		for _, cw := range winters {
 			mid := (cw.Start + cw.End) / 2
@@ -649,4 +680,14 @@ func dayLabel(d float64) string {
 		doy -= m.days
 	}
 	return fmt.Sprintf("year %d", year+1)
+}
+
+// dayOfYear names a day of the year (days after 1 January 00:00, years of
+// 365 days) as "18 Jul".
+func dayOfYear(d float64) string {
+	label := dayLabel(math.Mod(d, 365))
+	if i := strings.Index(label, ", "); i >= 0 {
+		return label[i+2:]
+	}
+	return label
 }

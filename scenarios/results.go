@@ -187,6 +187,12 @@ type Frost struct {
 	StefanDepth_m           *float64 `json:"stefan_depth_m"`
 	ModifiedBerggrenDepth_m *float64 `json:"modified_berggren_depth_m"`
 	HeadlineWinter          string   `json:"headline_winter,omitempty"`
+	// WinterYearStart is the day of the year (1 = 1 January, fractions
+	// allowed) on which the winter years of Winters begin: the forcing's
+	// warmest time for a harmonic ground run, 182 (1 July) otherwise.
+	WinterYearStart float64 `json:"winter_year_start_day"`
+	// WinterYearStartDate names WinterYearStart as a date ("18 Jul").
+	WinterYearStartDate string `json:"winter_year_start_date"`
 	// ActiveLayer_m is the headline where the ground stays frozen all
 	// year (permafrost): the deepest summer thaw of the complete, settled
 	// winters, m; nil otherwise.
