@@ -30,20 +30,22 @@ const goldenGzipAbove = 64 << 10
 // demo, or a scenario file in testdata/golden/scenarios.
 type goldenCase struct {
 	name string
+	dir  string // run from this folder (scenario files: the path in results.json stays short and fixed)
 	args []string
 }
 
 func goldenCases(t *testing.T) []goldenCase {
 	var cases []goldenCase
 	for _, ex := range scenarios.Examples() {
-		cases = append(cases, goldenCase{ex.Name, []string{"--example", ex.Name}})
+		cases = append(cases, goldenCase{ex.Name, "", []string{"--example", ex.Name}})
 	}
 	files, err := filepath.Glob(filepath.Join("..", "..", "testdata", "golden", "scenarios", "*.yaml"))
 	if err != nil || len(files) == 0 {
 		t.Fatalf("no golden scenarios (%v)", err)
 	}
 	for _, f := range files {
-		cases = append(cases, goldenCase{strings.TrimSuffix(filepath.Base(f), ".yaml"), []string{f}})
+		base := filepath.Base(f)
+		cases = append(cases, goldenCase{strings.TrimSuffix(base, ".yaml"), filepath.Dir(f), []string{base}})
 	}
 	return cases
 }
@@ -57,10 +59,15 @@ func goldenCases(t *testing.T) []goldenCase {
 // the commit). The inlined charting library of report.html is replaced by
 // its SHA-256 in the stored copy (see stripLibrary).
 func TestGoldenOutputs(t *testing.T) {
-	root := filepath.Join("..", "..", "testdata", "golden")
+	root, err := filepath.Abs(filepath.Join("..", "..", "testdata", "golden"))
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, c := range goldenCases(t) {
 		t.Run(c.name, func(t *testing.T) {
-			if !*updateGolden {
+			if c.dir != "" {
+				t.Chdir(c.dir) // not parallel: the working folder is the process's
+			} else if !*updateGolden {
 				t.Parallel()
 			}
 			out := t.TempDir()
