@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // Tables of the ground report: the frost depth three ways, the freezing
@@ -22,7 +22,7 @@ func capitalise(s string) string {
 
 // indexUsed returns the surface freezing index (°C·d) the closed forms
 // used (nil when there is none) and a phrase naming where it came from.
-func indexUsed(f *scenarios.Frost) (*float64, string) {
+func indexUsed(f *results.Frost) (*float64, string) {
 	n := f.FreezingNFactor
 	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
 		v := n * *f.DesignFreezingIndex_Cd
@@ -39,7 +39,7 @@ func indexUsed(f *scenarios.Frost) (*float64, string) {
 
 // notComputed is the text shown for a frost value under the JSON key
 // that was not computed.
-func notComputed(f *scenarios.Frost, key string) string {
+func notComputed(f *results.Frost, key string) string {
 	if why := f.NotComputed[key]; why != "" {
 		return "not computed: " + why
 	}
@@ -47,7 +47,7 @@ func notComputed(f *scenarios.Frost, key string) string {
 }
 
 // optText formats *v with format, or says why it was not computed.
-func optText(f *scenarios.Frost, key string, v *float64, format func(float64) string) string {
+func optText(f *results.Frost, key string, v *float64, format func(float64) string) string {
 	if v == nil || !finite(*v) {
 		return notComputed(f, key)
 	}
@@ -58,7 +58,7 @@ func optText(f *scenarios.Frost, key string, v *float64, format func(float64) st
 func depth2(v float64) string { return fixed(v, 2) }
 
 // airIndexLabel names the air freezing index f.FreezingIndex_Cd holds.
-func airIndexLabel(f *scenarios.Frost) string {
+func airIndexLabel(f *results.Frost) string {
 	if f.IndexSource == "design" {
 		return "Design air freezing index (given in the scenario)"
 	}
@@ -76,7 +76,7 @@ func cd(v float64) string { return fixed(v, 0) + " °C·d" }
 
 // frostCompareTable sets the simulated frost depth beside the Stefan and
 // modified Berggren estimates, each with the freezing index it used.
-func frostCompareTable(r *scenarios.Results) *block {
+func frostCompareTable(r *results.Results) *block {
 	f := r.Frost
 	if f == nil {
 		return nil
@@ -121,7 +121,7 @@ func frostCompareTable(r *scenarios.Results) *block {
 
 // headlineWinter returns the index of the winter that gives the headline
 // frost depth (the deepest of the complete, settled winters), or -1.
-func headlineWinter(f *scenarios.Frost) int {
+func headlineWinter(f *results.Frost) int {
 	if f.MaxFrostDepth_m == nil || f.HeadlineWinter == "" {
 		return -1
 	}
@@ -134,7 +134,7 @@ func headlineWinter(f *scenarios.Frost) int {
 }
 
 // countHeadline counts the complete, settled winters.
-func countHeadline(f *scenarios.Frost) int {
+func countHeadline(f *results.Frost) int {
 	n := 0
 	for _, w := range f.Winters {
 		if w.Complete && w.Settled {
@@ -146,7 +146,7 @@ func countHeadline(f *scenarios.Frost) int {
 
 // freezingIndexTable lists the freezing index and the quantities the
 // closed forms take from the climate.
-func freezingIndexTable(r *scenarios.Results) *block {
+func freezingIndexTable(r *results.Results) *block {
 	f := r.Frost
 	if f == nil {
 		return nil
@@ -178,7 +178,7 @@ func freezingIndexTable(r *scenarios.Results) *block {
 }
 
 // winterTable lists the simulated frost of each winter year.
-func winterTable(r *scenarios.Results) *block {
+func winterTable(r *results.Results) *block {
 	f := r.Frost
 	if f == nil || len(f.Winters) == 0 {
 		return nil
@@ -266,7 +266,7 @@ func containsDepth(v []float64, z float64) bool {
 
 // groundSummaryTable gives the exact periodic ground-temperature summary:
 // surface mean and swing, damping depth, whether the column is deep enough.
-func groundSummaryTable(r *scenarios.Results) *block {
+func groundSummaryTable(r *results.Results) *block {
 	g := r.Ground
 	if g == nil {
 		return nil
@@ -288,7 +288,7 @@ func groundSummaryTable(r *scenarios.Results) *block {
 
 // groundPeriodTables lists, for each period, the exact periodic
 // temperature at each probe: amplitude, lag behind the surface and range.
-func groundPeriodTables(r *scenarios.Results) []*block {
+func groundPeriodTables(r *results.Results) []*block {
 	g := r.Ground
 	if g == nil {
 		return nil
@@ -327,7 +327,7 @@ func groundPeriodTables(r *scenarios.Results) []*block {
 
 // frostSummary is the frost sentence of the report summary; sim tells
 // whether a transient simulation ran.
-func frostSummary(f *scenarios.Frost, sim bool) string {
+func frostSummary(f *results.Frost, sim bool) string {
 	idx, from := indexUsed(f)
 	var s string
 	switch {

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // inputsTable is the "Assumptions and inputs" table: everything the
@@ -12,11 +12,11 @@ import (
 // the forcing as far as the results carry it, the analysis and the
 // simulation settings), so that a reader can see what the numbers rest
 // on without the scenario file.
-func inputsTable(r *scenarios.Results) *block { return inputsBlocks(r)[0] }
+func inputsTable(r *results.Results) *block { return inputsBlocks(r)[0] }
 
 // inputsBlocks is the inputs table followed, when a measured series had
 // gaps, by the table of the gaps bridged.
-func inputsBlocks(r *scenarios.Results) []*block {
+func inputsBlocks(r *results.Results) []*block {
 	var gaps *block
 	ground := r.Kind == "ground"
 	t := newTable("Assumptions and inputs of this run", []string{"Input", "Value"}, "text", "text")

@@ -7,7 +7,7 @@ import (
 	ec "github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // Every chart below is built with go-echarts (ec.Line plus, where a
@@ -60,7 +60,7 @@ func sides(kind string) sideNames {
 
 // cycleChart: one period of the exact periodic steady state, temperatures
 // on the left axis and the inside heat flux on the right axis.
-func cycleChart(r *scenarios.Results) (*chartSpec, error) {
+func cycleChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.CycleTime_h) == 0 {
 		return nil, nil
@@ -107,7 +107,7 @@ func cycleChart(r *scenarios.Results) (*chartSpec, error) {
 
 // envelopeChart: minimum, mean and maximum temperature of the periodic
 // state against position through a wall, layer boundaries marked.
-func envelopeChart(r *scenarios.Results) (*chartSpec, error) {
+func envelopeChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.ProfilePosition_m) == 0 {
 		return nil, nil
@@ -133,7 +133,7 @@ func envelopeChart(r *scenarios.Results) (*chartSpec, error) {
 // layerMarks marks layer boundaries (markLines) and names the layers
 // (markAreas) in a profile chart. depthDown selects horizontal lines in
 // metres for a depth-down chart; otherwise vertical lines in millimetres.
-func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
+func layerMarks(r *results.Results, depthDown bool) []ec.SeriesOpts {
 	b := r.Series.Interfaces_m
 	if len(b) == 0 {
 		return nil
@@ -200,7 +200,7 @@ func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
 
 // responseChart: decrement factor and time shift against period (log
 // axis), with the day, week and year marked.
-func responseChart(r *scenarios.Results) (*chartSpec, error) {
+func responseChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.ResponsePeriod_h) == 0 {
 		return nil, nil
@@ -256,7 +256,7 @@ func probeName(kind string, z float64) string {
 
 // simTempChart: simulated temperatures against time at the surfaces and
 // the probes, with a zoom slider.
-func simTempChart(r *scenarios.Results) (*chartSpec, error) {
+func simTempChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.SimTime_h) == 0 {
 		return nil, nil
@@ -324,7 +324,7 @@ func sameSeries(a, b []float64) bool {
 }
 
 // simFluxChart: simulated heat flux at both surfaces against time.
-func simFluxChart(r *scenarios.Results) (*chartSpec, error) {
+func simFluxChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.SimTime_h) == 0 || (len(s.SimOutsideFlux_W_m2) == 0 && len(s.SimInsideFlux_W_m2) == 0) {
 		return nil, nil
@@ -360,7 +360,7 @@ func simFluxChart(r *scenarios.Results) (*chartSpec, error) {
 // pointing down. The simulated envelope (last simulated year, with latent
 // heat) is drawn when present; the exact periodic envelope otherwise, or
 // as thin dashed lines beside it.
-func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
+func groundEnvelopeChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	simOK := len(s.SimProfilePosition_m) > 0
 	exactOK := len(s.ProfilePosition_m) > 0
@@ -421,7 +421,7 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 // frostChart: the frozen ground against time (a band from the thaw depth
 // down to the frost depth), the freezing and thaw fronts as lines, depth
 // pointing down, with the start of each winter year marked.
-func frostChart(r *scenarios.Results) (*chartSpec, error) {
+func frostChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.SimTime_h) == 0 || (len(s.FrostDepth_m) == 0 && len(s.ThawDepth_m) == 0) {
 		return nil, nil
@@ -498,7 +498,7 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 
 // stepChart: surface heat flux after a step change of the surface
 // temperature, numerical against the half-space closed form, log time.
-func stepChart(r *scenarios.Results) (*chartSpec, error) {
+func stepChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
 	if len(s.StepTime_s) == 0 {
 		return nil, nil

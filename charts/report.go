@@ -12,7 +12,7 @@ import (
 	"io"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 //go:embed assets/echarts.min.js
@@ -78,7 +78,7 @@ var pageTemplate = template.Must(template.ParseFS(assets, "assets/page.tmpl"))
 // Every string from the results is escaped, both in the HTML and inside
 // the chart options; NaN and ±Inf values are drawn as gaps and printed as
 // a dash. The same r and o always give the same bytes.
-func Write(w io.Writer, r *scenarios.Results, o Options) error {
+func Write(w io.Writer, r *results.Results, o Options) error {
 	if r == nil {
 		return errors.New("charts: no results to report")
 	}
@@ -133,7 +133,7 @@ func contentPolicy(scripts ...string) string {
 }
 
 // build assembles the page and the chart options.
-func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
+func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	p := &page{
 		Title:        r.Title,
 		ScenarioFile: r.ScenarioFile,
@@ -155,7 +155,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	}
 	var specs []*chartSpec
 	var firstErr error
-	chart := func(f func(*scenarios.Results) (*chartSpec, error)) *block {
+	chart := func(f func(*results.Results) (*chartSpec, error)) *block {
 		s, err := f(r)
 		if err != nil && firstErr == nil {
 			firstErr = err
@@ -240,6 +240,6 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		}
 	}
 	p.Methods = methods(r)
-	p.Cautions = scenarios.Cautions(r) // the same list as results.json and the terminal
+	p.Cautions = results.Cautions(r) // the same list as results.json and the terminal
 	return p, specs, nil
 }

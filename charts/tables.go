@@ -5,7 +5,7 @@ import (
 	"math"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // newTable returns a table whose first column is text and the rest
@@ -38,7 +38,7 @@ func pos(v float64, n int) string {
 }
 
 // component names what the results describe, for sentences.
-func component(r *scenarios.Results) string {
+func component(r *results.Results) string {
 	switch r.Orientation {
 	case "roof", "floor", "wall":
 		return r.Orientation
@@ -47,7 +47,7 @@ func component(r *scenarios.Results) string {
 }
 
 // summary writes the plain-words summary at the top of the report.
-func summary(r *scenarios.Results) []string {
+func summary(r *results.Results) []string {
 	var out []string
 	if r.Kind == "ground" {
 		if f := r.Frost; f != nil {
@@ -94,7 +94,7 @@ func summary(r *scenarios.Results) []string {
 }
 
 // layerTable lists the layers, outside (or surface) first.
-func layerTable(r *scenarios.Results) *table {
+func layerTable(r *results.Results) *table {
 	ground := r.Kind == "ground"
 	thick, depth := "Thickness (mm)", "Penetration depth δ (mm)"
 	f := 1000.0
@@ -157,7 +157,7 @@ func layerTable(r *scenarios.Results) *table {
 }
 
 // frozenTable lists the frozen-state properties of freezing layers.
-func frozenTable(r *scenarios.Results) *block {
+func frozenTable(r *results.Results) *block {
 	t := newTable("Freezing layers", []string{"#", "Layer", "λ frozen (W/(m·K))", "C frozen (MJ/(m³·K))", "Latent heat L (MJ/m³)", "Freezing point (°C)"}, "num", "text")
 	for i, l := range r.Layers {
 		if !l.Freezing {
@@ -173,7 +173,7 @@ func frozenTable(r *scenarios.Results) *block {
 }
 
 // steadyTable gives the steady-state U-value and resistances.
-func steadyTable(r *scenarios.Results) *block {
+func steadyTable(r *results.Results) *block {
 	s := r.Steady
 	if r.Kind == "ground" {
 		if !(s.ThermalResistance_m2K_W > 0) {
@@ -196,7 +196,7 @@ func steadyTable(r *scenarios.Results) *block {
 }
 
 // periodicTable lists the ISO 13786 properties per period.
-func periodicTable(r *scenarios.Results) *block {
+func periodicTable(r *results.Results) *block {
 	if len(r.Periodic) == 0 {
 		return nil
 	}
@@ -237,7 +237,7 @@ func periodicTable(r *scenarios.Results) *block {
 
 // energyTable sets the heat that entered through each surface beside the
 // change of heat stored in the construction over the simulated run.
-func energyTable(r *scenarios.Results) *block {
+func energyTable(r *results.Results) *block {
 	s := r.Simulation
 	if s == nil {
 		return nil
@@ -262,7 +262,7 @@ func energyTable(r *scenarios.Results) *block {
 }
 
 // stepTable summarises the step-response run.
-func stepTable(r *scenarios.Results) *block {
+func stepTable(r *results.Results) *block {
 	st := r.StepResponse
 	if st == nil {
 		return nil
@@ -290,7 +290,7 @@ func stepTable(r *scenarios.Results) *block {
 
 // checkTable sets the periodic properties fitted from the simulation
 // beside the exact ones.
-func checkTable(r *scenarios.Results) *block {
+func checkTable(r *results.Results) *block {
 	if r.Simulation == nil || len(r.Simulation.PeriodicCheck) == 0 {
 		return nil
 	}
@@ -310,7 +310,7 @@ func checkTable(r *scenarios.Results) *block {
 }
 
 // probeTable lists the simulated temperature statistics at each probe.
-func probeTable(r *scenarios.Results) *block {
+func probeTable(r *results.Results) *block {
 	if r.Simulation == nil || len(r.Simulation.Probes) == 0 {
 		return nil
 	}
@@ -327,7 +327,7 @@ func probeTable(r *scenarios.Results) *block {
 }
 
 // methods lists the methods used and their sources.
-func methods(r *scenarios.Results) []string {
+func methods(r *results.Results) []string {
 	s := r.Steady
 	var m []string
 	if r.Kind == "ground" {

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // tableRows returns the rows of the table with the given caption as cell
@@ -208,18 +208,18 @@ func TestFrostSummary(t *testing.T) {
 	f := groundFixture().Frost
 	for _, tc := range []struct {
 		name string
-		edit func(f *scenarios.Frost)
+		edit func(f *results.Frost)
 		sim  bool
 		want []string
 	}{
-		{"frost", func(*scenarios.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 1 complete and settled winters)",
+		{"frost", func(*results.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 1 complete and settled winters)",
 			"air freezing index of 420 °C·d", "surface freezing index of 294 °C·d (n-factor 0.7 × air index of the forcing)", "Stefan estimate is 1.21 m"}},
-		{"no simulation", func(*scenarios.Frost) {}, false, []string{"No transient simulation was run"}},
-		{"no frost", func(f *scenarios.Frost) {
+		{"no simulation", func(*results.Frost) {}, false, []string{"No transient simulation was run"}},
+		{"no frost", func(f *results.Frost) {
 			f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m, f.Winters = ptr(0), nil, nil, nil
 			f.NotComputed = map[string]string{"stefan_depth_m": "the surface temperature never falls below 0 degC"}
 		}, true, []string{"does not freeze", "no Stefan or modified Berggren estimate (not computed: the surface temperature never falls below 0 degC)"}},
-		{"unsettled", func(f *scenarios.Frost) {
+		{"unsettled", func(f *results.Frost) {
 			f.MaxFrostDepth_m, f.HeadlineWinter = nil, ""
 			f.NotComputed = map[string]string{"max_frost_depth_m": "no simulated winter had settled"}
 		}, true, []string{"no headline simulated frost depth (not computed: no simulated winter had settled)", "Stefan estimate is 1.21 m"}},

@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+	"tempstack/scenarios/results"
 	"testing"
 	"testing/fstest"
 	"time"
@@ -155,7 +156,7 @@ func FuzzRun(f *testing.F) {
 		s.Analysis.Simulate = nil
 		s.Analysis.StepResponse = nil
 		type outcome struct {
-			r   *Results
+			r   *results.Results
 			err error
 			p   any
 		}

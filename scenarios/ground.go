@@ -8,6 +8,7 @@ import (
 
 	"tempstack/climate"
 	"tempstack/ground"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -53,12 +54,12 @@ func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 
 // runGround solves a ground column: exact periodic ground temperatures,
 // the transient simulation with freezing, and the frost analysis.
-func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+func runGround(s *Scenario, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col // no inside resistance: the column ends at the bottom condition
 	c := s.construction()
-	r := &Results{Title: s.Title, Kind: string(s.Kind), ScenarioFile: s.File}
+	r := &results.Results{Title: s.Title, Kind: string(s.Kind), ScenarioFile: s.File}
 	r.Layers = layerResults(s.Layers, climate.Year)
-	r.Steady = Steady{
+	r.Steady = results.Steady{
 		ThermalResistance_m2K_W:  c.ThermalResistance(),
 		OutsideSurfaceResistance: s.Outside.Resistance,
 		TotalResistance_m2K_W:    c.ThermalResistance() + s.Outside.Resistance,
@@ -95,11 +96,11 @@ func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
 // groundPeriodic fills r.Ground: the exact periodic ground temperature of
 // each analysis period at the probes (transfer matrices ending in a
 // half-space), and the depth where the annual swing falls below 0.1 K.
-func groundPeriodic(s *Scenario, col solver.Column, r *Results) error {
+func groundPeriodic(s *Scenario, col solver.Column, r *results.Results) error {
 	hs := col
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
-	g := &GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
+	g := &results.GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
 	if s.Inside.Flux {
 		q := s.Inside.HeatFlux
 		g.GeothermalFlux_W_m2 = &q
@@ -118,10 +119,10 @@ func groundPeriodic(s *Scenario, col solver.Column, r *Results) error {
 		if err != nil {
 			return &Error{File: s.File, Key: "analysis.periods", Msg: err.Error()}
 		}
-		gp := GroundPeriodic{Period_h: P / 3600, SurfaceAmplitude_K: cmplx.Abs(z)}
+		gp := results.GroundPeriodic{Period_h: P / 3600, SurfaceAmplitude_K: cmplx.Abs(z)}
 		for j, d := range probes {
 			amp := cmplx.Abs(z) * resp.AmplitudeRatio[j]
-			gp.Probes = append(gp.Probes, GroundProbe{
+			gp.Probes = append(gp.Probes, results.GroundProbe{
 				Depth_m: d, Amplitude_K: amp, Lag_h: resp.Lag[j] / 3600, Lag_d: resp.Lag[j] / climate.Day,
 				Mean_C: mean[j], Min_C: mean[j] - amp, Max_C: mean[j] + amp,
 			})
@@ -224,7 +225,7 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		}
 		v, _ := m.Series.Value(m.Column)
 		if g, err := climate.GumbelFit(climate.FreezingIndices(complete), climate.Moments); err == nil && len(complete) >= 3 {
-			s.returnPeriod = &ReturnPeriodIndex{Winters: len(complete), Method: "Gumbel, method of moments",
+			s.returnPeriod = &results.ReturnPeriodIndex{Winters: len(complete), Method: "Gumbel, method of moments",
 				Location_Cd: g.Location, Scale_Cd: g.Scale, Years: 100, FreezingIndex_Cd: g.ReturnLevel(100)}
 		}
 		if len(complete) > 30 {
@@ -324,11 +325,11 @@ func closedForms(col solver.Column, fc ground.FrostClimate) (stefan float64, b g
 // r.Frost from the forcing's (or the design) freezing index over the
 // simulated period [from, to] (to <= from: not simulated). Values it
 // cannot compute stay nil, with the reason in NotComputed.
-func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float64) error {
+func frostClosedForms(s *Scenario, col solver.Column, r *results.Results, from, to float64) error {
 	fc, source, why := frostClimate(s, from, to)
 	ok := why == ""
 	if r.Frost == nil {
-		r.Frost = &Frost{}
+		r.Frost = &results.Frost{}
 	}
 	fr := r.Frost
 	if ok {
@@ -372,7 +373,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 	}
 	if !ok {
 		for _, k := range []string{"freezing_index_Cd", "surface_freezing_index_Cd", "season_length_d", "mean_annual_air_C"} {
-			fr.notComputed(k, why)
+			fr.SetNotComputed(k, why)
 		}
 	}
 	if ok && fc.SurfaceIndex <= 0 {
@@ -380,13 +381,13 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 	}
 	if !ok {
 		for _, k := range []string{"stefan_depth_m", "modified_berggren_depth_m", "berggren_lambda", "berggren_alpha", "berggren_mu"} {
-			fr.notComputed(k, why)
+			fr.SetNotComputed(k, why)
 		}
 		return nil
 	}
 	ls := frostLayers(col)
 	if depth, _, err := ground.StefanLayered(ls, fc.SurfaceIndex); err != nil {
-		fr.notComputed("stefan_depth_m", err.Error())
+		fr.SetNotComputed("stefan_depth_m", err.Error())
 	} else {
 		fr.StefanDepth_m = ptr(depth)
 	}
@@ -394,7 +395,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 	in.MeanAnnual = math.Max(0, in.MeanAnnual)
 	if b, err := ground.ModifiedBerggren(in); err != nil {
 		for _, k := range []string{"modified_berggren_depth_m", "berggren_lambda", "berggren_alpha", "berggren_mu"} {
-			fr.notComputed(k, err.Error())
+			fr.SetNotComputed(k, err.Error())
 		}
 	} else {
 		fr.ModifiedBerggrenDepth_m = ptr(b.Depth)
@@ -418,7 +419,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 // frostAnalysis reads the simulated frost per winter (winter years from
 // 1 July to 30 June on the simulation's time axis, t = 0 on 1 January),
 // frozen days at each probe, and the closed forms.
-func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Result) error {
+func frostAnalysis(s *Scenario, col solver.Column, r *results.Results, res *solver.Result) error {
 	times := res.Times
 	if err := frostClosedForms(s, col, r, times[0], times[len(times)-1]); err != nil {
 		return err
@@ -486,7 +487,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		return 0
 	}
 	for wi, w := range wins {
-		fw := FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
+		fw := results.FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
 			Complete: w.complete}
 		if whole {
 			fw.Label = "whole run"
@@ -519,14 +520,14 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		}
 		fw.MaxFrostDate = dayLabel(fw.MaxFrostDay)
 		for j, z := range s.Analysis.Probes {
-			fz := freezePoint(r.constructionDepth(s, z))
+			fz := freezePoint(s.construction().SolverDepth(z))
 			n := 0
 			for k, t := range times {
 				if k > 0 && t >= w.from && t < w.to && res.Probe[j][k] <= fz {
 					n++
 				}
 			}
-			fw.FrozenDays = append(fw.FrozenDays, ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
+			fw.FrozenDays = append(fw.FrozenDays, results.ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
 		}
 		for _, cw := range winters {
 			mid := (cw.Start + cw.End) / 2
@@ -586,7 +587,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	}
 	if permafrost {
 		fr.MaxFrostDepth_m = nil
-		fr.notComputed("max_frost_depth_m", fmt.Sprintf("permafrost: the ground below the active layer (%.2f m) stays frozen all year, so the deepest ice is the permafrost base, not a seasonal frost depth", *fr.ActiveLayer_m))
+		fr.SetNotComputed("max_frost_depth_m", fmt.Sprintf("permafrost: the ground below the active layer (%.2f m) stays frozen all year, so the deepest ice is the permafrost base, not a seasonal frost depth", *fr.ActiveLayer_m))
 		r.Warnings = append(r.Warnings, fmt.Sprintf("permafrost: the ground stays frozen all year below an active layer of %.2f m; the headline is the active layer, and the permafrost base depends on the column depth and the deep heat flow", *fr.ActiveLayer_m))
 	} else if fr.MaxFrostDepth_m == nil {
 		why := "no complete winter year was simulated; simulate at least one whole year (analysis.simulate.duration)"
@@ -595,7 +596,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 				why = "no simulated winter had settled (the spin-up did not converge); raise analysis.simulate.spin_up_cycles"
 			}
 		}
-		fr.notComputed("max_frost_depth_m", why)
+		fr.SetNotComputed("max_frost_depth_m", why)
 	} else if *fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
 		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", *fr.MaxFrostDepth_m, col.Thickness()))
 	}
@@ -606,11 +607,6 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		r.Warnings = append(r.Warnings, "the Stefan and modified Berggren depths use the design freezing index; the simulated depth follows the surface temperature of the scenario")
 	}
 	return nil
-}
-
-// constructionDepth maps a probe depth (as drawn) to the solver position.
-func (r *Results) constructionDepth(s *Scenario, z float64) float64 {
-	return s.construction().SolverDepth(z)
 }
 
 func minIn(v, t []float64, from, to float64) float64 {

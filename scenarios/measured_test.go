@@ -10,6 +10,7 @@ import (
 	"time"
 
 	"tempstack/climate"
+	"tempstack/scenarios/results"
 )
 
 // TestMeasuredSeriesMatchesHarmonic writes a harmonic climate as an hourly
@@ -89,8 +90,8 @@ analysis:
 	}
 }
 
-func completeWinters(r *Results) []FrostWinter {
-	var out []FrostWinter
+func completeWinters(r *results.Results) []results.FrostWinter {
+	var out []results.FrostWinter
 	for _, w := range r.Frost.Winters {
 		if w.Complete {
 			out = append(out, w)

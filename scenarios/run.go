@@ -8,6 +8,7 @@ import (
 
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -19,7 +20,7 @@ import (
 //
 // Run first makes every check that Check makes (the plan), so a scenario
 // is refused before anything is solved.
-func Run(s *Scenario, progress Progress) (*Results, error) {
+func Run(s *Scenario, progress Progress) (*results.Results, error) {
 	if s.Kind != Wall && s.Kind != Ground {
 		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 	}
@@ -30,7 +31,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 	if err := planStudy(s); err != nil {
 		return nil, err
 	}
-	var r *Results
+	var r *results.Results
 	if s.Kind == Wall {
 		r, err = runWall(s, p, progress)
 	} else {
@@ -40,7 +41,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 		return nil, err
 	}
 	r.SimulationSkipped = p.skipped
-	r.Cautions = cautions(r, recordWarnings(s, r))
+	r.Cautions = results.CautionsWith(r, recordWarnings(s, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()
 	if s.Analysis.Fit != nil {
@@ -67,17 +68,17 @@ func (s *Scenario) column() solver.Column {
 	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
 }
 
-func runWall(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+func runWall(s *Scenario, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col
 	c := s.construction()
-	r := &Results{
+	r := &results.Results{
 		Title:        s.Title,
 		Kind:         string(s.Kind),
 		ScenarioFile: s.File,
 		Orientation:  s.Orientation.String(),
 	}
 	rsi, rse := s.Inside.Resistance, s.Outside.Resistance
-	r.Steady = Steady{
+	r.Steady = results.Steady{
 		UValue_W_m2K:             c.UValue(rsi, rse),
 		ThermalResistance_m2K_W:  c.ThermalResistance(),
 		TotalResistance_m2K_W:    c.TotalResistance(rsi, rse),
@@ -111,10 +112,10 @@ func runWall(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
 	return r, nil
 }
 
-func layerResults(ls []layers.Layer, period float64) []Layer {
-	out := make([]Layer, len(ls))
+func layerResults(ls []layers.Layer, period float64) []results.Layer {
+	out := make([]results.Layer, len(ls))
 	for i, l := range ls {
-		out[i] = Layer{
+		out[i] = results.Layer{
 			Name:               l.Name,
 			Material:           l.MaterialKey,
 			Source:             l.Source,
@@ -141,8 +142,8 @@ func layerResults(ls []layers.Layer, period float64) []Layer {
 	return out
 }
 
-func periodicResult(p solver.PeriodicProperties) PeriodicResult {
-	return PeriodicResult{
+func periodicResult(p solver.PeriodicProperties) results.PeriodicResult {
+	return results.PeriodicResult{
 		Period_h:                        p.Period / 3600,
 		DecrementFactor:                 p.DecrementFactor,
 		TimeShift_h:                     p.TimeShift / 3600,
@@ -216,7 +217,7 @@ func forcingHarmonics(out, in *Forcing) harmonicSet {
 // wallSeries fills the chart series of a wall: one cycle of the first
 // analysis period, the temperature envelope across the construction and
 // the frequency response.
-func wallSeries(s *Scenario, col solver.Column, r *Results) error {
+func wallSeries(s *Scenario, col solver.Column, r *results.Results) error {
 	ser := &r.Series
 	P := s.Analysis.Periods[0]
 	out := s.surfaceForcing()
@@ -365,3 +366,6 @@ func fmtHours(p float64) string {
 	}
 	return fmt.Sprintf("%g h", p/3600)
 }
+
+// ptr returns a pointer to a copy of v.
+func ptr(v float64) *float64 { return &v }

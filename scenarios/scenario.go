@@ -17,6 +17,7 @@ import (
 
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -55,9 +56,9 @@ type Scenario struct {
 
 	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
 	surfaceFitted  bool
-	surfaceInexact bool               // the fit leaves a residual: the periodic start is only a guess
-	waveDepth      float64            // ground: deepest depth a periodic swing of 0.1 K reaches, m
-	returnPeriod   *ReturnPeriodIndex // ground from a record: Gumbel fit of its winters
+	surfaceInexact bool                       // the fit leaves a residual: the periodic start is only a guess
+	waveDepth      float64                    // ground: deepest depth a periodic swing of 0.1 K reaches, m
+	returnPeriod   *results.ReturnPeriodIndex // ground from a record: Gumbel fit of its winters
 }
 
 // Side is the boundary on one face of the column.

@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"tempstack/climate"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -237,7 +238,7 @@ func forcingMean(f *Forcing) float64 {
 
 // simulate runs the transient solution of s and fills r.Simulation and the
 // simulated series.
-func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*solver.Result, error) {
+func simulate(s *Scenario, col solver.Column, r *results.Results, progress Progress) (*solver.Result, error) {
 	sim := s.Analysis.Simulate
 	mesh, probes, err := planSimulation(s, col)
 	if err != nil {
@@ -299,7 +300,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	if err := checkFinite(res); err != nil {
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
 	}
-	out := &Simulation{
+	out := &results.Simulation{
 		StartDay:                   sim.Start / climate.Day,
 		Duration_h:                 sim.Duration / 3600,
 		Step_h:                     sim.Step / 3600,
@@ -315,7 +316,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 		HeatInInside_J_m2:          res.Energy.InflowInside,
 	}
 	for j, z := range s.Analysis.Probes {
-		pr := Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
+		pr := results.Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
 		var sum float64
 		for k, v := range res.Probe[j] {
 			pr.Min_C = math.Min(pr.Min_C, v)
@@ -420,7 +421,7 @@ func checkFinite(res *solver.Result) error {
 // f = |Q| / (U |Te|) and lag = (-arg(Q/Te)/omega) mod P, with Q and Te the
 // complex amplitudes of inside flux and outside temperature at period P
 // (ISO 13786 definitions, with the inside temperature constant).
-func periodicChecks(s *Scenario, r *Results, res *solver.Result) {
+func periodicChecks(s *Scenario, r *results.Results, res *solver.Result) {
 	if s.Kind != Wall || s.Inside.Temperature == nil || r.Simulation == nil ||
 		!s.Outside.isPlainHarmonic() || s.Inside.Temperature.Measured != nil {
 		return
@@ -455,7 +456,7 @@ func periodicChecks(s *Scenario, r *Results, res *solver.Result) {
 			lag += P
 		}
 		exact := r.Periodic[i]
-		r.Simulation.PeriodicCheck = append(r.Simulation.PeriodicCheck, PeriodicCheck{
+		r.Simulation.PeriodicCheck = append(r.Simulation.PeriodicCheck, results.PeriodicCheck{
 			Period_h:             P / 3600,
 			DecrementFactor:      cmplx.Abs(zq) / (r.Steady.UValue_W_m2K * cmplx.Abs(ze)),
 			TimeShift_h:          lag / 3600,

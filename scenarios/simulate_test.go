@@ -3,10 +3,11 @@ package scenarios
 import (
 	"fmt"
 	"math"
+	"tempstack/scenarios/results"
 	"testing"
 )
 
-func mustRun(t *testing.T, yaml string) *Results {
+func mustRun(t *testing.T, yaml string) *results.Results {
 	t.Helper()
 	s, err := Decode("test.yaml", []byte(yaml))
 	if err != nil {

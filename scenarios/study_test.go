@@ -11,6 +11,7 @@ import (
 	"time"
 
 	"tempstack/climate"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -94,7 +95,7 @@ sweep:
   parameter: layers[2].thickness
   values: [50 mm, 100 mm, 200 mm]
 `
-	run := func(workers int) *Results {
+	run := func(workers int) *results.Results {
 		s, err := Decode("sweep.yaml", []byte(src))
 		if err != nil {
 			t.Fatal(err)
@@ -168,7 +169,7 @@ uncertainty:
     - parameter: layers[3].thickness
       uniform: {min: 150 mm, max: 250 mm}
 `)
-	var ts *Spread
+	var ts *results.Spread
 	for i := range r.Uncertainty.Quantities {
 		if r.Uncertainty.Quantities[i].Quantity == "time_shift_h" {
 			ts = &r.Uncertainty.Quantities[i]

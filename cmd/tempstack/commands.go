@@ -21,6 +21,7 @@ import (
 	"tempstack/ground"
 	"tempstack/layers"
 	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // load decodes the scenario named by the command line: a file, or the
@@ -228,7 +229,7 @@ func leftovers(dir string, written []string) []string {
 // the temporary files and leaves every earlier file in dir untouched; a
 // process killed before it leaves the earlier files intact too (at worst
 // with a hidden temporary file beside them, never a half-written output).
-func writeOutputs(dir string, res *scenarios.Results, opt charts.Options) ([]string, error) {
+func writeOutputs(dir string, res *results.Results, opt charts.Options) ([]string, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, userErr("cannot create output folder %s: %v", dir, cleanPathError(err))
 	}
@@ -253,7 +254,7 @@ func writeOutputs(dir string, res *scenarios.Results, opt charts.Options) ([]str
 		return nil, fmt.Errorf("building report.html: %w", err)
 	}
 	files = append(files, file{"results.json", js}, file{"report.html", html.Bytes()})
-	for _, extra := range scenarios.CSVFiles(res) {
+	for _, extra := range results.CSVFiles(res) {
 		files = append(files, file{extra.Name, extra.Data})
 	}
 	for _, f := range files {

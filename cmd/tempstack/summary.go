@@ -7,10 +7,11 @@ import (
 	"time"
 
 	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // printSummary prints the headline numbers of a run in plain words.
-func printSummary(w io.Writer, r *scenarios.Results) {
+func printSummary(w io.Writer, r *results.Results) {
 	fmt.Fprintf(w, "%s (%s)\n", r.Title, r.Kind)
 	if r.Kind == "wall" {
 		fmt.Fprintf(w, "  U = %.3f W/(m2 K), R = %.3f m2 K/W (surface to surface)\n",
@@ -63,7 +64,7 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
 	}
-	for _, c := range scenarios.Cautions(r) {
+	for _, c := range results.Cautions(r) {
 		fmt.Fprintf(w, "  caution: %s\n", c)
 	}
 }

@@ -1,4 +1,4 @@
-package scenarios
+package results
 
 // Results is everything one run of a scenario produces. It is defined once
 // here and passed unchanged to the JSON writer, the CSV writer and the
@@ -505,13 +505,43 @@ type SolarInfo struct {
 	IrradianceRecord    string         `json:"irradiance_record,omitempty"`
 }
 
-// ptr returns a pointer to a copy of v.
-func ptr(v float64) *float64 { return &v }
-
-// notComputed records that the value under key was not computed and why.
-func (f *Frost) notComputed(key, why string) {
+// SetNotComputed records that the value under the JSON key was not
+// computed, and why.
+func (f *Frost) SetNotComputed(key, why string) {
 	if f.NotComputed == nil {
 		f.NotComputed = map[string]string{}
 	}
 	f.NotComputed[key] = why
+}
+
+// Summary holds the study quantities of one case (NaN when not defined).
+type Summary map[string]float64
+
+// StepResult is the response of one surface of a column to a sudden change
+// of its temperature: the heat flux into the surface and the heat taken up
+// over the first minutes, set beside the closed form for a semi-infinite
+// body of the surface layer's material: the surface heat uptake after a
+// step.
+type StepResult struct {
+	Side                       string  `json:"side"`
+	Change_K                   float64 `json:"change_K"`
+	Duration_s                 float64 `json:"duration_s"`
+	SurfaceLayer               string  `json:"surface_layer"`
+	SurfaceEffusivity_Ws05_m2K float64 `json:"surface_effusivity_W_s05_m2K"`  // sqrt(lambda rho c)
+	HalfSpaceValidFor_s        float64 `json:"half_space_valid_for_s"`        // until the far face of the surface layer sees 1 % of the step
+	HeatAbsorbed_J_m2          float64 `json:"heat_absorbed_J_m2"`            // simulated, over Duration
+	HeatAbsorbedHalfSpace_J_m2 float64 `json:"heat_absorbed_half_space_J_m2"` // closed form, over Duration
+	FluxAt1s_W_m2              float64 `json:"flux_at_1s_W_m2"`
+	FluxAtEnd_W_m2             float64 `json:"flux_at_end_W_m2"`
+	FluxAtEndHalfSpace_W_m2    float64 `json:"flux_at_end_half_space_W_m2"`
+
+	// Contact of a second body with the surface (when asked): the
+	// surface's mean temperature before, and the contact temperature of two
+	// semi-infinite bodies Tc = (b1 T1 + b2 T2)/(b1 + b2) (Carslaw and
+	// Jaeger, chapter II [memory]; [derived] from equal surface fluxes of
+	// the two erf solutions of Incropera et al. section 5.7).
+	SurfaceTemperature_C     float64  `json:"surface_temperature_C,omitempty"`
+	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
+	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`
+	ContactTemperature_C     *float64 `json:"contact_temperature_C,omitempty"`
 }
