@@ -57,43 +57,43 @@ func wallFixture() *results.Results {
 		Warnings: []string{"invented data: this report is a rendering test"},
 	}
 	s := &r.Series
-	s.CycleTime_h = linspace(0, 24, 97)
-	s.CycleOutsideAir_C = wave(s.CycleTime_h, 12, 8, 24, 15)
-	s.CycleOutsideSurface_C = wave(s.CycleTime_h, 12.3, 7.2, 24, 15.3)
-	s.CycleInsideSurface_C = wave(s.CycleTime_h, 19.4, 0.25, 24, 24.4)
-	s.CycleInsideAir_C = wave(s.CycleTime_h, 20, 0, 24, 0)
-	s.CycleInsideFlux_W_m2 = wave(s.CycleTime_h, -2.4, 0.52, 24, 24.4)
-	s.ProfilePosition_m = linspace(0, 0.32, 65)
-	s.Interfaces_m = []float64{0, 0.105, 0.205, 0.305, 0.32}
-	for _, x := range s.ProfilePosition_m {
+	s.Cycle.Time_h = linspace(0, 24, 97)
+	s.Cycle.OutsideAir_C = wave(s.Cycle.Time_h, 12, 8, 24, 15)
+	s.Cycle.OutsideSurface_C = wave(s.Cycle.Time_h, 12.3, 7.2, 24, 15.3)
+	s.Cycle.InsideSurface_C = wave(s.Cycle.Time_h, 19.4, 0.25, 24, 24.4)
+	s.Cycle.InsideAir_C = wave(s.Cycle.Time_h, 20, 0, 24, 0)
+	s.Cycle.InsideFlux_W_m2 = wave(s.Cycle.Time_h, -2.4, 0.52, 24, 24.4)
+	s.Profile.Position_m = linspace(0, 0.32, 65)
+	s.Profile.Interfaces_m = []float64{0, 0.105, 0.205, 0.305, 0.32}
+	for _, x := range s.Profile.Position_m {
 		mean := 12 + 7.5*x/0.32
 		amp := 8 * math.Exp(-x/0.06)
-		s.ProfileMin_C = append(s.ProfileMin_C, mean-amp-0.2)
-		s.ProfileMean_C = append(s.ProfileMean_C, mean)
-		s.ProfileMax_C = append(s.ProfileMax_C, mean+amp+0.2)
+		s.Profile.Min_C = append(s.Profile.Min_C, mean-amp-0.2)
+		s.Profile.Mean_C = append(s.Profile.Mean_C, mean)
+		s.Profile.Max_C = append(s.Profile.Max_C, mean+amp+0.2)
 	}
 	for i := 0; i <= 60; i++ {
 		p := math.Pow(10, float64(i)*math.Log10(8760)/60)
-		s.ResponsePeriod_h = append(s.ResponsePeriod_h, p)
-		s.ResponseDecrement = append(s.ResponseDecrement, math.Exp(-7.5/math.Sqrt(p)))
-		s.ResponseTimeShift_h = append(s.ResponseTimeShift_h, 1.9*math.Sqrt(p))
+		s.Response.Period_h = append(s.Response.Period_h, p)
+		s.Response.Decrement = append(s.Response.Decrement, math.Exp(-7.5/math.Sqrt(p)))
+		s.Response.TimeShift_h = append(s.Response.TimeShift_h, 1.9*math.Sqrt(p))
 	}
-	s.SimTime_h = linspace(0, 168, 673)
-	s.SimOutsideAir_C = wave(s.SimTime_h, 12, 8, 24, 15)
-	s.SimOutsideSurface_C = wave(s.SimTime_h, 12.3, 7.2, 24, 15.3)
-	s.SimInsideSurface_C = wave(s.SimTime_h, 19.4, 0.25, 24, 24.4)
-	s.SimInsideAir_C = wave(s.SimTime_h, 20, 0, 24, 0)
-	s.SimOutsideFlux_W_m2 = wave(s.SimTime_h, -2.4, 30, 24, 13)
-	s.SimInsideFlux_W_m2 = wave(s.SimTime_h, -2.4, 0.52, 24, 24.4)
-	s.ProbeDepth_m = []float64{0.05, 0.2}
-	s.Probes_C = [][]float64{wave(s.SimTime_h, 12.4, 6.3, 24, 17), wave(s.SimTime_h, 17.3, 0.25, 24, 22)}
-	s.StepTime_s = []float64{}
+	s.Simulation.Time_h = linspace(0, 168, 673)
+	s.Simulation.OutsideAir_C = wave(s.Simulation.Time_h, 12, 8, 24, 15)
+	s.Simulation.OutsideSurface_C = wave(s.Simulation.Time_h, 12.3, 7.2, 24, 15.3)
+	s.Simulation.InsideSurface_C = wave(s.Simulation.Time_h, 19.4, 0.25, 24, 24.4)
+	s.Simulation.InsideAir_C = wave(s.Simulation.Time_h, 20, 0, 24, 0)
+	s.Simulation.OutsideFlux_W_m2 = wave(s.Simulation.Time_h, -2.4, 30, 24, 13)
+	s.Simulation.InsideFlux_W_m2 = wave(s.Simulation.Time_h, -2.4, 0.52, 24, 24.4)
+	s.Simulation.ProbeDepth_m = []float64{0.05, 0.2}
+	s.Simulation.Probes_C = [][]float64{wave(s.Simulation.Time_h, 12.4, 6.3, 24, 17), wave(s.Simulation.Time_h, 17.3, 0.25, 24, 22)}
+	s.Step.Time_s = []float64{}
 	for i := 0; i <= 50; i++ {
 		t := math.Pow(10, float64(i)/10)
-		s.StepTime_s = append(s.StepTime_s, t)
+		s.Step.Time_s = append(s.Step.Time_s, t)
 		hs := 0.77 * 10 / math.Sqrt(math.Pi*4.4e-7*t)
-		s.StepFluxHalfSpace_W_m2 = append(s.StepFluxHalfSpace_W_m2, hs)
-		s.StepFlux_W_m2 = append(s.StepFlux_W_m2, hs*(1-0.5*(1-math.Exp(-t/2e4))))
+		s.Step.FluxHalfSpace_W_m2 = append(s.Step.FluxHalfSpace_W_m2, hs)
+		s.Step.Flux_W_m2 = append(s.Step.Flux_W_m2, hs*(1-0.5*(1-math.Exp(-t/2e4))))
 	}
 	return r
 }
@@ -139,42 +139,42 @@ func groundFixture() *results.Results {
 	}
 	r.Simulation.SpinUpCycles, r.Simulation.SpinUpChange_K, r.Simulation.OutputStep_h = 3, 0.004, 2
 	s := &r.Series
-	s.Interfaces_m = []float64{0, 0.6, 3.0}
-	s.CycleTime_h = linspace(0, 8760, 366)
-	s.CycleOutsideAir_C = wave(s.CycleTime_h, 6, 12, 8760, 4900)
-	s.CycleOutsideSurface_C = wave(s.CycleTime_h, 6.2, 11, 8760, 4900)
-	s.CycleInsideSurface_C = wave(s.CycleTime_h, 6.5, 1, 8760, 6900)
-	s.CycleInsideFlux_W_m2 = wave(s.CycleTime_h, 0.06, 0.4, 8760, 6900)
-	s.ProfilePosition_m = linspace(0, 10, 101)
-	s.SimProfilePosition_m = linspace(0, 10, 101)
-	for _, z := range s.ProfilePosition_m {
+	s.Profile.Interfaces_m = []float64{0, 0.6, 3.0}
+	s.Cycle.Time_h = linspace(0, 8760, 366)
+	s.Cycle.OutsideAir_C = wave(s.Cycle.Time_h, 6, 12, 8760, 4900)
+	s.Cycle.OutsideSurface_C = wave(s.Cycle.Time_h, 6.2, 11, 8760, 4900)
+	s.Cycle.InsideSurface_C = wave(s.Cycle.Time_h, 6.5, 1, 8760, 6900)
+	s.Cycle.InsideFlux_W_m2 = wave(s.Cycle.Time_h, 0.06, 0.4, 8760, 6900)
+	s.Profile.Position_m = linspace(0, 10, 101)
+	s.SimProfile.Position_m = linspace(0, 10, 101)
+	for _, z := range s.Profile.Position_m {
 		a := 11 * math.Exp(-z/2.5)
-		s.ProfileMin_C = append(s.ProfileMin_C, 6.2-a)
-		s.ProfileMean_C = append(s.ProfileMean_C, 6.2)
-		s.ProfileMax_C = append(s.ProfileMax_C, 6.2+a)
-		s.SimProfileMin_C = append(s.SimProfileMin_C, 6.3-0.85*a)
-		s.SimProfileMean_C = append(s.SimProfileMean_C, 6.3)
-		s.SimProfileMax_C = append(s.SimProfileMax_C, 6.3+a)
+		s.Profile.Min_C = append(s.Profile.Min_C, 6.2-a)
+		s.Profile.Mean_C = append(s.Profile.Mean_C, 6.2)
+		s.Profile.Max_C = append(s.Profile.Max_C, 6.2+a)
+		s.SimProfile.Min_C = append(s.SimProfile.Min_C, 6.3-0.85*a)
+		s.SimProfile.Mean_C = append(s.SimProfile.Mean_C, 6.3)
+		s.SimProfile.Max_C = append(s.SimProfile.Max_C, 6.3+a)
 	}
-	s.SimTime_h = linspace(0, 17520, 17521)
-	s.SimOutsideAir_C = wave(s.SimTime_h, 6, 12, 8760, 4900)
-	s.SimOutsideSurface_C = wave(s.SimTime_h, 6.2, 11, 8760, 4900)
-	s.SimInsideSurface_C = wave(s.SimTime_h, 6.5, 0.2, 8760, 7900)
-	s.SimOutsideFlux_W_m2 = wave(s.SimTime_h, 0, 8, 8760, 4000)
-	s.SimInsideFlux_W_m2 = wave(s.SimTime_h, 0.065, 0.02, 8760, 7900)
-	s.ProbeDepth_m = []float64{0.5, 2}
-	s.Probes_C = [][]float64{wave(s.SimTime_h, 6.3, 9, 8760, 5400), wave(s.SimTime_h, 6.4, 3.6, 8760, 6300)}
-	for _, t := range s.SimTime_h {
+	s.Simulation.Time_h = linspace(0, 17520, 17521)
+	s.Simulation.OutsideAir_C = wave(s.Simulation.Time_h, 6, 12, 8760, 4900)
+	s.Simulation.OutsideSurface_C = wave(s.Simulation.Time_h, 6.2, 11, 8760, 4900)
+	s.Simulation.InsideSurface_C = wave(s.Simulation.Time_h, 6.5, 0.2, 8760, 7900)
+	s.Simulation.OutsideFlux_W_m2 = wave(s.Simulation.Time_h, 0, 8, 8760, 4000)
+	s.Simulation.InsideFlux_W_m2 = wave(s.Simulation.Time_h, 0.065, 0.02, 8760, 7900)
+	s.Simulation.ProbeDepth_m = []float64{0.5, 2}
+	s.Simulation.Probes_C = [][]float64{wave(s.Simulation.Time_h, 6.3, 9, 8760, 5400), wave(s.Simulation.Time_h, 6.4, 3.6, 8760, 6300)}
+	for _, t := range s.Simulation.Time_h {
 		d := 0.0
 		if x := math.Cos(2 * math.Pi * (t - 500) / 8760); x > 0.3 {
 			d = 0.82 * (x - 0.3) / 0.7
 		}
-		s.FrostDepth_m = append(s.FrostDepth_m, d)
+		s.Simulation.FrostDepth_m = append(s.Simulation.FrostDepth_m, d)
 		th := 0.0
 		if x := math.Cos(2 * math.Pi * (t - 1600) / 8760); d > 0 && x < 0.85 && x > 0.3 {
 			th = 0.4 * (0.85 - x)
 		}
-		s.ThawDepth_m = append(s.ThawDepth_m, th)
+		s.Simulation.ThawDepth_m = append(s.Simulation.ThawDepth_m, th)
 	}
 	return r
 }

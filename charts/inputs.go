@@ -18,7 +18,7 @@ func inputsTable(r *results.Results) *block { return inputsBlocks(r)[0] }
 // gaps, by the table of the gaps bridged.
 func inputsBlocks(r *results.Results) []*block {
 	var gaps *block
-	ground := r.Kind == "ground"
+	ground := r.Kind == results.Ground
 	t := newTable("Assumptions and inputs of this run", []string{"Input", "Value"}, "text", "text")
 	res := func(v float64) string {
 		if v == 0 {
@@ -56,12 +56,12 @@ func inputsBlocks(r *results.Results) []*block {
 		t.row("Depth of the column", fixed(g.ColumnDepth_m, 2)+" m")
 	} else if !ground {
 		c := r.Series
-		if len(c.CycleOutsideAir_C) > 0 && len(r.Periodic) > 0 {
+		if len(c.Cycle.OutsideAir_C) > 0 && len(r.Periodic) > 0 {
 			t.row("Outside environment temperature over the "+periodLabel(r.Periodic[0].Period_h)+" cycle",
-				rangeText(c.CycleTime_h, c.CycleOutsideAir_C))
+				rangeText(c.Cycle.Time_h, c.Cycle.OutsideAir_C))
 		}
-		if len(c.CycleInsideAir_C) > 0 {
-			t.row("Inside environment temperature over the same cycle", rangeText(c.CycleTime_h, c.CycleInsideAir_C))
+		if len(c.Cycle.InsideAir_C) > 0 {
+			t.row("Inside environment temperature over the same cycle", rangeText(c.Cycle.Time_h, c.Cycle.InsideAir_C))
 		}
 	}
 	gaps = recordRows(t, r)

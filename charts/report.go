@@ -148,7 +148,7 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	if strings.TrimSpace(p.Title) == "" {
 		p.Title = "Untitled scenario"
 	}
-	ground := r.Kind == "ground"
+	ground := r.Kind == results.Ground
 	p.KindLabel = "building component"
 	if ground {
 		p.KindLabel = "ground and frost"
@@ -217,7 +217,7 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	add(&per, chart(responseChart))
 
 	var sim *section
-	if r.Simulation != nil || len(r.Series.SimTime_h) > 0 {
+	if r.Simulation != nil || len(r.Series.Simulation.Time_h) > 0 {
 		sim = &section{ID: "simulation", Heading: "Transient simulation"}
 		add(sim, energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
 	} else if r.SimulationSkipped != "" {
@@ -226,7 +226,7 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	}
 
 	var step *section
-	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
+	if len(r.Series.Step.Time_s) > 0 || r.StepResponse != nil {
 		step = &section{ID: "step", Heading: "Surface heat uptake after a step"}
 		add(step, stepTable(r), chart(stepChart))
 	}

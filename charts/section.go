@@ -86,11 +86,11 @@ var familyOrderDrawn = []string{
 //
 // results.Layer carries no family yet (layers.Layer has one); until it
 // does, the family is looked up from the material key here.
-func family(kind string, l results.Layer) string {
+func family(kind results.Kind, l results.Layer) string {
 	if m, ok := layers.Lookup(l.Material); ok && l.Material != "" {
 		return m.Family
 	}
-	if kind == "ground" {
+	if kind == results.Ground {
 		return "soil"
 	}
 	return ""
@@ -113,11 +113,11 @@ func svgNum(v float64) string { return trimZeros(strings.Replace(fixed(v, 1), "â
 
 // thicknessText formats a thickness for the drawing: millimetres for a
 // building layer, metres for a ground layer.
-func thicknessText(kind string, m float64) string {
+func thicknessText(kind results.Kind, m float64) string {
 	if !(m > 0) || !finite(m) {
 		return "thickness not given"
 	}
-	if kind == "ground" {
+	if kind == results.Ground {
 		return trimZeros(sig(m, 3)) + " m"
 	}
 	return trimZeros(sig(m*1000, 3)) + " mm"
@@ -397,7 +397,7 @@ func (w *svgWriter) fill(f string) string {
 
 // usedFamilies lists the families of ls in legend order, and the family
 // of each layer.
-func usedFamilies(kind string, ls []results.Layer) (used []string, of []string) {
+func usedFamilies(kind results.Kind, ls []results.Layer) (used []string, of []string) {
 	seen := map[string]bool{}
 	for _, l := range ls {
 		f := family(kind, l)
@@ -444,7 +444,7 @@ func crossSection(r *results.Results) *figure {
 		return nil
 	}
 	switch {
-	case r.Kind == "ground":
+	case r.Kind == results.Ground:
 		return verticalSection(r, "ground")
 	case r.Orientation == "roof" || r.Orientation == "floor":
 		return verticalSection(r, r.Orientation)
@@ -466,7 +466,7 @@ func layerLabel(i int, l results.Layer) string {
 }
 
 // layerTitle is the tooltip of a layer: full name, material and thickness.
-func layerTitle(kind string, i int, l results.Layer, fam string) string {
+func layerTitle(kind results.Kind, i int, l results.Layer, fam string) string {
 	s := fmt.Sprintf("%d %s", i+1, l.Name)
 	if l.Material != "" {
 		s += " (" + l.Material + ")"
@@ -485,7 +485,7 @@ func (w *svgWriter) drawLayer(x, y, wd, ht float64, fam, title string) {
 }
 
 // sectionNotes returns the notes on what is not to scale.
-func sectionNotes(kind string, sp []span) []string {
+func sectionNotes(kind results.Kind, sp []span) []string {
 	var notes []string
 	widened, broken, half := false, false, false
 	for _, s := range sp {

@@ -138,7 +138,7 @@ func layerName(l results.Layer) string {
 // all to one common scale (outside on the left), with the headline
 // quantities beside it.
 func variantsFigure(r *results.Results) *figure {
-	if len(r.Variants) == 0 || r.Kind == "ground" {
+	if len(r.Variants) == 0 || r.Kind == results.Ground {
 		return nil
 	}
 	const (

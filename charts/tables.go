@@ -49,7 +49,7 @@ func component(r *results.Results) string {
 // summary writes the plain-words summary at the top of the report.
 func summary(r *results.Results) []string {
 	var out []string
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		if f := r.Frost; f != nil {
 			out = append(out, frostSummary(f, r.Simulation != nil))
 		}
@@ -82,9 +82,9 @@ func summary(r *results.Results) []string {
 	out = append(out, fmt.Sprintf("Steady U-value %s W/(m²·K); thermal resistance %s m²·K/W surface to surface.",
 		sig(r.Steady.UValue_W_m2K, 3), sig(r.Steady.ThermalResistance_m2K_W, 3)))
 	s := r.Series
-	if len(s.CycleOutsideAir_C) > 0 && len(s.CycleInsideSurface_C) > 0 {
-		out_ := maxOf(s.CycleOutsideAir_C) - minOf(s.CycleOutsideAir_C)
-		in := maxOf(s.CycleInsideSurface_C) - minOf(s.CycleInsideSurface_C)
+	if len(s.Cycle.OutsideAir_C) > 0 && len(s.Cycle.InsideSurface_C) > 0 {
+		out_ := maxOf(s.Cycle.OutsideAir_C) - minOf(s.Cycle.OutsideAir_C)
+		in := maxOf(s.Cycle.InsideSurface_C) - minOf(s.Cycle.InsideSurface_C)
 		if finite(out_) && finite(in) {
 			out = append(out, fmt.Sprintf("In the cycle shown below the outside environment temperature ranges over %s K and the inside surface temperature over %s K; that ratio of temperature swings is a different quantity from the decrement factor.",
 				fixed(out_, 1), fixed(in, 1)))
@@ -95,7 +95,7 @@ func summary(r *results.Results) []string {
 
 // layerTable lists the layers, outside (or surface) first.
 func layerTable(r *results.Results) *table {
-	ground := r.Kind == "ground"
+	ground := r.Kind == results.Ground
 	thick, depth := "Thickness (mm)", "Penetration depth δ (mm)"
 	f := 1000.0
 	if ground {
@@ -175,7 +175,7 @@ func frozenTable(r *results.Results) *block {
 // steadyTable gives the steady-state U-value and resistances.
 func steadyTable(r *results.Results) *block {
 	s := r.Steady
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		if !(s.ThermalResistance_m2K_W > 0) {
 			return nil
 		}
@@ -201,7 +201,7 @@ func periodicTable(r *results.Results) *block {
 		return nil
 	}
 	in, out := "inside", "outside"
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		in, out = "bottom", "surface"
 	}
 	t := newTable("Periodic properties per period", []string{
@@ -220,7 +220,7 @@ func periodicTable(r *results.Results) *block {
 			sig(p.OutsideAdmittance_W_m2K, 3), fixed(p.OutsideAdmittanceLead_h, 1),
 			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3))
 	}
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		t.Notes = append(t.Notes,
 			"Side 1 is the bottom of the column, side 2 the ground surface. f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance of the column; for a deep column the temperature swing at depth is read more directly from the ground temperature chart.",
 			"Time shift: how long the heat-flow swing at the bottom lags the surface forcing, in [0, period). Y₁₁ and Y₂₂ are the admittances with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities.")
@@ -243,7 +243,7 @@ func energyTable(r *results.Results) *block {
 		return nil
 	}
 	in, out := "inside", "outside"
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		in, out = "bottom", "ground surface"
 	}
 	t := newTable("Energy balance of the simulation", []string{"Quantity", "Value", "Unit"}, "text", "", "text")
@@ -316,7 +316,7 @@ func probeTable(r *results.Results) *block {
 	}
 	head := "Position from the outside (mm)"
 	f, n := 1000.0, 3
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		head, f, n = "Depth (m)", 1, 3
 	}
 	t := newTable("Simulated temperatures at the probes", []string{head, "Lowest", "Mean", "Highest"})
@@ -330,7 +330,7 @@ func probeTable(r *results.Results) *block {
 func methods(r *results.Results) []string {
 	s := r.Steady
 	var m []string
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		m = append(m, "Soil column: horizontal layers from the surface down, ending in a semi-infinite half-space (or a deep layer); surface forcing through the surface resistance given in the scenario.")
 	} else {
 		m = append(m, fmt.Sprintf("Steady state: layers in series with the surface resistances of ISO 6946 (here Rsi = %s and Rse = %s m²·K/W); U = 1 / (Rsi + ΣR + Rse).",
@@ -339,7 +339,7 @@ func methods(r *results.Results) []string {
 	m = append(m,
 		"Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.",
 		"Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		m = append(m, "Exact periodic ground temperatures: the same matrices ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π).")
 	}
 	if sim := r.Simulation; sim != nil {
@@ -351,7 +351,7 @@ func methods(r *results.Results) []string {
 			"Stefan frost depth X = √(2 k F / L): k frozen conductivity, F surface freezing index (converted to °C·s), L latent heat per volume of soil.",
 			"Modified Berggren frost depth (Aldrich and Paynter, 1953; US Army TM 5-852-6 / UFC 3-130-06): the Stefan form with the mean of frozen and unfrozen conductivity, multiplied by a coefficient λ that depends on the thermal ratio α and the fusion parameter μ.")
 	}
-	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
+	if len(r.Series.Step.Time_s) > 0 || r.StepResponse != nil {
 		m = append(m, "Surface heat uptake after a step, closed form: a semi-infinite solid whose surface temperature changes by ΔT, q = λ ΔT / √(π a t) (Carslaw and Jaeger, Conduction of Heat in Solids, §2.4; Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7).")
 	}
 	m = append(m, "Charts: Apache ECharts 5.6.0, embedded in this file. Long time series are thinned for display only.")

@@ -187,7 +187,7 @@ func TestWallInputs(t *testing.T) {
 // the surface temperature: one line, named for both.
 func TestSurfaceEnvironmentMerged(t *testing.T) {
 	r := groundFixture()
-	r.Series.SimOutsideAir_C = append([]float64(nil), r.Series.SimOutsideSurface_C...)
+	r.Series.Simulation.OutsideAir_C = append([]float64(nil), r.Series.Simulation.OutsideSurface_C...)
 	charts, _ := chartData(t, render(t, r, Options{}))
 	var names []string
 	for _, s := range charts[idSimTemp]["series"].([]any) {

@@ -145,13 +145,13 @@ func runFit(s *Scenario, r *results.Results) error {
 	r.Fit = out
 	// Chart data: measured and modelled at each fitted sensor.
 	ser := &r.Series
-	ser.FitTime_h = nil
+	ser.Fit.Time_h = nil
 	for _, t := range rec.Times {
-		ser.FitTime_h = append(ser.FitTime_h, t/3600)
+		ser.Fit.Time_h = append(ser.Fit.Time_h, t/3600)
 	}
-	ser.FitDepth_m = spec.Depths
-	ser.FitMeasured_C = rec.Temps
-	ser.FitModelled_C = fr.Inversion.Modelled
+	ser.Fit.Depth_m = spec.Depths
+	ser.Fit.Measured_C = rec.Temps
+	ser.Fit.Modelled_C = fr.Inversion.Modelled
 	if math.IsNaN(out.Diffusivity_m2_s) {
 		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: "the fit did not converge"}
 	}

@@ -57,7 +57,7 @@ func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 func runGround(s *Scenario, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col // no inside resistance: the column ends at the bottom condition
 	c := s.construction()
-	r := &results.Results{Title: s.Title, Kind: string(s.Kind), ScenarioFile: s.File}
+	r := &results.Results{Title: s.Title, Kind: s.Kind, ScenarioFile: s.File}
 	r.Layers = layerResults(s.Layers, climate.Year)
 	r.Steady = results.Steady{
 		ThermalResistance_m2K_W:  c.ThermalResistance(),
@@ -77,8 +77,8 @@ func runGround(s *Scenario, p *runPlan, progress Progress) (*results.Results, er
 		if err != nil {
 			return nil, err
 		}
-		r.Series.FrostDepth_m = res.FrostDepth
-		r.Series.ThawDepth_m = res.ThawDepth
+		r.Series.Simulation.FrostDepth_m = res.FrostDepth
+		r.Series.Simulation.ThawDepth_m = res.ThawDepth
 		if err := frostAnalysis(s, col, r, res); err != nil {
 			return nil, err
 		}
@@ -168,10 +168,10 @@ func groundPeriodic(s *Scenario, col solver.Column, r *results.Results) error {
 		periods = append(periods, h.Period)
 		amps = append(amps, row)
 	}
-	r.Series.ProfilePosition_m = xs
-	r.Series.ProfileMean_C = meanX
-	r.Series.ProfileMin_C, r.Series.ProfileMax_C = envelope(meanX, periods, amps)
-	r.Series.Interfaces_m = col.Interfaces()
+	r.Series.Profile.Position_m = xs
+	r.Series.Profile.Mean_C = meanX
+	r.Series.Profile.Min_C, r.Series.Profile.Max_C = envelope(meanX, periods, amps)
+	r.Series.Profile.Interfaces_m = col.Interfaces()
 	return nil
 }
 

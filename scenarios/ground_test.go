@@ -41,7 +41,7 @@ analysis:
   simulate: {duration: 60d, step: 1h, initial_temperature: 2}
 `)
 	ser := r.Series
-	got := ser.FrostDepth_m[len(ser.FrostDepth_m)-1]
+	got := ser.Simulation.FrostDepth_m[len(ser.Simulation.FrostDepth_m)-1]
 	m := 3.5945e-2 / math.Sqrt(3600) // m/s^0.5
 	want := m * math.Sqrt(60*climate.Day)
 	t.Logf("frost depth after 60 d: %.4f m, Neumann %.4f m (%.2f %%)", got, want, 100*(got/want-1))
@@ -84,18 +84,18 @@ analysis:
 	a := p.Conductivity / p.HeatCapacity
 	d := math.Sqrt(a * climate.Year / math.Pi)
 	ser := r.Series
-	n := len(ser.SimTime_h)
+	n := len(ser.Simulation.Time_h)
 	var ts []float64
-	for _, h := range ser.SimTime_h {
+	for _, h := range ser.Simulation.Time_h {
 		ts = append(ts, h*3600)
 	}
-	for j, z := range ser.ProbeDepth_m {
+	for j, z := range ser.Simulation.ProbeDepth_m {
 		// Least-squares fit over the last year.
 		var tt, vv []float64
 		for k := 0; k < n; k++ {
 			if ts[k] > ts[n-1]-climate.Year {
 				tt = append(tt, ts[k])
-				vv = append(vv, ser.Probes_C[j][k])
+				vv = append(vv, ser.Simulation.Probes_C[j][k])
 			}
 		}
 		fit, _, err := climate.FitHarmonics(tt, vv, []float64{climate.Year})
@@ -174,7 +174,7 @@ analysis:
 		}
 		lower := m * math.Sqrt(dur)
 		upper, _ := ground.Stefan(l.Freeze.ConductivityFrozen, l.Freeze.LatentHeat, -ts*40)
-		got := r.Series.FrostDepth_m[len(r.Series.FrostDepth_m)-1]
+		got := r.Series.Simulation.FrostDepth_m[len(r.Series.Simulation.FrostDepth_m)-1]
 		t.Logf("%s %.0f kg/m3 %.1f %%, Ts %.1f, Ti %.1f: Neumann %.3f <= simulated %.3f <= Stefan %.3f m",
 			tex, dry, 100*w, ts, ti, lower, got, upper)
 		if got < 0.99*lower || got > upper {

@@ -73,7 +73,7 @@ func runWall(s *Scenario, p *runPlan, progress Progress) (*results.Results, erro
 	c := s.construction()
 	r := &results.Results{
 		Title:        s.Title,
-		Kind:         string(s.Kind),
+		Kind:         s.Kind,
 		ScenarioFile: s.File,
 		Orientation:  s.Orientation.String(),
 	}
@@ -256,12 +256,12 @@ func wallSeries(s *Scenario, col solver.Column, r *results.Results) error {
 	for k := 0; k < n; k++ {
 		t := P * float64(k) / float64(n-1)
 		e := cmplx.Exp(complex(0, w*t))
-		ser.CycleTime_h = append(ser.CycleTime_h, t/3600)
-		ser.CycleOutsideAir_C = append(ser.CycleOutsideAir_C, tOutMean+real(zo*e))
-		ser.CycleInsideAir_C = append(ser.CycleInsideAir_C, tInMean+real(zi*e))
-		ser.CycleOutsideSurface_C = append(ser.CycleOutsideSurface_C, steadyT[0]+real(th[0]*e))
-		ser.CycleInsideSurface_C = append(ser.CycleInsideSurface_C, steadyT[1]+real(th[1]*e))
-		ser.CycleInsideFlux_W_m2 = append(ser.CycleInsideFlux_W_m2, steadyQ+real(q[1]*e))
+		ser.Cycle.Time_h = append(ser.Cycle.Time_h, t/3600)
+		ser.Cycle.OutsideAir_C = append(ser.Cycle.OutsideAir_C, tOutMean+real(zo*e))
+		ser.Cycle.InsideAir_C = append(ser.Cycle.InsideAir_C, tInMean+real(zi*e))
+		ser.Cycle.OutsideSurface_C = append(ser.Cycle.OutsideSurface_C, steadyT[0]+real(th[0]*e))
+		ser.Cycle.InsideSurface_C = append(ser.Cycle.InsideSurface_C, steadyT[1]+real(th[1]*e))
+		ser.Cycle.InsideFlux_W_m2 = append(ser.Cycle.InsideFlux_W_m2, steadyQ+real(q[1]*e))
 	}
 
 	// Envelope across the construction, all forcing harmonics superposed.
@@ -278,10 +278,10 @@ func wallSeries(s *Scenario, col solver.Column, r *results.Results) error {
 			return &Error{File: s.File, Msg: err.Error()}
 		}
 	}
-	ser.ProfilePosition_m = xs
-	ser.ProfileMean_C = meanT
-	ser.ProfileMin_C, ser.ProfileMax_C = envelope(meanT, hs.periods, amps)
-	ser.Interfaces_m = col.Interfaces()
+	ser.Profile.Position_m = xs
+	ser.Profile.Mean_C = meanT
+	ser.Profile.Min_C, ser.Profile.Max_C = envelope(meanT, hs.periods, amps)
+	ser.Profile.Interfaces_m = col.Interfaces()
 
 	// Frequency response.
 	ps := solver.LogPeriods(s.Analysis.Response.From, s.Analysis.Response.To, s.Analysis.Response.Points)
@@ -290,9 +290,9 @@ func wallSeries(s *Scenario, col solver.Column, r *results.Results) error {
 		return &Error{File: s.File, Msg: err.Error()}
 	}
 	for _, p := range resp {
-		ser.ResponsePeriod_h = append(ser.ResponsePeriod_h, p.Period/3600)
-		ser.ResponseDecrement = append(ser.ResponseDecrement, p.DecrementFactor)
-		ser.ResponseTimeShift_h = append(ser.ResponseTimeShift_h, p.TimeShiftUnwrapped/3600)
+		ser.Response.Period_h = append(ser.Response.Period_h, p.Period/3600)
+		ser.Response.Decrement = append(ser.Response.Decrement, p.DecrementFactor)
+		ser.Response.TimeShift_h = append(ser.Response.TimeShift_h, p.TimeShiftUnwrapped/3600)
 	}
 	return nil
 }

@@ -21,13 +21,13 @@ import (
 	"tempstack/solver"
 )
 
-// Kind is the type of scenario.
-type Kind string
+// Kind is what a scenario describes; its results carry the same kind.
+type Kind = results.Kind
 
 // The scenario kinds.
 const (
-	Wall   Kind = "wall"   // a wall, roof or floor between outside and inside air
-	Ground Kind = "ground" // a soil or rock column below a ground surface
+	Wall   = results.Wall   // a wall, roof or floor between outside and inside air
+	Ground = results.Ground // a soil or rock column below a ground surface
 )
 
 // Scenario is a decoded, validated scenario file in SI units.

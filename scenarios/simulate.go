@@ -337,27 +337,27 @@ func simulate(s *Scenario, col solver.Column, r *results.Results, progress Progr
 		out.Start = origin.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
 	}
 	for k, t := range res.Times {
-		ser.SimTime_h = append(ser.SimTime_h, t/3600)
+		ser.Simulation.Time_h = append(ser.Simulation.Time_h, t/3600)
 		if !origin.IsZero() {
-			ser.SimStamp = append(ser.SimStamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
+			ser.Simulation.Stamp = append(ser.Simulation.Stamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
 		}
-		ser.SimOutsideAir_C = append(ser.SimOutsideAir_C, envAt(s.Outside, t))
+		ser.Simulation.OutsideAir_C = append(ser.Simulation.OutsideAir_C, envAt(s.Outside, t))
 		if s.Inside.Temperature != nil {
-			ser.SimInsideAir_C = append(ser.SimInsideAir_C, envAt(s.Inside, t))
+			ser.Simulation.InsideAir_C = append(ser.Simulation.InsideAir_C, envAt(s.Inside, t))
 		}
 		_ = k
 	}
-	ser.SimOutsideSurface_C = res.SurfaceOutside
-	ser.SimInsideSurface_C = res.SurfaceInside
+	ser.Simulation.OutsideSurface_C = res.SurfaceOutside
+	ser.Simulation.InsideSurface_C = res.SurfaceInside
 	// Charts and CSV show the flux averaged over each output interval (the
 	// heat that went through, as in the energy balance): an instantaneous
 	// flux into a freezing surface cell spikes between samples.
-	ser.SimOutsideFlux_W_m2 = res.MeanFluxOutside
-	ser.SimInsideFlux_W_m2 = res.MeanFluxInside
-	ser.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
-	ser.Probes_C = res.Probe
-	ser.SimProfilePosition_m = res.Mesh.Centers
-	ser.SimProfileMin_C, ser.SimProfileMean_C, ser.SimProfileMax_C = res.Min, res.Mean, res.Max
+	ser.Simulation.OutsideFlux_W_m2 = res.MeanFluxOutside
+	ser.Simulation.InsideFlux_W_m2 = res.MeanFluxInside
+	ser.Simulation.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
+	ser.Simulation.Probes_C = res.Probe
+	ser.SimProfile.Position_m = res.Mesh.Centers
+	ser.SimProfile.Min_C, ser.SimProfile.Mean_C, ser.SimProfile.Max_C = res.Min, res.Mean, res.Max
 	return res, nil
 }
 

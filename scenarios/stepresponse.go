@@ -77,17 +77,17 @@ func stepResponse(s *Scenario, col solver.Column, r *results.Results) error {
 		out.HeatAbsorbed_J_m2 += res.Energy.InflowOutside
 		for k := 1; k < len(res.Times); k++ {
 			t0, t1 := res.Times[k-1], res.Times[k]
-			ser.StepTime_s = append(ser.StepTime_s, t1)
-			ser.StepFlux_W_m2 = append(ser.StepFlux_W_m2, res.MeanFluxOutside[k])
-			ser.StepFluxHalfSpace_W_m2 = append(ser.StepFluxHalfSpace_W_m2, (Q(t1)-Q(t0))/(t1-t0))
+			ser.Step.Time_s = append(ser.Step.Time_s, t1)
+			ser.Step.Flux_W_m2 = append(ser.Step.Flux_W_m2, res.MeanFluxOutside[k])
+			ser.Step.FluxHalfSpace_W_m2 = append(ser.Step.FluxHalfSpace_W_m2, (Q(t1)-Q(t0))/(t1-t0))
 		}
 		H = res.FinalEnthalpy
 		start = end
 	}
 	// Fluxes at 1 s and at the end, interpolated in log time between
 	// interval means (each placed at its interval's end).
-	out.FluxAt1s_W_m2 = logInterp(ser.StepTime_s, ser.StepFlux_W_m2, 1)
-	out.FluxAtEnd_W_m2 = ser.StepFlux_W_m2[len(ser.StepFlux_W_m2)-1]
+	out.FluxAt1s_W_m2 = logInterp(ser.Step.Time_s, ser.Step.Flux_W_m2, 1)
+	out.FluxAtEnd_W_m2 = ser.Step.Flux_W_m2[len(ser.Step.Flux_W_m2)-1]
 	if st.ContactTemperature != nil {
 		// The surface's mean temperature from the steady state of the
 		// scenario's mean forcings.

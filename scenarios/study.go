@@ -81,7 +81,7 @@ type VarySpec struct {
 // quantities are the figures a study can compare, seek and spread, with
 // the function that reads each from Results.
 var quantities = map[string]func(r *results.Results) (float64, bool){
-	"u_value_W_m2K": func(r *results.Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == "wall" },
+	"u_value_W_m2K": func(r *results.Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == results.Wall },
 	"decrement_factor": func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.DecrementFactor })
 	},
@@ -661,10 +661,9 @@ func nodeText(n *yaml.Node) string {
 func variantResult(name string, changes []string, r *results.Results) results.VariantResult {
 	return results.VariantResult{
 		Name: name, Changes: changes, Quantities: summarize(r), Layers: r.Layers,
-		ResponsePeriod_h: r.Series.ResponsePeriod_h, ResponseDecrement: r.Series.ResponseDecrement,
-		ResponseTimeShift_h: r.Series.ResponseTimeShift_h,
-		ProfilePosition_m:   r.Series.ProfilePosition_m, ProfileMin_C: r.Series.ProfileMin_C, ProfileMax_C: r.Series.ProfileMax_C,
-		CycleTime_h: r.Series.CycleTime_h, CycleInsideFlux_W_m2: r.Series.CycleInsideFlux_W_m2,
+		Response: r.Series.Response,
+		Profile:  results.ProfileSeries{Position_m: r.Series.Profile.Position_m, Min_C: r.Series.Profile.Min_C, Max_C: r.Series.Profile.Max_C},
+		Cycle:    results.CycleSeries{Time_h: r.Series.Cycle.Time_h, InsideFlux_W_m2: r.Series.Cycle.InsideFlux_W_m2},
 	}
 }
 

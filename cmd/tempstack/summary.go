@@ -13,12 +13,12 @@ import (
 // printSummary prints the headline numbers of a run in plain words.
 func printSummary(w io.Writer, r *results.Results) {
 	fmt.Fprintf(w, "%s (%s)\n", r.Title, r.Kind)
-	if r.Kind == "wall" {
+	if r.Kind == results.Wall {
 		fmt.Fprintf(w, "  U = %.3f W/(m2 K), R = %.3f m2 K/W (surface to surface)\n",
 			r.Steady.UValue_W_m2K, r.Steady.ThermalResistance_m2K_W)
 	}
 	for _, p := range r.Periodic {
-		if r.Kind != "wall" {
+		if r.Kind != results.Wall {
 			break
 		}
 		fmt.Fprintf(w, "  period %g h: decrement factor %.3f, time shift %.1f h, periodic transmittance %.3f W/(m2 K), admittance inside %.2f W/(m2 K)\n",

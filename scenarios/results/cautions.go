@@ -48,7 +48,7 @@ func Cautions(r *Results) []string {
 // CautionsWith builds the list of Cautions for r with the warnings rec of
 // the measured record the run followed (nil for none).
 func CautionsWith(r *Results, rec []string) []string {
-	if r.Kind != "ground" {
+	if r.Kind != Ground {
 		return []string{wallModelCaution, wallMaterialCaution}
 	}
 	out := []string{frostCaution, boundCaution}
