@@ -23,18 +23,16 @@ func capitalise(s string) string {
 // indexUsed returns the surface freezing index (°C·d) the closed forms
 // used (nil when there is none) and a phrase naming where it came from.
 func indexUsed(f *results.Frost) (*float64, string) {
-	n := f.FreezingNFactor
-	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
-		v := n * *f.DesignFreezingIndex_Cd
-		return &v, "design air index"
+	idx := f.SurfaceIndexUsed()
+	switch {
+	case f.IndexSource.Origin == results.FromDesign && f.DesignFreezingIndex_Cd != nil:
+		return idx, "design air index"
+	case f.IndexSource.Origin == results.FromRecord:
+		return idx, "air index of the record, " + f.IndexSource.Detail()
+	case f.IndexSource.Origin == results.FromSimulated:
+		return idx, "air index of the simulated cold period"
 	}
-	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
-		return f.SurfaceFreezingIndex_Cd, "air index of the record, " + strings.TrimSpace(rec)
-	}
-	if f.IndexSource == "simulated period" {
-		return f.SurfaceFreezingIndex_Cd, "air index of the simulated cold period"
-	}
-	return f.SurfaceFreezingIndex_Cd, "air index of the forcing"
+	return idx, "air index of the forcing"
 }
 
 // notComputed is the text shown for a frost value under the JSON key
@@ -59,14 +57,14 @@ func depth2(v float64) string { return fixed(v, 2) }
 
 // airIndexLabel names the air freezing index f.FreezingIndex_Cd holds.
 func airIndexLabel(f *results.Frost) string {
-	if f.IndexSource == "design" {
+	if f.IndexSource.Origin == results.FromDesign {
 		return "Design air freezing index (given in the scenario)"
 	}
-	if f.IndexSource == "simulated period" {
+	if f.IndexSource.Origin == results.FromSimulated {
 		return "Air freezing index of the simulated cold period"
 	}
-	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
-		return "Air freezing index of the record (" + strings.TrimSpace(rec) + ")"
+	if f.IndexSource.Origin == results.FromRecord {
+		return "Air freezing index of the record (" + f.IndexSource.Detail() + ")"
 	}
 	return "Air freezing index of the forcing (one winter)"
 }
@@ -113,7 +111,7 @@ func frostCompareTable(r *results.Results) *block {
 	t.row("Modified Berggren (closed form)", berg, bb)
 	t.Notes = append(t.Notes,
 		"Stefan neglects the heat stored in the soil above freezing and so gives a deeper front than modified Berggren, which reduces the Stefan depth by the coefficient λ for that heat. The simulation follows the whole temperature history through the layers. All three are estimates for planning only, and none is a safe upper bound; see the cautions.")
-	if f.IndexSource == "design" {
+	if f.IndexSource.Origin == results.FromDesign {
 		t.Notes = append(t.Notes, "The closed forms use the design freezing index; the simulation follows the surface temperature of the scenario, so the two need not agree.")
 	}
 	return &block{Table: t}
@@ -169,7 +167,7 @@ func freezingIndexTable(r *results.Results) *block {
 	}
 	t.row("Length of the freezing season", optText(f, "season_length_d", f.SeasonLength_d, func(v float64) string { return fixed(v, 0) + " d" }))
 	meanLabel := "Mean annual air temperature"
-	if f.IndexSource == "simulated period" {
+	if f.IndexSource.Origin == results.FromSimulated {
 		meanLabel = "Initial temperature (the mean of modified Berggren)"
 	}
 	t.row(meanLabel, optText(f, "mean_annual_air_C", f.MeanAnnualAir_C, degC))
@@ -345,10 +343,10 @@ func frostSummary(f *results.Frost, sim bool) string {
 	}
 	if f.FreezingIndex_Cd != nil {
 		per := " per winter"
-		if f.IndexSource == "simulated period" {
+		if f.IndexSource.Origin == results.FromSimulated {
 			per = " over the simulated cold period"
-		} else if strings.HasPrefix(f.IndexSource, "record:") {
-			per = " (" + strings.TrimSpace(strings.TrimPrefix(f.IndexSource, "record:")) + ")"
+		} else if f.IndexSource.Origin == results.FromRecord {
+			per = " (" + f.IndexSource.Detail() + ")"
 		}
 		s += fmt.Sprintf(", with an air freezing index of %s%s.", cd(*f.FreezingIndex_Cd), per)
 	} else {
@@ -363,7 +361,7 @@ func frostSummary(f *results.Frost, sim bool) string {
 	default:
 		s += " There is no Stefan or modified Berggren estimate (" + notComputed(f, "stefan_depth_m") + ")."
 	}
-	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
+	if f.IndexSource.Origin == results.FromDesign && f.DesignFreezingIndex_Cd != nil {
 		s += fmt.Sprintf(" The closed forms use the design air freezing index of %s.", cd(*f.DesignFreezingIndex_Cd))
 	}
 	return s

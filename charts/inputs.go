@@ -40,7 +40,7 @@ func inputsBlocks(r *results.Results) []*block {
 	// Forcing, as far as the results carry it.
 	if g := r.Ground; ground && g != nil {
 		if f := r.Frost; f != nil {
-			if f.MeanAnnualAir_C != nil && f.IndexSource != "simulated period" {
+			if f.MeanAnnualAir_C != nil && f.IndexSource.Origin != results.FromSimulated {
 				t.row("Mean annual air temperature", degC(*f.MeanAnnualAir_C))
 			}
 		}

@@ -115,7 +115,7 @@ func TestVariantsFigureScale(t *testing.T) {
 
 func TestRecordAndReturnPeriod(t *testing.T) {
 	r := groundFixture()
-	r.Frost.IndexSource = "record: mean of the 3 coldest of 10 complete winters"
+	r.Frost.IndexSource = results.IndexSource{Origin: results.FromRecord, Coldest: 3, Winters: 10}
 	r.Frost.ReturnPeriod = &results.ReturnPeriodIndex{Winters: 10, Method: "Gumbel, method of moments", Location_Cd: 1190, Scale_Cd: 209, Years: 100, FreezingIndex_Cd: 2151}
 	r.Frost.Winters[1].StefanDepth_m, r.Frost.Winters[1].ModifiedBerggrenDepth_m = 1.3, 1.1
 	r.Records = []results.RecordInfo{{Use: "surface air temperature", File: "station.csv", Columns: []string{"air"}, Rows: 8761,

@@ -273,7 +273,7 @@ func stepTable(r *results.Results) *block {
 	t.row("Surface layer", st.SurfaceLayer, "", "")
 	t.row("Thermal effusivity b = √(λρc) of the surface layer", "", trimZeros(sig(st.SurfaceEffusivity_Ws05_m2K, 4)), "W·s^½/(m²·K)")
 	t.row("Closed form valid until (far face of the surface layer reached)", "", trimZeros(sig(st.HalfSpaceValidFor_s, 3)), "s")
-	t.row("Heat flux 1 s after the step", sig(st.FluxAt1s_W_m2, 4), sig(st.SurfaceEffusivity_Ws05_m2K*st.Change_K/math.Sqrt(math.Pi), 4), "W/m²")
+	t.row("Heat flux 1 s after the step", sig(st.FluxAt1s_W_m2, 4), sig(st.HalfSpaceFluxAt(1), 4), "W/m²")
 	t.row("Heat flux at the end", sig(st.FluxAtEnd_W_m2, 4), sig(st.FluxAtEndHalfSpace_W_m2, 4), "W/m²")
 	t.row("Heat taken up over the duration", sig(st.HeatAbsorbed_J_m2/1000, 4), sig(st.HeatAbsorbedHalfSpace_J_m2/1000, 4), "kJ/m²")
 	for i := range t.Rows {

@@ -114,7 +114,7 @@ func TestGroundSections(t *testing.T) {
 	// As scenarios fills it: the headline index is the design index, the
 	// forcing's own index stays beside it.
 	d, forcing := 600.0, *r.Frost.FreezingIndex_Cd
-	r.Frost.DesignFreezingIndex_Cd, r.Frost.IndexSource = &d, "design"
+	r.Frost.DesignFreezingIndex_Cd, r.Frost.IndexSource = &d, results.IndexSource{Origin: results.FromDesign}
 	r.Frost.FreezingIndex_Cd, r.Frost.SurfaceFreezingIndex_Cd, r.Frost.ForcingFreezingIndex_Cd = ptr(d), ptr(0.7*d), &forcing
 	page = render(t, r, Options{})
 	fi := tableRows(t, page, "Freezing index and frost climate")

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
-	"strings"
 
 	"tempstack/climate"
 	"tempstack/ground"
@@ -203,16 +202,16 @@ func frostLayers(col solver.Column) []solver.Layer {
 //     (from to), the index of its cold time and the initial temperature
 //     as the mean (the ground's starting excess over freezing of the
 //     Neumann problem behind modified Berggren).
-func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source, why string) {
+func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source results.IndexSource, why string) {
 	f := s.Outside.Temperature
 	if f == nil {
-		return fc, "", "the surface has no temperature"
+		return fc, source, "the surface has no temperature"
 	}
 	nf := s.Outside.NFreezing
 	if m := f.Measured; m != nil {
 		ws, err := recordWinters(m)
 		if err != nil {
-			return fc, "", "the record could not be split into winters: " + err.Error()
+			return fc, source, "the record could not be split into winters: " + err.Error()
 		}
 		var complete []climate.Winter
 		for _, w := range ws {
@@ -221,7 +220,7 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 			}
 		}
 		if len(complete) == 0 {
-			return fc, "", "the record holds no complete winter year (1 July to 30 June)"
+			return fc, source, "the record holds no complete winter year (1 July to 30 June)"
 		}
 		v, _ := m.Series.Value(m.Column)
 		if g, err := climate.GumbelFit(climate.FreezingIndices(complete), climate.Moments); err == nil && len(complete) >= 3 {
@@ -234,18 +233,17 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		byIndex := append([]climate.Winter(nil), complete...)
 		sortWinters(byIndex)
 		use := 3
-		source = fmt.Sprintf("record: mean of the 3 coldest of %d complete winters", len(complete))
 		if len(complete) < 3 {
 			use = 1
-			source = fmt.Sprintf("record: the coldest of %d complete winters (%s; a design index needs 3)", len(complete), byIndex[0].Label)
 		}
+		source = results.IndexSource{Origin: results.FromRecord, Coldest: use, Winters: len(complete), ColdestLabel: byIndex[0].Label}
 		var idx, days float64
 		for _, w := range byIndex[:use] {
 			idx += w.FreezingIndex / float64(use)
 			days += w.Days / float64(use)
 		}
 		if idx <= 0 {
-			return fc, "", "no complete winter of the record falls below 0 degC"
+			return fc, source, "no complete winter of the record falls below 0 degC"
 		}
 		return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
 	}
@@ -261,16 +259,16 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		}
 		fc, err := ground.PeriodicFrostClimate(slow, climate.Year, climate.Day, nf)
 		if err != nil {
-			return fc, "", "no freezing season in the forcing: " + err.Error()
+			return fc, source, "no freezing season in the forcing: " + err.Error()
 		}
 		if fc.AirIndex <= 0 {
-			return fc, "", "the surface temperature never falls below 0 degC"
+			return fc, source, "the surface temperature never falls below 0 degC"
 		}
-		return fc, "forcing", ""
+		return fc, results.IndexSource{Origin: results.FromForcing}, ""
 	}
 	// A step, a constant or only short periods: the simulated cold period.
 	if !(to > from) {
-		return fc, "", "a step or constant surface temperature has no freezing season of its own; give analysis.simulate (its duration is the cold period) or analysis.design_freezing_index"
+		return fc, source, "a step or constant surface temperature has no freezing season of its own; give analysis.simulate (its duration is the cold period) or analysis.design_freezing_index"
 	}
 	ts, vs := sampleForcing(f, from, to)
 	var idx, cold float64
@@ -283,14 +281,14 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		}
 	}
 	if idx <= 0 {
-		return fc, "", "the surface temperature never falls below 0 degC in the simulated period"
+		return fc, source, "the surface temperature never falls below 0 degC in the simulated period"
 	}
 	initial := forcingMean(f)
 	if v := s.Analysis.Simulate; v != nil && v.Initial != nil {
 		initial = *v.Initial
 	}
 	return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
-		"simulated period", ""
+		results.IndexSource{Origin: results.FromSimulated}, ""
 }
 
 // recordWinters splits a measured air-temperature record into winters.
@@ -339,7 +337,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *results.Results, from, 
 		fr.MeanAnnualAir_C = ptr(fc.MeanAnnual)
 		fr.IndexSource = source
 		fr.ReturnPeriod = s.returnPeriod
-		if strings.Contains(source, "a design index needs 3") {
+		if source.Origin == results.FromRecord && source.Coldest < 3 {
 			r.Warnings = append(r.Warnings, "the record has fewer than 3 complete winters: the closed forms use its coldest complete winter, which understates a design freezing index (the mean of the 3 coldest of 30 winters)")
 		}
 	}
@@ -359,7 +357,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *results.Results, from, 
 				Msg: "the forcing has no freezing season to take the season length from; give design_season_length"}
 		}
 		fr.DesignFreezingIndex_Cd = ptr(*d)
-		fr.IndexSource = "design"
+		fr.IndexSource = results.IndexSource{Origin: results.FromDesign}
 		// The headline index is the one the closed forms use; the
 		// forcing's own index stays beside it.
 		if fr.FreezingIndex_Cd != nil {
@@ -600,10 +598,10 @@ func frostAnalysis(s *Scenario, col solver.Column, r *results.Results, res *solv
 	} else if *fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
 		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", *fr.MaxFrostDepth_m, col.Thickness()))
 	}
-	if s.Outside.Temperature.Measured != nil && strings.HasPrefix(fr.IndexSource, "record: mean") {
+	if s.Outside.Temperature.Measured != nil && fr.IndexSource.Origin == results.FromRecord && fr.IndexSource.Coldest >= 3 {
 		r.Warnings = append(r.Warnings, "the headline Stefan and modified Berggren depths use the record's design freezing index (mean of the 3 coldest complete winters); each winter's own closed-form depths are in the winter table")
 	}
-	if fr.IndexSource == "design" {
+	if fr.IndexSource.Origin == results.FromDesign {
 		r.Warnings = append(r.Warnings, "the Stefan and modified Berggren depths use the design freezing index; the simulated depth follows the surface temperature of the scenario")
 	}
 	return nil

@@ -9,6 +9,7 @@ import (
 
 	"tempstack/climate"
 	"tempstack/ground"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -280,7 +281,7 @@ analysis:
 	want := math.Sqrt(2 * l.Freeze.ConductivityFrozen * F * 86400 / l.Freeze.LatentHeat)
 	f := r.Frost
 	if math.Abs(*f.StefanDepth_m-want) > 1e-9 || *f.FreezingIndex_Cd != 1500 || math.Abs(*f.SurfaceFreezingIndex_Cd-F) > 1e-9 ||
-		f.ForcingFreezingIndex_Cd == nil || f.IndexSource != "design" || !(*f.ModifiedBerggrenDepth_m < *f.StefanDepth_m) {
+		f.ForcingFreezingIndex_Cd == nil || f.IndexSource.Origin != results.FromDesign || !(*f.ModifiedBerggrenDepth_m < *f.StefanDepth_m) {
 		t.Errorf("frost %+v; Stefan want %.4f m", f, want)
 	}
 }

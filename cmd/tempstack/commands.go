@@ -7,10 +7,8 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
-	"math"
 	"os"
 	"path/filepath"
-	"reflect"
 	"strings"
 	"text/tabwriter"
 	"time"
@@ -238,22 +236,21 @@ func writeOutputs(dir string, res *results.Results, opt charts.Options) ([]strin
 		data []byte
 	}
 	var files []file
-	if at := nonFinite(reflect.ValueOf(res), ""); at != "" {
+	if at := results.NonFinite(res); at != "" {
 		// results.json cannot hold NaN or infinity, and a chart of one is
 		// blank: refuse, naming the value, and write nothing.
 		return nil, cli.Exit(fmt.Sprintf("internal error: the result %s is not a finite number (NaN or infinity); "+
 			"nothing was written (please report this with the scenario file)", at), 2)
 	}
-	js, err := json.MarshalIndent(res, "", "  ")
-	if err != nil {
+	var js bytes.Buffer
+	if err := results.WriteJSON(&js, res); err != nil {
 		return nil, fmt.Errorf("encoding results.json: %w", err)
 	}
-	js = append(js, '\n')
 	var html bytes.Buffer
 	if err := charts.Write(&html, res, opt); err != nil {
 		return nil, fmt.Errorf("building report.html: %w", err)
 	}
-	files = append(files, file{"results.json", js}, file{"report.html", html.Bytes()})
+	files = append(files, file{"results.json", js.Bytes()}, file{"report.html", html.Bytes()})
 	for _, extra := range results.CSVFiles(res) {
 		files = append(files, file{extra.Name, extra.Data})
 	}
@@ -305,64 +302,6 @@ func writeFileAtomic(path string, data []byte) error {
 	}
 	syncDir(filepath.Dir(path))
 	return nil
-}
-
-// nonFinite returns the JSON path (e.g. "periodic[0].decrement_factor") of
-// the first NaN or infinite number that encoding v as JSON would meet, or
-// "" when there is none.
-func nonFinite(v reflect.Value, path string) string {
-	switch v.Kind() {
-	case reflect.Pointer, reflect.Interface:
-		if v.IsNil() {
-			return ""
-		}
-		return nonFinite(v.Elem(), path)
-	case reflect.Float32, reflect.Float64:
-		if f := v.Float(); math.IsNaN(f) || math.IsInf(f, 0) {
-			if path == "" {
-				return "(top level)"
-			}
-			return path
-		}
-	case reflect.Slice, reflect.Array:
-		for i := 0; i < v.Len(); i++ {
-			if at := nonFinite(v.Index(i), fmt.Sprintf("%s[%d]", path, i)); at != "" {
-				return at
-			}
-		}
-	case reflect.Map:
-		iter := v.MapRange()
-		for iter.Next() {
-			if at := nonFinite(iter.Value(), fmt.Sprintf("%s[%v]", path, iter.Key())); at != "" {
-				return at
-			}
-		}
-	case reflect.Struct:
-		t := v.Type()
-		for i := 0; i < t.NumField(); i++ {
-			f := t.Field(i)
-			if !f.IsExported() {
-				continue
-			}
-			name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
-			if name == "-" {
-				continue
-			}
-			if name == "" {
-				name = f.Name
-			}
-			p := name
-			if f.Anonymous && f.Tag.Get("json") == "" {
-				p = strings.TrimSuffix(path, ".")
-			} else if path != "" {
-				p = path + "." + name
-			}
-			if at := nonFinite(v.Field(i), p); at != "" {
-				return at
-			}
-		}
-	}
-	return ""
 }
 
 // createTemp creates the temporary files of writeTemp; tests replace it to

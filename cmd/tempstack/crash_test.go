@@ -351,7 +351,7 @@ func TestNonFiniteResultsAreRefused(t *testing.T) {
 	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
 		t.Errorf("files written: %v", entries)
 	}
-	if at := nonFinite(reflect.ValueOf(&results.Results{Title: "t"}), ""); at != "" {
+	if at := results.NonFinite(&results.Results{Title: "t"}); at != "" {
 		t.Errorf("a finite result reported at %s", at)
 	}
 }

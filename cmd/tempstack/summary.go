@@ -54,8 +54,8 @@ func printSummary(w io.Writer, r *results.Results) {
 			}
 		}
 		src := ""
-		if f.IndexSource != "" && f.IndexSource != "forcing" {
-			src = " (" + f.IndexSource + ")"
+		if o := f.IndexSource.Origin; o != "" && o != results.FromForcing {
+			src = " (" + f.IndexSource.String() + ")"
 		}
 		fmt.Fprintf(w, "  frost: air freezing index %s%s, %s, Stefan %s, modified Berggren %s (estimates; local codes govern)\n",
 			val("freezing_index_Cd", f.FreezingIndex_Cd, "%.0f degC day"), src, sim,

@@ -207,7 +207,7 @@ type Frost struct {
 	MeanAnnualAir_C         *float64          `json:"mean_annual_air_C"`
 	DesignFreezingIndex_Cd  *float64          `json:"design_freezing_index_Cd,omitempty"`
 	ForcingFreezingIndex_Cd *float64          `json:"forcing_freezing_index_Cd,omitempty"` // with a design index: the forcing's own air index
-	IndexSource             string            `json:"index_source"`                        // what the closed forms used: "forcing", "design", "simulated period", "record: ..."
+	IndexSource             IndexSource       `json:"index_source"`                        // what the closed forms used: "forcing", "design", "simulated period", "record: ..."
 	BerggrenLambda          *float64          `json:"berggren_lambda"`
 	BerggrenAlpha           *float64          `json:"berggren_alpha"`
 	BerggrenMu              *float64          `json:"berggren_mu"`
