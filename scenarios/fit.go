@@ -103,7 +103,7 @@ func (d *decoder) decodeSeriesColumns(o *object, cols []string) (*Measured, erro
 }
 
 // runFit fits the diffusivity to the record and fills r.Fit.
-func runFit(s *Scenario, r *results.Results) error {
+func runFit(s *run, r *results.Results) error {
 	spec := s.Analysis.Fit
 	rec, err := ground.RecordFromSeries(spec.Measured.Series, spec.Columns, spec.Depths)
 	if err != nil {

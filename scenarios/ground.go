@@ -53,7 +53,7 @@ func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 
 // runGround solves a ground column: exact periodic ground temperatures,
 // the transient simulation with freezing, and the frost analysis.
-func runGround(s *Scenario, p *runPlan, progress Progress) (*results.Results, error) {
+func runGround(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col // no inside resistance: the column ends at the bottom condition
 	c := s.construction()
 	r := &results.Results{Title: s.Title, Kind: s.Kind, ScenarioFile: s.File}
@@ -95,7 +95,7 @@ func runGround(s *Scenario, p *runPlan, progress Progress) (*results.Results, er
 // groundPeriodic fills r.Ground: the exact periodic ground temperature of
 // each analysis period at the probes (transfer matrices ending in a
 // half-space), and the depth where the annual swing falls below 0.1 K.
-func groundPeriodic(s *Scenario, col solver.Column, r *results.Results) error {
+func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	hs := col
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
@@ -202,7 +202,7 @@ func frostLayers(col solver.Column) []solver.Layer {
 //     (from to), the index of its cold time and the initial temperature
 //     as the mean (the ground's starting excess over freezing of the
 //     Neumann problem behind modified Berggren).
-func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source results.IndexSource, why string) {
+func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source results.IndexSource, why string) {
 	f := s.Outside.Temperature
 	if f == nil {
 		return fc, source, "the surface has no temperature"
@@ -323,7 +323,7 @@ func closedForms(col solver.Column, fc ground.FrostClimate) (stefan float64, b g
 // r.Frost from the forcing's (or the design) freezing index over the
 // simulated period [from, to] (to <= from: not simulated). Values it
 // cannot compute stay nil, with the reason in NotComputed.
-func frostClosedForms(s *Scenario, col solver.Column, r *results.Results, from, to float64) error {
+func frostClosedForms(s *run, col solver.Column, r *results.Results, from, to float64) error {
 	fc, source, why := frostClimate(s, from, to)
 	ok := why == ""
 	if r.Frost == nil {
@@ -417,7 +417,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *results.Results, from, 
 // frostAnalysis reads the simulated frost per winter (winter years from
 // 1 July to 30 June on the simulation's time axis, t = 0 on 1 January),
 // frozen days at each probe, and the closed forms.
-func frostAnalysis(s *Scenario, col solver.Column, r *results.Results, res *solver.Result) error {
+func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Result) error {
 	times := res.Times
 	if err := frostClosedForms(s, col, r, times[0], times[len(times)-1]); err != nil {
 		return err

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -159,7 +160,7 @@ analysis:
 		if err != nil {
 			t.Fatal(err)
 		}
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -239,7 +240,7 @@ analysis:
 		if err != nil {
 			b.Fatal(err)
 		}
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{})
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -272,7 +273,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}

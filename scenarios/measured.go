@@ -307,7 +307,7 @@ func (f *Forcing) describe() string {
 // second and third daily harmonics under the sun): exact periodic results
 // and the simulation's first guess use it; the simulation itself applies
 // the true environment at every step. Fitted reports whether it is a fit.
-func (s *Scenario) surfaceForcing() *Forcing {
+func (s *run) surfaceForcing() *Forcing {
 	sd := s.Outside
 	f := sd.Temperature
 	if f == nil || sd.isPlainHarmonic() || f.Step != nil {
@@ -354,7 +354,6 @@ func (s *Scenario) surfaceForcing() *Forcing {
 	if t1 <= t0 {
 		// No period and no record: a constant environment.
 		s.surface = &Forcing{Periodic: climate.Periodic{Mean: env(0)}, Line: f.Line}
-		s.surfaceFitted = true
 		return s.surface
 	}
 	step := math.Min(3600, (t1-t0)/96)
@@ -374,7 +373,6 @@ func (s *Scenario) surfaceForcing() *Forcing {
 		}
 	}
 	s.surface = &Forcing{Periodic: fit, Line: f.Line}
-	s.surfaceFitted = true
 	// A fit that reproduces the environment to a millikelvin is exact for
 	// all purposes (for example a steady sun on a harmonic climate).
 	s.surfaceInexact = f.Measured != nil || rms > 1e-3

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"os"
@@ -68,7 +69,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	rm, err := Run(sm, nil)
+	rm, err := Run(context.Background(), sm, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -163,7 +164,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}

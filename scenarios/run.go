@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -12,15 +13,41 @@ import (
 	"tempstack/solver"
 )
 
+// Options are the choices of a run that are not part of the scenario.
+type Options struct {
+	// Workers caps the goroutines a study uses (0: one per core). The
+	// results do not depend on it.
+	Workers int
+	// Progress, when not nil, is told how far a long simulation has come.
+	Progress Progress
+}
+
+// run is one run of a scenario: the scenario, which the run only reads,
+// and what the run learns on the way (the fitted surface forcing, the
+// depth the periodic wave reaches, a record's return-period fit).
+type run struct {
+	*Scenario
+	ctx  context.Context
+	opts Options
+
+	surface        *Forcing // effective surface forcing, fitted once (see surfaceForcing)
+	surfaceInexact bool     // the fit leaves a residual: the periodic start is only a guess
+	waveDepth      float64  // ground: deepest depth a periodic swing of 0.1 K reaches, m
+	returnPeriod   *results.ReturnPeriodIndex
+}
+
 // Run solves a decoded scenario: the steady and exact periodic analyses
 // (and, in later stages, the transient simulation and the frost analysis)
 // and returns the collected results in the units of the output contract.
 //
-// progress, when not nil, is told how far a long simulation has come.
-//
 // Run first makes every check that Check makes (the plan), so a scenario
-// is refused before anything is solved.
-func Run(s *Scenario, progress Progress) (*results.Results, error) {
+// is refused before anything is solved. It does not change s: one decoded
+// scenario may be run any number of times, also at once. When ctx is
+// cancelled, Run stops at the next case of a study or before the next
+// simulation and returns ctx.Err().
+func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, error) {
+	s := &run{Scenario: sc, ctx: ctx, opts: opts}
+	progress := opts.Progress
 	if s.Kind != Wall && s.Kind != Ground {
 		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 	}
@@ -28,7 +55,7 @@ func Run(s *Scenario, progress Progress) (*results.Results, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := planStudy(s); err != nil {
+	if err := planStudy(s.Scenario); err != nil {
 		return nil, err
 	}
 	var r *results.Results
@@ -41,7 +68,7 @@ func Run(s *Scenario, progress Progress) (*results.Results, error) {
 		return nil, err
 	}
 	r.SimulationSkipped = p.skipped
-	r.Cautions = results.CautionsWith(r, recordWarnings(s, r))
+	r.Cautions = results.CautionsWith(r, recordWarnings(s.Scenario, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()
 	if s.Analysis.Fit != nil {
@@ -52,7 +79,7 @@ func Run(s *Scenario, progress Progress) (*results.Results, error) {
 	if s.Study == nil {
 		return r, nil
 	}
-	if err := runStudy(s, r, s.Workers); err != nil {
+	if err := runStudy(s, r); err != nil {
 		return nil, err
 	}
 	return r, nil
@@ -68,7 +95,7 @@ func (s *Scenario) column() solver.Column {
 	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
 }
 
-func runWall(s *Scenario, p *runPlan, progress Progress) (*results.Results, error) {
+func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col
 	c := s.construction()
 	r := &results.Results{
@@ -102,7 +129,7 @@ func runWall(s *Scenario, p *runPlan, progress Progress) (*results.Results, erro
 		if err != nil {
 			return nil, err
 		}
-		periodicChecks(s, r, res)
+		periodicChecks(s.Scenario, r, res)
 	}
 	if s.Analysis.StepResponse != nil {
 		if err := stepResponse(s, col, r); err != nil {
@@ -217,7 +244,7 @@ func forcingHarmonics(out, in *Forcing) harmonicSet {
 // wallSeries fills the chart series of a wall: one cycle of the first
 // analysis period, the temperature envelope across the construction and
 // the frequency response.
-func wallSeries(s *Scenario, col solver.Column, r *results.Results) error {
+func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	ser := &r.Series
 	P := s.Analysis.Periods[0]
 	out := s.surfaceForcing()
@@ -234,7 +261,7 @@ func wallSeries(s *Scenario, col solver.Column, r *results.Results) error {
 
 	// One cycle of the first analysis period.
 	zo, zi := phasorAt(out, P), phasorAt(s.Inside.Temperature, P)
-	if s.surfaceFitted {
+	if s.surface != nil { // the forcing was fitted
 		why := "the sol-air temperature (the irradiance counts as zero when its harmonics go negative at night)"
 		if s.Outside.Temperature.Measured != nil {
 			why = "the measured outside temperature"

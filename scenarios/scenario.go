@@ -47,18 +47,11 @@ type Scenario struct {
 
 	// Study holds variants, a sweep, a target or uncertainty; nil: none.
 	Study *StudySpec
-	// Workers caps the goroutines a study uses (0: one per core).
-	Workers int
 
 	root  *yaml.Node   // the decoded file, for the study's cases
 	fsys  fs.FS        // where the file's series are read
 	cache *seriesCache // records read, shared with the study's cases
 
-	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
-	surfaceFitted  bool
-	surfaceInexact bool                       // the fit leaves a residual: the periodic start is only a guess
-	waveDepth      float64                    // ground: deepest depth a periodic swing of 0.1 K reaches, m
-	returnPeriod   *results.ReturnPeriodIndex // ground from a record: Gumbel fit of its winters
 }
 
 // Side is the boundary on one face of the column.

@@ -22,7 +22,7 @@ type Progress func(stage string, frac float64)
 const maxSamples = 20000
 
 // simDefaults fills the unset simulation settings of s from the forcing
-// and the analysis periods.
+// and the analysis periods. The decoder calls it, once.
 func simDefaults(s *Scenario) {
 	sim := s.Analysis.Simulate
 	P := s.Analysis.Periods[0]
@@ -176,7 +176,7 @@ func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 // Where the mean is below freezing (permafrost) the cell starts frozen, at
 // no more than the freezing point (a summer talik in the linear solution
 // would otherwise take decades to refreeze).
-func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
+func initialState(s *run, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
 	xs := mesh.Centers
 	c := col
 	c.HalfSpace = false
@@ -238,9 +238,12 @@ func forcingMean(f *Forcing) float64 {
 
 // simulate runs the transient solution of s and fills r.Simulation and the
 // simulated series.
-func simulate(s *Scenario, col solver.Column, r *results.Results, progress Progress) (*solver.Result, error) {
+func simulate(s *run, col solver.Column, r *results.Results, progress Progress) (*solver.Result, error) {
+	if err := s.ctx.Err(); err != nil {
+		return nil, err
+	}
 	sim := s.Analysis.Simulate
-	mesh, probes, err := planSimulation(s, col)
+	mesh, probes, err := planSimulation(s.Scenario, col)
 	if err != nil {
 		return nil, err
 	}
@@ -271,12 +274,12 @@ func simulate(s *Scenario, col solver.Column, r *results.Results, progress Progr
 			// Latent heat makes the problem non-linear: the linear periodic
 			// solution is only a first guess. Repeat the longest forcing
 			// period until one cycle repeats the last.
-			period := longestForcingPeriod(s)
+			period := longestForcingPeriod(s.Scenario)
 			if period > 0 {
 				if progress != nil {
 					progress("spin-up", 0)
 				}
-				settled, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
+				settled, err = spinUp(s.Scenario, p, period, sim.MaxSpinUpCycles, progress)
 				if err != nil {
 					return nil, &Error{File: s.File, Msg: "spin-up: " + err.Error()}
 				}

@@ -15,9 +15,9 @@ import (
 // Closed form [Incropera et al., Fundamentals of Heat and Mass Transfer,
 // section 5.7, eq. 5.58]: q(t) = b dT / sqrt(pi t), b = sqrt(lambda rho c),
 // so the heat taken up is Q(t) = 2 b dT sqrt(t / pi).
-func stepResponse(s *Scenario, col solver.Column, r *results.Results) error {
+func stepResponse(s *run, col solver.Column, r *results.Results) error {
 	st := s.Analysis.StepResponse
-	c, first, mesh, err := stepMesh(s, col)
+	c, first, mesh, err := stepMesh(s.Scenario, col)
 	if err != nil {
 		return err
 	}
@@ -146,7 +146,7 @@ func reversed(col solver.Column) solver.Column {
 
 // surfaceMean is the mean temperature of the outside or inside surface
 // (degC) in the steady state of the mean forcings.
-func surfaceMean(s *Scenario, col solver.Column, inside bool) (float64, error) {
+func surfaceMean(s *run, col solver.Column, inside bool) (float64, error) {
 	c := col
 	c.HalfSpace = false
 	x := 0.0

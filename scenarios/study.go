@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -484,13 +485,17 @@ func (d *decoder) decodeUncertainty(o *object) (*UncertaintySpec, error) {
 // studyCase is one set of replacements of the base file.
 type studyCase []setSpec
 
-// runCase decodes the base file with the replacements and runs it.
-func runCase(s *Scenario, c studyCase) (*results.Results, error) {
-	cs, err := decodeCase(s, c)
+// runCase decodes the base file with the replacements and runs it; it
+// returns the run's context error once that is cancelled.
+func runCase(s *run, c studyCase) (*results.Results, error) {
+	if err := s.ctx.Err(); err != nil {
+		return nil, err
+	}
+	cs, err := decodeCase(s.Scenario, c)
 	if err != nil {
 		return nil, err
 	}
-	return Run(cs, nil)
+	return Run(s.ctx, cs, Options{})
 }
 
 // decodeCase decodes the base file with the replacements.
@@ -554,8 +559,10 @@ func checkStudy(s *Scenario) error {
 }
 
 // parallel runs fn(0..n-1) on workers goroutines; results land by index,
-// so the outcome does not depend on scheduling.
-func parallel(n, workers int, fn func(i int)) {
+// so the outcome does not depend on scheduling. Once ctx is cancelled no
+// further index is handed out (those running finish) and parallel returns
+// ctx.Err().
+func parallel(ctx context.Context, n, workers int, fn func(i int)) error {
 	if workers < 1 {
 		workers = runtime.GOMAXPROCS(0)
 	}
@@ -570,22 +577,29 @@ func parallel(n, workers int, fn func(i int)) {
 			}
 		}()
 	}
+feed:
 	for i := 0; i < n; i++ {
-		next <- i
+		select {
+		case next <- i:
+		case <-ctx.Done():
+			break feed
+		}
 	}
 	close(next)
 	wg.Wait()
+	return ctx.Err()
 }
 
 // runStudy runs every case the scenario's study asks for and adds the
 // results to r. workers caps the goroutines (0: one per core).
-func runStudy(s *Scenario, r *results.Results, workers int) error {
+func runStudy(s *run, r *results.Results) error {
+	workers := s.opts.Workers
 	st := s.Study
 	if len(st.Variants) > 0 {
 		vr := make([]results.VariantResult, len(st.Variants)+1)
 		errs := make([]error, len(st.Variants))
 		vr[0] = variantResult("base", nil, r)
-		parallel(len(st.Variants), workers, func(i int) {
+		if err := parallel(s.ctx, len(st.Variants), workers, func(i int) {
 			v := st.Variants[i]
 			res, err := runCase(s, v.Sets)
 			if err != nil {
@@ -597,24 +611,28 @@ func runStudy(s *Scenario, r *results.Results, workers int) error {
 				changes = append(changes, set.Path+" = "+nodeText(set.Value))
 			}
 			vr[i+1] = variantResult(v.Name, changes, res)
-		})
+		}); err != nil {
+			return err
+		}
 		if err := errors.Join(errs...); err != nil {
 			return firstErr(errs)
 		}
 		r.Variants = vr
 	}
 	if sw := st.Sweep; sw != nil {
-		res := &results.SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s, sw.Parameter), Unit: sw.Unit}
+		res := &results.SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s.Scenario, sw.Parameter), Unit: sw.Unit}
 		points := make([]results.SweepPoint, len(sw.Values))
 		errs := make([]error, len(sw.Values))
-		parallel(len(sw.Values), workers, func(i int) {
+		if err := parallel(s.ctx, len(sw.Values), workers, func(i int) {
 			rr, err := runCase(s, studyCase{{Path: sw.Parameter, Value: scalarAt(sw.Values[i], sw.Line, 1), Line: sw.Line}})
 			if err != nil {
 				errs[i] = err
 				return
 			}
 			points[i] = results.SweepPoint{Value: sw.Numbers[i], Text: sw.Values[i], Quantities: summarize(rr)}
-		})
+		}); err != nil {
+			return err
+		}
 		if err := firstErr(errs); err != nil {
 			return err
 		}
@@ -673,7 +691,7 @@ func variantResult(name string, changes []string, r *results.Results) results.Va
 // bisects between it and its failing neighbour down to the tolerance: a
 // bracketing search, robust for any continuous quantity, that returns a
 // value meeting the goal whenever one exists on the grid.
-func seekTarget(s *Scenario, tg *TargetSpec, workers int) (*results.TargetResult, error) {
+func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, error) {
 	eval := func(x float64) (float64, error) {
 		rr, err := runCase(s, studyCase{{Path: tg.Parameter, Value: scalarAt(joinNumber(x, tg.Unit), tg.Line, 1), Line: tg.Line}})
 		if err != nil {
@@ -698,11 +716,13 @@ func seekTarget(s *Scenario, tg *TargetSpec, workers int) (*results.TargetResult
 	for i := range xs {
 		xs[i] = tg.From + (tg.To-tg.From)*float64(i)/float64(n-1)
 	}
-	parallel(n, workers, func(i int) { vs[i], errs[i] = eval(xs[i]) })
+	if err := parallel(s.ctx, n, workers, func(i int) { vs[i], errs[i] = eval(xs[i]) }); err != nil {
+		return nil, err
+	}
 	if err := firstErr(errs); err != nil {
 		return nil, err
 	}
-	res := &results.TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s, tg.Parameter), Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
+	res := &results.TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s.Scenario, tg.Parameter), Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
 		From: tg.From, To: tg.To, Evaluations: n}
 	for i := range xs {
 		res.Scan = append(res.Scan, results.TargetPoint{Value: xs[i], Quantity: vs[i], Meets: meets(vs[i])})
@@ -792,7 +812,7 @@ func margin(tg *TargetSpec, v float64) float64 {
 // reports percentiles of every quantity. Samples the decoder refuses (for
 // example a negative thickness drawn from a wide normal) are counted and
 // left out.
-func monteCarlo(s *Scenario, u *UncertaintySpec, workers int) (*results.UncertaintyResult, error) {
+func monteCarlo(s *run, u *UncertaintySpec, workers int) (*results.UncertaintyResult, error) {
 	rng := rand.New(rand.NewPCG(u.Seed, 0x7e3b5d1a))
 	cases := make([]studyCase, u.Samples)
 	draws := make([][]float64, u.Samples)
@@ -808,14 +828,16 @@ func monteCarlo(s *Scenario, u *UncertaintySpec, workers int) (*results.Uncertai
 	}
 	sums := make([]results.Summary, u.Samples)
 	errs := make([]error, u.Samples)
-	parallel(u.Samples, workers, func(i int) {
+	if err := parallel(s.ctx, u.Samples, workers, func(i int) {
 		rr, err := runCase(s, cases[i])
 		if err != nil {
 			errs[i] = err
 			return
 		}
 		sums[i] = summarize(rr)
-	})
+	}); err != nil {
+		return nil, err
+	}
 	res := &results.UncertaintyResult{Samples: u.Samples, Seed: u.Seed}
 	for _, v := range u.Vary {
 		d := "uniform"

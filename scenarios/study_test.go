@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -100,8 +101,7 @@ sweep:
 		if err != nil {
 			t.Fatal(err)
 		}
-		s.Workers = workers
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{Workers: workers})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -263,7 +263,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -308,8 +308,7 @@ sweep:
 				if err != nil {
 					b.Fatal(err)
 				}
-				s.Workers = w
-				if _, err := Run(s, nil); err != nil {
+				if _, err := Run(context.Background(), s, Options{Workers: w}); err != nil {
 					b.Fatal(err)
 				}
 			}

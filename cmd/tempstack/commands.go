@@ -2,14 +2,17 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
 	"io/fs"
 	"os"
+	"os/signal"
 	"path/filepath"
 	"strings"
+	"syscall"
 	"text/tabwriter"
 	"time"
 
@@ -66,6 +69,10 @@ func asUserError(err error) error {
 	return err
 }
 
+// signalsWatched, when set (by tests), is called once the run command
+// watches for Ctrl-C.
+var signalsWatched func()
+
 func exampleFlag() cli.Flag {
 	return &cli.StringFlag{Name: "example", Usage: "solve the embedded demo `NAME` (see `tempstack examples`)"}
 }
@@ -95,7 +102,17 @@ func runCommand() *cli.Command {
 			if err := checkOutDir(dir, c.Bool("force")); err != nil {
 				return err
 			}
-			res, err := scenarios.Run(s, progressFor(c.App.ErrWriter))
+			// Ctrl-C (or a termination request) cancels the run: a study
+			// stops at its next case and nothing is written.
+			ctx, stop := signal.NotifyContext(c.Context, os.Interrupt, syscall.SIGTERM)
+			defer stop()
+			if signalsWatched != nil {
+				signalsWatched()
+			}
+			res, err := scenarios.Run(ctx, s, scenarios.Options{Progress: progressFor(c.App.ErrWriter)})
+			if errors.Is(err, context.Canceled) {
+				return cli.Exit("interrupted: the run was stopped and nothing was written", 130)
+			}
 			if err != nil {
 				return asUserError(err)
 			}
