@@ -90,37 +90,63 @@ func computeIndices(file string, c *cli.Context) (*climate.RecordIndices, error)
 		}
 		return nil, userErr("cannot read %s: %v", file, err)
 	}
-	var dec rune
+	opt, dec, maxGap, err := indicesFlags(c)
+	if err != nil {
+		return nil, err
+	}
+	o, col, err := indicesColumns(c, file, data, dec)
+	if err != nil {
+		return nil, err
+	}
+	s, maxGap, err := readIndicesRecord(data, file, o, maxGap)
+	if err != nil {
+		return nil, err
+	}
+	rep, err := climate.AnalyzeRecord(s, col, opt)
+	if err != nil {
+		return nil, userError{err}
+	}
+	rep.File, rep.Unit, rep.MaxGap_h = file, o.Unit, maxGap.Hours()
+	return rep, nil
+}
+
+// indicesFlags checks the numeric flags of `indices`: the analysis
+// options, the decimal mark and the maximum gap (0: not given).
+func indicesFlags(c *cli.Context) (opt climate.IndicesOptions, dec rune, maxGap time.Duration, err error) {
 	switch d := c.String("decimal"); d {
 	case ".":
 		dec = '.'
 	case ",":
 		dec = ','
 	default:
-		return nil, userErr("--decimal must be . or , (got %q)", d)
+		return opt, 0, 0, userErr("--decimal must be . or , (got %q)", d)
 	}
 	method, err := climate.ParseFitMethod(c.String("method"))
 	if err != nil {
-		return nil, userErr("--method: %s", strings.TrimPrefix(err.Error(), "climate: "))
+		return opt, 0, 0, userErr("--method: %s", strings.TrimPrefix(err.Error(), "climate: "))
 	}
 	T := c.Float64("return-period")
 	if !(T > 1) || math.IsInf(T, 0) {
-		return nil, userErr("--return-period must be a number of years above 1, got %g", T)
+		return opt, 0, 0, userErr("--return-period must be a number of years above 1, got %g", T)
 	}
 	thr := c.Float64("threshold")
 	if math.IsNaN(thr) || math.IsInf(thr, 0) {
-		return nil, userErr("--threshold must be a finite temperature in degC")
+		return opt, 0, 0, userErr("--threshold must be a finite temperature in degC")
 	}
-	var maxGap time.Duration
 	if c.IsSet("max-gap") {
 		if maxGap, err = parseGap(c.String("max-gap")); err != nil {
-			return nil, userErr("--max-gap: %v", err)
+			return opt, 0, 0, userErr("--max-gap: %v", err)
 		}
 	}
+	return climate.IndicesOptions{Threshold: thr, Southern: c.Bool("southern"), ReturnPeriod: T, Method: method}, dec, maxGap, nil
+}
 
+// indicesColumns chooses the time and temperature columns from the flags
+// and the file's header.
+func indicesColumns(c *cli.Context, file string, data []byte, dec rune) (climate.CSVOptions, string, error) {
 	header := climate.CSVHeader(data, dec)
 	if header == nil {
-		return nil, userErr("%s: no header line (the file is empty or holds only comments)", file)
+		return climate.CSVOptions{}, "", userErr("%s: no header line (the file is empty or holds only comments)", file)
 	}
 	o := climate.CSVOptions{
 		TimeColumn: c.String("time-column"),
@@ -130,11 +156,11 @@ func computeIndices(file string, c *cli.Context) (*climate.RecordIndices, error)
 		Unit:       c.String("unit"),
 	}
 	if o.TimeColumn != "" && o.DateColumn != "" {
-		return nil, userErr("give either --time-column or --date-column, not both")
+		return o, "", userErr("give either --time-column or --date-column, not both")
 	}
 	if o.TimeColumn == "" && o.DateColumn == "" {
 		if !contains(header, "time") {
-			return nil, userErr("%s: no column \"time\"; name the time column with --time-column (or --date-column) (header: %s)", file, quoteNames(header))
+			return o, "", userErr("%s: no column \"time\"; name the time column with --time-column (or --date-column) (header: %s)", file, quoteNames(header))
 		}
 		o.TimeColumn = "time"
 	}
@@ -147,17 +173,21 @@ func computeIndices(file string, c *cli.Context) (*climate.RecordIndices, error)
 			}
 		}
 		if len(cand) != 1 {
-			return nil, userErr("%s: %d value columns (%s): choose the temperature with --column", file, len(cand), quoteNames(cand))
+			return o, "", userErr("%s: %d value columns (%s): choose the temperature with --column", file, len(cand), quoteNames(cand))
 		}
 		col = cand[0]
 	}
 	o.Columns = []string{col}
+	return o, col, nil
+}
 
-	// Read. Without --max-gap, a permissive first pass learns the record
-	// spacing; the limit is then 6 h (climate.DefaultMaxGap) or twice the
-	// typical spacing, whichever is longer, so that a file of daily
-	// values reads and one missing record is bridged. A record without
-	// any hole reads the same under every limit and is not read again.
+// readIndicesRecord reads the record. Without a maximum gap (0), a
+// permissive first pass learns the record spacing; the limit is then 6 h
+// (climate.DefaultMaxGap) or twice the typical spacing, whichever is
+// longer, so that a file of daily values reads and one missing record is
+// bridged. A record without any hole reads the same under every limit and
+// is not read again. It returns the series and the limit used.
+func readIndicesRecord(data []byte, file string, o climate.CSVOptions, maxGap time.Duration) (*climate.Series, time.Duration, error) {
 	read := func(gap time.Duration) (*climate.Series, error) {
 		o.MaxGap = gap
 		s, err := climate.ReadCSV(bytes.NewReader(data), file, o)
@@ -170,30 +200,19 @@ func computeIndices(file string, c *cli.Context) (*climate.RecordIndices, error)
 		}
 		return s, nil
 	}
-	var s *climate.Series
 	if maxGap > 0 {
-		if s, err = read(maxGap); err != nil {
-			return nil, err
-		}
-	} else {
-		if s, err = read(time.Duration(math.MaxInt64)); err != nil {
-			return nil, err
-		}
-		maxGap = max(climate.DefaultMaxGap, 2*time.Duration(s.Step*float64(time.Second)))
-		if len(s.Bridged) > 0 {
-			if s, err = read(maxGap); err != nil {
-				return nil, err
-			}
-		}
+		s, err := read(maxGap)
+		return s, maxGap, err
 	}
-
-	rep, err := climate.AnalyzeRecord(s, col, climate.IndicesOptions{
-		Threshold: thr, Southern: c.Bool("southern"), ReturnPeriod: T, Method: method})
+	s, err := read(time.Duration(math.MaxInt64))
 	if err != nil {
-		return nil, userError{err}
+		return nil, 0, err
 	}
-	rep.File, rep.Unit, rep.MaxGap_h = file, o.Unit, maxGap.Hours()
-	return rep, nil
+	maxGap = max(climate.DefaultMaxGap, 2*time.Duration(s.Step*float64(time.Second)))
+	if len(s.Bridged) > 0 {
+		s, err = read(maxGap)
+	}
+	return s, maxGap, err
 }
 
 // printIndices prints the report as a table and summary lines.
