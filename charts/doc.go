@@ -1,5 +1,5 @@
 // Package charts turns the finished results of one tempstack run
-// (scenarios.Results) into a single self-contained HTML report: title block,
+// (results.Results) into a single self-contained HTML report: title block,
 // plain-words summary, tables, interactive charts, methods and cautions.
 //
 // The report never loads anything from the network. The charting library

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // Tables of the ground report: the frost depth three ways, the freezing
@@ -22,24 +22,22 @@ func capitalise(s string) string {
 
 // indexUsed returns the surface freezing index (°C·d) the closed forms
 // used (nil when there is none) and a phrase naming where it came from.
-func indexUsed(f *scenarios.Frost) (*float64, string) {
-	n := f.FreezingNFactor
-	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
-		v := n * *f.DesignFreezingIndex_Cd
-		return &v, "design air index"
+func indexUsed(f *results.Frost) (*float64, string) {
+	idx := f.SurfaceIndexUsed()
+	switch {
+	case f.IndexSource.Origin == results.FromDesign && f.DesignFreezingIndex_Cd != nil:
+		return idx, "design air index"
+	case f.IndexSource.Origin == results.FromRecord:
+		return idx, "air index of the record, " + f.IndexSource.Detail()
+	case f.IndexSource.Origin == results.FromSimulated:
+		return idx, "air index of the simulated cold period"
 	}
-	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
-		return f.SurfaceFreezingIndex_Cd, "air index of the record, " + strings.TrimSpace(rec)
-	}
-	if f.IndexSource == "simulated period" {
-		return f.SurfaceFreezingIndex_Cd, "air index of the simulated cold period"
-	}
-	return f.SurfaceFreezingIndex_Cd, "air index of the forcing"
+	return idx, "air index of the forcing"
 }
 
 // notComputed is the text shown for a frost value under the JSON key
 // that was not computed.
-func notComputed(f *scenarios.Frost, key string) string {
+func notComputed(f *results.Frost, key string) string {
 	if why := f.NotComputed[key]; why != "" {
 		return "not computed: " + why
 	}
@@ -47,7 +45,7 @@ func notComputed(f *scenarios.Frost, key string) string {
 }
 
 // optText formats *v with format, or says why it was not computed.
-func optText(f *scenarios.Frost, key string, v *float64, format func(float64) string) string {
+func optText(f *results.Frost, key string, v *float64, format func(float64) string) string {
 	if v == nil || !finite(*v) {
 		return notComputed(f, key)
 	}
@@ -58,15 +56,15 @@ func optText(f *scenarios.Frost, key string, v *float64, format func(float64) st
 func depth2(v float64) string { return fixed(v, 2) }
 
 // airIndexLabel names the air freezing index f.FreezingIndex_Cd holds.
-func airIndexLabel(f *scenarios.Frost) string {
-	if f.IndexSource == "design" {
+func airIndexLabel(f *results.Frost) string {
+	if f.IndexSource.Origin == results.FromDesign {
 		return "Design air freezing index (given in the scenario)"
 	}
-	if f.IndexSource == "simulated period" {
+	if f.IndexSource.Origin == results.FromSimulated {
 		return "Air freezing index of the simulated cold period"
 	}
-	if rec, ok := strings.CutPrefix(f.IndexSource, "record:"); ok {
-		return "Air freezing index of the record (" + strings.TrimSpace(rec) + ")"
+	if f.IndexSource.Origin == results.FromRecord {
+		return "Air freezing index of the record (" + f.IndexSource.Detail() + ")"
 	}
 	return "Air freezing index of the forcing (one winter)"
 }
@@ -76,7 +74,7 @@ func cd(v float64) string { return fixed(v, 0) + " °C·d" }
 
 // frostCompareTable sets the simulated frost depth beside the Stefan and
 // modified Berggren estimates, each with the freezing index it used.
-func frostCompareTable(r *scenarios.Results) *block {
+func frostCompareTable(r *results.Results) *block {
 	f := r.Frost
 	if f == nil {
 		return nil
@@ -113,7 +111,7 @@ func frostCompareTable(r *scenarios.Results) *block {
 	t.row("Modified Berggren (closed form)", berg, bb)
 	t.Notes = append(t.Notes,
 		"Stefan neglects the heat stored in the soil above freezing and so gives a deeper front than modified Berggren, which reduces the Stefan depth by the coefficient λ for that heat. The simulation follows the whole temperature history through the layers. All three are estimates for planning only, and none is a safe upper bound; see the cautions.")
-	if f.IndexSource == "design" {
+	if f.IndexSource.Origin == results.FromDesign {
 		t.Notes = append(t.Notes, "The closed forms use the design freezing index; the simulation follows the surface temperature of the scenario, so the two need not agree.")
 	}
 	return &block{Table: t}
@@ -121,7 +119,7 @@ func frostCompareTable(r *scenarios.Results) *block {
 
 // headlineWinter returns the index of the winter that gives the headline
 // frost depth (the deepest of the complete, settled winters), or -1.
-func headlineWinter(f *scenarios.Frost) int {
+func headlineWinter(f *results.Frost) int {
 	if f.MaxFrostDepth_m == nil || f.HeadlineWinter == "" {
 		return -1
 	}
@@ -134,7 +132,7 @@ func headlineWinter(f *scenarios.Frost) int {
 }
 
 // countHeadline counts the complete, settled winters.
-func countHeadline(f *scenarios.Frost) int {
+func countHeadline(f *results.Frost) int {
 	n := 0
 	for _, w := range f.Winters {
 		if w.Complete && w.Settled {
@@ -146,7 +144,7 @@ func countHeadline(f *scenarios.Frost) int {
 
 // freezingIndexTable lists the freezing index and the quantities the
 // closed forms take from the climate.
-func freezingIndexTable(r *scenarios.Results) *block {
+func freezingIndexTable(r *results.Results) *block {
 	f := r.Frost
 	if f == nil {
 		return nil
@@ -169,7 +167,7 @@ func freezingIndexTable(r *scenarios.Results) *block {
 	}
 	t.row("Length of the freezing season", optText(f, "season_length_d", f.SeasonLength_d, func(v float64) string { return fixed(v, 0) + " d" }))
 	meanLabel := "Mean annual air temperature"
-	if f.IndexSource == "simulated period" {
+	if f.IndexSource.Origin == results.FromSimulated {
 		meanLabel = "Initial temperature (the mean of modified Berggren)"
 	}
 	t.row(meanLabel, optText(f, "mean_annual_air_C", f.MeanAnnualAir_C, degC))
@@ -178,7 +176,7 @@ func freezingIndexTable(r *scenarios.Results) *block {
 }
 
 // winterTable lists the simulated frost of each winter year.
-func winterTable(r *scenarios.Results) *block {
+func winterTable(r *results.Results) *block {
 	f := r.Frost
 	if f == nil || len(f.Winters) == 0 {
 		return nil
@@ -266,7 +264,7 @@ func containsDepth(v []float64, z float64) bool {
 
 // groundSummaryTable gives the exact periodic ground-temperature summary:
 // surface mean and swing, damping depth, whether the column is deep enough.
-func groundSummaryTable(r *scenarios.Results) *block {
+func groundSummaryTable(r *results.Results) *block {
 	g := r.Ground
 	if g == nil {
 		return nil
@@ -288,7 +286,7 @@ func groundSummaryTable(r *scenarios.Results) *block {
 
 // groundPeriodTables lists, for each period, the exact periodic
 // temperature at each probe: amplitude, lag behind the surface and range.
-func groundPeriodTables(r *scenarios.Results) []*block {
+func groundPeriodTables(r *results.Results) []*block {
 	g := r.Ground
 	if g == nil {
 		return nil
@@ -327,7 +325,7 @@ func groundPeriodTables(r *scenarios.Results) []*block {
 
 // frostSummary is the frost sentence of the report summary; sim tells
 // whether a transient simulation ran.
-func frostSummary(f *scenarios.Frost, sim bool) string {
+func frostSummary(f *results.Frost, sim bool) string {
 	idx, from := indexUsed(f)
 	var s string
 	switch {
@@ -345,10 +343,10 @@ func frostSummary(f *scenarios.Frost, sim bool) string {
 	}
 	if f.FreezingIndex_Cd != nil {
 		per := " per winter"
-		if f.IndexSource == "simulated period" {
+		if f.IndexSource.Origin == results.FromSimulated {
 			per = " over the simulated cold period"
-		} else if strings.HasPrefix(f.IndexSource, "record:") {
-			per = " (" + strings.TrimSpace(strings.TrimPrefix(f.IndexSource, "record:")) + ")"
+		} else if f.IndexSource.Origin == results.FromRecord {
+			per = " (" + f.IndexSource.Detail() + ")"
 		}
 		s += fmt.Sprintf(", with an air freezing index of %s%s.", cd(*f.FreezingIndex_Cd), per)
 	} else {
@@ -363,7 +361,7 @@ func frostSummary(f *scenarios.Frost, sim bool) string {
 	default:
 		s += " There is no Stefan or modified Berggren estimate (" + notComputed(f, "stefan_depth_m") + ")."
 	}
-	if f.IndexSource == "design" && f.DesignFreezingIndex_Cd != nil {
+	if f.IndexSource.Origin == results.FromDesign && f.DesignFreezingIndex_Cd != nil {
 		s += fmt.Sprintf(" The closed forms use the design air freezing index of %s.", cd(*f.DesignFreezingIndex_Cd))
 	}
 	return s

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // inputsTable is the "Assumptions and inputs" table: everything the
@@ -12,13 +12,13 @@ import (
 // the forcing as far as the results carry it, the analysis and the
 // simulation settings), so that a reader can see what the numbers rest
 // on without the scenario file.
-func inputsTable(r *scenarios.Results) *block { return inputsBlocks(r)[0] }
+func inputsTable(r *results.Results) *block { return inputsBlocks(r)[0] }
 
 // inputsBlocks is the inputs table followed, when a measured series had
 // gaps, by the table of the gaps bridged.
-func inputsBlocks(r *scenarios.Results) []*block {
+func inputsBlocks(r *results.Results) []*block {
 	var gaps *block
-	ground := r.Kind == "ground"
+	ground := r.Kind == results.Ground
 	t := newTable("Assumptions and inputs of this run", []string{"Input", "Value"}, "text", "text")
 	res := func(v float64) string {
 		if v == 0 {
@@ -40,7 +40,7 @@ func inputsBlocks(r *scenarios.Results) []*block {
 	// Forcing, as far as the results carry it.
 	if g := r.Ground; ground && g != nil {
 		if f := r.Frost; f != nil {
-			if f.MeanAnnualAir_C != nil && f.IndexSource != "simulated period" {
+			if f.MeanAnnualAir_C != nil && f.IndexSource.Origin != results.FromSimulated {
 				t.row("Mean annual air temperature", degC(*f.MeanAnnualAir_C))
 			}
 		}
@@ -56,12 +56,12 @@ func inputsBlocks(r *scenarios.Results) []*block {
 		t.row("Depth of the column", fixed(g.ColumnDepth_m, 2)+" m")
 	} else if !ground {
 		c := r.Series
-		if len(c.CycleOutsideAir_C) > 0 && len(r.Periodic) > 0 {
+		if len(c.Cycle.OutsideAir_C) > 0 && len(r.Periodic) > 0 {
 			t.row("Outside environment temperature over the "+periodLabel(r.Periodic[0].Period_h)+" cycle",
-				rangeText(c.CycleTime_h, c.CycleOutsideAir_C))
+				rangeText(c.Cycle.Time_h, c.Cycle.OutsideAir_C))
 		}
-		if len(c.CycleInsideAir_C) > 0 {
-			t.row("Inside environment temperature over the same cycle", rangeText(c.CycleTime_h, c.CycleInsideAir_C))
+		if len(c.Cycle.InsideAir_C) > 0 {
+			t.row("Inside environment temperature over the same cycle", rangeText(c.Cycle.Time_h, c.Cycle.InsideAir_C))
 		}
 	}
 	gaps = recordRows(t, r)

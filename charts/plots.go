@@ -7,7 +7,7 @@ import (
 	ec "github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // Every chart below is built with go-echarts (ec.Line plus, where a
@@ -51,8 +51,8 @@ type sideNames struct {
 	env, outSurf, inSurf, inAir, flux string
 }
 
-func sides(kind string) sideNames {
-	if kind == "ground" {
+func sides(kind results.Kind) sideNames {
+	if kind == results.Ground {
 		return sideNames{"Surface environment", "Ground surface", "Bottom of the column", "Below the column", "Heat flux at the bottom (+ = downward)"}
 	}
 	return sideNames{"Outside environment", "Outside surface", "Inside surface", "Inside air", "Heat flux into the room"}
@@ -60,12 +60,12 @@ func sides(kind string) sideNames {
 
 // cycleChart: one period of the exact periodic steady state, temperatures
 // on the left axis and the inside heat flux on the right axis.
-func cycleChart(r *scenarios.Results) (*chartSpec, error) {
+func cycleChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.CycleTime_h) == 0 {
+	if len(s.Cycle.Time_h) == 0 {
 		return nil, nil
 	}
-	span := maxOf(s.CycleTime_h)
+	span := maxOf(s.Cycle.Time_h)
 	f, xu, xl := timeAxis(span)
 	period := span
 	if len(r.Periodic) > 0 && finite(r.Periodic[0].Period_h) && r.Periodic[0].Period_h > 0 {
@@ -80,14 +80,14 @@ func cycleChart(r *scenarios.Results) (*chartSpec, error) {
 	flux := valueAxisY("Heat flux (W/m²)", "", false)
 	flux.SplitLine = &opts.SplitLine{Show: opts.Bool(false)}
 	c.ExtendYAxis(flux)
-	t := scaled(s.CycleTime_h, f)
+	t := scaled(s.Cycle.Time_h, f)
 	thinned := false
 	for _, l := range []line{
-		{name: n.env, y: s.CycleOutsideAir_C, color: colVermilion},
-		{name: n.outSurf, y: s.CycleOutsideSurface_C, color: colOrange},
-		{name: n.inSurf, y: s.CycleInsideSurface_C, color: colBlue},
-		{name: n.inAir, y: s.CycleInsideAir_C, color: colSky, dash: "dashed"},
-		{name: n.flux, y: s.CycleInsideFlux_W_m2, color: colPurple, dash: "dotted", yAxis: 1, yUnit: uFlux},
+		{name: n.env, y: s.Cycle.OutsideAir_C, color: colVermilion},
+		{name: n.outSurf, y: s.Cycle.OutsideSurface_C, color: colOrange},
+		{name: n.inSurf, y: s.Cycle.InsideSurface_C, color: colBlue},
+		{name: n.inAir, y: s.Cycle.InsideAir_C, color: colSky, dash: "dashed"},
+		{name: n.flux, y: s.Cycle.InsideFlux_W_m2, color: colPurple, dash: "dotted", yAxis: 1, yUnit: uFlux},
 	} {
 		if len(l.y) == 0 {
 			continue
@@ -99,7 +99,7 @@ func cycleChart(r *scenarios.Results) (*chartSpec, error) {
 		thinned = addLine(c, l) || thinned
 	}
 	caption := "Exact periodic solution over one cycle of the first analysis period. Temperatures on the left axis; the heat flux (dotted, right axis) is positive into the room."
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		caption = "Exact periodic solution over one period. Temperatures on the left axis; the heat flux at the bottom (dotted, right axis) is positive downward."
 	}
 	return finish(c, idCycle, caption, thinned)
@@ -107,12 +107,12 @@ func cycleChart(r *scenarios.Results) (*chartSpec, error) {
 
 // envelopeChart: minimum, mean and maximum temperature of the periodic
 // state against position through a wall, layer boundaries marked.
-func envelopeChart(r *scenarios.Results) (*chartSpec, error) {
+func envelopeChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.ProfilePosition_m) == 0 {
+	if len(s.Profile.Position_m) == 0 {
 		return nil, nil
 	}
-	x := scaled(s.ProfilePosition_m, 1000)
+	x := scaled(s.Profile.Position_m, 1000)
 	title := "Temperature range through the construction"
 	if len(r.Periodic) > 0 {
 		title += " (" + periodLabel(r.Periodic[0].Period_h) + " cycle)"
@@ -122,19 +122,19 @@ func envelopeChart(r *scenarios.Results) (*chartSpec, error) {
 		ec.WithXAxisOpts(valueAxisX("Position from the outside surface (mm)", " mm", num(minOf(x)), num(maxOf(x)), false)),
 		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
 	)
-	addBand(c, "Range (min–max)", x, s.ProfileMin_C, s.ProfileMax_C, false)
-	thinned := addLine(c, line{name: "Maximum", x: x, y: s.ProfileMax_C, xUnit: uMM, yUnit: uDegC, color: colVermilion})
-	thinned = addLine(c, line{name: "Mean", x: x, y: s.ProfileMean_C, xUnit: uMM, yUnit: uDegC, color: colBlack, width: 1.5, dash: "dashed",
+	addBand(c, "Range (min–max)", x, s.Profile.Min_C, s.Profile.Max_C, false)
+	thinned := addLine(c, line{name: "Maximum", x: x, y: s.Profile.Max_C, xUnit: uMM, yUnit: uDegC, color: colVermilion})
+	thinned = addLine(c, line{name: "Mean", x: x, y: s.Profile.Mean_C, xUnit: uMM, yUnit: uDegC, color: colBlack, width: 1.5, dash: "dashed",
 		opts: layerMarks(r, false)}) || thinned
-	thinned = addLine(c, line{name: "Minimum", x: x, y: s.ProfileMin_C, xUnit: uMM, yUnit: uDegC, color: colBlue}) || thinned
+	thinned = addLine(c, line{name: "Minimum", x: x, y: s.Profile.Min_C, xUnit: uMM, yUnit: uDegC, color: colBlue}) || thinned
 	return finish(c, idEnvelope, "Lowest, mean and highest temperature reached at each position during the cycle (exact periodic solution). Dashed vertical lines are layer boundaries; outside on the left, inside on the right.", thinned)
 }
 
 // layerMarks marks layer boundaries (markLines) and names the layers
 // (markAreas) in a profile chart. depthDown selects horizontal lines in
 // metres for a depth-down chart; otherwise vertical lines in millimetres.
-func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
-	b := r.Series.Interfaces_m
+func layerMarks(r *results.Results, depthDown bool) []ec.SeriesOpts {
+	b := r.Series.Profile.Interfaces_m
 	if len(b) == 0 {
 		return nil
 	}
@@ -200,13 +200,13 @@ func layerMarks(r *scenarios.Results, depthDown bool) []ec.SeriesOpts {
 
 // responseChart: decrement factor and time shift against period (log
 // axis), with the day, week and year marked.
-func responseChart(r *scenarios.Results) (*chartSpec, error) {
+func responseChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.ResponsePeriod_h) == 0 {
+	if len(s.Response.Period_h) == 0 {
 		return nil, nil
 	}
-	p := make([]float64, len(s.ResponsePeriod_h))
-	for i, v := range s.ResponsePeriod_h {
+	p := make([]float64, len(s.Response.Period_h))
+	for i, v := range s.Response.Period_h {
 		p[i] = v
 		if !(v > 0) {
 			p[i] = nan // a log axis has no place for 0 or less
@@ -233,7 +233,7 @@ func responseChart(r *scenarios.Results) (*chartSpec, error) {
 			marks = append(marks, opts.MarkLineNameXAxisItem{Name: m.name, XAxis: m.h})
 		}
 	}
-	thinned := addLine(c, line{name: "Decrement factor f = |Y₁₂|/U", x: p, y: s.ResponseDecrement, xUnit: uHour, yUnit: uRatio, color: colBlue,
+	thinned := addLine(c, line{name: "Decrement factor f = |Y₁₂|/U", x: p, y: s.Response.Decrement, xUnit: uHour, yUnit: uRatio, color: colBlue,
 		opts: []ec.SeriesOpts{
 			ec.WithMarkLineNameXAxisItemOpts(marks...),
 			ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
@@ -242,13 +242,13 @@ func responseChart(r *scenarios.Results) (*chartSpec, error) {
 				Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Color: colGrey, Position: "end"},
 			}),
 		}})
-	thinned = addLine(c, line{name: "Time shift", x: p, y: s.ResponseTimeShift_h, xUnit: uHour, yUnit: uHour, color: colVermilion, dash: "dashed", yAxis: 1}) || thinned
+	thinned = addLine(c, line{name: "Time shift", x: p, y: s.Response.TimeShift_h, xUnit: uHour, yUnit: uHour, color: colVermilion, dash: "dashed", yAxis: 1}) || thinned
 	return finish(c, idResponse, "Exact periodic solution for periods from one hour to one year. The decrement factor (left axis) is the heat-flux swing into the room relative to a massless wall with the same U-value; the time shift (dashed, right axis) is how long that swing lags the outside temperature, counted across whole periods.", thinned)
 }
 
 // probeName labels a probe by its position.
-func probeName(kind string, z float64) string {
-	if kind == "ground" {
+func probeName(kind results.Kind, z float64) string {
+	if kind == results.Ground {
 		return "At " + fixed(z, 2) + " m depth"
 	}
 	return "At " + trimZeros(sig(z*1000, 3)) + " mm"
@@ -256,13 +256,13 @@ func probeName(kind string, z float64) string {
 
 // simTempChart: simulated temperatures against time at the surfaces and
 // the probes, with a zoom slider.
-func simTempChart(r *scenarios.Results) (*chartSpec, error) {
+func simTempChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.SimTime_h) == 0 {
+	if len(s.Simulation.Time_h) == 0 {
 		return nil, nil
 	}
-	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
-	t := scaled(s.SimTime_h, f)
+	f, xu, xl := timeAxis(maxOf(s.Simulation.Time_h) - minOf(s.Simulation.Time_h))
+	t := scaled(s.Simulation.Time_h, f)
 	n := sides(r.Kind)
 	c := newChart(idSimTemp, "Simulated temperatures", "tipX", 96)
 	c.SetGlobalOptions(
@@ -271,17 +271,17 @@ func simTempChart(r *scenarios.Results) (*chartSpec, error) {
 		ec.WithDataZoomOpts(opts.DataZoom{Type: "slider", XAxisIndex: 0, Start: 0, End: 100}, opts.DataZoom{Type: "inside", XAxisIndex: 0}),
 	)
 	ls := []line{
-		{name: n.env, y: s.SimOutsideAir_C, color: colVermilion, width: 1.2},
-		{name: n.outSurf, y: s.SimOutsideSurface_C, color: colOrange, width: 1.5},
+		{name: n.env, y: s.Simulation.OutsideAir_C, color: colVermilion, width: 1.2},
+		{name: n.outSurf, y: s.Simulation.OutsideSurface_C, color: colOrange, width: 1.5},
 	}
 	caption := "Transient finite-volume simulation. Drag the slider or scroll inside the chart to zoom in time; click a legend entry to hide a line."
-	if sameSeries(s.SimOutsideAir_C, s.SimOutsideSurface_C) {
+	if sameSeries(s.Simulation.OutsideAir_C, s.Simulation.OutsideSurface_C) {
 		// No surface resistance: the environment is the surface; one line.
 		ls = ls[1:]
 		ls[0].name += " (= surface environment)"
 		caption += " With no surface resistance the surface environment temperature is the surface temperature; one line shows both."
 	}
-	if maxOf(s.SimTime_h)-minOf(s.SimTime_h) > 60*24 {
+	if maxOf(s.Simulation.Time_h)-minOf(s.Simulation.Time_h) > 60*24 {
 		// Over months the daily swing of the surface lines fills a wide
 		// ribbon: draw those two faint and thin so the probes stay legible.
 		for i := range ls {
@@ -290,14 +290,14 @@ func simTempChart(r *scenarios.Results) (*chartSpec, error) {
 		}
 	}
 	probeCols := []string{colGreen, colSky, colPurple, colBlack, colYellow, colGrey}
-	for i, z := range s.ProbeDepth_m {
-		if i >= len(s.Probes_C) {
+	for i, z := range s.Simulation.ProbeDepth_m {
+		if i >= len(s.Simulation.Probes_C) {
 			break
 		}
-		ls = append(ls, line{name: probeName(r.Kind, z), y: s.Probes_C[i], color: probeCols[i%len(probeCols)], width: 1.5, dash: []string{"", "dashed"}[i/len(probeCols)%2]})
+		ls = append(ls, line{name: probeName(r.Kind, z), y: s.Simulation.Probes_C[i], color: probeCols[i%len(probeCols)], width: 1.5, dash: []string{"", "dashed"}[i/len(probeCols)%2]})
 	}
-	ls = append(ls, line{name: n.inSurf, y: s.SimInsideSurface_C, color: colBlue, width: 1.5},
-		line{name: n.inAir, y: s.SimInsideAir_C, color: colSky, width: 1.2, dash: "dashed"})
+	ls = append(ls, line{name: n.inSurf, y: s.Simulation.InsideSurface_C, color: colBlue, width: 1.5},
+		line{name: n.inAir, y: s.Simulation.InsideAir_C, color: colSky, width: 1.2, dash: "dashed"})
 	thinned := false
 	for _, l := range ls {
 		if len(l.y) == 0 {
@@ -324,16 +324,16 @@ func sameSeries(a, b []float64) bool {
 }
 
 // simFluxChart: simulated heat flux at both surfaces against time.
-func simFluxChart(r *scenarios.Results) (*chartSpec, error) {
+func simFluxChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.SimTime_h) == 0 || (len(s.SimOutsideFlux_W_m2) == 0 && len(s.SimInsideFlux_W_m2) == 0) {
+	if len(s.Simulation.Time_h) == 0 || (len(s.Simulation.OutsideFlux_W_m2) == 0 && len(s.Simulation.InsideFlux_W_m2) == 0) {
 		return nil, nil
 	}
-	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
-	t := scaled(s.SimTime_h, f)
+	f, xu, xl := timeAxis(maxOf(s.Simulation.Time_h) - minOf(s.Simulation.Time_h))
+	t := scaled(s.Simulation.Time_h, f)
 	n := sides(r.Kind)
 	dir := "inward"
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		dir = "downward"
 	}
 	c := newChart(idSimFlux, "Simulated heat flux at both surfaces", "tipX", 96)
@@ -344,8 +344,8 @@ func simFluxChart(r *scenarios.Results) (*chartSpec, error) {
 	)
 	thinned := false
 	for _, l := range []line{
-		{name: n.outSurf, y: s.SimOutsideFlux_W_m2, color: colOrange, width: 1.5},
-		{name: n.inSurf, y: s.SimInsideFlux_W_m2, color: colBlue, width: 1.5},
+		{name: n.outSurf, y: s.Simulation.OutsideFlux_W_m2, color: colOrange, width: 1.5},
+		{name: n.inSurf, y: s.Simulation.InsideFlux_W_m2, color: colBlue, width: 1.5},
 	} {
 		if len(l.y) == 0 {
 			continue
@@ -360,10 +360,10 @@ func simFluxChart(r *scenarios.Results) (*chartSpec, error) {
 // pointing down. The simulated envelope (last simulated year, with latent
 // heat) is drawn when present; the exact periodic envelope otherwise, or
 // as thin dashed lines beside it.
-func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
+func groundEnvelopeChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	simOK := len(s.SimProfilePosition_m) > 0
-	exactOK := len(s.ProfilePosition_m) > 0
+	simOK := len(s.SimProfile.Position_m) > 0
+	exactOK := len(s.Profile.Position_m) > 0
 	if !simOK && !exactOK {
 		return nil, nil
 	}
@@ -378,10 +378,10 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 		ec.WithDataZoomOpts(
 			opts.DataZoom{Type: "slider", YAxisIndex: 0, Orient: "vertical", Start: 0, End: 100, FilterMode: "none"},
 			opts.DataZoom{Type: "inside", YAxisIndex: 0, FilterMode: "none"}))
-	pos, lo, mid, hi := s.ProfilePosition_m, s.ProfileMin_C, s.ProfileMean_C, s.ProfileMax_C
+	pos, lo, mid, hi := s.Profile.Position_m, s.Profile.Min_C, s.Profile.Mean_C, s.Profile.Max_C
 	what := "exact periodic solution"
 	if simOK {
-		pos, lo, mid, hi = s.SimProfilePosition_m, s.SimProfileMin_C, s.SimProfileMean_C, s.SimProfileMax_C
+		pos, lo, mid, hi = s.SimProfile.Position_m, s.SimProfile.Min_C, s.SimProfile.Mean_C, s.SimProfile.Max_C
 		what = "simulation, last simulated year, latent heat included"
 	}
 	addBand(c, "Range (min–max)", pos, lo, hi, true)
@@ -412,8 +412,8 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 	thinned = addLine(c, line{name: "Mean", x: mid, y: pos, xUnit: uDegC, yUnit: uM, color: colBlack, width: 1.5, dash: "dashed", opts: layerMarks(r, true)}) || thinned
 	thinned = addLine(c, line{name: "Lowest", x: lo, y: pos, xUnit: uDegC, yUnit: uM, color: colBlue, opts: frost}) || thinned
 	if simOK && exactOK {
-		thinned = addLine(c, line{name: "Highest, exact periodic", x: s.ProfileMax_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colVermilion, width: 1, dash: "dotted"}) || thinned
-		thinned = addLine(c, line{name: "Lowest, exact periodic", x: s.ProfileMin_C, y: s.ProfilePosition_m, xUnit: uDegC, yUnit: uM, color: colBlue, width: 1, dash: "dotted"}) || thinned
+		thinned = addLine(c, line{name: "Highest, exact periodic", x: s.Profile.Max_C, y: s.Profile.Position_m, xUnit: uDegC, yUnit: uM, color: colVermilion, width: 1, dash: "dotted"}) || thinned
+		thinned = addLine(c, line{name: "Lowest, exact periodic", x: s.Profile.Min_C, y: s.Profile.Position_m, xUnit: uDegC, yUnit: uM, color: colBlue, width: 1, dash: "dotted"}) || thinned
 	}
 	return finish(c, idGroundEnvelope, "Lowest, mean and highest ground temperature reached at each depth ("+what+"). Depth increases downward; drag the slider on the right or scroll inside the chart to zoom in depth. Grey dashed lines mark layer boundaries, the dotted line 0 °C and the blue dashed line the simulated maximum frost depth.", thinned)
 }
@@ -421,13 +421,13 @@ func groundEnvelopeChart(r *scenarios.Results) (*chartSpec, error) {
 // frostChart: the frozen ground against time (a band from the thaw depth
 // down to the frost depth), the freezing and thaw fronts as lines, depth
 // pointing down, with the start of each winter year marked.
-func frostChart(r *scenarios.Results) (*chartSpec, error) {
+func frostChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.SimTime_h) == 0 || (len(s.FrostDepth_m) == 0 && len(s.ThawDepth_m) == 0) {
+	if len(s.Simulation.Time_h) == 0 || (len(s.Simulation.FrostDepth_m) == 0 && len(s.Simulation.ThawDepth_m) == 0) {
 		return nil, nil
 	}
-	f, xu, xl := timeAxis(maxOf(s.SimTime_h) - minOf(s.SimTime_h))
-	t := scaled(s.SimTime_h, f)
+	f, xu, xl := timeAxis(maxOf(s.Simulation.Time_h) - minOf(s.Simulation.Time_h))
+	t := scaled(s.Simulation.Time_h, f)
 	c := newChart(idFrost, "Frozen ground against time", "tipX", 96)
 	y := valueAxisY("Depth (m)", " m", true)
 	y.Scale = opts.Bool(false)
@@ -444,14 +444,14 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 	// The frozen layer lies between the thaw depth (0 when nothing has
 	// thawed from the surface) and the frost depth; no band where nothing
 	// is frozen.
-	if n := min(len(t), len(s.FrostDepth_m)); n > 0 {
+	if n := min(len(t), len(s.Simulation.FrostDepth_m)); n > 0 {
 		lo, hi := make([]float64, n), make([]float64, n)
 		for i := 0; i < n; i++ {
 			lo[i], hi[i] = nan, nan
-			if d := s.FrostDepth_m[i]; d > 0 {
+			if d := s.Simulation.FrostDepth_m[i]; d > 0 {
 				th := 0.0
-				if i < len(s.ThawDepth_m) && s.ThawDepth_m[i] > 0 && s.ThawDepth_m[i] < d {
-					th = s.ThawDepth_m[i]
+				if i < len(s.Simulation.ThawDepth_m) && s.Simulation.ThawDepth_m[i] > 0 && s.Simulation.ThawDepth_m[i] < d {
+					th = s.Simulation.ThawDepth_m[i]
 				}
 				lo[i], hi[i] = th, d
 			}
@@ -480,8 +480,8 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 	}
 	thinned := false
 	for _, l := range []line{
-		{name: "Frost depth (deepest frozen point)", y: s.FrostDepth_m, color: colBlue, opts: marks},
-		{name: "Thaw depth (thawed from the surface)", y: s.ThawDepth_m, color: colOrange, width: 1.5, dash: "dashed"},
+		{name: "Frost depth (deepest frozen point)", y: s.Simulation.FrostDepth_m, color: colBlue, opts: marks},
+		{name: "Thaw depth (thawed from the surface)", y: s.Simulation.ThawDepth_m, color: colOrange, width: 1.5, dash: "dashed"},
 	} {
 		if len(l.y) == 0 {
 			continue
@@ -498,13 +498,13 @@ func frostChart(r *scenarios.Results) (*chartSpec, error) {
 
 // stepChart: surface heat flux after a step change of the surface
 // temperature, numerical against the half-space closed form, log time.
-func stepChart(r *scenarios.Results) (*chartSpec, error) {
+func stepChart(r *results.Results) (*chartSpec, error) {
 	s := r.Series
-	if len(s.StepTime_s) == 0 {
+	if len(s.Step.Time_s) == 0 {
 		return nil, nil
 	}
-	t := make([]float64, len(s.StepTime_s))
-	for i, v := range s.StepTime_s {
+	t := make([]float64, len(s.Step.Time_s))
+	for i, v := range s.Step.Time_s {
 		t[i] = v
 		if !(v > 0) {
 			t[i] = nan
@@ -530,7 +530,7 @@ func stepChart(r *scenarios.Results) (*chartSpec, error) {
 	}
 	c := newChart(idStep, "Heat uptake of the "+side+" surface after a step", "tipX", 56)
 	y := valueAxisY("Surface heat flux (W/m²)", "", false)
-	if minOf(s.StepFlux_W_m2) > 0 && !(minOf(s.StepFluxHalfSpace_W_m2) <= 0) {
+	if minOf(s.Step.Flux_W_m2) > 0 && !(minOf(s.Step.FluxHalfSpace_W_m2) <= 0) {
 		// q ∝ 1/√t for the half-space: a straight line on log-log axes.
 		y.Type, y.Name = "log", "Surface heat flux (W/m², logarithmic)"
 	}
@@ -538,9 +538,9 @@ func stepChart(r *scenarios.Results) (*chartSpec, error) {
 		ec.WithXAxisOpts(valueAxisX("Time after the step (s, logarithmic)", " s", num(minOf(t)), num(maxOf(t)), true)),
 		ec.WithYAxisOpts(y),
 	)
-	thinned := addLine(c, line{name: "Simulated", x: t, y: s.StepFlux_W_m2, xUnit: uSec, yUnit: uFlux, color: colBlue, opts: marks})
-	if len(s.StepFluxHalfSpace_W_m2) > 0 {
-		thinned = addLine(c, line{name: "Half-space closed form", x: t, y: s.StepFluxHalfSpace_W_m2, xUnit: uSec, yUnit: uFlux, color: colVermilion, dash: "dashed"}) || thinned
+	thinned := addLine(c, line{name: "Simulated", x: t, y: s.Step.Flux_W_m2, xUnit: uSec, yUnit: uFlux, color: colBlue, opts: marks})
+	if len(s.Step.FluxHalfSpace_W_m2) > 0 {
+		thinned = addLine(c, line{name: "Half-space closed form", x: t, y: s.Step.FluxHalfSpace_W_m2, xUnit: uSec, yUnit: uFlux, color: colVermilion, dash: "dashed"}) || thinned
 	}
 	return finish(c, idStep, "Heat flux into the "+side+" surface after a sudden change"+change+" of its temperature. The closed form treats the surface layer as a semi-infinite solid, q = b ΔT / √(π t) with b = √(λρc); the two curves part once the heat reaches the next layer.", thinned)
 }

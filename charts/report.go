@@ -12,7 +12,7 @@ import (
 	"io"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 //go:embed assets/echarts.min.js
@@ -78,7 +78,7 @@ var pageTemplate = template.Must(template.ParseFS(assets, "assets/page.tmpl"))
 // Every string from the results is escaped, both in the HTML and inside
 // the chart options; NaN and ±Inf values are drawn as gaps and printed as
 // a dash. The same r and o always give the same bytes.
-func Write(w io.Writer, r *scenarios.Results, o Options) error {
+func Write(w io.Writer, r *results.Results, o Options) error {
 	if r == nil {
 		return errors.New("charts: no results to report")
 	}
@@ -133,7 +133,7 @@ func contentPolicy(scripts ...string) string {
 }
 
 // build assembles the page and the chart options.
-func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
+func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	p := &page{
 		Title:        r.Title,
 		ScenarioFile: r.ScenarioFile,
@@ -148,14 +148,14 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	if strings.TrimSpace(p.Title) == "" {
 		p.Title = "Untitled scenario"
 	}
-	ground := r.Kind == "ground"
+	ground := r.Kind == results.Ground
 	p.KindLabel = "building component"
 	if ground {
 		p.KindLabel = "ground and frost"
 	}
 	var specs []*chartSpec
 	var firstErr error
-	chart := func(f func(*scenarios.Results) (*chartSpec, error)) *block {
+	chart := func(f func(*results.Results) (*chartSpec, error)) *block {
 		s, err := f(r)
 		if err != nil && firstErr == nil {
 			firstErr = err
@@ -217,7 +217,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	add(&per, chart(responseChart))
 
 	var sim *section
-	if r.Simulation != nil || len(r.Series.SimTime_h) > 0 {
+	if r.Simulation != nil || len(r.Series.Simulation.Time_h) > 0 {
 		sim = &section{ID: "simulation", Heading: "Transient simulation"}
 		add(sim, energyTable(r), checkTable(r), probeTable(r), chart(simTempChart), chart(simFluxChart))
 	} else if r.SimulationSkipped != "" {
@@ -226,7 +226,7 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 	}
 
 	var step *section
-	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
+	if len(r.Series.Step.Time_s) > 0 || r.StepResponse != nil {
 		step = &section{ID: "step", Heading: "Surface heat uptake after a step"}
 		add(step, stepTable(r), chart(stepChart))
 	}
@@ -240,6 +240,6 @@ func build(r *scenarios.Results, o Options) (*page, []*chartSpec, error) {
 		}
 	}
 	p.Methods = methods(r)
-	p.Cautions = scenarios.Cautions(r) // the same list as results.json and the terminal
+	p.Cautions = results.Cautions(r) // the same list as results.json and the terminal
 	return p, specs, nil
 }

@@ -12,11 +12,11 @@ import (
 	"strings"
 	"testing"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // render writes the report for r and fails the test on error.
-func render(t testing.TB, r *scenarios.Results, o Options) string {
+func render(t testing.TB, r *results.Results, o Options) string {
 	t.Helper()
 	var b bytes.Buffer
 	if err := Write(&b, r, o); err != nil {
@@ -156,7 +156,7 @@ func chartData(t testing.TB, html string) (map[string]map[string]any, string) {
 }
 
 func TestWriteDeterministic(t *testing.T) {
-	for _, r := range []*scenarios.Results{wallFixture(), groundFixture()} {
+	for _, r := range []*results.Results{wallFixture(), groundFixture()} {
 		a := render(t, r, Options{ToolVersion: "0.1.0"})
 		b := render(t, r, Options{ToolVersion: "0.1.0"})
 		if a != b {
@@ -202,8 +202,8 @@ func TestWallReport(t *testing.T) {
 	env := charts[idEnvelope]
 	mean := findSeries(t, env, "Mean")
 	ml := mean["markLine"].(map[string]any)["data"].([]any)
-	if len(ml) != len(r.Series.Interfaces_m) {
-		t.Errorf("envelope: %d boundary lines, want %d", len(ml), len(r.Series.Interfaces_m))
+	if len(ml) != len(r.Series.Profile.Interfaces_m) {
+		t.Errorf("envelope: %d boundary lines, want %d", len(ml), len(r.Series.Profile.Interfaces_m))
 	}
 	ma := mean["markArea"].(map[string]any)["data"].([]any)
 	if len(ma) != len(r.Layers) {
@@ -215,12 +215,12 @@ func TestWallReport(t *testing.T) {
 	}
 	// One band item per profile point: [x, min, x, max].
 	bd := band["data"].([]any)
-	if len(bd) != len(r.Series.ProfilePosition_m) {
-		t.Errorf("band has %d items, want %d", len(bd), len(r.Series.ProfilePosition_m))
+	if len(bd) != len(r.Series.Profile.Position_m) {
+		t.Errorf("band has %d items, want %d", len(bd), len(r.Series.Profile.Position_m))
 	}
 	v := bd[3].(map[string]any)["value"].([]any)
-	mm := num(1000 * r.Series.ProfilePosition_m[3])
-	want := []any{mm, num(r.Series.ProfileMin_C[3]), mm, num(r.Series.ProfileMax_C[3])}
+	mm := num(1000 * r.Series.Profile.Position_m[3])
+	want := []any{mm, num(r.Series.Profile.Min_C[3]), mm, num(r.Series.Profile.Max_C[3])}
 	if !equalAny(v, want) {
 		t.Errorf("band item 3 = %v, want %v", v, want)
 	}
@@ -336,8 +336,8 @@ func TestGroundReport(t *testing.T) {
 func TestSectionsOnlyWithData(t *testing.T) {
 	r := wallFixture()
 	r.Simulation = nil
-	r.Series.SimTime_h = nil
-	r.Series.StepTime_s = nil
+	r.Series.Simulation.Time_h = nil
+	r.Series.Step.Time_s = nil
 	r.StepResponse = nil
 	html := render(t, r, Options{})
 	charts, _ := chartData(t, html)
@@ -349,7 +349,7 @@ func TestSectionsOnlyWithData(t *testing.T) {
 			t.Errorf("section %s present without data", s)
 		}
 	}
-	empty := render(t, &scenarios.Results{Kind: "wall"}, Options{})
+	empty := render(t, &results.Results{Kind: "wall"}, Options{})
 	if c, _ := chartData(t, empty); len(c) != 0 {
 		t.Errorf("empty results gave %d charts", len(c))
 	}
@@ -460,17 +460,17 @@ var (
 		"text-anchor": true, "patternunits": true, "patterntransform": true}
 )
 
-func hostileResults(s string) *scenarios.Results {
+func hostileResults(s string) *results.Results {
 	r := studyFixture()
 	r.Variants[1].Name, r.Variants[1].Changes = s, []string{s}
-	r.Variants[1].Layers = append([]scenarios.Layer(nil), r.Variants[1].Layers...)
+	r.Variants[1].Layers = append([]results.Layer(nil), r.Variants[1].Layers...)
 	r.Variants[1].Layers[0].Name = s
 	r.Sweep.Parameter, r.Sweep.Unit, r.Sweep.Points[0].Text = s, s, s
 	r.Target.Parameter, r.Target.Unit, r.Target.Quantity = s, s, s
 	r.Uncertainty.Parameters[0].Parameter, r.Uncertainty.FirstRejection, r.Uncertainty.Quantities[0].Quantity = s, s, s
-	r.Fit = &scenarios.FitResult{File: s, Method: s, Diffusivity_m2_s: 6e-7, Pairs: []scenarios.FitPair{{Period_h: 24, Note: s}}}
-	r.Records = []scenarios.RecordInfo{{Use: s, File: s, Columns: []string{s}, First: s, Last: s,
-		Bridged: []scenarios.BridgedGap{{Column: s, From: s, To: s}}}}
+	r.Fit = &results.FitResult{File: s, Method: s, Diffusivity_m2_s: 6e-7, Pairs: []results.FitPair{{Period_h: 24, Note: s}}}
+	r.Records = []results.RecordInfo{{Use: s, File: s, Columns: []string{s}, First: s, Last: s,
+		Bridged: []results.BridgedGap{{Column: s, From: s, To: s}}}}
 	r.Title, r.ScenarioFile, r.Orientation = s, s, s
 	r.Warnings = []string{s, "second " + s}
 	r.StepResponse.SurfaceLayer, r.StepResponse.Side = s, s
@@ -488,10 +488,10 @@ func TestEscaping(t *testing.T) {
 	tagRe := regexp.MustCompile(`(?i)<\s*(script|img|svg|iframe)\b`)
 	svgRe := regexp.MustCompile(`<svg class="xsec( xsec-v)?" `)
 	for _, s := range hostile {
-		for _, r := range []*scenarios.Results{hostileResults(s), func() *scenarios.Results {
+		for _, r := range []*results.Results{hostileResults(s), func() *results.Results {
 			g := groundFixture()
 			g.Title, g.Warnings = s, []string{s}
-			g.Series.SimTime_h = nil // the long series carry no user text; skip them for speed
+			g.Series.Simulation.Time_h = nil // the long series carry no user text; skip them for speed
 			for i := range g.Layers {
 				g.Layers[i].Name, g.Layers[i].Source = s, s
 			}
@@ -597,19 +597,19 @@ func TestNaNNeverReachesACharts(t *testing.T) {
 	r := wallFixture()
 	g := groundFixture()
 	bad := []float64{math.NaN(), math.Inf(1), math.Inf(-1)}
-	for _, res := range []*scenarios.Results{r, g} {
+	for _, res := range []*results.Results{r, g} {
 		s := &res.Series
-		for _, v := range []*[]float64{&s.CycleOutsideAir_C, &s.CycleInsideFlux_W_m2, &s.ProfileMin_C, &s.ProfileMax_C,
-			&s.ProfilePosition_m, &s.ResponseDecrement, &s.ResponsePeriod_h, &s.SimTime_h, &s.SimInsideFlux_W_m2,
-			&s.FrostDepth_m, &s.SimProfileMin_C, &s.StepFlux_W_m2, &s.Interfaces_m} {
+		for _, v := range []*[]float64{&s.Cycle.OutsideAir_C, &s.Cycle.InsideFlux_W_m2, &s.Profile.Min_C, &s.Profile.Max_C,
+			&s.Profile.Position_m, &s.Response.Decrement, &s.Response.Period_h, &s.Simulation.Time_h, &s.Simulation.InsideFlux_W_m2,
+			&s.Simulation.FrostDepth_m, &s.SimProfile.Min_C, &s.Step.Flux_W_m2, &s.Profile.Interfaces_m} {
 			for i := range bad {
 				if i*7 < len(*v) {
 					(*v)[i*7] = bad[i]
 				}
 			}
 		}
-		if len(s.Probes_C) > 0 {
-			s.Probes_C[0][3] = math.NaN()
+		if len(s.Simulation.Probes_C) > 0 {
+			s.Simulation.Probes_C[0][3] = math.NaN()
 		}
 		res.Periodic[0].DecrementFactor = math.NaN()
 		res.Steady.UValue_W_m2K = math.Inf(1)
@@ -745,8 +745,8 @@ func TestFormat(t *testing.T) {
 }
 
 func BenchmarkWrite(b *testing.B) {
-	for _, r := range []*scenarios.Results{wallFixture(), groundFixture()} {
-		b.Run(r.Kind, func(b *testing.B) {
+	for _, r := range []*results.Results{wallFixture(), groundFixture()} {
+		b.Run(string(r.Kind), func(b *testing.B) {
 			var size int
 			for b.Loop() {
 				var buf bytes.Buffer
@@ -766,7 +766,7 @@ func TestGroundWithoutSimulation(t *testing.T) {
 	g := groundFixture()
 	g.Simulation = nil
 	s := &g.Series
-	s.SimTime_h, s.SimProfilePosition_m, s.FrostDepth_m, s.ThawDepth_m = nil, nil, nil, nil
+	s.Simulation.Time_h, s.SimProfile.Position_m, s.Simulation.FrostDepth_m, s.Simulation.ThawDepth_m = nil, nil, nil, nil
 	html := render(t, g, Options{})
 	charts, _ := chartData(t, html)
 	env := charts[idGroundEnvelope]

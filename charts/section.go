@@ -9,7 +9,7 @@ import (
 	"strings"
 
 	"tempstack/layers"
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // The cross-section is an inline SVG drawn here, not a chart: the layers
@@ -84,13 +84,13 @@ var familyOrderDrawn = []string{
 // material (soil blocks and ground presets), "" when not known (a
 // building layer given by inline properties).
 //
-// scenarios.Layer carries no family yet (layers.Layer has one); until it
+// results.Layer carries no family yet (layers.Layer has one); until it
 // does, the family is looked up from the material key here.
-func family(kind string, l scenarios.Layer) string {
+func family(kind results.Kind, l results.Layer) string {
 	if m, ok := layers.Lookup(l.Material); ok && l.Material != "" {
 		return m.Family
 	}
-	if kind == "ground" {
+	if kind == results.Ground {
 		return "soil"
 	}
 	return ""
@@ -113,11 +113,11 @@ func svgNum(v float64) string { return trimZeros(strings.Replace(fixed(v, 1), "â
 
 // thicknessText formats a thickness for the drawing: millimetres for a
 // building layer, metres for a ground layer.
-func thicknessText(kind string, m float64) string {
+func thicknessText(kind results.Kind, m float64) string {
 	if !(m > 0) || !finite(m) {
 		return "thickness not given"
 	}
-	if kind == "ground" {
+	if kind == results.Ground {
 		return trimZeros(sig(m, 3)) + " m"
 	}
 	return trimZeros(sig(m*1000, 3)) + " mm"
@@ -134,7 +134,7 @@ type span struct {
 // layout places the layers along a stack of length total px. Every layer
 // is drawn at least minLayerPx thick; the rest keep one common scale. A
 // last layer without thickness (a half-space) gets a fifth of the length.
-func layout(ls []scenarios.Layer, total float64) []span {
+func layout(ls []results.Layer, total float64) []span {
 	n := len(ls)
 	sp := make([]span, n)
 	if n == 0 {
@@ -240,7 +240,7 @@ func (d depthScale) at(z float64) float64 {
 // interestDepth is the depth a ground drawing must show to scale: the
 // deepest probe, simulated frost depth or closed-form estimate, with a
 // margin of 30 %; 0 when there is none.
-func interestDepth(r *scenarios.Results) float64 {
+func interestDepth(r *results.Results) float64 {
 	d := 0.0
 	for _, z := range probeDepths(r) {
 		d = math.Max(d, z)
@@ -262,7 +262,7 @@ func interestDepth(r *scenarios.Results) float64 {
 // scale. Layers thinner than minLayerPx are widened either way. A
 // half-space at the bottom is drawn down to 1.5 times the depth of
 // interest (at least 1 m below the last boundary).
-func groundLayout(ls []scenarios.Layer, length, interest float64) ([]span, depthScale) {
+func groundLayout(ls []results.Layer, length, interest float64) ([]span, depthScale) {
 	n := len(ls)
 	sp := make([]span, n)
 	bounds := []float64{0}
@@ -299,9 +299,9 @@ func groundLayout(ls []scenarios.Layer, length, interest float64) ([]span, depth
 	if cut > 0 {
 		upLen, downLen = 0.78*length, 0.22*length
 	}
-	var up, down []scenarios.Layer
+	var up, down []results.Layer
 	for i := 1; i < len(knots); i++ {
-		iv := scenarios.Layer{Thickness_m: knots[i] - knots[i-1]}
+		iv := results.Layer{Thickness_m: knots[i] - knots[i-1]}
 		if cut > 0 && knots[i] > cut {
 			down = append(down, iv)
 		} else {
@@ -311,7 +311,7 @@ func groundLayout(ls []scenarios.Layer, length, interest float64) ([]span, depth
 	px := []float64{0}
 	wide := make([]bool, 0, len(knots))
 	for _, part := range []struct {
-		ivs []scenarios.Layer
+		ivs []results.Layer
 		len float64
 	}{{up, upLen}, {down, downLen}} {
 		if len(part.ivs) == 0 {
@@ -397,7 +397,7 @@ func (w *svgWriter) fill(f string) string {
 
 // usedFamilies lists the families of ls in legend order, and the family
 // of each layer.
-func usedFamilies(kind string, ls []scenarios.Layer) (used []string, of []string) {
+func usedFamilies(kind results.Kind, ls []results.Layer) (used []string, of []string) {
 	seen := map[string]bool{}
 	for _, l := range ls {
 		f := family(kind, l)
@@ -439,12 +439,12 @@ func (w *svgWriter) legend(used []string, x, y, right float64) float64 {
 
 // crossSection draws the layers of r as an inline SVG figure, or returns
 // nil when there are no layers.
-func crossSection(r *scenarios.Results) *figure {
+func crossSection(r *results.Results) *figure {
 	if len(r.Layers) == 0 {
 		return nil
 	}
 	switch {
-	case r.Kind == "ground":
+	case r.Kind == results.Ground:
 		return verticalSection(r, "ground")
 	case r.Orientation == "roof" || r.Orientation == "floor":
 		return verticalSection(r, r.Orientation)
@@ -454,7 +454,7 @@ func crossSection(r *scenarios.Results) *figure {
 }
 
 // layerLabel is the name of a layer as drawn.
-func layerLabel(i int, l scenarios.Layer) string {
+func layerLabel(i int, l results.Layer) string {
 	name := l.Name
 	if strings.TrimSpace(name) == "" {
 		name = l.Material
@@ -466,7 +466,7 @@ func layerLabel(i int, l scenarios.Layer) string {
 }
 
 // layerTitle is the tooltip of a layer: full name, material and thickness.
-func layerTitle(kind string, i int, l scenarios.Layer, fam string) string {
+func layerTitle(kind results.Kind, i int, l results.Layer, fam string) string {
 	s := fmt.Sprintf("%d %s", i+1, l.Name)
 	if l.Material != "" {
 		s += " (" + l.Material + ")"
@@ -485,7 +485,7 @@ func (w *svgWriter) drawLayer(x, y, wd, ht float64, fam, title string) {
 }
 
 // sectionNotes returns the notes on what is not to scale.
-func sectionNotes(kind string, sp []span) []string {
+func sectionNotes(kind results.Kind, sp []span) []string {
 	var notes []string
 	widened, broken, half := false, false, false
 	for _, s := range sp {
@@ -507,7 +507,7 @@ func sectionNotes(kind string, sp []span) []string {
 
 // wallSection draws a wall horizontally: outside on the left, inside on
 // the right, each layer named in its own row below with a leader line.
-func wallSection(r *scenarios.Results) *figure {
+func wallSection(r *results.Results) *figure {
 	const (
 		left, right = 110.0, 110.0
 		top         = 58.0
@@ -604,7 +604,7 @@ func (w *svgWriter) open(x0, x1, h float64, label string, vertical bool) {
 // outside first, are drawn from the bottom up). Ground: surface on top,
 // depth axis pointing down with the depth of every boundary, the probes
 // and the simulated maximum frost depth.
-func verticalSection(r *scenarios.Results, what string) *figure {
+func verticalSection(r *results.Results, what string) *figure {
 	const (
 		stackX, stackW = 200.0, 220.0
 		top            = 44.0
@@ -625,7 +625,7 @@ func verticalSection(r *scenarios.Results, what string) *figure {
 			order[i] = n - 1 - i
 		}
 	}
-	drawn := make([]scenarios.Layer, n)
+	drawn := make([]results.Layer, n)
 	for k, i := range order {
 		drawn[k] = ls[i]
 	}
@@ -766,7 +766,7 @@ func (w *svgWriter) lighten(x, y, wd, ht float64) {
 
 // groundMarks draws the depth axis (the depth of every boundary), the
 // probes and the simulated maximum frost depth of a ground column.
-func groundMarks(w *svgWriter, r *scenarios.Results, ls []scenarios.Layer, sp []span, scale depthScale, x, wd, top, length float64) {
+func groundMarks(w *svgWriter, r *results.Results, ls []results.Layer, sp []span, scale depthScale, x, wd, top, length float64) {
 	axisX := x - 40
 	w.f(`<path d="M%s %sV%s" class="dim"/><path d="M%s %sl-4 -8h8z" class="dot"/>`,
 		svgNum(axisX), svgNum(top), svgNum(top+length+8), svgNum(axisX), svgNum(top+length+14))
@@ -829,7 +829,7 @@ func groundMarks(w *svgWriter, r *scenarios.Results, ls []scenarios.Layer, sp []
 func depthText(z float64) string { return fixed(z, 2) + " m" }
 
 // probeDepths lists the probe depths of r (simulated, else exact).
-func probeDepths(r *scenarios.Results) []float64 {
+func probeDepths(r *results.Results) []float64 {
 	var z []float64
 	if r.Simulation != nil {
 		for _, p := range r.Simulation.Probes {

@@ -9,12 +9,12 @@ import (
 	"strings"
 	"testing"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // svgOf renders the cross-section of r and checks that it is well-formed
 // XML.
-func svgOf(t *testing.T, r *scenarios.Results) (string, *figure) {
+func svgOf(t *testing.T, r *results.Results) (string, *figure) {
 	t.Helper()
 	f := crossSection(r)
 	if f == nil {
@@ -76,7 +76,7 @@ func TestCrossSectionEscaping(t *testing.T) {
 		`A & B 'quoted' "double"`,
 		`]]><!-- -->`,
 	} {
-		for _, r := range []*scenarios.Results{wallFixture(), groundFixture(), func() *scenarios.Results {
+		for _, r := range []*results.Results{wallFixture(), groundFixture(), func() *results.Results {
 			w := wallFixture()
 			w.Orientation = "roof"
 			return w
@@ -202,7 +202,7 @@ func TestCrossSectionScale(t *testing.T) {
 // others keep one common scale.
 func TestCrossSectionThinLayer(t *testing.T) {
 	r := wallFixture()
-	foil := scenarios.Layer{Name: "vapour control foil", Thickness_m: 0.0002, Conductivity_W_mK: 0.2, Density_kg_m3: 900, SpecificHeat_J_kgK: 1800}
+	foil := results.Layer{Name: "vapour control foil", Thickness_m: 0.0002, Conductivity_W_mK: 0.2, Density_kg_m3: 900, SpecificHeat_J_kgK: 1800}
 	r.Layers = append(r.Layers[:3:3], foil, r.Layers[3])
 	svg, f := svgOf(t, r)
 	rects := layerRects(t, svg)
@@ -228,16 +228,16 @@ func TestCrossSectionThinLayer(t *testing.T) {
 }
 
 func TestLayout(t *testing.T) {
-	l := func(th ...float64) []scenarios.Layer {
-		var out []scenarios.Layer
+	l := func(th ...float64) []results.Layer {
+		var out []results.Layer
 		for _, x := range th {
-			out = append(out, scenarios.Layer{Thickness_m: x})
+			out = append(out, results.Layer{Thickness_m: x})
 		}
 		return out
 	}
 	for _, tc := range []struct {
 		name    string
-		layers  []scenarios.Layer
+		layers  []results.Layer
 		want    []float64
 		widened []bool
 	}{
@@ -266,10 +266,10 @@ func TestLayout(t *testing.T) {
 // (78 % of the length) and compressed below a break; marks map into the
 // right layer at the right place.
 func TestGroundLayout(t *testing.T) {
-	l := func(th ...float64) []scenarios.Layer {
-		var out []scenarios.Layer
+	l := func(th ...float64) []results.Layer {
+		var out []results.Layer
 		for _, x := range th {
-			out = append(out, scenarios.Layer{Thickness_m: x})
+			out = append(out, results.Layer{Thickness_m: x})
 		}
 		return out
 	}

@@ -7,7 +7,7 @@ import (
 	"sort"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // Study results: options compared side by side (with a drawing of each
@@ -15,7 +15,7 @@ import (
 // an uncertainty propagation and a diffusivity fit to logged
 // temperatures.
 
-// quantity is how a study quantity (a key of scenarios.Summary) is shown.
+// quantity is how a study quantity (a key of results.Summary) is shown.
 type quantity struct {
 	key, label string
 	format     func(float64) string
@@ -60,7 +60,7 @@ func quantityOf(key string) quantity {
 
 // summaryKeys lists the quantity keys present in any of ss, known keys in
 // display order first, then the others sorted.
-func summaryKeys(ss ...scenarios.Summary) []string {
+func summaryKeys(ss ...results.Summary) []string {
 	seen := map[string]bool{}
 	for _, s := range ss {
 		for k := range s {
@@ -83,7 +83,7 @@ func summaryKeys(ss ...scenarios.Summary) []string {
 }
 
 // summaryCells formats the quantities of s in the order of keys.
-func summaryCells(s scenarios.Summary, keys []string) []string {
+func summaryCells(s results.Summary, keys []string) []string {
 	var out []string
 	for _, k := range keys {
 		v, ok := s[k]
@@ -97,11 +97,11 @@ func summaryCells(s scenarios.Summary, keys []string) []string {
 }
 
 // variantsTable compares the options of a study.
-func variantsTable(r *scenarios.Results) *block {
+func variantsTable(r *results.Results) *block {
 	if len(r.Variants) == 0 {
 		return nil
 	}
-	var ss []scenarios.Summary
+	var ss []results.Summary
 	for _, v := range r.Variants {
 		ss = append(ss, v.Quantities)
 	}
@@ -124,7 +124,7 @@ func variantsTable(r *scenarios.Results) *block {
 }
 
 // layerName is the name a layer is listed under.
-func layerName(l scenarios.Layer) string {
+func layerName(l results.Layer) string {
 	if strings.TrimSpace(l.Name) != "" {
 		return l.Name
 	}
@@ -137,8 +137,8 @@ func layerName(l scenarios.Layer) string {
 // variantsFigure draws the build-up of every option as a horizontal strip,
 // all to one common scale (outside on the left), with the headline
 // quantities beside it.
-func variantsFigure(r *scenarios.Results) *figure {
-	if len(r.Variants) == 0 || r.Kind == "ground" {
+func variantsFigure(r *results.Results) *figure {
+	if len(r.Variants) == 0 || r.Kind == results.Ground {
 		return nil
 	}
 	const (
@@ -152,7 +152,7 @@ func variantsFigure(r *scenarios.Results) *figure {
 		legendGapPx = 26.0
 	)
 	maxT := 0.0
-	var all []scenarios.Layer
+	var all []results.Layer
 	for _, v := range r.Variants {
 		t := 0.0
 		for _, l := range v.Layers {
@@ -225,12 +225,12 @@ func variantsFigure(r *scenarios.Results) *figure {
 }
 
 // sweepTable lists the quantities at each value of a one-parameter sweep.
-func sweepTable(r *scenarios.Results) *block {
+func sweepTable(r *results.Results) *block {
 	s := r.Sweep
 	if s == nil || len(s.Points) == 0 {
 		return nil
 	}
-	var ss []scenarios.Summary
+	var ss []results.Summary
 	for _, p := range s.Points {
 		ss = append(ss, p.Quantities)
 	}
@@ -252,7 +252,7 @@ func sweepTable(r *scenarios.Results) *block {
 }
 
 // targetBlock reports a target search and its scan.
-func targetBlock(r *scenarios.Results) []*block {
+func targetBlock(r *results.Results) []*block {
 	tr := r.Target
 	if tr == nil {
 		return nil
@@ -288,7 +288,7 @@ func targetBlock(r *scenarios.Results) []*block {
 }
 
 // uncertaintyTables report a Monte Carlo propagation.
-func uncertaintyTables(r *scenarios.Results) []*block {
+func uncertaintyTables(r *results.Results) []*block {
 	u := r.Uncertainty
 	if u == nil {
 		return nil
@@ -315,7 +315,7 @@ func uncertaintyTables(r *scenarios.Results) []*block {
 }
 
 // fitTables report a diffusivity fit to logged temperatures.
-func fitTables(r *scenarios.Results) []*block {
+func fitTables(r *results.Results) []*block {
 	f := r.Fit
 	if f == nil {
 		return nil
@@ -355,7 +355,7 @@ func fitTables(r *scenarios.Results) []*block {
 }
 
 // recordRows adds one row per measured series to the inputs table.
-func recordRows(t *table, r *scenarios.Results) *block {
+func recordRows(t *table, r *results.Results) *block {
 	var gaps *table
 	for _, rec := range r.Records {
 		v := fmt.Sprintf("%s (column %s): %d rows from %s to %s, every %s h", rec.File, strings.Join(rec.Columns, ", "), rec.Rows, rec.First, rec.Last, trimZeros(sig(rec.Step_h, 3)))

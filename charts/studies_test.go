@@ -7,30 +7,30 @@ import (
 	"strings"
 	"testing"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // studyFixture is the invented test wall with invented study results:
 // two options, a sweep, a target search, an uncertainty run and a fit.
-func studyFixture() *scenarios.Results {
+func studyFixture() *results.Results {
 	r := wallFixture()
-	thin := append([]scenarios.Layer(nil), r.Layers...)
+	thin := append([]results.Layer(nil), r.Layers...)
 	thin[1].Thickness_m = 0.05 // half the insulation: 50 mm thinner in total
-	r.Variants = []scenarios.VariantResult{
-		{Name: "base", Layers: r.Layers, Quantities: scenarios.Summary{"u_value_W_m2K": 0.303, "decrement_factor": 0.214, "time_shift_h": 9.4}},
+	r.Variants = []results.VariantResult{
+		{Name: "base", Layers: r.Layers, Quantities: results.Summary{"u_value_W_m2K": 0.303, "decrement_factor": 0.214, "time_shift_h": 9.4}},
 		{Name: "thin insulation", Changes: []string{"layers[2].thickness = 50 mm"}, Layers: thin,
-			Quantities: scenarios.Summary{"u_value_W_m2K": 0.52, "decrement_factor": 0.25, "time_shift_h": 8.96, "custom_quantity": 1.5}},
+			Quantities: results.Summary{"u_value_W_m2K": 0.52, "decrement_factor": 0.25, "time_shift_h": 8.96, "custom_quantity": 1.5}},
 	}
-	r.Sweep = &scenarios.SweepResult{Parameter: "layers[2].thickness", Unit: "mm", Points: []scenarios.SweepPoint{
-		{Value: 50, Text: "50 mm", Quantities: scenarios.Summary{"u_value_W_m2K": 0.52}},
-		{Value: 100, Text: "100 mm", Quantities: scenarios.Summary{"u_value_W_m2K": 0.303}},
+	r.Sweep = &results.SweepResult{Parameter: "layers[2].thickness", Unit: "mm", Points: []results.SweepPoint{
+		{Value: 50, Text: "50 mm", Quantities: results.Summary{"u_value_W_m2K": 0.52}},
+		{Value: 100, Text: "100 mm", Quantities: results.Summary{"u_value_W_m2K": 0.303}},
 	}}
-	r.Target = &scenarios.TargetResult{Parameter: "layers[3].thickness", Unit: "mm", Quantity: "time_shift_h", Goal: 10, AtLeast: true,
+	r.Target = &results.TargetResult{Parameter: "layers[3].thickness", Unit: "mm", Quantity: "time_shift_h", Goal: 10, AtLeast: true,
 		From: 100, To: 300, Met: true, Value: 142.5, Achieved: 10.02, Margin: 0.02, Evaluations: 12,
-		Scan: []scenarios.TargetPoint{{Value: 100, Quantity: 9.4}, {Value: 200, Quantity: 12.1, Meets: true}}}
-	r.Uncertainty = &scenarios.UncertaintyResult{Samples: 200, Seed: 7, Rejected: 1, FirstRejection: "layers[1].conductivity must be positive",
-		Parameters: []scenarios.UncertainParameter{{Parameter: "layers[2].conductivity", Distribution: "normal", A: 0.035, B: 0.003, Unit: "W/(m K)"}},
-		Quantities: []scenarios.Spread{{Quantity: "u_value_W_m2K", N: 199, Mean: 0.305, SD: 0.021, Min: 0.25, P5: 0.27, P50: 0.304, P95: 0.34, Max: 0.37}}}
+		Scan: []results.TargetPoint{{Value: 100, Quantity: 9.4}, {Value: 200, Quantity: 12.1, Meets: true}}}
+	r.Uncertainty = &results.UncertaintyResult{Samples: 200, Seed: 7, Rejected: 1, FirstRejection: "layers[1].conductivity must be positive",
+		Parameters: []results.UncertainParameter{{Parameter: "layers[2].conductivity", Distribution: "normal", A: 0.035, B: 0.003, Unit: "W/(m K)"}},
+		Quantities: []results.Spread{{Quantity: "u_value_W_m2K", N: 199, Mean: 0.305, SD: 0.021, Min: 0.25, P5: 0.27, P50: 0.304, P95: 0.34, Max: 0.37}}}
 	return r
 }
 
@@ -115,12 +115,12 @@ func TestVariantsFigureScale(t *testing.T) {
 
 func TestRecordAndReturnPeriod(t *testing.T) {
 	r := groundFixture()
-	r.Frost.IndexSource = "record: mean of the 3 coldest of 10 complete winters"
-	r.Frost.ReturnPeriod = &scenarios.ReturnPeriodIndex{Winters: 10, Method: "Gumbel, method of moments", Location_Cd: 1190, Scale_Cd: 209, Years: 100, FreezingIndex_Cd: 2151}
+	r.Frost.IndexSource = results.IndexSource{Origin: results.FromRecord, Coldest: 3, Winters: 10}
+	r.Frost.ReturnPeriod = &results.ReturnPeriodIndex{Winters: 10, Method: "Gumbel, method of moments", Location_Cd: 1190, Scale_Cd: 209, Years: 100, FreezingIndex_Cd: 2151}
 	r.Frost.Winters[1].StefanDepth_m, r.Frost.Winters[1].ModifiedBerggrenDepth_m = 1.3, 1.1
-	r.Records = []scenarios.RecordInfo{{Use: "surface air temperature", File: "station.csv", Columns: []string{"air"}, Rows: 8761,
+	r.Records = []results.RecordInfo{{Use: "surface air temperature", File: "station.csv", Columns: []string{"air"}, Rows: 8761,
 		First: "2020-07-01T00:00:00Z", Last: "2021-07-01T00:00:00Z", Step_h: 1, FitMean: 1.52, FitAnnualAmp: 13.4, FitAnnualPeak: 201, FitDailyAmp: 3.5, FitDailyPeak: 15,
-		Bridged: []scenarios.BridgedGap{{Column: "air", Line: 120, From: "2020-07-05T23:00:00Z", To: "2020-07-06T02:00:00Z", Filled: 2}}}}
+		Bridged: []results.BridgedGap{{Column: "air", Line: 120, From: "2020-07-05T23:00:00Z", To: "2020-07-06T02:00:00Z", Filled: 2}}}}
 	page := render(t, r, Options{})
 	fi := tableRows(t, page, "Freezing index and frost climate")
 	if got := rowOf(t, fi, "Air freezing index of the record (mean of the 3 coldest of 10 complete winters)"); got[1] != "420 °C·d" {

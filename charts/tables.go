@@ -5,7 +5,7 @@ import (
 	"math"
 	"strings"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // newTable returns a table whose first column is text and the rest
@@ -38,7 +38,7 @@ func pos(v float64, n int) string {
 }
 
 // component names what the results describe, for sentences.
-func component(r *scenarios.Results) string {
+func component(r *results.Results) string {
 	switch r.Orientation {
 	case "roof", "floor", "wall":
 		return r.Orientation
@@ -47,9 +47,9 @@ func component(r *scenarios.Results) string {
 }
 
 // summary writes the plain-words summary at the top of the report.
-func summary(r *scenarios.Results) []string {
+func summary(r *results.Results) []string {
 	var out []string
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		if f := r.Frost; f != nil {
 			out = append(out, frostSummary(f, r.Simulation != nil))
 		}
@@ -82,9 +82,9 @@ func summary(r *scenarios.Results) []string {
 	out = append(out, fmt.Sprintf("Steady U-value %s W/(m²·K); thermal resistance %s m²·K/W surface to surface.",
 		sig(r.Steady.UValue_W_m2K, 3), sig(r.Steady.ThermalResistance_m2K_W, 3)))
 	s := r.Series
-	if len(s.CycleOutsideAir_C) > 0 && len(s.CycleInsideSurface_C) > 0 {
-		out_ := maxOf(s.CycleOutsideAir_C) - minOf(s.CycleOutsideAir_C)
-		in := maxOf(s.CycleInsideSurface_C) - minOf(s.CycleInsideSurface_C)
+	if len(s.Cycle.OutsideAir_C) > 0 && len(s.Cycle.InsideSurface_C) > 0 {
+		out_ := maxOf(s.Cycle.OutsideAir_C) - minOf(s.Cycle.OutsideAir_C)
+		in := maxOf(s.Cycle.InsideSurface_C) - minOf(s.Cycle.InsideSurface_C)
 		if finite(out_) && finite(in) {
 			out = append(out, fmt.Sprintf("In the cycle shown below the outside environment temperature ranges over %s K and the inside surface temperature over %s K; that ratio of temperature swings is a different quantity from the decrement factor.",
 				fixed(out_, 1), fixed(in, 1)))
@@ -94,8 +94,8 @@ func summary(r *scenarios.Results) []string {
 }
 
 // layerTable lists the layers, outside (or surface) first.
-func layerTable(r *scenarios.Results) *table {
-	ground := r.Kind == "ground"
+func layerTable(r *results.Results) *table {
+	ground := r.Kind == results.Ground
 	thick, depth := "Thickness (mm)", "Penetration depth δ (mm)"
 	f := 1000.0
 	if ground {
@@ -157,7 +157,7 @@ func layerTable(r *scenarios.Results) *table {
 }
 
 // frozenTable lists the frozen-state properties of freezing layers.
-func frozenTable(r *scenarios.Results) *block {
+func frozenTable(r *results.Results) *block {
 	t := newTable("Freezing layers", []string{"#", "Layer", "λ frozen (W/(m·K))", "C frozen (MJ/(m³·K))", "Latent heat L (MJ/m³)", "Freezing point (°C)"}, "num", "text")
 	for i, l := range r.Layers {
 		if !l.Freezing {
@@ -173,9 +173,9 @@ func frozenTable(r *scenarios.Results) *block {
 }
 
 // steadyTable gives the steady-state U-value and resistances.
-func steadyTable(r *scenarios.Results) *block {
+func steadyTable(r *results.Results) *block {
 	s := r.Steady
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		if !(s.ThermalResistance_m2K_W > 0) {
 			return nil
 		}
@@ -196,12 +196,12 @@ func steadyTable(r *scenarios.Results) *block {
 }
 
 // periodicTable lists the ISO 13786 properties per period.
-func periodicTable(r *scenarios.Results) *block {
+func periodicTable(r *results.Results) *block {
 	if len(r.Periodic) == 0 {
 		return nil
 	}
 	in, out := "inside", "outside"
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		in, out = "bottom", "surface"
 	}
 	t := newTable("Periodic properties per period", []string{
@@ -220,7 +220,7 @@ func periodicTable(r *scenarios.Results) *block {
 			sig(p.OutsideAdmittance_W_m2K, 3), fixed(p.OutsideAdmittanceLead_h, 1),
 			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3))
 	}
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		t.Notes = append(t.Notes,
 			"Side 1 is the bottom of the column, side 2 the ground surface. f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance of the column; for a deep column the temperature swing at depth is read more directly from the ground temperature chart.",
 			"Time shift: how long the heat-flow swing at the bottom lags the surface forcing, in [0, period). Y₁₁ and Y₂₂ are the admittances with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities.")
@@ -237,13 +237,13 @@ func periodicTable(r *scenarios.Results) *block {
 
 // energyTable sets the heat that entered through each surface beside the
 // change of heat stored in the construction over the simulated run.
-func energyTable(r *scenarios.Results) *block {
+func energyTable(r *results.Results) *block {
 	s := r.Simulation
 	if s == nil {
 		return nil
 	}
 	in, out := "inside", "outside"
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		in, out = "bottom", "ground surface"
 	}
 	t := newTable("Energy balance of the simulation", []string{"Quantity", "Value", "Unit"}, "text", "", "text")
@@ -262,7 +262,7 @@ func energyTable(r *scenarios.Results) *block {
 }
 
 // stepTable summarises the step-response run.
-func stepTable(r *scenarios.Results) *block {
+func stepTable(r *results.Results) *block {
 	st := r.StepResponse
 	if st == nil {
 		return nil
@@ -273,7 +273,7 @@ func stepTable(r *scenarios.Results) *block {
 	t.row("Surface layer", st.SurfaceLayer, "", "")
 	t.row("Thermal effusivity b = √(λρc) of the surface layer", "", trimZeros(sig(st.SurfaceEffusivity_Ws05_m2K, 4)), "W·s^½/(m²·K)")
 	t.row("Closed form valid until (far face of the surface layer reached)", "", trimZeros(sig(st.HalfSpaceValidFor_s, 3)), "s")
-	t.row("Heat flux 1 s after the step", sig(st.FluxAt1s_W_m2, 4), sig(st.SurfaceEffusivity_Ws05_m2K*st.Change_K/math.Sqrt(math.Pi), 4), "W/m²")
+	t.row("Heat flux 1 s after the step", sig(st.FluxAt1s_W_m2, 4), sig(st.HalfSpaceFluxAt(1), 4), "W/m²")
 	t.row("Heat flux at the end", sig(st.FluxAtEnd_W_m2, 4), sig(st.FluxAtEndHalfSpace_W_m2, 4), "W/m²")
 	t.row("Heat taken up over the duration", sig(st.HeatAbsorbed_J_m2/1000, 4), sig(st.HeatAbsorbedHalfSpace_J_m2/1000, 4), "kJ/m²")
 	for i := range t.Rows {
@@ -290,7 +290,7 @@ func stepTable(r *scenarios.Results) *block {
 
 // checkTable sets the periodic properties fitted from the simulation
 // beside the exact ones.
-func checkTable(r *scenarios.Results) *block {
+func checkTable(r *results.Results) *block {
 	if r.Simulation == nil || len(r.Simulation.PeriodicCheck) == 0 {
 		return nil
 	}
@@ -310,13 +310,13 @@ func checkTable(r *scenarios.Results) *block {
 }
 
 // probeTable lists the simulated temperature statistics at each probe.
-func probeTable(r *scenarios.Results) *block {
+func probeTable(r *results.Results) *block {
 	if r.Simulation == nil || len(r.Simulation.Probes) == 0 {
 		return nil
 	}
 	head := "Position from the outside (mm)"
 	f, n := 1000.0, 3
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		head, f, n = "Depth (m)", 1, 3
 	}
 	t := newTable("Simulated temperatures at the probes", []string{head, "Lowest", "Mean", "Highest"})
@@ -327,10 +327,10 @@ func probeTable(r *scenarios.Results) *block {
 }
 
 // methods lists the methods used and their sources.
-func methods(r *scenarios.Results) []string {
+func methods(r *results.Results) []string {
 	s := r.Steady
 	var m []string
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		m = append(m, "Soil column: horizontal layers from the surface down, ending in a semi-infinite half-space (or a deep layer); surface forcing through the surface resistance given in the scenario.")
 	} else {
 		m = append(m, fmt.Sprintf("Steady state: layers in series with the surface resistances of ISO 6946 (here Rsi = %s and Rse = %s m²·K/W); U = 1 / (Rsi + ΣR + Rse).",
@@ -339,7 +339,7 @@ func methods(r *scenarios.Results) []string {
 	m = append(m,
 		"Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.",
 		"Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
-	if r.Kind == "ground" {
+	if r.Kind == results.Ground {
 		m = append(m, "Exact periodic ground temperatures: the same matrices ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π).")
 	}
 	if sim := r.Simulation; sim != nil {
@@ -351,7 +351,7 @@ func methods(r *scenarios.Results) []string {
 			"Stefan frost depth X = √(2 k F / L): k frozen conductivity, F surface freezing index (converted to °C·s), L latent heat per volume of soil.",
 			"Modified Berggren frost depth (Aldrich and Paynter, 1953; US Army TM 5-852-6 / UFC 3-130-06): the Stefan form with the mean of frozen and unfrozen conductivity, multiplied by a coefficient λ that depends on the thermal ratio α and the fusion parameter μ.")
 	}
-	if len(r.Series.StepTime_s) > 0 || r.StepResponse != nil {
+	if len(r.Series.Step.Time_s) > 0 || r.StepResponse != nil {
 		m = append(m, "Surface heat uptake after a step, closed form: a semi-infinite solid whose surface temperature changes by ΔT, q = λ ΔT / √(π a t) (Carslaw and Jaeger, Conduction of Heat in Solids, §2.4; Incropera et al., Fundamentals of Heat and Mass Transfer, §5.7).")
 	}
 	m = append(m, "Charts: Apache ECharts 5.6.0, embedded in this file. Long time series are thinned for display only.")

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // tableRows returns the rows of the table with the given caption as cell
@@ -114,7 +114,7 @@ func TestGroundSections(t *testing.T) {
 	// As scenarios fills it: the headline index is the design index, the
 	// forcing's own index stays beside it.
 	d, forcing := 600.0, *r.Frost.FreezingIndex_Cd
-	r.Frost.DesignFreezingIndex_Cd, r.Frost.IndexSource = &d, "design"
+	r.Frost.DesignFreezingIndex_Cd, r.Frost.IndexSource = &d, results.IndexSource{Origin: results.FromDesign}
 	r.Frost.FreezingIndex_Cd, r.Frost.SurfaceFreezingIndex_Cd, r.Frost.ForcingFreezingIndex_Cd = ptr(d), ptr(0.7*d), &forcing
 	page = render(t, r, Options{})
 	fi := tableRows(t, page, "Freezing index and frost climate")
@@ -187,7 +187,7 @@ func TestWallInputs(t *testing.T) {
 // the surface temperature: one line, named for both.
 func TestSurfaceEnvironmentMerged(t *testing.T) {
 	r := groundFixture()
-	r.Series.SimOutsideAir_C = append([]float64(nil), r.Series.SimOutsideSurface_C...)
+	r.Series.Simulation.OutsideAir_C = append([]float64(nil), r.Series.Simulation.OutsideSurface_C...)
 	charts, _ := chartData(t, render(t, r, Options{}))
 	var names []string
 	for _, s := range charts[idSimTemp]["series"].([]any) {
@@ -208,18 +208,18 @@ func TestFrostSummary(t *testing.T) {
 	f := groundFixture().Frost
 	for _, tc := range []struct {
 		name string
-		edit func(f *scenarios.Frost)
+		edit func(f *results.Frost)
 		sim  bool
 		want []string
 	}{
-		{"frost", func(*scenarios.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 1 complete and settled winters)",
+		{"frost", func(*results.Frost) {}, true, []string{"reaches 0.82 m below the surface at its deepest (winter 2, year 2, 10 Feb, of 1 complete and settled winters)",
 			"air freezing index of 420 °C·d", "surface freezing index of 294 °C·d (n-factor 0.7 × air index of the forcing)", "Stefan estimate is 1.21 m"}},
-		{"no simulation", func(*scenarios.Frost) {}, false, []string{"No transient simulation was run"}},
-		{"no frost", func(f *scenarios.Frost) {
+		{"no simulation", func(*results.Frost) {}, false, []string{"No transient simulation was run"}},
+		{"no frost", func(f *results.Frost) {
 			f.MaxFrostDepth_m, f.StefanDepth_m, f.ModifiedBerggrenDepth_m, f.Winters = ptr(0), nil, nil, nil
 			f.NotComputed = map[string]string{"stefan_depth_m": "the surface temperature never falls below 0 degC"}
 		}, true, []string{"does not freeze", "no Stefan or modified Berggren estimate (not computed: the surface temperature never falls below 0 degC)"}},
-		{"unsettled", func(f *scenarios.Frost) {
+		{"unsettled", func(f *results.Frost) {
 			f.MaxFrostDepth_m, f.HeadlineWinter = nil, ""
 			f.NotComputed = map[string]string{"max_frost_depth_m": "no simulated winter had settled"}
 		}, true, []string{"no headline simulated frost depth (not computed: no simulated winter had settled)", "Stefan estimate is 1.21 m"}},

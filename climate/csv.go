@@ -777,3 +777,31 @@ func (s *Series) At(column string) (func(t float64) float64, error) {
 		return lerpAt(t, v, j, x)
 	}, nil
 }
+
+// CSVHeader returns the trimmed header names of CSV data as ReadCSV reads
+// them: the first line that is neither blank nor a '#' comment, split at
+// the separator ReadCSV detects. It returns nil when there is no such
+// line.
+func CSVHeader(data []byte, dec rune) []string {
+	data = bytes.TrimPrefix(data, []byte{0xEF, 0xBB, 0xBF})
+	sep, _ := detectSeparator(bufio.NewReaderSize(bytes.NewReader(data), 64<<10), dec)
+	for _, l := range bytes.Split(data, []byte("\n")) {
+		line := strings.TrimRight(string(l), "\r")
+		if t := strings.TrimSpace(line); t == "" || t[0] == '#' {
+			continue
+		}
+		r := csv.NewReader(strings.NewReader(line))
+		r.Comma = sep
+		rec, err := r.Read()
+		if err != nil {
+			// A quoting error: split plainly; ReadCSV reports the error.
+			rec = strings.Split(line, string(sep))
+		}
+		names := make([]string, len(rec))
+		for i, h := range rec {
+			names[i] = strings.TrimSpace(h)
+		}
+		return names
+	}
+	return nil
+}

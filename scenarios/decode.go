@@ -152,6 +152,10 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*S
 	if err := d.decodeStudy(top, s); err != nil {
 		return nil, err
 	}
+	if s.Analysis.Simulate != nil && s.Outside.Temperature != nil {
+		// Resolved here, once: no run changes a decoded scenario.
+		simDefaults(s)
+	}
 	s.root, s.fsys, s.cache = root, fsys, cache
 	if err := checkStudy(s); err != nil {
 		return nil, err

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"errors"
 	"strings"
 	"testing"
@@ -38,7 +39,7 @@ func TestExamplesDecodeAndRun(t *testing.T) {
 		if testing.Short() && s.Kind == Ground {
 			continue
 		}
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{})
 		if err != nil {
 			t.Fatalf("%s: %v", ex.Name, err)
 		}

@@ -7,6 +7,7 @@ import (
 	"tempstack/climate"
 	"tempstack/ground"
 	"tempstack/layers"
+	"tempstack/scenarios/results"
 )
 
 // FitSpec asks for the thermal diffusivity of the ground (or a wall) from
@@ -102,7 +103,7 @@ func (d *decoder) decodeSeriesColumns(o *object, cols []string) (*Measured, erro
 }
 
 // runFit fits the diffusivity to the record and fills r.Fit.
-func runFit(s *Scenario, r *Results) error {
+func runFit(s *run, r *results.Results) error {
 	spec := s.Analysis.Fit
 	rec, err := ground.RecordFromSeries(spec.Measured.Series, spec.Columns, spec.Depths)
 	if err != nil {
@@ -112,7 +113,7 @@ func runFit(s *Scenario, r *Results) error {
 	if err != nil {
 		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: err.Error()}
 	}
-	out := &FitResult{
+	out := &results.FitResult{
 		File:                  spec.Measured.File,
 		Diffusivity_m2_s:      fr.Diffusivity,
 		Method:                "numerical inversion (transient solver driven by the shallowest sensor, least squares on the deeper ones)",
@@ -130,7 +131,7 @@ func runFit(s *Scenario, r *Results) error {
 		out.StdErr_m2_s = fr.HarmonicStdErr
 	}
 	for _, p := range fr.Harmonic {
-		out.Pairs = append(out.Pairs, FitPair{
+		out.Pairs = append(out.Pairs, results.FitPair{
 			Period_h: p.Period / 3600, UpperDepth_m: p.DepthUpper, LowerDepth_m: p.DepthLower,
 			AmplitudeMethod_m2_s: p.Amplitude, PhaseMethod_m2_s: p.Phase, Usable: p.Usable, Note: p.Note,
 		})
@@ -144,13 +145,13 @@ func runFit(s *Scenario, r *Results) error {
 	r.Fit = out
 	// Chart data: measured and modelled at each fitted sensor.
 	ser := &r.Series
-	ser.FitTime_h = nil
+	ser.Fit.Time_h = nil
 	for _, t := range rec.Times {
-		ser.FitTime_h = append(ser.FitTime_h, t/3600)
+		ser.Fit.Time_h = append(ser.Fit.Time_h, t/3600)
 	}
-	ser.FitDepth_m = spec.Depths
-	ser.FitMeasured_C = rec.Temps
-	ser.FitModelled_C = fr.Inversion.Modelled
+	ser.Fit.Depth_m = spec.Depths
+	ser.Fit.Measured_C = rec.Temps
+	ser.Fit.Modelled_C = fr.Inversion.Modelled
 	if math.IsNaN(out.Diffusivity_m2_s) {
 		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: "the fit did not converge"}
 	}

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -9,6 +10,7 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+	"tempstack/scenarios/results"
 	"testing"
 	"testing/fstest"
 	"time"
@@ -155,7 +157,7 @@ func FuzzRun(f *testing.F) {
 		s.Analysis.Simulate = nil
 		s.Analysis.StepResponse = nil
 		type outcome struct {
-			r   *Results
+			r   *results.Results
 			err error
 			p   any
 		}
@@ -166,7 +168,7 @@ func FuzzRun(f *testing.F) {
 				o.p = recover()
 				done <- o
 			}()
-			o.r, o.err = Run(s, nil)
+			o.r, o.err = Run(context.Background(), s, Options{})
 		}()
 		var o outcome
 		select {
@@ -212,7 +214,7 @@ func TestRunRegressions(t *testing.T) {
 						failure = fmt.Sprintf("panic: %v", p)
 					}
 				}()
-				r, err := Run(s, nil)
+				r, err := Run(context.Background(), s, Options{})
 				if err != nil {
 					failure = err.Error()
 				} else if _, err := json.Marshal(r); err != nil {

@@ -4,10 +4,10 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
-	"strings"
 
 	"tempstack/climate"
 	"tempstack/ground"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -53,12 +53,12 @@ func annualHarmonic(f *Forcing) (climate.Harmonic, bool) {
 
 // runGround solves a ground column: exact periodic ground temperatures,
 // the transient simulation with freezing, and the frost analysis.
-func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+func runGround(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col // no inside resistance: the column ends at the bottom condition
 	c := s.construction()
-	r := &Results{Title: s.Title, Kind: string(s.Kind), ScenarioFile: s.File}
+	r := &results.Results{Title: s.Title, Kind: s.Kind, ScenarioFile: s.File}
 	r.Layers = layerResults(s.Layers, climate.Year)
-	r.Steady = Steady{
+	r.Steady = results.Steady{
 		ThermalResistance_m2K_W:  c.ThermalResistance(),
 		OutsideSurfaceResistance: s.Outside.Resistance,
 		TotalResistance_m2K_W:    c.ThermalResistance() + s.Outside.Resistance,
@@ -76,8 +76,8 @@ func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
 		if err != nil {
 			return nil, err
 		}
-		r.Series.FrostDepth_m = res.FrostDepth
-		r.Series.ThawDepth_m = res.ThawDepth
+		r.Series.Simulation.FrostDepth_m = res.FrostDepth
+		r.Series.Simulation.ThawDepth_m = res.ThawDepth
 		if err := frostAnalysis(s, col, r, res); err != nil {
 			return nil, err
 		}
@@ -95,11 +95,11 @@ func runGround(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
 // groundPeriodic fills r.Ground: the exact periodic ground temperature of
 // each analysis period at the probes (transfer matrices ending in a
 // half-space), and the depth where the annual swing falls below 0.1 K.
-func groundPeriodic(s *Scenario, col solver.Column, r *Results) error {
+func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	hs := col
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
-	g := &GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
+	g := &results.GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
 	if s.Inside.Flux {
 		q := s.Inside.HeatFlux
 		g.GeothermalFlux_W_m2 = &q
@@ -118,10 +118,10 @@ func groundPeriodic(s *Scenario, col solver.Column, r *Results) error {
 		if err != nil {
 			return &Error{File: s.File, Key: "analysis.periods", Msg: err.Error()}
 		}
-		gp := GroundPeriodic{Period_h: P / 3600, SurfaceAmplitude_K: cmplx.Abs(z)}
+		gp := results.GroundPeriodic{Period_h: P / 3600, SurfaceAmplitude_K: cmplx.Abs(z)}
 		for j, d := range probes {
 			amp := cmplx.Abs(z) * resp.AmplitudeRatio[j]
-			gp.Probes = append(gp.Probes, GroundProbe{
+			gp.Probes = append(gp.Probes, results.GroundProbe{
 				Depth_m: d, Amplitude_K: amp, Lag_h: resp.Lag[j] / 3600, Lag_d: resp.Lag[j] / climate.Day,
 				Mean_C: mean[j], Min_C: mean[j] - amp, Max_C: mean[j] + amp,
 			})
@@ -167,10 +167,10 @@ func groundPeriodic(s *Scenario, col solver.Column, r *Results) error {
 		periods = append(periods, h.Period)
 		amps = append(amps, row)
 	}
-	r.Series.ProfilePosition_m = xs
-	r.Series.ProfileMean_C = meanX
-	r.Series.ProfileMin_C, r.Series.ProfileMax_C = envelope(meanX, periods, amps)
-	r.Series.Interfaces_m = col.Interfaces()
+	r.Series.Profile.Position_m = xs
+	r.Series.Profile.Mean_C = meanX
+	r.Series.Profile.Min_C, r.Series.Profile.Max_C = envelope(meanX, periods, amps)
+	r.Series.Profile.Interfaces_m = col.Interfaces()
 	return nil
 }
 
@@ -202,16 +202,16 @@ func frostLayers(col solver.Column) []solver.Layer {
 //     (from to), the index of its cold time and the initial temperature
 //     as the mean (the ground's starting excess over freezing of the
 //     Neumann problem behind modified Berggren).
-func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source, why string) {
+func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source results.IndexSource, why string) {
 	f := s.Outside.Temperature
 	if f == nil {
-		return fc, "", "the surface has no temperature"
+		return fc, source, "the surface has no temperature"
 	}
 	nf := s.Outside.NFreezing
 	if m := f.Measured; m != nil {
 		ws, err := recordWinters(m)
 		if err != nil {
-			return fc, "", "the record could not be split into winters: " + err.Error()
+			return fc, source, "the record could not be split into winters: " + err.Error()
 		}
 		var complete []climate.Winter
 		for _, w := range ws {
@@ -220,11 +220,11 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 			}
 		}
 		if len(complete) == 0 {
-			return fc, "", "the record holds no complete winter year (1 July to 30 June)"
+			return fc, source, "the record holds no complete winter year (1 July to 30 June)"
 		}
 		v, _ := m.Series.Value(m.Column)
 		if g, err := climate.GumbelFit(climate.FreezingIndices(complete), climate.Moments); err == nil && len(complete) >= 3 {
-			s.returnPeriod = &ReturnPeriodIndex{Winters: len(complete), Method: "Gumbel, method of moments",
+			s.returnPeriod = &results.ReturnPeriodIndex{Winters: len(complete), Method: "Gumbel, method of moments",
 				Location_Cd: g.Location, Scale_Cd: g.Scale, Years: 100, FreezingIndex_Cd: g.ReturnLevel(100)}
 		}
 		if len(complete) > 30 {
@@ -233,18 +233,17 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		byIndex := append([]climate.Winter(nil), complete...)
 		sortWinters(byIndex)
 		use := 3
-		source = fmt.Sprintf("record: mean of the 3 coldest of %d complete winters", len(complete))
 		if len(complete) < 3 {
 			use = 1
-			source = fmt.Sprintf("record: the coldest of %d complete winters (%s; a design index needs 3)", len(complete), byIndex[0].Label)
 		}
+		source = results.IndexSource{Origin: results.FromRecord, Coldest: use, Winters: len(complete), ColdestLabel: byIndex[0].Label}
 		var idx, days float64
 		for _, w := range byIndex[:use] {
 			idx += w.FreezingIndex / float64(use)
 			days += w.Days / float64(use)
 		}
 		if idx <= 0 {
-			return fc, "", "no complete winter of the record falls below 0 degC"
+			return fc, source, "no complete winter of the record falls below 0 degC"
 		}
 		return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
 	}
@@ -260,16 +259,16 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		}
 		fc, err := ground.PeriodicFrostClimate(slow, climate.Year, climate.Day, nf)
 		if err != nil {
-			return fc, "", "no freezing season in the forcing: " + err.Error()
+			return fc, source, "no freezing season in the forcing: " + err.Error()
 		}
 		if fc.AirIndex <= 0 {
-			return fc, "", "the surface temperature never falls below 0 degC"
+			return fc, source, "the surface temperature never falls below 0 degC"
 		}
-		return fc, "forcing", ""
+		return fc, results.IndexSource{Origin: results.FromForcing}, ""
 	}
 	// A step, a constant or only short periods: the simulated cold period.
 	if !(to > from) {
-		return fc, "", "a step or constant surface temperature has no freezing season of its own; give analysis.simulate (its duration is the cold period) or analysis.design_freezing_index"
+		return fc, source, "a step or constant surface temperature has no freezing season of its own; give analysis.simulate (its duration is the cold period) or analysis.design_freezing_index"
 	}
 	ts, vs := sampleForcing(f, from, to)
 	var idx, cold float64
@@ -282,14 +281,14 @@ func frostClimate(s *Scenario, from, to float64) (fc ground.FrostClimate, source
 		}
 	}
 	if idx <= 0 {
-		return fc, "", "the surface temperature never falls below 0 degC in the simulated period"
+		return fc, source, "the surface temperature never falls below 0 degC in the simulated period"
 	}
 	initial := forcingMean(f)
 	if v := s.Analysis.Simulate; v != nil && v.Initial != nil {
 		initial = *v.Initial
 	}
 	return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
-		"simulated period", ""
+		results.IndexSource{Origin: results.FromSimulated}, ""
 }
 
 // recordWinters splits a measured air-temperature record into winters.
@@ -324,11 +323,11 @@ func closedForms(col solver.Column, fc ground.FrostClimate) (stefan float64, b g
 // r.Frost from the forcing's (or the design) freezing index over the
 // simulated period [from, to] (to <= from: not simulated). Values it
 // cannot compute stay nil, with the reason in NotComputed.
-func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float64) error {
+func frostClosedForms(s *run, col solver.Column, r *results.Results, from, to float64) error {
 	fc, source, why := frostClimate(s, from, to)
 	ok := why == ""
 	if r.Frost == nil {
-		r.Frost = &Frost{}
+		r.Frost = &results.Frost{}
 	}
 	fr := r.Frost
 	if ok {
@@ -338,7 +337,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 		fr.MeanAnnualAir_C = ptr(fc.MeanAnnual)
 		fr.IndexSource = source
 		fr.ReturnPeriod = s.returnPeriod
-		if strings.Contains(source, "a design index needs 3") {
+		if source.Origin == results.FromRecord && source.Coldest < 3 {
 			r.Warnings = append(r.Warnings, "the record has fewer than 3 complete winters: the closed forms use its coldest complete winter, which understates a design freezing index (the mean of the 3 coldest of 30 winters)")
 		}
 	}
@@ -358,7 +357,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 				Msg: "the forcing has no freezing season to take the season length from; give design_season_length"}
 		}
 		fr.DesignFreezingIndex_Cd = ptr(*d)
-		fr.IndexSource = "design"
+		fr.IndexSource = results.IndexSource{Origin: results.FromDesign}
 		// The headline index is the one the closed forms use; the
 		// forcing's own index stays beside it.
 		if fr.FreezingIndex_Cd != nil {
@@ -372,7 +371,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 	}
 	if !ok {
 		for _, k := range []string{"freezing_index_Cd", "surface_freezing_index_Cd", "season_length_d", "mean_annual_air_C"} {
-			fr.notComputed(k, why)
+			fr.SetNotComputed(k, why)
 		}
 	}
 	if ok && fc.SurfaceIndex <= 0 {
@@ -380,13 +379,13 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 	}
 	if !ok {
 		for _, k := range []string{"stefan_depth_m", "modified_berggren_depth_m", "berggren_lambda", "berggren_alpha", "berggren_mu"} {
-			fr.notComputed(k, why)
+			fr.SetNotComputed(k, why)
 		}
 		return nil
 	}
 	ls := frostLayers(col)
 	if depth, _, err := ground.StefanLayered(ls, fc.SurfaceIndex); err != nil {
-		fr.notComputed("stefan_depth_m", err.Error())
+		fr.SetNotComputed("stefan_depth_m", err.Error())
 	} else {
 		fr.StefanDepth_m = ptr(depth)
 	}
@@ -394,7 +393,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 	in.MeanAnnual = math.Max(0, in.MeanAnnual)
 	if b, err := ground.ModifiedBerggren(in); err != nil {
 		for _, k := range []string{"modified_berggren_depth_m", "berggren_lambda", "berggren_alpha", "berggren_mu"} {
-			fr.notComputed(k, err.Error())
+			fr.SetNotComputed(k, err.Error())
 		}
 	} else {
 		fr.ModifiedBerggrenDepth_m = ptr(b.Depth)
@@ -418,7 +417,7 @@ func frostClosedForms(s *Scenario, col solver.Column, r *Results, from, to float
 // frostAnalysis reads the simulated frost per winter (winter years from
 // 1 July to 30 June on the simulation's time axis, t = 0 on 1 January),
 // frozen days at each probe, and the closed forms.
-func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Result) error {
+func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Result) error {
 	times := res.Times
 	if err := frostClosedForms(s, col, r, times[0], times[len(times)-1]); err != nil {
 		return err
@@ -511,7 +510,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		return 0
 	}
 	for wi, w := range wins {
-		fw := FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
+		fw := results.FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
 			Complete: w.complete}
 		if whole {
 			fw.Label = "whole run"
@@ -544,14 +543,14 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 		}
 		fw.MaxFrostDate = dayLabel(fw.MaxFrostDay)
 		for j, z := range s.Analysis.Probes {
-			fz := freezePoint(r.constructionDepth(s, z))
+			fz := freezePoint(s.construction().SolverDepth(z))
 			n := 0
 			for k, t := range times {
 				if k > 0 && t >= w.from && t < w.to && res.Probe[j][k] <= fz {
 					n++
 				}
 			}
-			fw.FrozenDays = append(fw.FrozenDays, ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
+			fw.FrozenDays = append(fw.FrozenDays, results.ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
 		}
 		if f.Measured == nil {
 			if cw, ok := windowIndices(w); ok {
@@ -617,7 +616,7 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 	}
 	if permafrost {
 		fr.MaxFrostDepth_m = nil
-		fr.notComputed("max_frost_depth_m", fmt.Sprintf("permafrost: the ground below the active layer (%.2f m) stays frozen all year, so the deepest ice is the permafrost base, not a seasonal frost depth", *fr.ActiveLayer_m))
+		fr.SetNotComputed("max_frost_depth_m", fmt.Sprintf("permafrost: the ground below the active layer (%.2f m) stays frozen all year, so the deepest ice is the permafrost base, not a seasonal frost depth", *fr.ActiveLayer_m))
 		r.Warnings = append(r.Warnings, fmt.Sprintf("permafrost: the ground stays frozen all year below an active layer of %.2f m; the headline is the active layer, and the permafrost base depends on the column depth and the deep heat flow", *fr.ActiveLayer_m))
 	} else if fr.MaxFrostDepth_m == nil {
 		why := "no complete winter year was simulated; simulate at least one whole year (analysis.simulate.duration)"
@@ -626,22 +625,17 @@ func frostAnalysis(s *Scenario, col solver.Column, r *Results, res *solver.Resul
 				why = "no simulated winter had settled (the spin-up did not converge); raise analysis.simulate.spin_up_cycles"
 			}
 		}
-		fr.notComputed("max_frost_depth_m", why)
+		fr.SetNotComputed("max_frost_depth_m", why)
 	} else if *fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
 		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", *fr.MaxFrostDepth_m, col.Thickness()))
 	}
-	if s.Outside.Temperature.Measured != nil && strings.HasPrefix(fr.IndexSource, "record: mean") {
+	if s.Outside.Temperature.Measured != nil && fr.IndexSource.Origin == results.FromRecord && fr.IndexSource.Coldest >= 3 {
 		r.Warnings = append(r.Warnings, "the headline Stefan and modified Berggren depths use the record's design freezing index (mean of the 3 coldest complete winters); each winter's own closed-form depths are in the winter table")
 	}
-	if fr.IndexSource == "design" {
+	if fr.IndexSource.Origin == results.FromDesign {
 		r.Warnings = append(r.Warnings, "the Stefan and modified Berggren depths use the design freezing index; the simulated depth follows the surface temperature of the scenario")
 	}
 	return nil
-}
-
-// constructionDepth maps a probe depth (as drawn) to the solver position.
-func (r *Results) constructionDepth(s *Scenario, z float64) float64 {
-	return s.construction().SolverDepth(z)
 }
 
 func minIn(v, t []float64, from, to float64) float64 {

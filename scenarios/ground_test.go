@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -9,6 +10,7 @@ import (
 
 	"tempstack/climate"
 	"tempstack/ground"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -41,7 +43,7 @@ analysis:
   simulate: {duration: 60d, step: 1h, initial_temperature: 2}
 `)
 	ser := r.Series
-	got := ser.FrostDepth_m[len(ser.FrostDepth_m)-1]
+	got := ser.Simulation.FrostDepth_m[len(ser.Simulation.FrostDepth_m)-1]
 	m := 3.5945e-2 / math.Sqrt(3600) // m/s^0.5
 	want := m * math.Sqrt(60*climate.Day)
 	t.Logf("frost depth after 60 d: %.4f m, Neumann %.4f m (%.2f %%)", got, want, 100*(got/want-1))
@@ -84,18 +86,18 @@ analysis:
 	a := p.Conductivity / p.HeatCapacity
 	d := math.Sqrt(a * climate.Year / math.Pi)
 	ser := r.Series
-	n := len(ser.SimTime_h)
+	n := len(ser.Simulation.Time_h)
 	var ts []float64
-	for _, h := range ser.SimTime_h {
+	for _, h := range ser.Simulation.Time_h {
 		ts = append(ts, h*3600)
 	}
-	for j, z := range ser.ProbeDepth_m {
+	for j, z := range ser.Simulation.ProbeDepth_m {
 		// Least-squares fit over the last year.
 		var tt, vv []float64
 		for k := 0; k < n; k++ {
 			if ts[k] > ts[n-1]-climate.Year {
 				tt = append(tt, ts[k])
-				vv = append(vv, ser.Probes_C[j][k])
+				vv = append(vv, ser.Simulation.Probes_C[j][k])
 			}
 		}
 		fit, _, err := climate.FitHarmonics(tt, vv, []float64{climate.Year})
@@ -158,7 +160,7 @@ analysis:
 		if err != nil {
 			t.Fatal(err)
 		}
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -174,7 +176,7 @@ analysis:
 		}
 		lower := m * math.Sqrt(dur)
 		upper, _ := ground.Stefan(l.Freeze.ConductivityFrozen, l.Freeze.LatentHeat, -ts*40)
-		got := r.Series.FrostDepth_m[len(r.Series.FrostDepth_m)-1]
+		got := r.Series.Simulation.FrostDepth_m[len(r.Series.Simulation.FrostDepth_m)-1]
 		t.Logf("%s %.0f kg/m3 %.1f %%, Ts %.1f, Ti %.1f: Neumann %.3f <= simulated %.3f <= Stefan %.3f m",
 			tex, dry, 100*w, ts, ti, lower, got, upper)
 		if got < 0.99*lower || got > upper {
@@ -238,7 +240,7 @@ analysis:
 		if err != nil {
 			b.Fatal(err)
 		}
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{})
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -271,7 +273,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -280,7 +282,7 @@ analysis:
 	want := math.Sqrt(2 * l.Freeze.ConductivityFrozen * F * 86400 / l.Freeze.LatentHeat)
 	f := r.Frost
 	if math.Abs(*f.StefanDepth_m-want) > 1e-9 || *f.FreezingIndex_Cd != 1500 || math.Abs(*f.SurfaceFreezingIndex_Cd-F) > 1e-9 ||
-		f.ForcingFreezingIndex_Cd == nil || f.IndexSource != "design" || !(*f.ModifiedBerggrenDepth_m < *f.StefanDepth_m) {
+		f.ForcingFreezingIndex_Cd == nil || f.IndexSource.Origin != results.FromDesign || !(*f.ModifiedBerggrenDepth_m < *f.StefanDepth_m) {
 		t.Errorf("frost %+v; Stefan want %.4f m", f, want)
 	}
 }

@@ -14,6 +14,7 @@ import (
 
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/scenarios/results"
 )
 
 // Measured is a forcing read from a CSV time series.
@@ -306,7 +307,7 @@ func (f *Forcing) describe() string {
 // second and third daily harmonics under the sun): exact periodic results
 // and the simulation's first guess use it; the simulation itself applies
 // the true environment at every step. Fitted reports whether it is a fit.
-func (s *Scenario) surfaceForcing() *Forcing {
+func (s *run) surfaceForcing() *Forcing {
 	sd := s.Outside
 	f := sd.Temperature
 	if f == nil || sd.isPlainHarmonic() || f.Step != nil {
@@ -353,7 +354,6 @@ func (s *Scenario) surfaceForcing() *Forcing {
 	if t1 <= t0 {
 		// No period and no record: a constant environment.
 		s.surface = &Forcing{Periodic: climate.Periodic{Mean: env(0)}, Line: f.Line}
-		s.surfaceFitted = true
 		return s.surface
 	}
 	step := math.Min(3600, (t1-t0)/96)
@@ -373,7 +373,6 @@ func (s *Scenario) surfaceForcing() *Forcing {
 		}
 	}
 	s.surface = &Forcing{Periodic: fit, Line: f.Line}
-	s.surfaceFitted = true
 	// A fit that reproduces the environment to a millikelvin is exact for
 	// all purposes (for example a steady sun on a harmonic climate).
 	s.surfaceInexact = f.Measured != nil || rms > 1e-3
@@ -391,14 +390,14 @@ func mean(v []float64) float64 {
 func sortFloats(v []float64) { sort.Float64s(v) }
 
 // recordInfo summarises a measured forcing for the results.
-func recordInfo(use string, f *Forcing) RecordInfo {
+func recordInfo(use string, f *Forcing) results.RecordInfo {
 	m := f.Measured
 	ser := m.Series
-	ri := RecordInfo{Use: use, File: m.File, Columns: ser.Columns, Rows: len(ser.T),
+	ri := results.RecordInfo{Use: use, File: m.File, Columns: ser.Columns, Rows: len(ser.T),
 		First: ser.Times[0].Format(time.RFC3339), Last: ser.Times[len(ser.Times)-1].Format(time.RFC3339),
-		Step_h: ser.Step / 3600, Bridged: []BridgedGap{}, FitMean: f.Mean}
+		Step_h: ser.Step / 3600, Bridged: []results.BridgedGap{}, FitMean: f.Mean}
 	for _, g := range ser.Bridged {
-		ri.Bridged = append(ri.Bridged, BridgedGap{Column: g.Column, Line: g.Line,
+		ri.Bridged = append(ri.Bridged, results.BridgedGap{Column: g.Column, Line: g.Line,
 			From: g.From.Format(time.RFC3339), To: g.To.Format(time.RFC3339), Filled: g.Filled})
 	}
 	for _, h := range f.Harmonics {
@@ -413,8 +412,8 @@ func recordInfo(use string, f *Forcing) RecordInfo {
 }
 
 // records lists the measured series of a scenario.
-func (s *Scenario) records() []RecordInfo {
-	var out []RecordInfo
+func (s *Scenario) records() []results.RecordInfo {
+	var out []results.RecordInfo
 	use := "outside temperature"
 	if s.Kind == Ground {
 		use = "surface air temperature"
@@ -435,23 +434,23 @@ func (s *Scenario) records() []RecordInfo {
 }
 
 // forcingInfo describes the sides of a scenario for the results.
-func (s *Scenario) forcingInfo() *ForcingInfo {
-	fi := &ForcingInfo{Outside: sideInfo(s.Outside)}
+func (s *Scenario) forcingInfo() *results.ForcingInfo {
+	fi := &results.ForcingInfo{Outside: sideInfo(s.Outside)}
 	in := sideInfo(s.Inside)
 	fi.Inside = &in
 	return fi
 }
 
-func harmonicsInfo(hs []climate.Harmonic) []HarmonicInfo {
-	var out []HarmonicInfo
+func harmonicsInfo(hs []climate.Harmonic) []results.HarmonicInfo {
+	var out []results.HarmonicInfo
 	for _, h := range hs {
-		out = append(out, HarmonicInfo{Period_h: h.Period / 3600, Amplitude: h.Amplitude, Peak_h: h.Peak / 3600})
+		out = append(out, results.HarmonicInfo{Period_h: h.Period / 3600, Amplitude: h.Amplitude, Peak_h: h.Peak / 3600})
 	}
 	return out
 }
 
-func sideInfo(sd Side) SideForcing {
-	out := SideForcing{Resistance_m2K_W: sd.Resistance, Cover: sd.Cover}
+func sideInfo(sd Side) results.SideForcing {
+	out := results.SideForcing{Resistance_m2K_W: sd.Resistance, Cover: sd.Cover}
 	if sd.hasNFactors() {
 		out.NFreezing, out.NThawing = sd.NFreezing, sd.nThawing()
 	}
@@ -468,13 +467,13 @@ func sideInfo(sd Side) SideForcing {
 		out.Harmonics = harmonicsInfo(f.Harmonics)
 	case f.Step != nil:
 		out.Kind, out.Mean_C = "step", f.Step.From
-		out.Step = &StepInfo{From_C: f.Step.From, To_C: f.Step.To, At_h: f.Step.At / 3600}
+		out.Step = &results.StepInfo{From_C: f.Step.From, To_C: f.Step.To, At_h: f.Step.At / 3600}
 	default:
 		out.Kind, out.Mean_C = "harmonic", f.Mean
 		out.Harmonics = harmonicsInfo(f.Harmonics)
 	}
 	if sol := sd.Solar; sol != nil {
-		si := &SolarInfo{Absorptance: sol.Absorptance, AbsorptancePreset: sol.AbsorptanceOf, SkyCorrection_K: sol.SkyCorrection,
+		si := &results.SolarInfo{Absorptance: sol.Absorptance, AbsorptancePreset: sol.AbsorptanceOf, SkyCorrection_K: sol.SkyCorrection,
 			IrradianceMean_W_m2: sol.Irradiance.Mean, IrradianceHarmonics: harmonicsInfo(sol.Irradiance.Harmonics)}
 		if m := sol.Irradiance.Measured; m != nil {
 			si.IrradianceRecord = m.File

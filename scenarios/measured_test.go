@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"os"
@@ -10,6 +11,7 @@ import (
 	"time"
 
 	"tempstack/climate"
+	"tempstack/scenarios/results"
 )
 
 // TestMeasuredSeriesMatchesHarmonic writes a harmonic climate as an hourly
@@ -67,7 +69,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	rm, err := Run(sm, nil)
+	rm, err := Run(context.Background(), sm, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -89,8 +91,8 @@ analysis:
 	}
 }
 
-func completeWinters(r *Results) []FrostWinter {
-	var out []FrostWinter
+func completeWinters(r *results.Results) []results.FrostWinter {
+	var out []results.FrostWinter
 	for _, w := range r.Frost.Winters {
 		if w.Complete {
 			out = append(out, w)
@@ -162,7 +164,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}

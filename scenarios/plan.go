@@ -40,7 +40,7 @@ func Check(s *Scenario) error {
 }
 
 // plan runs every check that Run needs before solving and says what runs.
-// It fills the unset simulation settings (simDefaults).
+// It changes nothing in s (the decoder resolved the defaults).
 func (s *Scenario) plan() (*runPlan, error) {
 	p := &runPlan{col: s.column()}
 	if s.Kind == Ground {
@@ -98,14 +98,13 @@ func (s *Scenario) layerLine(i int) int {
 	return 0
 }
 
-// planSimulation fills the unset simulation settings and checks them
-// before anything is solved: the step against the duration, the duration
+// planSimulation checks the simulation settings (their defaults resolved
+// by the decoder) before anything is solved: the step against the duration, the duration
 // against a record, a step change inside the run, the number of steps, the
 // probe depths and the mesh. It returns the mesh and the probe positions
 // on the solver axis.
 func planSimulation(s *Scenario, col solver.Column) (*solver.Mesh, []float64, error) {
 	sim := s.Analysis.Simulate
-	simDefaults(s)
 	line := sim.Line
 	if line == 0 {
 		line = s.Analysis.Line
@@ -132,8 +131,9 @@ func planSimulation(s *Scenario, col solver.Column) (*solver.Mesh, []float64, er
 	if err != nil {
 		return nil, nil, err
 	}
-	sim.Mesh.MaxCells = maxCells
-	mesh, err := solver.NewMesh(col, sim.Mesh)
+	mo := sim.Mesh // a copy: the scenario stays as decoded
+	mo.MaxCells = maxCells
+	mesh, err := solver.NewMesh(col, mo)
 	if err != nil {
 		return nil, nil, &Error{File: s.File, Line: line, Key: "analysis.simulate.mesh", Msg: meshMessage(err)}
 	}

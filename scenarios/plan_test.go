@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"math"
 	"path/filepath"
 	"strings"
@@ -31,7 +32,7 @@ func TestCheckRefusesWhatRunRefuses(t *testing.T) {
 				t.Fatal("Check accepts it")
 			}
 			s, _ = Load(filepath.Join("..", "testdata", "bad", name))
-			_, rerr := Run(s, nil)
+			_, rerr := Run(context.Background(), s, Options{})
 			if rerr == nil {
 				t.Fatal("Run accepts it")
 			}
@@ -74,7 +75,7 @@ analysis:
 	if err := Check(s); err != nil {
 		t.Fatalf("Check: %v", err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatalf("Run: %v", err)
 	}

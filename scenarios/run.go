@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -8,18 +9,45 @@ import (
 
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
+
+// Options are the choices of a run that are not part of the scenario.
+type Options struct {
+	// Workers caps the goroutines a study uses (0: one per core). The
+	// results do not depend on it.
+	Workers int
+	// Progress, when not nil, is told how far a long simulation has come.
+	Progress Progress
+}
+
+// run is one run of a scenario: the scenario, which the run only reads,
+// and what the run learns on the way (the fitted surface forcing, the
+// depth the periodic wave reaches, a record's return-period fit).
+type run struct {
+	*Scenario
+	ctx  context.Context
+	opts Options
+
+	surface        *Forcing // effective surface forcing, fitted once (see surfaceForcing)
+	surfaceInexact bool     // the fit leaves a residual: the periodic start is only a guess
+	waveDepth      float64  // ground: deepest depth a periodic swing of 0.1 K reaches, m
+	returnPeriod   *results.ReturnPeriodIndex
+}
 
 // Run solves a decoded scenario: the steady and exact periodic analyses
 // (and, in later stages, the transient simulation and the frost analysis)
 // and returns the collected results in the units of the output contract.
 //
-// progress, when not nil, is told how far a long simulation has come.
-//
 // Run first makes every check that Check makes (the plan), so a scenario
-// is refused before anything is solved.
-func Run(s *Scenario, progress Progress) (*Results, error) {
+// is refused before anything is solved. It does not change s: one decoded
+// scenario may be run any number of times, also at once. When ctx is
+// cancelled, Run stops at the next case of a study or before the next
+// simulation and returns ctx.Err().
+func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, error) {
+	s := &run{Scenario: sc, ctx: ctx, opts: opts}
+	progress := opts.Progress
 	if s.Kind != Wall && s.Kind != Ground {
 		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 	}
@@ -27,10 +55,10 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := planStudy(s); err != nil {
+	if err := planStudy(s.Scenario); err != nil {
 		return nil, err
 	}
-	var r *Results
+	var r *results.Results
 	if s.Kind == Wall {
 		r, err = runWall(s, p, progress)
 	} else {
@@ -40,7 +68,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 		return nil, err
 	}
 	r.SimulationSkipped = p.skipped
-	r.Cautions = cautions(r, recordWarnings(s, r))
+	r.Cautions = results.CautionsWith(r, recordWarnings(s.Scenario, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()
 	if s.Analysis.Fit != nil {
@@ -51,7 +79,7 @@ func Run(s *Scenario, progress Progress) (*Results, error) {
 	if s.Study == nil {
 		return r, nil
 	}
-	if err := runStudy(s, r, s.Workers); err != nil {
+	if err := runStudy(s, r); err != nil {
 		return nil, err
 	}
 	return r, nil
@@ -67,17 +95,17 @@ func (s *Scenario) column() solver.Column {
 	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
 }
 
-func runWall(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
+func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 	col := p.col
 	c := s.construction()
-	r := &Results{
+	r := &results.Results{
 		Title:        s.Title,
-		Kind:         string(s.Kind),
+		Kind:         s.Kind,
 		ScenarioFile: s.File,
 		Orientation:  s.Orientation.String(),
 	}
 	rsi, rse := s.Inside.Resistance, s.Outside.Resistance
-	r.Steady = Steady{
+	r.Steady = results.Steady{
 		UValue_W_m2K:             c.UValue(rsi, rse),
 		ThermalResistance_m2K_W:  c.ThermalResistance(),
 		TotalResistance_m2K_W:    c.TotalResistance(rsi, rse),
@@ -101,7 +129,7 @@ func runWall(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
 		if err != nil {
 			return nil, err
 		}
-		periodicChecks(s, r, res)
+		periodicChecks(s.Scenario, r, res)
 	}
 	if s.Analysis.StepResponse != nil {
 		if err := stepResponse(s, col, r); err != nil {
@@ -111,10 +139,10 @@ func runWall(s *Scenario, p *runPlan, progress Progress) (*Results, error) {
 	return r, nil
 }
 
-func layerResults(ls []layers.Layer, period float64) []Layer {
-	out := make([]Layer, len(ls))
+func layerResults(ls []layers.Layer, period float64) []results.Layer {
+	out := make([]results.Layer, len(ls))
 	for i, l := range ls {
-		out[i] = Layer{
+		out[i] = results.Layer{
 			Name:               l.Name,
 			Material:           l.MaterialKey,
 			Source:             l.Source,
@@ -141,8 +169,8 @@ func layerResults(ls []layers.Layer, period float64) []Layer {
 	return out
 }
 
-func periodicResult(p solver.PeriodicProperties) PeriodicResult {
-	return PeriodicResult{
+func periodicResult(p solver.PeriodicProperties) results.PeriodicResult {
+	return results.PeriodicResult{
 		Period_h:                        p.Period / 3600,
 		DecrementFactor:                 p.DecrementFactor,
 		TimeShift_h:                     p.TimeShift / 3600,
@@ -216,7 +244,7 @@ func forcingHarmonics(out, in *Forcing) harmonicSet {
 // wallSeries fills the chart series of a wall: one cycle of the first
 // analysis period, the temperature envelope across the construction and
 // the frequency response.
-func wallSeries(s *Scenario, col solver.Column, r *Results) error {
+func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	ser := &r.Series
 	P := s.Analysis.Periods[0]
 	out := s.surfaceForcing()
@@ -233,7 +261,7 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 
 	// One cycle of the first analysis period.
 	zo, zi := phasorAt(out, P), phasorAt(s.Inside.Temperature, P)
-	if s.surfaceFitted {
+	if s.surface != nil { // the forcing was fitted
 		why := "the sol-air temperature (the irradiance counts as zero when its harmonics go negative at night)"
 		if s.Outside.Temperature.Measured != nil {
 			why = "the measured outside temperature"
@@ -255,12 +283,12 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 	for k := 0; k < n; k++ {
 		t := P * float64(k) / float64(n-1)
 		e := cmplx.Exp(complex(0, w*t))
-		ser.CycleTime_h = append(ser.CycleTime_h, t/3600)
-		ser.CycleOutsideAir_C = append(ser.CycleOutsideAir_C, tOutMean+real(zo*e))
-		ser.CycleInsideAir_C = append(ser.CycleInsideAir_C, tInMean+real(zi*e))
-		ser.CycleOutsideSurface_C = append(ser.CycleOutsideSurface_C, steadyT[0]+real(th[0]*e))
-		ser.CycleInsideSurface_C = append(ser.CycleInsideSurface_C, steadyT[1]+real(th[1]*e))
-		ser.CycleInsideFlux_W_m2 = append(ser.CycleInsideFlux_W_m2, steadyQ+real(q[1]*e))
+		ser.Cycle.Time_h = append(ser.Cycle.Time_h, t/3600)
+		ser.Cycle.OutsideAir_C = append(ser.Cycle.OutsideAir_C, tOutMean+real(zo*e))
+		ser.Cycle.InsideAir_C = append(ser.Cycle.InsideAir_C, tInMean+real(zi*e))
+		ser.Cycle.OutsideSurface_C = append(ser.Cycle.OutsideSurface_C, steadyT[0]+real(th[0]*e))
+		ser.Cycle.InsideSurface_C = append(ser.Cycle.InsideSurface_C, steadyT[1]+real(th[1]*e))
+		ser.Cycle.InsideFlux_W_m2 = append(ser.Cycle.InsideFlux_W_m2, steadyQ+real(q[1]*e))
 	}
 
 	// Envelope across the construction, all forcing harmonics superposed.
@@ -277,10 +305,10 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 			return &Error{File: s.File, Msg: err.Error()}
 		}
 	}
-	ser.ProfilePosition_m = xs
-	ser.ProfileMean_C = meanT
-	ser.ProfileMin_C, ser.ProfileMax_C = envelope(meanT, hs.periods, amps)
-	ser.Interfaces_m = col.Interfaces()
+	ser.Profile.Position_m = xs
+	ser.Profile.Mean_C = meanT
+	ser.Profile.Min_C, ser.Profile.Max_C = envelope(meanT, hs.periods, amps)
+	ser.Profile.Interfaces_m = col.Interfaces()
 
 	// Frequency response.
 	ps := solver.LogPeriods(s.Analysis.Response.From, s.Analysis.Response.To, s.Analysis.Response.Points)
@@ -289,9 +317,9 @@ func wallSeries(s *Scenario, col solver.Column, r *Results) error {
 		return &Error{File: s.File, Msg: err.Error()}
 	}
 	for _, p := range resp {
-		ser.ResponsePeriod_h = append(ser.ResponsePeriod_h, p.Period/3600)
-		ser.ResponseDecrement = append(ser.ResponseDecrement, p.DecrementFactor)
-		ser.ResponseTimeShift_h = append(ser.ResponseTimeShift_h, p.TimeShiftUnwrapped/3600)
+		ser.Response.Period_h = append(ser.Response.Period_h, p.Period/3600)
+		ser.Response.Decrement = append(ser.Response.Decrement, p.DecrementFactor)
+		ser.Response.TimeShift_h = append(ser.Response.TimeShift_h, p.TimeShiftUnwrapped/3600)
 	}
 	return nil
 }
@@ -365,3 +393,6 @@ func fmtHours(p float64) string {
 	}
 	return fmt.Sprintf("%g h", p/3600)
 }
+
+// ptr returns a pointer to a copy of v.
+func ptr(v float64) *float64 { return &v }

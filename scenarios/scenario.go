@@ -17,16 +17,17 @@ import (
 
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
-// Kind is the type of scenario.
-type Kind string
+// Kind is what a scenario describes; its results carry the same kind.
+type Kind = results.Kind
 
 // The scenario kinds.
 const (
-	Wall   Kind = "wall"   // a wall, roof or floor between outside and inside air
-	Ground Kind = "ground" // a soil or rock column below a ground surface
+	Wall   = results.Wall   // a wall, roof or floor between outside and inside air
+	Ground = results.Ground // a soil or rock column below a ground surface
 )
 
 // Scenario is a decoded, validated scenario file in SI units.
@@ -46,18 +47,11 @@ type Scenario struct {
 
 	// Study holds variants, a sweep, a target or uncertainty; nil: none.
 	Study *StudySpec
-	// Workers caps the goroutines a study uses (0: one per core).
-	Workers int
 
 	root  *yaml.Node   // the decoded file, for the study's cases
 	fsys  fs.FS        // where the file's series are read
 	cache *seriesCache // records read, shared with the study's cases
 
-	surface        *Forcing // cached effective surface forcing (fitted; see surfaceForcing)
-	surfaceFitted  bool
-	surfaceInexact bool               // the fit leaves a residual: the periodic start is only a guess
-	waveDepth      float64            // ground: deepest depth a periodic swing of 0.1 K reaches, m
-	returnPeriod   *ReturnPeriodIndex // ground from a record: Gumbel fit of its winters
 }
 
 // Side is the boundary on one face of the column.

@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"tempstack/climate"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -21,7 +22,7 @@ type Progress func(stage string, frac float64)
 const maxSamples = 20000
 
 // simDefaults fills the unset simulation settings of s from the forcing
-// and the analysis periods.
+// and the analysis periods. The decoder calls it, once.
 func simDefaults(s *Scenario) {
 	sim := s.Analysis.Simulate
 	P := s.Analysis.Periods[0]
@@ -175,7 +176,7 @@ func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 // Where the mean is below freezing (permafrost) the cell starts frozen, at
 // no more than the freezing point (a summer talik in the linear solution
 // would otherwise take decades to refreeze).
-func initialState(s *Scenario, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
+func initialState(s *run, col solver.Column, mesh *solver.Mesh, t0 float64) ([]float64, error) {
 	xs := mesh.Centers
 	c := col
 	c.HalfSpace = false
@@ -237,9 +238,12 @@ func forcingMean(f *Forcing) float64 {
 
 // simulate runs the transient solution of s and fills r.Simulation and the
 // simulated series.
-func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*solver.Result, error) {
+func simulate(s *run, col solver.Column, r *results.Results, progress Progress) (*solver.Result, error) {
+	if err := s.ctx.Err(); err != nil {
+		return nil, err
+	}
 	sim := s.Analysis.Simulate
-	mesh, probes, err := planSimulation(s, col)
+	mesh, probes, err := planSimulation(s.Scenario, col)
 	if err != nil {
 		return nil, err
 	}
@@ -270,12 +274,12 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 			// Latent heat makes the problem non-linear: the linear periodic
 			// solution is only a first guess. Repeat the longest forcing
 			// period until one cycle repeats the last.
-			period := longestForcingPeriod(s)
+			period := longestForcingPeriod(s.Scenario)
 			if period > 0 {
 				if progress != nil {
 					progress("spin-up", 0)
 				}
-				settled, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
+				settled, err = spinUp(s.Scenario, p, period, sim.MaxSpinUpCycles, progress)
 				if err != nil {
 					return nil, &Error{File: s.File, Msg: "spin-up: " + err.Error()}
 				}
@@ -299,7 +303,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 	if err := checkFinite(res); err != nil {
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
 	}
-	out := &Simulation{
+	out := &results.Simulation{
 		StartDay:                   sim.Start / climate.Day,
 		Duration_h:                 sim.Duration / 3600,
 		Step_h:                     sim.Step / 3600,
@@ -315,7 +319,7 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 		HeatInInside_J_m2:          res.Energy.InflowInside,
 	}
 	for j, z := range s.Analysis.Probes {
-		pr := Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
+		pr := results.Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
 		var sum float64
 		for k, v := range res.Probe[j] {
 			pr.Min_C = math.Min(pr.Min_C, v)
@@ -336,27 +340,27 @@ func simulate(s *Scenario, col solver.Column, r *Results, progress Progress) (*s
 		out.Start = origin.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
 	}
 	for k, t := range res.Times {
-		ser.SimTime_h = append(ser.SimTime_h, t/3600)
+		ser.Simulation.Time_h = append(ser.Simulation.Time_h, t/3600)
 		if !origin.IsZero() {
-			ser.SimStamp = append(ser.SimStamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
+			ser.Simulation.Stamp = append(ser.Simulation.Stamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
 		}
-		ser.SimOutsideAir_C = append(ser.SimOutsideAir_C, envAt(s.Outside, t))
+		ser.Simulation.OutsideAir_C = append(ser.Simulation.OutsideAir_C, envAt(s.Outside, t))
 		if s.Inside.Temperature != nil {
-			ser.SimInsideAir_C = append(ser.SimInsideAir_C, envAt(s.Inside, t))
+			ser.Simulation.InsideAir_C = append(ser.Simulation.InsideAir_C, envAt(s.Inside, t))
 		}
 		_ = k
 	}
-	ser.SimOutsideSurface_C = res.SurfaceOutside
-	ser.SimInsideSurface_C = res.SurfaceInside
+	ser.Simulation.OutsideSurface_C = res.SurfaceOutside
+	ser.Simulation.InsideSurface_C = res.SurfaceInside
 	// Charts and CSV show the flux averaged over each output interval (the
 	// heat that went through, as in the energy balance): an instantaneous
 	// flux into a freezing surface cell spikes between samples.
-	ser.SimOutsideFlux_W_m2 = res.MeanFluxOutside
-	ser.SimInsideFlux_W_m2 = res.MeanFluxInside
-	ser.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
-	ser.Probes_C = res.Probe
-	ser.SimProfilePosition_m = res.Mesh.Centers
-	ser.SimProfileMin_C, ser.SimProfileMean_C, ser.SimProfileMax_C = res.Min, res.Mean, res.Max
+	ser.Simulation.OutsideFlux_W_m2 = res.MeanFluxOutside
+	ser.Simulation.InsideFlux_W_m2 = res.MeanFluxInside
+	ser.Simulation.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
+	ser.Simulation.Probes_C = res.Probe
+	ser.SimProfile.Position_m = res.Mesh.Centers
+	ser.SimProfile.Min_C, ser.SimProfile.Mean_C, ser.SimProfile.Max_C = res.Min, res.Mean, res.Max
 	return res, nil
 }
 
@@ -420,7 +424,7 @@ func checkFinite(res *solver.Result) error {
 // f = |Q| / (U |Te|) and lag = (-arg(Q/Te)/omega) mod P, with Q and Te the
 // complex amplitudes of inside flux and outside temperature at period P
 // (ISO 13786 definitions, with the inside temperature constant).
-func periodicChecks(s *Scenario, r *Results, res *solver.Result) {
+func periodicChecks(s *Scenario, r *results.Results, res *solver.Result) {
 	if s.Kind != Wall || s.Inside.Temperature == nil || r.Simulation == nil ||
 		!s.Outside.isPlainHarmonic() || s.Inside.Temperature.Measured != nil {
 		return
@@ -455,7 +459,7 @@ func periodicChecks(s *Scenario, r *Results, res *solver.Result) {
 			lag += P
 		}
 		exact := r.Periodic[i]
-		r.Simulation.PeriodicCheck = append(r.Simulation.PeriodicCheck, PeriodicCheck{
+		r.Simulation.PeriodicCheck = append(r.Simulation.PeriodicCheck, results.PeriodicCheck{
 			Period_h:             P / 3600,
 			DecrementFactor:      cmplx.Abs(zq) / (r.Steady.UValue_W_m2K * cmplx.Abs(ze)),
 			TimeShift_h:          lag / 3600,

@@ -1,18 +1,20 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
+	"tempstack/scenarios/results"
 	"testing"
 )
 
-func mustRun(t *testing.T, yaml string) *Results {
+func mustRun(t *testing.T, yaml string) *results.Results {
 	t.Helper()
 	s, err := Decode("test.yaml", []byte(yaml))
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -110,15 +112,15 @@ analysis:
 `)
 	a := 2.0 / (2500 * 900)
 	ser := r.Series
-	for j, z := range ser.ProbeDepth_m {
+	for j, z := range ser.Simulation.ProbeDepth_m {
 		worst := 0.0
-		for k, th := range ser.SimTime_h {
+		for k, th := range ser.Simulation.Time_h {
 			tt := th * 3600
 			if tt < 6*3600 {
 				continue
 			}
 			want := -10 + 30*math.Erf(z/(2*math.Sqrt(a*tt)))
-			worst = math.Max(worst, math.Abs(ser.Probes_C[j][k]-want))
+			worst = math.Max(worst, math.Abs(ser.Simulation.Probes_C[j][k]-want))
 		}
 		t.Logf("probe %.2f m: worst error %.4f K of a 30 K step", z, worst)
 		if worst > 0.005*30 {
@@ -188,7 +190,7 @@ analysis:
 	perDay := 96
 	worst := 0.0
 	for k := 0; k <= perDay; k++ {
-		worst = math.Max(worst, math.Abs(ser.Probes_C[0][k]-ser.Probes_C[0][k+2*perDay]))
+		worst = math.Max(worst, math.Abs(ser.Simulation.Probes_C[0][k]-ser.Simulation.Probes_C[0][k+2*perDay]))
 	}
 	t.Logf("day 1 against day 3 at 0.1 m: %.4f K", worst)
 	if worst > 0.02 {
@@ -209,17 +211,17 @@ func TestStepResponseCurve(t *testing.T) {
 	r := mustRun(t, stoneFloor)
 	ser, sr := r.Series, r.StepResponse
 	worst := 0.0
-	for k, ts := range ser.StepTime_s {
-		if ser.StepFlux_W_m2[k] <= 0 {
-			t.Fatalf("flux %.1f W/m2 at %.3g s has the wrong sign", ser.StepFlux_W_m2[k], ts)
+	for k, ts := range ser.Step.Time_s {
+		if ser.Step.Flux_W_m2[k] <= 0 {
+			t.Fatalf("flux %.1f W/m2 at %.3g s has the wrong sign", ser.Step.Flux_W_m2[k], ts)
 		}
 		if ts < sr.Duration_s/1000 || ts > sr.HalfSpaceValidFor_s {
 			continue
 		}
-		worst = math.Max(worst, math.Abs(ser.StepFlux_W_m2[k]/ser.StepFluxHalfSpace_W_m2[k]-1))
+		worst = math.Max(worst, math.Abs(ser.Step.Flux_W_m2[k]/ser.Step.FluxHalfSpace_W_m2[k]-1))
 	}
 	t.Logf("%d samples from %.2g s; worst relative error %.4f %%; flux at 1 s %.0f W/m2 (closed form %.0f)",
-		len(ser.StepTime_s), ser.StepTime_s[0], 100*worst, sr.FluxAt1s_W_m2, math.Sqrt(2.8*2600*1000)*15/math.Sqrt(math.Pi))
+		len(ser.Step.Time_s), ser.Step.Time_s[0], 100*worst, sr.FluxAt1s_W_m2, math.Sqrt(2.8*2600*1000)*15/math.Sqrt(math.Pi))
 	if worst > 0.01 {
 		t.Errorf("worst relative error %.3f %%", 100*worst)
 	}

@@ -3,37 +3,9 @@ package scenarios
 import (
 	"math"
 
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
-
-// StepResult is the response of one surface of a column to a sudden change
-// of its temperature: the heat flux into the surface and the heat taken up
-// over the first minutes, set beside the closed form for a semi-infinite
-// body of the surface layer's material: the surface heat uptake after a
-// step.
-type StepResult struct {
-	Side                       string  `json:"side"`
-	Change_K                   float64 `json:"change_K"`
-	Duration_s                 float64 `json:"duration_s"`
-	SurfaceLayer               string  `json:"surface_layer"`
-	SurfaceEffusivity_Ws05_m2K float64 `json:"surface_effusivity_W_s05_m2K"`  // sqrt(lambda rho c)
-	HalfSpaceValidFor_s        float64 `json:"half_space_valid_for_s"`        // until the far face of the surface layer sees 1 % of the step
-	HeatAbsorbed_J_m2          float64 `json:"heat_absorbed_J_m2"`            // simulated, over Duration
-	HeatAbsorbedHalfSpace_J_m2 float64 `json:"heat_absorbed_half_space_J_m2"` // closed form, over Duration
-	FluxAt1s_W_m2              float64 `json:"flux_at_1s_W_m2"`
-	FluxAtEnd_W_m2             float64 `json:"flux_at_end_W_m2"`
-	FluxAtEndHalfSpace_W_m2    float64 `json:"flux_at_end_half_space_W_m2"`
-
-	// Contact of a second body with the surface (when asked): the
-	// surface's mean temperature before, and the contact temperature of two
-	// semi-infinite bodies Tc = (b1 T1 + b2 T2)/(b1 + b2) (Carslaw and
-	// Jaeger, chapter II [memory]; [derived] from equal surface fluxes of
-	// the two erf solutions of Incropera et al. section 5.7).
-	SurfaceTemperature_C     float64  `json:"surface_temperature_C,omitempty"`
-	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
-	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`
-	ContactTemperature_C     *float64 `json:"contact_temperature_C,omitempty"`
-}
 
 // stepResponse simulates a step of Change K on the chosen surface (the
 // environment on that side imposed on the surface, resistance 0) of a
@@ -43,9 +15,9 @@ type StepResult struct {
 // Closed form [Incropera et al., Fundamentals of Heat and Mass Transfer,
 // section 5.7, eq. 5.58]: q(t) = b dT / sqrt(pi t), b = sqrt(lambda rho c),
 // so the heat taken up is Q(t) = 2 b dT sqrt(t / pi).
-func stepResponse(s *Scenario, col solver.Column, r *Results) error {
+func stepResponse(s *run, col solver.Column, r *results.Results) error {
 	st := s.Analysis.StepResponse
-	c, first, mesh, err := stepMesh(s, col)
+	c, first, mesh, err := stepMesh(s.Scenario, col)
 	if err != nil {
 		return err
 	}
@@ -67,7 +39,7 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 	// resolved alike (log-spaced samples). Cells at the surface resolve
 	// the diffusion length of the first step.
 	D := st.Duration
-	out := &StepResult{
+	out := &results.StepResult{
 		Side:                       st.Side,
 		Change_K:                   change,
 		Duration_s:                 D,
@@ -105,17 +77,17 @@ func stepResponse(s *Scenario, col solver.Column, r *Results) error {
 		out.HeatAbsorbed_J_m2 += res.Energy.InflowOutside
 		for k := 1; k < len(res.Times); k++ {
 			t0, t1 := res.Times[k-1], res.Times[k]
-			ser.StepTime_s = append(ser.StepTime_s, t1)
-			ser.StepFlux_W_m2 = append(ser.StepFlux_W_m2, res.MeanFluxOutside[k])
-			ser.StepFluxHalfSpace_W_m2 = append(ser.StepFluxHalfSpace_W_m2, (Q(t1)-Q(t0))/(t1-t0))
+			ser.Step.Time_s = append(ser.Step.Time_s, t1)
+			ser.Step.Flux_W_m2 = append(ser.Step.Flux_W_m2, res.MeanFluxOutside[k])
+			ser.Step.FluxHalfSpace_W_m2 = append(ser.Step.FluxHalfSpace_W_m2, (Q(t1)-Q(t0))/(t1-t0))
 		}
 		H = res.FinalEnthalpy
 		start = end
 	}
 	// Fluxes at 1 s and at the end, interpolated in log time between
 	// interval means (each placed at its interval's end).
-	out.FluxAt1s_W_m2 = logInterp(ser.StepTime_s, ser.StepFlux_W_m2, 1)
-	out.FluxAtEnd_W_m2 = ser.StepFlux_W_m2[len(ser.StepFlux_W_m2)-1]
+	out.FluxAt1s_W_m2 = logInterp(ser.Step.Time_s, ser.Step.Flux_W_m2, 1)
+	out.FluxAtEnd_W_m2 = ser.Step.Flux_W_m2[len(ser.Step.Flux_W_m2)-1]
 	if st.ContactTemperature != nil {
 		// The surface's mean temperature from the steady state of the
 		// scenario's mean forcings.
@@ -174,7 +146,7 @@ func reversed(col solver.Column) solver.Column {
 
 // surfaceMean is the mean temperature of the outside or inside surface
 // (degC) in the steady state of the mean forcings.
-func surfaceMean(s *Scenario, col solver.Column, inside bool) (float64, error) {
+func surfaceMean(s *run, col solver.Column, inside bool) (float64, error) {
 	c := col
 	c.HalfSpace = false
 	x := 0.0

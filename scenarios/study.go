@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -9,6 +10,7 @@ import (
 	"sort"
 	"strings"
 	"sync"
+	"tempstack/scenarios/results"
 
 	"gopkg.in/yaml.v3"
 )
@@ -79,38 +81,38 @@ type VarySpec struct {
 
 // quantities are the figures a study can compare, seek and spread, with
 // the function that reads each from Results.
-var quantities = map[string]func(r *Results) (float64, bool){
-	"u_value_W_m2K": func(r *Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == "wall" },
-	"decrement_factor": func(r *Results) (float64, bool) {
-		return first(r, func(p PeriodicResult) float64 { return p.DecrementFactor })
+var quantities = map[string]func(r *results.Results) (float64, bool){
+	"u_value_W_m2K": func(r *results.Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == results.Wall },
+	"decrement_factor": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.DecrementFactor })
 	},
-	"time_shift_h": func(r *Results) (float64, bool) {
-		return first(r, func(p PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
+	"time_shift_h": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
 	},
-	"periodic_transmittance_W_m2K": func(r *Results) (float64, bool) {
-		return first(r, func(p PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })
+	"periodic_transmittance_W_m2K": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })
 	},
-	"inside_admittance_W_m2K": func(r *Results) (float64, bool) {
-		return first(r, func(p PeriodicResult) float64 { return p.InsideAdmittance_W_m2K })
+	"inside_admittance_W_m2K": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.InsideAdmittance_W_m2K })
 	},
-	"inside_areal_heat_capacity_kJ_m2K": func(r *Results) (float64, bool) {
-		return first(r, func(p PeriodicResult) float64 { return p.InsideArealHeatCapacity_kJ_m2K })
+	"inside_areal_heat_capacity_kJ_m2K": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.InsideArealHeatCapacity_kJ_m2K })
 	},
-	"max_frost_depth_m": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) *float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
+	"max_frost_depth_m": func(r *results.Results) (float64, bool) {
+		return frostQ(r, func(f *results.Frost) *float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
 	},
-	"stefan_depth_m": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) *float64 { return f.StefanDepth_m }, true)
+	"stefan_depth_m": func(r *results.Results) (float64, bool) {
+		return frostQ(r, func(f *results.Frost) *float64 { return f.StefanDepth_m }, true)
 	},
-	"modified_berggren_depth_m": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) *float64 { return f.ModifiedBerggrenDepth_m }, true)
+	"modified_berggren_depth_m": func(r *results.Results) (float64, bool) {
+		return frostQ(r, func(f *results.Frost) *float64 { return f.ModifiedBerggrenDepth_m }, true)
 	},
-	"freezing_index_Cd": func(r *Results) (float64, bool) {
-		return frostQ(r, func(f *Frost) *float64 { return f.FreezingIndex_Cd }, true)
+	"freezing_index_Cd": func(r *results.Results) (float64, bool) {
+		return frostQ(r, func(f *results.Frost) *float64 { return f.FreezingIndex_Cd }, true)
 	},
 }
 
-func first(r *Results, f func(PeriodicResult) float64) (float64, bool) {
+func first(r *results.Results, f func(results.PeriodicResult) float64) (float64, bool) {
 	if len(r.Periodic) == 0 {
 		return math.NaN(), false
 	}
@@ -119,7 +121,7 @@ func first(r *Results, f func(PeriodicResult) float64) (float64, bool) {
 
 // frostQ reads a frost quantity; a value that was not computed is not
 // defined (NaN, false).
-func frostQ(r *Results, f func(*Frost) *float64, ok bool) (float64, bool) {
+func frostQ(r *results.Results, f func(*results.Frost) *float64, ok bool) (float64, bool) {
 	if r.Frost == nil || !ok || f(r.Frost) == nil {
 		return math.NaN(), false
 	}
@@ -139,11 +141,8 @@ func quantityNames(k Kind) []string {
 	return out
 }
 
-// Summary holds the study quantities of one case (NaN when not defined).
-type Summary map[string]float64
-
-func summarize(r *Results) Summary {
-	s := Summary{}
+func summarize(r *results.Results) results.Summary {
+	s := results.Summary{}
 	for name, f := range quantities {
 		if v, ok := f(r); ok {
 			s[name] = v
@@ -486,13 +485,17 @@ func (d *decoder) decodeUncertainty(o *object) (*UncertaintySpec, error) {
 // studyCase is one set of replacements of the base file.
 type studyCase []setSpec
 
-// runCase decodes the base file with the replacements and runs it.
-func runCase(s *Scenario, c studyCase) (*Results, error) {
-	cs, err := decodeCase(s, c)
+// runCase decodes the base file with the replacements and runs it; it
+// returns the run's context error once that is cancelled.
+func runCase(s *run, c studyCase) (*results.Results, error) {
+	if err := s.ctx.Err(); err != nil {
+		return nil, err
+	}
+	cs, err := decodeCase(s.Scenario, c)
 	if err != nil {
 		return nil, err
 	}
-	return Run(cs, nil)
+	return Run(s.ctx, cs, Options{})
 }
 
 // decodeCase decodes the base file with the replacements.
@@ -556,8 +559,10 @@ func checkStudy(s *Scenario) error {
 }
 
 // parallel runs fn(0..n-1) on workers goroutines; results land by index,
-// so the outcome does not depend on scheduling.
-func parallel(n, workers int, fn func(i int)) {
+// so the outcome does not depend on scheduling. Once ctx is cancelled no
+// further index is handed out (those running finish) and parallel returns
+// ctx.Err().
+func parallel(ctx context.Context, n, workers int, fn func(i int)) error {
 	if workers < 1 {
 		workers = runtime.GOMAXPROCS(0)
 	}
@@ -572,22 +577,29 @@ func parallel(n, workers int, fn func(i int)) {
 			}
 		}()
 	}
+feed:
 	for i := 0; i < n; i++ {
-		next <- i
+		select {
+		case next <- i:
+		case <-ctx.Done():
+			break feed
+		}
 	}
 	close(next)
 	wg.Wait()
+	return ctx.Err()
 }
 
 // runStudy runs every case the scenario's study asks for and adds the
 // results to r. workers caps the goroutines (0: one per core).
-func runStudy(s *Scenario, r *Results, workers int) error {
+func runStudy(s *run, r *results.Results) error {
+	workers := s.opts.Workers
 	st := s.Study
 	if len(st.Variants) > 0 {
-		vr := make([]VariantResult, len(st.Variants)+1)
+		vr := make([]results.VariantResult, len(st.Variants)+1)
 		errs := make([]error, len(st.Variants))
 		vr[0] = variantResult("base", nil, r)
-		parallel(len(st.Variants), workers, func(i int) {
+		if err := parallel(s.ctx, len(st.Variants), workers, func(i int) {
 			v := st.Variants[i]
 			res, err := runCase(s, v.Sets)
 			if err != nil {
@@ -599,24 +611,28 @@ func runStudy(s *Scenario, r *Results, workers int) error {
 				changes = append(changes, set.Path+" = "+nodeText(set.Value))
 			}
 			vr[i+1] = variantResult(v.Name, changes, res)
-		})
+		}); err != nil {
+			return err
+		}
 		if err := errors.Join(errs...); err != nil {
 			return firstErr(errs)
 		}
 		r.Variants = vr
 	}
 	if sw := st.Sweep; sw != nil {
-		res := &SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s, sw.Parameter), Unit: sw.Unit}
-		points := make([]SweepPoint, len(sw.Values))
+		res := &results.SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s.Scenario, sw.Parameter), Unit: sw.Unit}
+		points := make([]results.SweepPoint, len(sw.Values))
 		errs := make([]error, len(sw.Values))
-		parallel(len(sw.Values), workers, func(i int) {
+		if err := parallel(s.ctx, len(sw.Values), workers, func(i int) {
 			rr, err := runCase(s, studyCase{{Path: sw.Parameter, Value: scalarAt(sw.Values[i], sw.Line, 1), Line: sw.Line}})
 			if err != nil {
 				errs[i] = err
 				return
 			}
-			points[i] = SweepPoint{Value: sw.Numbers[i], Text: sw.Values[i], Quantities: summarize(rr)}
-		})
+			points[i] = results.SweepPoint{Value: sw.Numbers[i], Text: sw.Values[i], Quantities: summarize(rr)}
+		}); err != nil {
+			return err
+		}
 		if err := firstErr(errs); err != nil {
 			return err
 		}
@@ -660,13 +676,12 @@ func nodeText(n *yaml.Node) string {
 	return strings.Join(strings.Fields(string(out)), " ")
 }
 
-func variantResult(name string, changes []string, r *Results) VariantResult {
-	return VariantResult{
+func variantResult(name string, changes []string, r *results.Results) results.VariantResult {
+	return results.VariantResult{
 		Name: name, Changes: changes, Quantities: summarize(r), Layers: r.Layers,
-		ResponsePeriod_h: r.Series.ResponsePeriod_h, ResponseDecrement: r.Series.ResponseDecrement,
-		ResponseTimeShift_h: r.Series.ResponseTimeShift_h,
-		ProfilePosition_m:   r.Series.ProfilePosition_m, ProfileMin_C: r.Series.ProfileMin_C, ProfileMax_C: r.Series.ProfileMax_C,
-		CycleTime_h: r.Series.CycleTime_h, CycleInsideFlux_W_m2: r.Series.CycleInsideFlux_W_m2,
+		Response: r.Series.Response,
+		Profile:  results.ProfileSeries{Position_m: r.Series.Profile.Position_m, Min_C: r.Series.Profile.Min_C, Max_C: r.Series.Profile.Max_C},
+		Cycle:    results.CycleSeries{Time_h: r.Series.Cycle.Time_h, InsideFlux_W_m2: r.Series.Cycle.InsideFlux_W_m2},
 	}
 }
 
@@ -676,7 +691,7 @@ func variantResult(name string, changes []string, r *Results) VariantResult {
 // bisects between it and its failing neighbour down to the tolerance: a
 // bracketing search, robust for any continuous quantity, that returns a
 // value meeting the goal whenever one exists on the grid.
-func seekTarget(s *Scenario, tg *TargetSpec, workers int) (*TargetResult, error) {
+func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, error) {
 	eval := func(x float64) (float64, error) {
 		rr, err := runCase(s, studyCase{{Path: tg.Parameter, Value: scalarAt(joinNumber(x, tg.Unit), tg.Line, 1), Line: tg.Line}})
 		if err != nil {
@@ -701,14 +716,16 @@ func seekTarget(s *Scenario, tg *TargetSpec, workers int) (*TargetResult, error)
 	for i := range xs {
 		xs[i] = tg.From + (tg.To-tg.From)*float64(i)/float64(n-1)
 	}
-	parallel(n, workers, func(i int) { vs[i], errs[i] = eval(xs[i]) })
+	if err := parallel(s.ctx, n, workers, func(i int) { vs[i], errs[i] = eval(xs[i]) }); err != nil {
+		return nil, err
+	}
 	if err := firstErr(errs); err != nil {
 		return nil, err
 	}
-	res := &TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s, tg.Parameter), Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
+	res := &results.TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s.Scenario, tg.Parameter), Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
 		From: tg.From, To: tg.To, Evaluations: n}
 	for i := range xs {
-		res.Scan = append(res.Scan, TargetPoint{Value: xs[i], Quantity: vs[i], Meets: meets(vs[i])})
+		res.Scan = append(res.Scan, results.TargetPoint{Value: xs[i], Quantity: vs[i], Meets: meets(vs[i])})
 	}
 	order := make([]int, n)
 	for i := range order {
@@ -795,7 +812,7 @@ func margin(tg *TargetSpec, v float64) float64 {
 // reports percentiles of every quantity. Samples the decoder refuses (for
 // example a negative thickness drawn from a wide normal) are counted and
 // left out.
-func monteCarlo(s *Scenario, u *UncertaintySpec, workers int) (*UncertaintyResult, error) {
+func monteCarlo(s *run, u *UncertaintySpec, workers int) (*results.UncertaintyResult, error) {
 	rng := rand.New(rand.NewPCG(u.Seed, 0x7e3b5d1a))
 	cases := make([]studyCase, u.Samples)
 	draws := make([][]float64, u.Samples)
@@ -809,23 +826,25 @@ func monteCarlo(s *Scenario, u *UncertaintySpec, workers int) (*UncertaintyResul
 			cases[i] = append(cases[i], setSpec{Path: v.Parameter, Value: scalarAt(joinNumber(x, v.Unit), u.Line, 1), Line: u.Line})
 		}
 	}
-	sums := make([]Summary, u.Samples)
+	sums := make([]results.Summary, u.Samples)
 	errs := make([]error, u.Samples)
-	parallel(u.Samples, workers, func(i int) {
+	if err := parallel(s.ctx, u.Samples, workers, func(i int) {
 		rr, err := runCase(s, cases[i])
 		if err != nil {
 			errs[i] = err
 			return
 		}
 		sums[i] = summarize(rr)
-	})
-	res := &UncertaintyResult{Samples: u.Samples, Seed: u.Seed}
+	}); err != nil {
+		return nil, err
+	}
+	res := &results.UncertaintyResult{Samples: u.Samples, Seed: u.Seed}
 	for _, v := range u.Vary {
 		d := "uniform"
 		if v.Normal {
 			d = "normal"
 		}
-		res.Parameters = append(res.Parameters, UncertainParameter{Parameter: v.Parameter, Distribution: d, A: v.A, B: v.B, Unit: v.Unit})
+		res.Parameters = append(res.Parameters, results.UncertainParameter{Parameter: v.Parameter, Distribution: d, A: v.A, B: v.B, Unit: v.Unit})
 	}
 	for i, e := range errs {
 		if e != nil {
@@ -853,7 +872,7 @@ func monteCarlo(s *Scenario, u *UncertaintySpec, workers int) (*UncertaintyResul
 			continue
 		}
 		sort.Float64s(xs)
-		q := Spread{Quantity: name, N: len(xs), P5: percentile(xs, 0.05), P50: percentile(xs, 0.5), P95: percentile(xs, 0.95), Min: xs[0], Max: xs[len(xs)-1]}
+		q := results.Spread{Quantity: name, N: len(xs), P5: percentile(xs, 0.05), P50: percentile(xs, 0.5), P95: percentile(xs, 0.95), Min: xs[0], Max: xs[len(xs)-1]}
 		var sum, sq float64
 		for _, x := range xs {
 			sum += x

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -11,6 +12,7 @@ import (
 	"time"
 
 	"tempstack/climate"
+	"tempstack/scenarios/results"
 	"tempstack/solver"
 )
 
@@ -94,13 +96,12 @@ sweep:
   parameter: layers[2].thickness
   values: [50 mm, 100 mm, 200 mm]
 `
-	run := func(workers int) *Results {
+	run := func(workers int) *results.Results {
 		s, err := Decode("sweep.yaml", []byte(src))
 		if err != nil {
 			t.Fatal(err)
 		}
-		s.Workers = workers
-		r, err := Run(s, nil)
+		r, err := Run(context.Background(), s, Options{Workers: workers})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -168,7 +169,7 @@ uncertainty:
     - parameter: layers[3].thickness
       uniform: {min: 150 mm, max: 250 mm}
 `)
-	var ts *Spread
+	var ts *results.Spread
 	for i := range r.Uncertainty.Quantities {
 		if r.Uncertainty.Quantities[i].Quantity == "time_shift_h" {
 			ts = &r.Uncertainty.Quantities[i]
@@ -262,7 +263,7 @@ analysis:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -307,8 +308,7 @@ sweep:
 				if err != nil {
 					b.Fatal(err)
 				}
-				s.Workers = w
-				if _, err := Run(s, nil); err != nil {
+				if _, err := Run(context.Background(), s, Options{Workers: w}); err != nil {
 					b.Fatal(err)
 				}
 			}

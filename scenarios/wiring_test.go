@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -38,10 +39,10 @@ analysis:
 	ser := r.Series
 	lo, hi := math.Inf(1), math.Inf(-1)
 	var below float64
-	for k, v := range ser.SimOutsideSurface_C {
+	for k, v := range ser.Simulation.OutsideSurface_C {
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 		if k > 0 && v < 0 {
-			below -= v * (ser.SimTime_h[k] - ser.SimTime_h[k-1]) / 24
+			below -= v * (ser.Simulation.Time_h[k] - ser.Simulation.Time_h[k-1]) / 24
 		}
 	}
 	if math.Abs(lo+5) > 0.01 || math.Abs(hi-15) > 0.01 {
@@ -83,9 +84,9 @@ analysis:
 `)
 	q, k := 0.5, 2.0
 	ser := r.Series
-	for j, z := range ser.ProbeDepth_m {
+	for j, z := range ser.Simulation.ProbeDepth_m {
 		want := 5 + q*z/k
-		got := ser.Probes_C[j][len(ser.Probes_C[j])-1]
+		got := ser.Simulation.Probes_C[j][len(ser.Simulation.Probes_C[j])-1]
 		if math.Abs(got-want) > 0.01 {
 			t.Errorf("simulated %.3f degC at %g m after a year, geotherm %.3f", got, z, want)
 		}
@@ -162,7 +163,7 @@ surface:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -375,13 +376,13 @@ analysis:
 	rse, rsi := r.Steady.OutsideSurfaceResistance, r.Steady.InsideSurfaceResistance
 	rtot := rse + 0.2/0.8 + 0.06/0.035 + rsi
 	worst := 0.0
-	for i, x := range ser.SimProfilePosition_m {
+	for i, x := range ser.SimProfile.Position_m {
 		rx := rse + math.Min(x, 0.2)/0.8 + math.Max(0, x-0.2)/0.035
 		want := 4 + (20-4)*rx/rtot
-		worst = math.Max(worst, math.Abs(ser.SimProfileMean_C[i]-want))
+		worst = math.Max(worst, math.Abs(ser.SimProfile.Mean_C[i]-want))
 	}
-	t.Logf("mean profile against the steady state: worst %.4f K over %d cells", worst, len(ser.SimProfilePosition_m))
-	if worst > 0.01 || len(ser.SimProfilePosition_m) < 10 {
+	t.Logf("mean profile against the steady state: worst %.4f K over %d cells", worst, len(ser.SimProfile.Position_m))
+	if worst > 0.01 || len(ser.SimProfile.Position_m) < 10 {
 		t.Errorf("mean profile differs from the steady state by %.4f K", worst)
 	}
 }

@@ -2,16 +2,17 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
 	"io/fs"
-	"math"
 	"os"
+	"os/signal"
 	"path/filepath"
-	"reflect"
 	"strings"
+	"syscall"
 	"text/tabwriter"
 	"time"
 
@@ -21,6 +22,7 @@ import (
 	"tempstack/ground"
 	"tempstack/layers"
 	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // load decodes the scenario named by the command line: a file, or the
@@ -67,6 +69,10 @@ func asUserError(err error) error {
 	return err
 }
 
+// signalsWatched, when set (by tests), is called once the run command
+// watches for Ctrl-C.
+var signalsWatched func()
+
 func exampleFlag() cli.Flag {
 	return &cli.StringFlag{Name: "example", Usage: "solve the embedded demo `NAME` (see `tempstack examples`)"}
 }
@@ -96,7 +102,17 @@ func runCommand() *cli.Command {
 			if err := checkOutDir(dir, c.Bool("force")); err != nil {
 				return err
 			}
-			res, err := scenarios.Run(s, progressFor(c.App.ErrWriter))
+			// Ctrl-C (or a termination request) cancels the run: a study
+			// stops at its next case and nothing is written.
+			ctx, stop := signal.NotifyContext(c.Context, os.Interrupt, syscall.SIGTERM)
+			defer stop()
+			if signalsWatched != nil {
+				signalsWatched()
+			}
+			res, err := scenarios.Run(ctx, s, scenarios.Options{Progress: progressFor(c.App.ErrWriter)})
+			if errors.Is(err, context.Canceled) {
+				return cli.Exit("interrupted: the run was stopped and nothing was written", 130)
+			}
 			if err != nil {
 				return asUserError(err)
 			}
@@ -228,7 +244,7 @@ func leftovers(dir string, written []string) []string {
 // the temporary files and leaves every earlier file in dir untouched; a
 // process killed before it leaves the earlier files intact too (at worst
 // with a hidden temporary file beside them, never a half-written output).
-func writeOutputs(dir string, res *scenarios.Results, opt charts.Options) ([]string, error) {
+func writeOutputs(dir string, res *results.Results, opt charts.Options) ([]string, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, userErr("cannot create output folder %s: %v", dir, cleanPathError(err))
 	}
@@ -237,23 +253,22 @@ func writeOutputs(dir string, res *scenarios.Results, opt charts.Options) ([]str
 		data []byte
 	}
 	var files []file
-	if at := nonFinite(reflect.ValueOf(res), ""); at != "" {
+	if at := results.NonFinite(res); at != "" {
 		// results.json cannot hold NaN or infinity, and a chart of one is
 		// blank: refuse, naming the value, and write nothing.
 		return nil, cli.Exit(fmt.Sprintf("internal error: the result %s is not a finite number (NaN or infinity); "+
 			"nothing was written (please report this with the scenario file)", at), 2)
 	}
-	js, err := json.MarshalIndent(res, "", "  ")
-	if err != nil {
+	var js bytes.Buffer
+	if err := results.WriteJSON(&js, res); err != nil {
 		return nil, fmt.Errorf("encoding results.json: %w", err)
 	}
-	js = append(js, '\n')
 	var html bytes.Buffer
 	if err := charts.Write(&html, res, opt); err != nil {
 		return nil, fmt.Errorf("building report.html: %w", err)
 	}
-	files = append(files, file{"results.json", js}, file{"report.html", html.Bytes()})
-	for _, extra := range scenarios.CSVFiles(res) {
+	files = append(files, file{"results.json", js.Bytes()}, file{"report.html", html.Bytes()})
+	for _, extra := range results.CSVFiles(res) {
 		files = append(files, file{extra.Name, extra.Data})
 	}
 	for _, f := range files {
@@ -304,64 +319,6 @@ func writeFileAtomic(path string, data []byte) error {
 	}
 	syncDir(filepath.Dir(path))
 	return nil
-}
-
-// nonFinite returns the JSON path (e.g. "periodic[0].decrement_factor") of
-// the first NaN or infinite number that encoding v as JSON would meet, or
-// "" when there is none.
-func nonFinite(v reflect.Value, path string) string {
-	switch v.Kind() {
-	case reflect.Pointer, reflect.Interface:
-		if v.IsNil() {
-			return ""
-		}
-		return nonFinite(v.Elem(), path)
-	case reflect.Float32, reflect.Float64:
-		if f := v.Float(); math.IsNaN(f) || math.IsInf(f, 0) {
-			if path == "" {
-				return "(top level)"
-			}
-			return path
-		}
-	case reflect.Slice, reflect.Array:
-		for i := 0; i < v.Len(); i++ {
-			if at := nonFinite(v.Index(i), fmt.Sprintf("%s[%d]", path, i)); at != "" {
-				return at
-			}
-		}
-	case reflect.Map:
-		iter := v.MapRange()
-		for iter.Next() {
-			if at := nonFinite(iter.Value(), fmt.Sprintf("%s[%v]", path, iter.Key())); at != "" {
-				return at
-			}
-		}
-	case reflect.Struct:
-		t := v.Type()
-		for i := 0; i < t.NumField(); i++ {
-			f := t.Field(i)
-			if !f.IsExported() {
-				continue
-			}
-			name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
-			if name == "-" {
-				continue
-			}
-			if name == "" {
-				name = f.Name
-			}
-			p := name
-			if f.Anonymous && f.Tag.Get("json") == "" {
-				p = strings.TrimSuffix(path, ".")
-			} else if path != "" {
-				p = path + "." + name
-			}
-			if at := nonFinite(v.Field(i), p); at != "" {
-				return at
-			}
-		}
-	}
-	return ""
 }
 
 // createTemp creates the temporary files of writeTemp; tests replace it to

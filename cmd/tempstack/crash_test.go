@@ -15,7 +15,7 @@ import (
 	"testing"
 	"time"
 
-	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // The tests in this file hold the command to its robustness rules: output
@@ -342,7 +342,7 @@ func TestLimitsThroughTheCommand(t *testing.T) {
 // result holding NaN or infinity is an error naming the value, and nothing
 // is written.
 func TestNonFiniteResultsAreRefused(t *testing.T) {
-	res := &scenarios.Results{Title: "t", Kind: "wall", Periodic: []scenarios.PeriodicResult{{Period_h: 24}, {Period_h: 12, DecrementFactor: math.Inf(1)}}}
+	res := &results.Results{Title: "t", Kind: "wall", Periodic: []results.PeriodicResult{{Period_h: 24}, {Period_h: 12, DecrementFactor: math.Inf(1)}}}
 	dir := t.TempDir()
 	_, err := writeOutputs(dir, res, charts.Options{ToolVersion: version})
 	if err == nil || !strings.Contains(err.Error(), "periodic[1].decrement_factor") {
@@ -351,7 +351,7 @@ func TestNonFiniteResultsAreRefused(t *testing.T) {
 	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
 		t.Errorf("files written: %v", entries)
 	}
-	if at := nonFinite(reflect.ValueOf(&scenarios.Results{Title: "t"}), ""); at != "" {
+	if at := results.NonFinite(&results.Results{Title: "t"}); at != "" {
 		t.Errorf("a finite result reported at %s", at)
 	}
 }

@@ -14,13 +14,13 @@ import (
 )
 
 // indicesJSON runs `tempstack indices ... --json` and decodes the output.
-func indicesJSON(t *testing.T, args ...string) indicesReport {
+func indicesJSON(t *testing.T, args ...string) climate.RecordIndices {
 	t.Helper()
 	code, out, stderr := runCLI(t, append([]string{"indices"}, append(args, "--json")...)...)
 	if code != 0 {
 		t.Fatalf("indices %v: exit %d: %s", args, code, stderr)
 	}
-	var r indicesReport
+	var r climate.RecordIndices
 	if err := json.Unmarshal([]byte(out), &r); err != nil {
 		t.Fatalf("indices %v: output is not JSON: %v\n%s", args, err, out)
 	}
@@ -222,7 +222,7 @@ func TestIndicesHandMade(t *testing.T) {
 			args := append([]string{tc.path, "--time-column", "day", "--max-gap", "400d"}, tc.args...)
 			r := indicesJSON(t, args...)
 			const tol = 1e-9
-			want := []indicesWinter{
+			want := []climate.IndicesWinter{
 				{Label: "2022/23", Start: "2022-11-30", End: "2022-12-20", SeasonDays: 20, FreezingIndex_Cd: 60, ThawingIndex_Cd: 1484,
 					MeanTemperature: 1280.0 / 365, Complete: true, ThawComplete: true},
 				{Label: "2023/24", Start: "2024-01-05", End: "2024-02-04", SeasonDays: 30, FreezingIndex_Cd: 150, ThawingIndex_Cd: 572,
@@ -400,7 +400,7 @@ func TestIndicesDailyMeans(t *testing.T) {
 	if !r.DailyMeans || r.BridgedGaps != 1 || r.MaxGap_h != 48 {
 		t.Errorf("daily means %v, %d bridged gaps, max gap %g h; want true, 1, 48", r.DailyMeans, r.BridgedGaps, r.MaxGap_h)
 	}
-	want := []indicesWinter{
+	want := []climate.IndicesWinter{
 		{Label: "2022/23", Start: "2022-12-01", End: "2022-12-11", SeasonDays: 10, FreezingIndex_Cd: 50, ThawingIndex_Cd: 1185,
 			MeanTemperature: 1015.0 / 365, Complete: true, ThawComplete: true},
 		{Label: "2023/24", Start: "2024-01-10", End: "2024-01-30", SeasonDays: 20, FreezingIndex_Cd: 80, ThawingIndex_Cd: 459,

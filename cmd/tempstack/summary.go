@@ -7,17 +7,18 @@ import (
 	"time"
 
 	"tempstack/scenarios"
+	"tempstack/scenarios/results"
 )
 
 // printSummary prints the headline numbers of a run in plain words.
-func printSummary(w io.Writer, r *scenarios.Results) {
+func printSummary(w io.Writer, r *results.Results) {
 	fmt.Fprintf(w, "%s (%s)\n", r.Title, r.Kind)
-	if r.Kind == "wall" {
+	if r.Kind == results.Wall {
 		fmt.Fprintf(w, "  U = %.3f W/(m2 K), R = %.3f m2 K/W (surface to surface)\n",
 			r.Steady.UValue_W_m2K, r.Steady.ThermalResistance_m2K_W)
 	}
 	for _, p := range r.Periodic {
-		if r.Kind != "wall" {
+		if r.Kind != results.Wall {
 			break
 		}
 		fmt.Fprintf(w, "  period %g h: decrement factor %.3f, time shift %.1f h, periodic transmittance %.3f W/(m2 K), admittance inside %.2f W/(m2 K)\n",
@@ -53,8 +54,8 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 			}
 		}
 		src := ""
-		if f.IndexSource != "" && f.IndexSource != "forcing" {
-			src = " (" + f.IndexSource + ")"
+		if o := f.IndexSource.Origin; o != "" && o != results.FromForcing {
+			src = " (" + f.IndexSource.String() + ")"
 		}
 		fmt.Fprintf(w, "  frost: air freezing index %s%s, %s, Stefan %s, modified Berggren %s (estimates; local codes govern)\n",
 			val("freezing_index_Cd", f.FreezingIndex_Cd, "%.0f degC day"), src, sim,
@@ -63,7 +64,7 @@ func printSummary(w io.Writer, r *scenarios.Results) {
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
 	}
-	for _, c := range scenarios.Cautions(r) {
+	for _, c := range results.Cautions(r) {
 		fmt.Fprintf(w, "  caution: %s\n", c)
 	}
 }

@@ -1,4 +1,13 @@
-package scenarios
+package results
+
+// Kind is what a scenario describes and its results are about.
+type Kind string
+
+// The kinds.
+const (
+	Wall   Kind = "wall"   // a wall, roof or floor between outside and inside air
+	Ground Kind = "ground" // a soil or rock column below a ground surface
+)
 
 // Results is everything one run of a scenario produces. It is defined once
 // here and passed unchanged to the JSON writer, the CSV writer and the
@@ -10,7 +19,7 @@ package scenarios
 // end of a run.
 type Results struct {
 	Title        string  `json:"title"`
-	Kind         string  `json:"kind"`                    // "wall" or "ground"
+	Kind         Kind    `json:"kind"`
 	ScenarioFile string  `json:"scenario_file,omitempty"` // as given on the command line, or "(embedded demo)"
 	Orientation  string  `json:"orientation,omitempty"`   // wall kind: wall | roof | floor
 	Layers       []Layer `json:"layers"`
@@ -204,7 +213,7 @@ type Frost struct {
 	MeanAnnualAir_C         *float64          `json:"mean_annual_air_C"`
 	DesignFreezingIndex_Cd  *float64          `json:"design_freezing_index_Cd,omitempty"`
 	ForcingFreezingIndex_Cd *float64          `json:"forcing_freezing_index_Cd,omitempty"` // with a design index: the forcing's own air index
-	IndexSource             string            `json:"index_source"`                        // what the closed forms used: "forcing", "design", "simulated period", "record: ..."
+	IndexSource             IndexSource       `json:"index_source"`                        // what the closed forms used: "forcing", "design", "simulated period", "record: ..."
 	BerggrenLambda          *float64          `json:"berggren_lambda"`
 	BerggrenAlpha           *float64          `json:"berggren_alpha"`
 	BerggrenMu              *float64          `json:"berggren_mu"`
@@ -256,80 +265,93 @@ type ProbeDays struct {
 	Days    float64 `json:"days"`
 }
 
-// Series is chart data: curves over time, over depth and over period.
-// Every slice pair has equal lengths. Temperatures in degC, heat flux in
-// W/m2 (positive from outside to inside), positions in m from the outside.
+// Series is chart data, split by what it is: curves over time, over depth
+// and over period. Every slice pair has equal lengths. Temperatures in
+// degC, heat flux in W/m2 (positive from outside to inside), positions in
+// m from the outside. A part whose analysis did not run is empty.
 type Series struct {
-	// One period (the first analysis period) of the exact periodic steady state.
-	CycleTime_h           []float64
-	CycleOutsideAir_C     []float64 // outside environment (air or sol-air) temperature
-	CycleOutsideSurface_C []float64
-	CycleInsideSurface_C  []float64
-	CycleInsideAir_C      []float64
-	CycleInsideFlux_W_m2  []float64 // heat flux into the room at the inside surface
+	Cycle      CycleSeries      // one period (the first analysis period) of the exact periodic steady state
+	Profile    ProfileSeries    // envelope of the exact periodic state across the construction
+	Response   ResponseSeries   // frequency response
+	Simulation SimulationSeries // the transient simulation, sampled at the output step
+	SimProfile ProfileSeries    // envelope of the simulated temperatures (ground: the last simulated year)
+	Step       StepSeries       // surface heat uptake after a step
+	Fit        FitSeries        // the fit to logged temperatures
+}
 
-	// Envelope of the exact periodic state across the construction.
-	ProfilePosition_m []float64
-	ProfileMin_C      []float64
-	ProfileMean_C     []float64
-	ProfileMax_C      []float64
-	Interfaces_m      []float64 // layer boundaries, including 0 and the total thickness
+// CycleSeries is one period of the exact periodic steady state.
+type CycleSeries struct {
+	Time_h           []float64
+	OutsideAir_C     []float64 // outside environment (air or sol-air) temperature
+	OutsideSurface_C []float64
+	InsideSurface_C  []float64
+	InsideAir_C      []float64
+	InsideFlux_W_m2  []float64 // heat flux into the room at the inside surface
+}
 
-	// Frequency response, periods from 1 h to 1 year.
-	ResponsePeriod_h    []float64
-	ResponseDecrement   []float64
-	ResponseTimeShift_h []float64 // unwrapped lag
+// ProfileSeries is a temperature envelope against position.
+type ProfileSeries struct {
+	Position_m   []float64
+	Min_C        []float64
+	Mean_C       []float64
+	Max_C        []float64
+	Interfaces_m []float64 // layer boundaries, including 0 and the total thickness (exact profile only)
+}
 
-	// Transient simulation, sampled at the output step. Probes_C[i] belongs
-	// to ProbeDepth_m[i]. Empty when no simulation ran.
-	SimTime_h           []float64
-	SimStamp            []string  // ISO 8601 time of each sample, when the run follows a dated record
-	SimOutsideAir_C     []float64 // outside (surface) environment temperature
-	SimOutsideSurface_C []float64
-	SimInsideSurface_C  []float64
-	SimInsideAir_C      []float64 // inside environment temperature (empty with a flux or adiabatic inside)
-	SimOutsideFlux_W_m2 []float64 // at the outside surface, positive inward (+x)
-	SimInsideFlux_W_m2  []float64 // at the inside surface, positive inward (+x)
-	ProbeDepth_m        []float64
-	Probes_C            [][]float64
-	FrostDepth_m        []float64 // deepest frozen position at each sample, 0 when unfrozen (ground)
-	ThawDepth_m         []float64 // depth thawed from the surface in a frozen column (ground), 0 when none
+// ResponseSeries is the frequency response: decrement factor and time
+// shift against period, from 1 h to 1 year by default.
+type ResponseSeries struct {
+	Period_h    []float64
+	Decrement   []float64
+	TimeShift_h []float64 // unwrapped lag
+}
 
-	// Envelope of the simulated temperatures against depth (ground: the
-	// last simulated year).
-	SimProfilePosition_m []float64
-	SimProfileMin_C      []float64
-	SimProfileMean_C     []float64
-	SimProfileMax_C      []float64
+// SimulationSeries is the transient simulation sampled at the output step.
+// Probes_C[i] belongs to ProbeDepth_m[i].
+type SimulationSeries struct {
+	Time_h           []float64
+	Stamp            []string  // ISO 8601 time of each sample, when the run follows a dated record
+	OutsideAir_C     []float64 // outside (surface) environment temperature
+	OutsideSurface_C []float64
+	InsideSurface_C  []float64
+	InsideAir_C      []float64 // inside environment temperature (empty with a flux or adiabatic inside)
+	OutsideFlux_W_m2 []float64 // at the outside surface, positive inward (+x)
+	InsideFlux_W_m2  []float64 // at the inside surface, positive inward (+x)
+	ProbeDepth_m     []float64
+	Probes_C         [][]float64
+	FrostDepth_m     []float64 // deepest frozen position at each sample, 0 when unfrozen (ground)
+	ThawDepth_m      []float64 // depth thawed from the surface in a frozen column (ground), 0 when none
+}
 
-	// Surface heat uptake after a step of the surface temperature:
-	// numerical curve against the half-space closed form.
-	StepTime_s             []float64
-	StepFlux_W_m2          []float64 // simulated surface heat flux
-	StepFluxHalfSpace_W_m2 []float64 // closed form, semi-infinite first layer
+// StepSeries is the surface heat uptake after a step of the surface
+// temperature: the numerical curve against the half-space closed form.
+type StepSeries struct {
+	Time_s             []float64
+	Flux_W_m2          []float64 // simulated surface heat flux
+	FluxHalfSpace_W_m2 []float64 // closed form, semi-infinite first layer
+}
 
-	// Fit to logged temperatures: measured and modelled at each sensor.
-	FitTime_h     []float64
-	FitDepth_m    []float64
-	FitMeasured_C [][]float64
-	FitModelled_C [][]float64 // nil rows for sensors not modelled
+// FitSeries is the fit to logged temperatures: measured and modelled at
+// each sensor.
+type FitSeries struct {
+	Time_h     []float64
+	Depth_m    []float64
+	Measured_C [][]float64
+	Modelled_C [][]float64 // nil rows for sensors not modelled
 }
 
 // VariantResult is one variant of a study (the first is the base file).
+// The curves are those of the variant's exact solution, for the charts
+// that set the variants side by side.
 type VariantResult struct {
 	Name       string   `json:"name"`
 	Changes    []string `json:"changes,omitempty"` // "path = value"
 	Quantities Summary  `json:"quantities"`
 	Layers     []Layer  `json:"layers"`
 
-	ResponsePeriod_h     []float64 `json:"-"`
-	ResponseDecrement    []float64 `json:"-"`
-	ResponseTimeShift_h  []float64 `json:"-"`
-	ProfilePosition_m    []float64 `json:"-"`
-	ProfileMin_C         []float64 `json:"-"`
-	ProfileMax_C         []float64 `json:"-"`
-	CycleTime_h          []float64 `json:"-"`
-	CycleInsideFlux_W_m2 []float64 `json:"-"`
+	Response ResponseSeries `json:"-"`
+	Profile  ProfileSeries  `json:"-"` // Position_m, Min_C and Max_C
+	Cycle    CycleSeries    `json:"-"` // Time_h and InsideFlux_W_m2
 }
 
 // SweepResult is a one-parameter sweep.
@@ -511,13 +533,43 @@ type SolarInfo struct {
 	IrradianceRecord    string         `json:"irradiance_record,omitempty"`
 }
 
-// ptr returns a pointer to a copy of v.
-func ptr(v float64) *float64 { return &v }
-
-// notComputed records that the value under key was not computed and why.
-func (f *Frost) notComputed(key, why string) {
+// SetNotComputed records that the value under the JSON key was not
+// computed, and why.
+func (f *Frost) SetNotComputed(key, why string) {
 	if f.NotComputed == nil {
 		f.NotComputed = map[string]string{}
 	}
 	f.NotComputed[key] = why
+}
+
+// Summary holds the study quantities of one case (NaN when not defined).
+type Summary map[string]float64
+
+// StepResult is the response of one surface of a column to a sudden change
+// of its temperature: the heat flux into the surface and the heat taken up
+// over the first minutes, set beside the closed form for a semi-infinite
+// body of the surface layer's material: the surface heat uptake after a
+// step.
+type StepResult struct {
+	Side                       string  `json:"side"`
+	Change_K                   float64 `json:"change_K"`
+	Duration_s                 float64 `json:"duration_s"`
+	SurfaceLayer               string  `json:"surface_layer"`
+	SurfaceEffusivity_Ws05_m2K float64 `json:"surface_effusivity_W_s05_m2K"`  // sqrt(lambda rho c)
+	HalfSpaceValidFor_s        float64 `json:"half_space_valid_for_s"`        // until the far face of the surface layer sees 1 % of the step
+	HeatAbsorbed_J_m2          float64 `json:"heat_absorbed_J_m2"`            // simulated, over Duration
+	HeatAbsorbedHalfSpace_J_m2 float64 `json:"heat_absorbed_half_space_J_m2"` // closed form, over Duration
+	FluxAt1s_W_m2              float64 `json:"flux_at_1s_W_m2"`
+	FluxAtEnd_W_m2             float64 `json:"flux_at_end_W_m2"`
+	FluxAtEndHalfSpace_W_m2    float64 `json:"flux_at_end_half_space_W_m2"`
+
+	// Contact of a second body with the surface (when asked): the
+	// surface's mean temperature before, and the contact temperature of two
+	// semi-infinite bodies Tc = (b1 T1 + b2 T2)/(b1 + b2) (Carslaw and
+	// Jaeger, chapter II [memory]; [derived] from equal surface fluxes of
+	// the two erf solutions of Incropera et al. section 5.7).
+	SurfaceTemperature_C     float64  `json:"surface_temperature_C,omitempty"`
+	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
+	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`
+	ContactTemperature_C     *float64 `json:"contact_temperature_C,omitempty"`
 }

@@ -1,4 +1,4 @@
-package scenarios
+package results
 
 import (
 	"bytes"
@@ -37,24 +37,24 @@ func CSVFiles(r *Results) []CSVFile {
 			"inside_areal_heat_capacity_kJ_m2K", "outside_areal_heat_capacity_kJ_m2K"}, rows))
 	}
 	s := &r.Series
-	if len(s.ResponsePeriod_h) > 0 {
+	if len(s.Response.Period_h) > 0 {
 		out = append(out, table("response.csv", []string{"period_h", "decrement_factor", "time_shift_unwrapped_h"},
-			columns(s.ResponsePeriod_h, s.ResponseDecrement, s.ResponseTimeShift_h)))
+			columns(s.Response.Period_h, s.Response.Decrement, s.Response.TimeShift_h)))
 	}
-	if len(s.ProfilePosition_m) > 0 {
+	if len(s.Profile.Position_m) > 0 {
 		out = append(out, table("profile.csv", []string{"position_m", "min_C", "mean_C", "max_C"},
-			columns(s.ProfilePosition_m, s.ProfileMin_C, s.ProfileMean_C, s.ProfileMax_C)))
+			columns(s.Profile.Position_m, s.Profile.Min_C, s.Profile.Mean_C, s.Profile.Max_C)))
 	}
-	if len(s.SimTime_h) > 0 {
+	if len(s.Simulation.Time_h) > 0 {
 		out = append(out, seriesCSV(r))
 	}
-	if len(s.StepTime_s) > 0 {
+	if len(s.Step.Time_s) > 0 {
 		out = append(out, table("step_response.csv", []string{"time_s", "surface_heat_flux_W_m2", "half_space_heat_flux_W_m2"},
-			columns(s.StepTime_s, s.StepFlux_W_m2, s.StepFluxHalfSpace_W_m2)))
+			columns(s.Step.Time_s, s.Step.Flux_W_m2, s.Step.FluxHalfSpace_W_m2)))
 	}
-	if len(s.CycleTime_h) > 0 {
+	if len(s.Cycle.Time_h) > 0 {
 		out = append(out, table("cycle.csv", []string{"time_h", "outside_air_C", "outside_surface_C", "inside_surface_C", "inside_air_C", "inside_heat_flux_W_m2"},
-			columns(s.CycleTime_h, s.CycleOutsideAir_C, s.CycleOutsideSurface_C, s.CycleInsideSurface_C, s.CycleInsideAir_C, s.CycleInsideFlux_W_m2)))
+			columns(s.Cycle.Time_h, s.Cycle.OutsideAir_C, s.Cycle.OutsideSurface_C, s.Cycle.InsideSurface_C, s.Cycle.InsideAir_C, s.Cycle.InsideFlux_W_m2)))
 	}
 	return out
 }
@@ -105,31 +105,31 @@ func seriesCSV(r *Results) CSVFile {
 	s := &r.Series
 	out, in := "outside", "inside"
 	envName, surfName, inSurf := "outside_environment_C", "outside_surface_C", "inside_surface_C"
-	if r.Kind == "ground" {
+	if r.Kind == Ground {
 		out, in = "surface", "bottom"
 		envName, surfName, inSurf = "surface_forcing_C", "ground_surface_C", "bottom_C"
 	}
 	header := []string{"time_h", envName, surfName}
-	cols := [][]float64{s.SimTime_h, s.SimOutsideAir_C, s.SimOutsideSurface_C}
-	for j, z := range s.ProbeDepth_m {
+	cols := [][]float64{s.Simulation.Time_h, s.Simulation.OutsideAir_C, s.Simulation.OutsideSurface_C}
+	for j, z := range s.Simulation.ProbeDepth_m {
 		header = append(header, "probe_"+strconv.FormatFloat(z, 'g', 6, 64)+"m_C")
-		cols = append(cols, s.Probes_C[j])
+		cols = append(cols, s.Simulation.Probes_C[j])
 	}
 	header = append(header, inSurf)
-	cols = append(cols, s.SimInsideSurface_C)
-	if len(s.SimInsideAir_C) > 0 {
+	cols = append(cols, s.Simulation.InsideSurface_C)
+	if len(s.Simulation.InsideAir_C) > 0 {
 		header = append(header, in+"_environment_C")
-		cols = append(cols, s.SimInsideAir_C)
+		cols = append(cols, s.Simulation.InsideAir_C)
 	}
 	header = append(header, out+"_heat_flux_W_m2", in+"_heat_flux_W_m2")
-	cols = append(cols, s.SimOutsideFlux_W_m2, s.SimInsideFlux_W_m2)
-	if len(s.FrostDepth_m) > 0 {
+	cols = append(cols, s.Simulation.OutsideFlux_W_m2, s.Simulation.InsideFlux_W_m2)
+	if len(s.Simulation.FrostDepth_m) > 0 {
 		header = append(header, "frost_depth_m", "thaw_depth_m")
-		cols = append(cols, s.FrostDepth_m, s.ThawDepth_m)
+		cols = append(cols, s.Simulation.FrostDepth_m, s.Simulation.ThawDepth_m)
 	}
 	f := table("series.csv", header, columns(cols...))
-	if len(s.SimStamp) == len(s.SimTime_h) && len(s.SimStamp) > 0 {
-		f.Data = prependColumn(f.Data, "time", s.SimStamp)
+	if len(s.Simulation.Stamp) == len(s.Simulation.Time_h) && len(s.Simulation.Stamp) > 0 {
+		f.Data = prependColumn(f.Data, "time", s.Simulation.Stamp)
 	}
 	return f
 }
