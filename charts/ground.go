@@ -368,7 +368,7 @@ func frostSummary(f *results.Frost, sim bool) string {
 }
 
 // winterStart names the day the winter years of f begin.
-func winterStart(f *scenarios.Frost) string {
+func winterStart(f *results.Frost) string {
 	if f.WinterYearStartDate == "" {
 		return "1 July"
 	}

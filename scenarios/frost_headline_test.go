@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"context"
 	"encoding/json"
 	"fmt"
 	"math"
@@ -117,8 +118,8 @@ func TestClosedFormsForEveryColdForcing(t *testing.T) {
 			if f.MaxFrostDepth_m == nil || *f.MaxFrostDepth_m <= 0 {
 				t.Errorf("simulated headline %v (%v)", f.MaxFrostDepth_m, f.NotComputed)
 			}
-			if f.IndexSource != "simulated period" {
-				t.Errorf("index source %q", f.IndexSource)
+			if f.IndexSource.String() != "simulated period" {
+				t.Errorf("index source %q", f.IndexSource.String())
 			}
 		})
 	}
@@ -154,7 +155,7 @@ surface:
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := Run(s, nil)
+	r, err := Run(context.Background(), s, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -165,8 +166,8 @@ surface:
 	if f.FreezingIndex_Cd == nil || math.Abs(*f.FreezingIndex_Cd/want-1) > 0.01 || f.StefanDepth_m == nil || f.ModifiedBerggrenDepth_m == nil {
 		t.Fatalf("index %v (want %.1f), Stefan %v, Berggren %v; %v", f.FreezingIndex_Cd, want, f.StefanDepth_m, f.ModifiedBerggrenDepth_m, f.NotComputed)
 	}
-	if !strings.Contains(f.IndexSource, "coldest of 2 complete winters") {
-		t.Errorf("index source %q does not say it is the coldest of 2 winters", f.IndexSource)
+	if !strings.Contains(f.IndexSource.String(), "coldest of 2 complete winters") {
+		t.Errorf("index source %q does not say it is the coldest of 2 winters", f.IndexSource.String())
 	}
 	said := false
 	for _, w := range r.Warnings {

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"strings"
 
 	"tempstack/climate"
 	"tempstack/ground"
@@ -472,19 +473,30 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 		whole = true
 	}
 	// Air indices per winter: a record's own winters; for a forcing given
-	// as a function, each window's own, sampled hourly from its start (a
-	// whole window over two years, so the thawing season after the winter
-	// is complete too; the forcing repeats).
+	// as a function, each window's own, sampled hourly from its start over
+	// two years, so that the thawing season after the winter is whole too
+	// (a function forcing is defined beyond the run).
 	var winters []climate.Winter
 	if m := s.Outside.Temperature.Measured; m != nil {
 		winters, _ = recordWinters(m)
 	}
 	windowIndices := func(w window) (climate.Winter, bool) {
-		to := w.to
-		if w.complete && !whole {
-			to = w.from + 2*climate.Year
+		if whole {
+			// No annual cycle: the degree-days of the whole run.
+			ts, vs := sampleForcing(f, w.from, w.to)
+			var cw climate.Winter
+			for k := 1; k < len(ts); k++ {
+				v := 0.5 * (vs[k] + vs[k-1])
+				dd := v * (ts[k] - ts[k-1]) / climate.Day
+				if v < 0 {
+					cw.FreezingIndex -= dd
+				} else {
+					cw.ThawingIndex += dd
+				}
+			}
+			return cw, true
 		}
-		ts, vs := sampleForcing(f, w.from, to)
+		ts, vs := sampleForcing(f, w.from, w.from+2*climate.Year)
 		// climate.Winters splits winter years at 1 July (day 181 of its
 		// axis): put the window's start there.
 		july := 181 * climate.Day

@@ -198,10 +198,11 @@ type Frost struct {
 	HeadlineWinter          string   `json:"headline_winter,omitempty"`
 	// WinterYearStart is the day of the year (1 = 1 January, fractions
 	// allowed) on which the winter years of Winters begin: the forcing's
-	// warmest time for a harmonic ground run, 182 (1 July) otherwise.
-	WinterYearStart float64 `json:"winter_year_start_day"`
+	// warmest time for a harmonic ground run, 182 (1 July) otherwise;
+	// absent without winters.
+	WinterYearStart float64 `json:"winter_year_start_day,omitempty"`
 	// WinterYearStartDate names WinterYearStart as a date ("18 Jul").
-	WinterYearStartDate string `json:"winter_year_start_date"`
+	WinterYearStartDate string `json:"winter_year_start_date,omitempty"`
 	// ActiveLayer_m is the headline where the ground stays frozen all
 	// year (permafrost): the deepest summer thaw of the complete, settled
 	// winters, m; nil otherwise.
