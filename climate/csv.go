@@ -12,6 +12,8 @@ import (
 	"strconv"
 	"strings"
 	"time"
+
+	"tempstack/fileerr"
 )
 
 // DefaultMaxGap is the longest stretch without a value that ReadCSV bridges
@@ -91,29 +93,14 @@ type Series struct {
 	Step    float64 // typical (median) record spacing, s
 }
 
-// CSVError is an error in a CSV file, located by line (1-based, counting
-// every line of the file including the header and comments) and column.
-type CSVError struct {
-	File   string
-	Line   int    // 0 when the error concerns the whole file
-	Column string // header name, or "" when not tied to one column
-	Msg    string
-}
-
-// Error formats the error as "file:line: column "name": message", leaving
-// out the parts that are unknown.
-func (e *CSVError) Error() string {
-	var b strings.Builder
-	b.WriteString(e.File)
-	if e.Line > 0 {
-		fmt.Fprintf(&b, ":%d", e.Line)
+// csvErr is a mistake in a CSV file: at line (0: the whole file), in the
+// column col ("" when not tied to one column), with its cause.
+func csvErr(file string, line int, col, msg string, cause error) *fileerr.Error {
+	e := &fileerr.Error{File: file, Line: line, Msg: msg, Err: cause}
+	if col != "" {
+		e.Key = fmt.Sprintf("column %q", col)
 	}
-	if e.Column != "" {
-		fmt.Fprintf(&b, ": column %q", e.Column)
-	}
-	b.WriteString(": ")
-	b.WriteString(e.Msg)
-	return b.String()
+	return e
 }
 
 var defaultMissing = []string{"", "NA", "NaN", "nan", "null", "-"}
@@ -140,7 +127,8 @@ func unitConv(u string) (func(float64) float64, error) {
 // is skipped; CRLF line ends are accepted. The first non-comment line is the
 // header.
 //
-// Every error is a *CSVError naming the file, the line and the column: an
+// Every error is a *fileerr.Error naming the file, the line and the column
+// (its Key is `column "name"`): an
 // empty file, a header without data, a missing column (with the closest
 // header name), an unparsable time, time going backward, a repeated stamp,
 // a hole longer than MaxGap, or text in a number cell. Holes up to MaxGap
@@ -148,7 +136,7 @@ func unitConv(u string) (func(float64) float64, error) {
 // bridged by linear interpolation and listed in Series.Bridged.
 func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 	fail := func(line int, col, format string, a ...any) error {
-		return &CSVError{File: name, Line: line, Column: col, Msg: fmt.Sprintf(format, a...)}
+		return csvErr(name, line, col, fmt.Sprintf(format, a...), nil)
 	}
 	if len(o.Columns) == 0 {
 		return nil, fail(0, "", "no value columns requested")
@@ -190,7 +178,7 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 		}
 		f, err := unitConv(u)
 		if err != nil {
-			return nil, fail(0, c, "%v", err)
+			return nil, csvErr(name, 0, c, "", err)
 		}
 		convs[i] = f
 	}
@@ -204,7 +192,7 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 		var err error
 		sep, err = detectSeparator(br, dec)
 		if err != nil {
-			return nil, fail(0, "", "%v", err)
+			return nil, csvErr(name, 0, "", "", err)
 		}
 	}
 	if sep == dec {
@@ -313,13 +301,13 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 				var h time.Duration
 				h, err = parseHour(strings.TrimSpace(rec[hourCol]))
 				if err != nil {
-					return nil, fail(line, o.HourColumn, "cannot read hour %q: %v", rec[hourCol], err)
+					return nil, csvErr(name, line, o.HourColumn, fmt.Sprintf("cannot read hour %q", rec[hourCol]), err)
 				}
 				ts = ts.Add(h)
 			}
 		}
 		if err != nil {
-			return nil, fail(line, timeName, "cannot read time %q: %v", rec[timeCol], err)
+			return nil, csvErr(name, line, timeName, fmt.Sprintf("cannot read time %q", rec[timeCol]), err)
 		}
 		if n := len(s.Times); n > 0 {
 			prev := s.Times[n-1]
@@ -427,9 +415,9 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 func csvReadError(name string, err error) error {
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
-		return &CSVError{File: name, Line: pe.Line, Msg: pe.Err.Error()}
+		return &fileerr.Error{File: name, Line: pe.Line, Err: pe.Err}
 	}
-	return &CSVError{File: name, Msg: err.Error()}
+	return &fileerr.Error{File: name, Err: err}
 }
 
 // detectSeparator looks at the first non-comment line and picks the most

@@ -7,6 +7,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"tempstack/fileerr"
 )
 
 // All CSV inputs in this file are small synthetic texts written for the
@@ -69,12 +71,16 @@ func TestReadCSVBadInput(t *testing.T) {
 			if err == nil {
 				t.Fatalf("no error; read %d records", len(s.T))
 			}
-			var ce *CSVError
+			var ce *fileerr.Error
 			if !errors.As(err, &ce) {
-				t.Fatalf("error %v is %T, want *CSVError", err, err)
+				t.Fatalf("error %v is %T, want *fileerr.Error", err, err)
 			}
-			if ce.File != "obs.csv" || ce.Line != tc.line || ce.Column != tc.column {
-				t.Errorf("located at file %q line %d column %q, want obs.csv line %d column %q (%v)", ce.File, ce.Line, ce.Column, tc.line, tc.column, err)
+			wantKey := ""
+			if tc.column != "" {
+				wantKey = fmt.Sprintf("column %q", tc.column)
+			}
+			if ce.File != "obs.csv" || ce.Line != tc.line || ce.Key != wantKey {
+				t.Errorf("located at file %q line %d key %q, want obs.csv line %d key %q (%v)", ce.File, ce.Line, ce.Key, tc.line, wantKey, err)
 			}
 			for _, w := range tc.want {
 				if !strings.Contains(err.Error(), w) {

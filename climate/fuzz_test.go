@@ -5,10 +5,12 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"tempstack/fileerr"
 )
 
 // FuzzReadCSV feeds arbitrary bytes to ReadCSV under option sets picked by
-// mode. ReadCSV must never panic; an error must be a *CSVError naming the
+// mode. ReadCSV must never panic; an error must be a *fileerr.Error naming the
 // file on one line; a series it accepts must have a strictly increasing
 // time axis and finite values, one per record, in every requested column.
 // The seeds (testdata/fuzz/FuzzReadCSV) are small invented records.
@@ -44,9 +46,9 @@ func FuzzReadCSV(f *testing.F) {
 		}
 		s, err := ReadCSV(strings.NewReader(string(data)), name, o)
 		if err != nil {
-			var ce *CSVError
+			var ce *fileerr.Error
 			if !errors.As(err, &ce) {
-				t.Fatalf("error is %T, not *CSVError: %v", err, err)
+				t.Fatalf("error is %T, not *fileerr.Error: %v", err, err)
 			}
 			if ce.File != name || !strings.HasPrefix(err.Error(), name) {
 				t.Fatalf("error does not name the file: %q", err)

@@ -340,7 +340,7 @@ func (d *decoder) decodeLayer(o *object, s *Scenario) (layers.Layer, error) {
 		return l, err
 	}
 	if err := l.Validate(); err != nil {
-		return l, &Error{File: d.file, Line: o.node.Line, Key: o.path, Msg: err.Error()}
+		return l, &Error{File: d.file, Line: o.node.Line, Key: o.path, Err: err}
 	}
 	return l, nil
 }

@@ -107,11 +107,11 @@ func runFit(s *run, r *results.Results) error {
 	spec := s.Analysis.Fit
 	rec, err := ground.RecordFromSeries(spec.Measured.Series, spec.Columns, spec.Depths)
 	if err != nil {
-		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: err.Error()}
+		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Err: err}
 	}
 	fr, err := ground.FitDiffusivity(rec, ground.FitOptions{Periods: spec.Periods, Bottom: spec.Bottom})
 	if err != nil {
-		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: err.Error()}
+		return &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Err: err}
 	}
 	out := &results.FitResult{
 		File:                  spec.Measured.File,

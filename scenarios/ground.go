@@ -111,13 +111,13 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	probes := append([]float64(nil), s.Analysis.Probes...)
 	mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), probes)
 	if err != nil {
-		return &Error{File: s.File, Msg: err.Error()}
+		return &Error{File: s.File, Err: err}
 	}
 	for _, P := range s.Analysis.Periods {
 		z := phasorAt(f, P)
 		resp, err := solver.GroundPeriodic(hs, P, probes)
 		if err != nil {
-			return &Error{File: s.File, Key: "analysis.periods", Msg: err.Error()}
+			return &Error{File: s.File, Key: "analysis.periods", Err: err}
 		}
 		gp := results.GroundPeriodic{Period_h: P / 3600, SurfaceAmplitude_K: cmplx.Abs(z)}
 		for j, d := range probes {
@@ -152,14 +152,14 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	xs := profilePositions(nonHalf(col), 200)
 	meanX, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), xs)
 	if err != nil {
-		return &Error{File: s.File, Msg: err.Error()}
+		return &Error{File: s.File, Err: err}
 	}
 	var periods []float64
 	var amps [][]complex128
 	for _, h := range f.Harmonics {
 		resp, err := solver.GroundPeriodic(hs, h.Period, xs)
 		if err != nil {
-			return &Error{File: s.File, Msg: err.Error()}
+			return &Error{File: s.File, Err: err}
 		}
 		row := make([]complex128, len(xs))
 		for j := range xs {

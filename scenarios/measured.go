@@ -121,18 +121,14 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 	defer f.Close()
 	ser, err := climate.ReadCSV(f, shown, opt)
 	if err != nil {
-		var ce *climate.CSVError
-		if errors.As(err, &ce) {
-			if ce.Line == 0 {
-				ce.Line = 1
+		var fe *Error
+		if errors.As(err, &fe) {
+			if fe.Line == 0 {
+				fe.Line = 1
 			}
-			key := ce.Column
-			if key != "" {
-				key = "column " + key
-			}
-			return nil, &Error{File: ce.File, Line: ce.Line, Key: key, Msg: ce.Msg}
+			return nil, fe
 		}
-		return nil, &Error{File: shown, Line: 1, Msg: err.Error()}
+		return nil, &Error{File: shown, Line: 1, Err: err}
 	}
 	if len(ser.T) < 2 {
 		return nil, &Error{File: shown, Line: 1, Msg: "the series holds fewer than two records"}

@@ -51,7 +51,7 @@ func (s *Scenario) plan() (*runPlan, error) {
 		}
 	}
 	if err := p.col.Validate(); err != nil {
-		return nil, &Error{File: s.File, Key: "layers", Msg: err.Error()}
+		return nil, &Error{File: s.File, Key: "layers", Err: err}
 	}
 	massless := true
 	for _, l := range p.col.Layers {
@@ -83,7 +83,7 @@ func (s *Scenario) plan() (*runPlan, error) {
 	}
 	if spec := s.Analysis.Fit; spec != nil {
 		if _, err := ground.RecordFromSeries(spec.Measured.Series, spec.Columns, spec.Depths); err != nil {
-			return nil, &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Msg: err.Error()}
+			return nil, &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Err: err}
 		}
 	}
 	return p, nil

@@ -117,7 +117,7 @@ func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 	for _, per := range s.Analysis.Periods {
 		pp, err := solver.Periodic(col, per)
 		if err != nil {
-			return nil, &Error{File: s.File, Key: "analysis.periods", Msg: err.Error()}
+			return nil, &Error{File: s.File, Key: "analysis.periods", Err: err}
 		}
 		r.Periodic = append(r.Periodic, periodicResult(pp))
 	}
@@ -256,7 +256,7 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	ends := []float64{0, L}
 	steadyT, steadyQ, err := solver.Steady(col, tOutMean, tInMean, ends)
 	if err != nil {
-		return &Error{File: s.File, Msg: err.Error()}
+		return &Error{File: s.File, Err: err}
 	}
 
 	// One cycle of the first analysis period.
@@ -276,7 +276,7 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	}
 	th, q, err := solver.Harmonic(col, P, zo, zi, ends)
 	if err != nil {
-		return &Error{File: s.File, Msg: err.Error()}
+		return &Error{File: s.File, Err: err}
 	}
 	const n = 97
 	w := 2 * math.Pi / P
@@ -295,14 +295,14 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	xs := profilePositions(col, 160)
 	meanT, _, err := solver.Steady(col, tOutMean, tInMean, xs)
 	if err != nil {
-		return &Error{File: s.File, Msg: err.Error()}
+		return &Error{File: s.File, Err: err}
 	}
 	hs := forcingHarmonics(out, s.Inside.Temperature)
 	amps := make([][]complex128, len(hs.periods))
 	for i, p := range hs.periods {
 		amps[i], _, err = solver.Harmonic(col, p, hs.outside[i], hs.inside[i], xs)
 		if err != nil {
-			return &Error{File: s.File, Msg: err.Error()}
+			return &Error{File: s.File, Err: err}
 		}
 	}
 	ser.Profile.Position_m = xs
@@ -314,7 +314,7 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	ps := solver.LogPeriods(s.Analysis.Response.From, s.Analysis.Response.To, s.Analysis.Response.Points)
 	resp, err := solver.Response(col, ps)
 	if err != nil {
-		return &Error{File: s.File, Msg: err.Error()}
+		return &Error{File: s.File, Err: err}
 	}
 	for _, p := range resp {
 		ser.Response.Period_h = append(ser.Response.Period_h, p.Period/3600)

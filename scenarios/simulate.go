@@ -268,7 +268,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	default:
 		p.Initial, err = initialState(s, col, mesh, sim.Start)
 		if err != nil {
-			return nil, &Error{File: s.File, Msg: "initial state: " + err.Error()}
+			return nil, &Error{File: s.File, Msg: "initial state", Err: err}
 		}
 		if (!isLinear(col) || s.surfaceInexact) && s.Outside.Temperature.Step == nil {
 			// Latent heat makes the problem non-linear: the linear periodic
@@ -281,7 +281,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 				}
 				settled, err = spinUp(s.Scenario, p, period, sim.MaxSpinUpCycles, progress)
 				if err != nil {
-					return nil, &Error{File: s.File, Msg: "spin-up: " + err.Error()}
+					return nil, &Error{File: s.File, Msg: "spin-up", Err: err}
 				}
 				spin, spinChange, spinConverged = settled.Cycles, settled.Change, settled.Converged
 				p.Initial, p.InitialEnthalpy = nil, settled.Enthalpy
@@ -298,10 +298,10 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	}
 	res, err := solver.Simulate(p)
 	if err != nil {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
 	}
 	if err := checkFinite(res); err != nil {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Msg: err.Error()}
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
 	}
 	out := &results.Simulation{
 		StartDay:                   sim.Start / climate.Day,

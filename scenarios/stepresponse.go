@@ -72,7 +72,7 @@ func stepResponse(s *run, col solver.Column, r *results.Results) error {
 		}
 		res, err := solver.Simulate(p)
 		if err != nil {
-			return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+			return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Err: err}
 		}
 		out.HeatAbsorbed_J_m2 += res.Energy.InflowOutside
 		for k := 1; k < len(res.Times); k++ {
@@ -93,7 +93,7 @@ func stepResponse(s *run, col solver.Column, r *results.Results) error {
 		// scenario's mean forcings.
 		ts, err := surfaceMean(s, col, fromInside)
 		if err != nil {
-			return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Msg: err.Error()}
+			return &Error{File: s.File, Line: st.Line, Key: "analysis.step_response", Err: err}
 		}
 		bc := st.ContactEffusivity
 		tc := (b*ts + bc**st.ContactTemperature) / (b + bc)

@@ -512,7 +512,7 @@ func decodeCase(s *Scenario, c studyCase) (*Scenario, error) {
 	}
 	for _, st := range c {
 		if err := setPath(root, st.Path, cloneNode(st.Value)); err != nil {
-			return nil, &Error{File: s.File, Line: st.Line, Key: st.Path, Msg: err.Error()}
+			return nil, &Error{File: s.File, Line: st.Line, Key: st.Path, Err: err}
 		}
 	}
 	return decodeDoc(s.File, root, s.fsys, s.cache)

@@ -17,6 +17,7 @@ import (
 	"github.com/urfave/cli/v2"
 
 	"tempstack/climate"
+	"tempstack/fileerr"
 )
 
 // indicesCommand reads a measured temperature series and prints its
@@ -192,7 +193,7 @@ func readIndicesRecord(data []byte, file string, o climate.CSVOptions, maxGap ti
 		o.MaxGap = gap
 		s, err := climate.ReadCSV(bytes.NewReader(data), file, o)
 		if err != nil {
-			var ce *climate.CSVError
+			var ce *fileerr.Error
 			if errors.As(err, &ce) {
 				return nil, userError{err}
 			}
