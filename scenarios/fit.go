@@ -21,64 +21,32 @@ type FitSpec struct {
 	Line     int
 }
 
-func (d *decoder) decodeFit(parent *object, s *Scenario) error {
-	o, ok, err := parent.child("fit", []string{"file", "time_column", "date_column", "hour_column", "decimal", "separator", "unit", "max_gap", "sensors", "periods", "bottom"})
-	if err != nil || !ok {
-		return err
-	}
-	items, ok, err := o.list("sensors")
-	if err != nil {
-		return err
-	}
-	if !ok || len(items) < 2 {
-		return o.missing("sensors", "at least two {depth, column} entries, shallowest first")
+func (d *decoder) decodeFit(parent *object, s *Scenario) {
+	o := parent.child("fit", []string{"file", "time_column", "date_column", "hour_column", "decimal", "separator", "unit", "max_gap", "sensors", "periods", "bottom"})
+	if o == nil {
+		return
 	}
 	spec := &FitSpec{Line: parent.line("fit")}
-	for i, n := range items {
-		so, err := d.object(n, fmt.Sprintf("analysis.fit.sensors[%d]", i+1), []string{"depth", "column"})
-		if err != nil {
-			return err
-		}
-		z, ok, err := so.nonNegative("depth", layers.Length)
-		if err != nil {
-			return err
-		}
-		if !ok {
-			return so.missing("depth", "m below the surface")
-		}
-		if len(spec.Depths) > 0 && z <= spec.Depths[len(spec.Depths)-1] {
-			return so.errKey("depth", "sensors must be listed shallowest first, each deeper than the last")
-		}
-		col, ok, err := so.str("column")
-		if err != nil {
-			return err
-		}
-		if !ok || col == "" {
-			return so.missing("column", "the header name of this sensor's column")
-		}
-		spec.Depths = append(spec.Depths, z)
-		spec.Columns = append(spec.Columns, col)
+	if !d.decodeSensors(o, spec) {
+		return
 	}
 	// Read the record through the series decoder, with every sensor column.
 	o.values["column"] = scalarAt(spec.Columns[0], o.node.Line, 1)
-	m, err := d.decodeSeriesColumns(o, spec.Columns)
-	if err != nil {
-		return err
+	m := d.decodeSeriesColumns(o, spec.Columns)
+	if m == nil {
+		return
 	}
 	spec.Measured = m
 	t0, t1 := m.Span()
-	if items, ok, err := o.list("periods"); err != nil {
-		return err
-	} else if ok {
+	if items, ok := o.list("periods"); ok {
 		for i, n := range items {
-			p, err := d.scalarQuantity(n, fmt.Sprintf("analysis.fit.periods[%d]", i+1), layers.Period)
-			if err != nil {
-				return err
+			key := fmt.Sprintf("analysis.fit.periods[%d]", i+1)
+			p, ok := d.scalarQuantity(n, key, layers.Period)
+			if ok && (!(p > 0) || p > t1-t0) {
+				d.failf(n, key, "the record (%s) must cover the period (%s) at least once", fmtDuration(t1-t0), fmtDuration(p))
+			} else if ok {
+				spec.Periods = append(spec.Periods, p)
 			}
-			if !(p > 0) || p > t1-t0 {
-				return d.errf(n, fmt.Sprintf("analysis.fit.periods[%d]", i+1), "the record (%s) must cover the period (%s) at least once", fmtDuration(t1-t0), fmtDuration(p))
-			}
-			spec.Periods = append(spec.Periods, p)
 		}
 	} else {
 		spec.Periods = []float64{climate.Day}
@@ -86,17 +54,53 @@ func (d *decoder) decodeFit(parent *object, s *Scenario) error {
 			spec.Periods = []float64{climate.Year, climate.Day}
 		}
 	}
-	if b, ok, err := o.choice("bottom", []string{"auto", "sensor", "adiabatic"}); err != nil {
-		return err
-	} else if ok {
+	var b string
+	if o.choice("bottom", []string{"auto", "sensor", "adiabatic"}, &b) {
 		spec.Bottom = map[string]ground.BottomCondition{"auto": ground.BottomAuto, "sensor": ground.BottomSensor, "adiabatic": ground.BottomAdiabatic}[b]
 	}
 	s.Analysis.Fit = spec
-	return nil
+}
+
+// decodeSensors reads the sensors of a fit, shallowest first; it reports
+// whether they were read without a mistake.
+func (d *decoder) decodeSensors(o *object, spec *FitSpec) bool {
+	items, ok := o.list("sensors")
+	if !ok || len(items) < 2 {
+		if ok || !o.has("sensors") {
+			o.missing("sensors", "at least two {depth, column} entries, shallowest first")
+		}
+		return false
+	}
+	clean := true
+	for i, n := range items {
+		so := d.object(n, fmt.Sprintf("analysis.fit.sensors[%d]", i+1), []string{"depth", "column"})
+		if so == nil {
+			clean = false
+			continue
+		}
+		var z float64
+		var col string
+		if !so.nonNegative("depth", layers.Length, &z) && !so.has("depth") {
+			so.missing("depth", "m below the surface")
+		}
+		if !so.has("column") || so.str("column", &col) && col == "" {
+			so.missing("column", "the header name of this sensor's column")
+		}
+		if so.clean() && len(spec.Depths) > 0 && z <= spec.Depths[len(spec.Depths)-1] {
+			so.failf("depth", "sensors must be listed shallowest first, each deeper than the last")
+		}
+		if !so.clean() {
+			clean = false
+			continue
+		}
+		spec.Depths = append(spec.Depths, z)
+		spec.Columns = append(spec.Columns, col)
+	}
+	return clean
 }
 
 // decodeSeriesColumns is decodeSeries reading several value columns.
-func (d *decoder) decodeSeriesColumns(o *object, cols []string) (*Measured, error) {
+func (d *decoder) decodeSeriesColumns(o *object, cols []string) *Measured {
 	d.extraColumns = cols
 	defer func() { d.extraColumns = nil }()
 	return d.decodeSeries(o, "C")

@@ -3,13 +3,13 @@ package scenarios
 import (
 	"context"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"math"
 	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
+	"tempstack/fileerr"
 	"tempstack/scenarios/results"
 	"testing"
 	"testing/fstest"
@@ -39,24 +39,29 @@ func fuzzFS(tb testing.TB) fstest.MapFS {
 // an *Error naming a file, printed on one line that starts with the file.
 func checkDecodeError(t *testing.T, name string, s *Scenario, err error) {
 	t.Helper()
-	var se *Error
-	if !errors.As(err, &se) {
+	all := fileerr.All(err)
+	if len(all) == 0 {
 		t.Fatalf("error is %T, not *scenarios.Error: %v", err, err)
 	}
 	if s != nil {
 		t.Fatalf("a scenario came with the error %v", err)
 	}
-	msg := err.Error()
-	if strings.ContainsAny(msg, "\n\r") {
-		t.Fatalf("error is not one line: %q", msg)
+	if len(all) > maxErrors {
+		t.Fatalf("%d mistakes reported, more than the limit %d", len(all), maxErrors)
 	}
-	if se.File == "" || !strings.HasPrefix(msg, se.File) {
-		t.Fatalf("error does not start with a file name: %q", msg)
-	}
-	// Errors in the scenario itself carry a line; an error inside a series
-	// file names that file instead (checked by climate's own fuzz test).
-	if se.File == name && se.Line <= 0 {
-		t.Fatalf("error names no line: %q", msg)
+	for _, se := range all {
+		msg := se.Error()
+		if strings.ContainsAny(msg, "\n\r") {
+			t.Fatalf("error is not one line: %q", msg)
+		}
+		if se.File == "" || !strings.HasPrefix(msg, se.File) {
+			t.Fatalf("error does not start with a file name: %q", msg)
+		}
+		// Errors in the scenario itself carry a line; an error inside a series
+		// file names that file instead (checked by climate's own fuzz test).
+		if se.File == name && se.Line <= 0 {
+			t.Fatalf("error names no line: %q", msg)
+		}
 	}
 }
 

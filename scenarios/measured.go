@@ -35,80 +35,98 @@ var seriesKeys = []string{"file", "time_column", "date_column", "hour_column", "
 
 // decodeSeries reads a `{file: ..., column: ...}` block: a CSV series named
 // relative to the scenario file. valueUnit is "C" for temperatures or
-// "W/m2" for irradiance.
-func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
-	name, _, err := o.str("file")
-	if err != nil {
-		return nil, err
+// "W/m2" for irradiance. It returns nil after a mistake (reported).
+func (d *decoder) decodeSeries(o *object, valueUnit string) *Measured {
+	var name, col string
+	if o.has("file") && !o.str("file", &name) {
+		return nil
 	}
-	if name == "" {
-		return nil, o.errKey("file", "give the CSV file name, relative to the scenario file")
+	switch {
+	case name == "":
+		o.failf("file", "give the CSV file name, relative to the scenario file")
+		return nil
+	case d.fsys == nil:
+		o.failf("file", "this scenario cannot read files")
+		return nil
 	}
-	if d.fsys == nil {
-		return nil, o.errKey("file", "this scenario cannot read files")
+	if !o.str("column", &col) {
+		if !o.has("column") {
+			o.missing("column", "the header name of the value column")
+		}
+		return nil
 	}
-	col, ok, err := o.str("column")
-	if err != nil {
-		return nil, err
-	}
+	opt, ok := d.seriesOptions(o, col, valueUnit)
 	if !ok {
-		return nil, o.missing("column", "the header name of the value column")
-	}
-	opt := climate.CSVOptions{Columns: []string{col}}
-	if len(d.extraColumns) > 0 {
-		opt.Columns = d.extraColumns
-	}
-	if opt.TimeColumn, _, err = o.str("time_column"); err != nil {
-		return nil, err
-	}
-	if opt.DateColumn, _, err = o.str("date_column"); err != nil {
-		return nil, err
-	}
-	if opt.HourColumn, _, err = o.str("hour_column"); err != nil {
-		return nil, err
-	}
-	if opt.HourColumn != "" && opt.DateColumn == "" {
-		return nil, o.errKey("hour_column", "goes with date_column (a date and an hour); with a full time stamp use time_column")
-	}
-	if opt.TimeColumn == "" && opt.DateColumn == "" {
-		opt.TimeColumn = "time"
-	}
-	if opt.TimeColumn != "" && opt.DateColumn != "" {
-		return nil, o.errKey("date_column", "give either time_column or date_column (with hour_column), not both")
-	}
-	if dec, ok, err := o.choice("decimal", []string{".", ","}); err != nil {
-		return nil, err
-	} else if ok {
-		opt.Decimal = rune(dec[0])
-	}
-	if sep, ok, err := o.choice("separator", []string{",", ";", "tab"}); err != nil {
-		return nil, err
-	} else if ok {
-		opt.Separator = map[string]rune{",": ',', ";": ';', "tab": '\t'}[sep]
-	}
-	if valueUnit == "C" {
-		if u, ok, err := o.choice("unit", []string{"C", "F", "K"}); err != nil {
-			return nil, err
-		} else if ok {
-			opt.Unit = u
-		}
-	} else {
-		if o.has("unit") {
-			return nil, o.errKey("unit", "irradiance is read in W/m2")
-		}
-		opt.ColumnUnits = map[string]string{col: "W/m2"}
-	}
-	if g, ok, err := o.positive("max_gap", layers.Duration); err != nil {
-		return nil, err
-	} else if ok {
-		opt.MaxGap = time.Duration(g * float64(time.Second))
+		return nil
 	}
 	p := path.Clean(filepath.ToSlash(name))
 	shown := filepath.Join(filepath.Dir(d.file), filepath.FromSlash(p))
 	key := fmt.Sprintf("%s|%+v", p, opt)
 	if m := d.cache.get(key); m != nil {
-		return m, nil
+		return m
 	}
+	ser, err := d.readSeries(p, shown, opt)
+	if err != nil {
+		if fe := (*Error)(nil); errors.As(err, &fe) {
+			d.report(fe)
+		} else {
+			o.fail("file", err)
+		}
+		return nil
+	}
+	at, err := ser.At(col)
+	if err != nil {
+		o.fail("column", err)
+		return nil
+	}
+	m := &Measured{File: name, Path: shown, Column: col, Series: ser, at: at}
+	d.cache.put(key, m)
+	return m
+}
+
+// seriesOptions reads how the CSV file of a series block is read: its time
+// columns, number format, unit and longest gap.
+func (d *decoder) seriesOptions(o *object, col, valueUnit string) (climate.CSVOptions, bool) {
+	opt := climate.CSVOptions{Columns: []string{col}}
+	if len(d.extraColumns) > 0 {
+		opt.Columns = d.extraColumns
+	}
+	o.str("time_column", &opt.TimeColumn)
+	o.str("date_column", &opt.DateColumn)
+	o.str("hour_column", &opt.HourColumn)
+	switch {
+	case opt.HourColumn != "" && opt.DateColumn == "":
+		o.failf("hour_column", "goes with date_column (a date and an hour); with a full time stamp use time_column")
+	case opt.TimeColumn != "" && opt.DateColumn != "":
+		o.failf("date_column", "give either time_column or date_column (with hour_column), not both")
+	case opt.TimeColumn == "" && opt.DateColumn == "":
+		opt.TimeColumn = "time"
+	}
+	var dec, sep string
+	if o.choice("decimal", []string{".", ","}, &dec) {
+		opt.Decimal = rune(dec[0])
+	}
+	if o.choice("separator", []string{",", ";", "tab"}, &sep) {
+		opt.Separator = map[string]rune{",": ',', ";": ';', "tab": '\t'}[sep]
+	}
+	switch {
+	case valueUnit == "C":
+		o.choice("unit", []string{"C", "F", "K"}, &opt.Unit)
+	case o.has("unit"):
+		o.failf("unit", "irradiance is read in W/m2")
+	default:
+		opt.ColumnUnits = map[string]string{col: "W/m2"}
+	}
+	var g float64
+	if o.positive("max_gap", layers.Duration, &g) {
+		opt.MaxGap = time.Duration(g * float64(time.Second))
+	}
+	return opt, o.clean()
+}
+
+// readSeries opens and reads the CSV file p (shown in messages as shown).
+// A mistake in the file is an *Error located in it.
+func (d *decoder) readSeries(p, shown string, opt climate.CSVOptions) (*climate.Series, error) {
 	f, err := d.fsys.Open(p)
 	if err != nil {
 		msg := "cannot open the series file"
@@ -116,7 +134,7 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 		if errors.As(err, &pe) {
 			msg += ": " + pe.Err.Error()
 		}
-		return nil, o.errKey("file", "%s (%s)", msg, shown)
+		return nil, fmt.Errorf("%s (%s)", msg, shown)
 	}
 	defer f.Close()
 	ser, err := climate.ReadCSV(f, shown, opt)
@@ -133,13 +151,7 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) (*Measured, error) {
 	if len(ser.T) < 2 {
 		return nil, &Error{File: shown, Line: 1, Msg: "the series holds fewer than two records"}
 	}
-	at, err := ser.At(col)
-	if err != nil {
-		return nil, o.errKey("column", "%v", err)
-	}
-	m := &Measured{File: name, Path: shown, Column: col, Series: ser, at: at}
-	d.cache.put(key, m)
-	return m, nil
+	return ser, nil
 }
 
 // seriesCache keeps the records a scenario read, so that the cases of a
@@ -195,39 +207,33 @@ type Solar struct {
 	AbsorptanceOf string   // the preset name, when one was used
 }
 
-func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) error {
-	so, ok, err := o.child("solar", []string{"absorptance", "irradiance", "sky_correction"})
-	if err != nil || !ok {
-		return err
+func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) {
+	so := o.child("solar", []string{"absorptance", "irradiance", "sky_correction"})
+	if so == nil {
+		return
 	}
 	sol := &Solar{}
-	if !so.has("absorptance") {
-		return so.missing("absorptance", "a number from 0 to 1, or a preset: light, medium, dark, white-paint, red-brick, ...")
-	}
-	txt, _, err := so.scalar("absorptance")
-	if err != nil {
-		return err
-	}
-	if a, perr := layers.ParseQuantity(txt, layers.Fraction); perr == nil {
-		if a < 0 || a > 1 {
-			return so.errKey("absorptance", "a solar absorptance lies between 0 and 1, got %g", a)
+	var txt string
+	if so.str("absorptance", &txt) {
+		if a, perr := layers.ParseQuantity(txt, layers.Fraction); perr != nil {
+			a, aerr := climate.Absorptance(txt)
+			if aerr != nil {
+				so.fail("absorptance", aerr)
+			}
+			sol.Absorptance, sol.AbsorptanceOf = a, txt
+		} else if a < 0 || a > 1 {
+			so.failf("absorptance", "a solar absorptance lies between 0 and 1, got %g", a)
+		} else {
+			sol.Absorptance = a
 		}
-		sol.Absorptance = a
+	} else if !so.has("absorptance") {
+		so.missing("absorptance", "a number from 0 to 1, or a preset: light, medium, dark, white-paint, red-brick, ...")
+	}
+	if so.has("irradiance") {
+		sol.Irradiance = d.decodeForcing(so, "irradiance", forcingIrradiance)
 	} else {
-		a, aerr := climate.Absorptance(txt)
-		if aerr != nil {
-			return so.errKey("absorptance", "%v", aerr)
-		}
-		sol.Absorptance, sol.AbsorptanceOf = a, txt
+		so.missing("irradiance", "solar irradiance on the surface, W/m2: {mean, daily, annual} or {file, column}")
 	}
-	if !so.has("irradiance") {
-		return so.missing("irradiance", "solar irradiance on the surface, W/m2: {mean, daily, annual} or {file, column}")
-	}
-	irr, err := d.decodeForcing(so, "irradiance", forcingIrradiance)
-	if err != nil {
-		return err
-	}
-	sol.Irradiance = irr
 	// Long-wave correction: ASHRAE's 7 degF (3.9 K) for horizontal
 	// surfaces and 0 for vertical ones (ASHRAE Handbook of Fundamentals,
 	// sol-air temperature [memory], via climate.SkyCorrection*).
@@ -235,13 +241,8 @@ func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) error {
 	if s.Orientation.String() == "roof" {
 		sol.SkyCorrection = climate.SkyCorrectionHorizontal
 	}
-	if v, ok, err := so.nonNegative("sky_correction", layers.TemperatureDifference); err != nil {
-		return err
-	} else if ok {
-		sol.SkyCorrection = v
-	}
+	so.nonNegative("sky_correction", layers.TemperatureDifference, &sol.SkyCorrection)
 	side.Solar = sol
-	return nil
 }
 
 // env returns the environment temperature function of a side, degC at t

@@ -8,11 +8,18 @@ import (
 
 	"gopkg.in/yaml.v3"
 
+	"tempstack/fileerr"
 	"tempstack/layers"
 )
 
-// decoder walks a yaml.Node tree and turns every problem into an *Error
-// carrying file, line and key path.
+// maxErrors is the most mistakes the decoder reports for one file; past
+// it the rest are likely consequences of the first ones.
+const maxErrors = 20
+
+// decoder walks a yaml.Node tree and keeps every problem it meets as an
+// *Error carrying file, line and key path, up to maxErrors. Its helpers
+// report a bad value and go on, so the decoding functions read one key per
+// line and a file with several mistakes gets them all at once.
 type decoder struct {
 	file string
 	fsys fs.FS // where files named by the scenario are read; nil: none
@@ -20,7 +27,22 @@ type decoder struct {
 	extraColumns []string // value columns a series block reads besides its own
 
 	cache *seriesCache // records already read, shared by a study's cases
+
+	errs     fileerr.List // the mistakes found, in the order met
+	reported int          // mistakes met, counting those past maxErrors
 }
+
+// report keeps a mistake.
+func (d *decoder) report(e *Error) {
+	d.reported++
+	if len(d.errs) < maxErrors {
+		d.errs = append(d.errs, e)
+	}
+}
+
+// err is nil when the file had no mistake, the *Error of a single mistake,
+// or the fileerr.List of several.
+func (d *decoder) err() error { return d.errs.Err() }
 
 func (d *decoder) errf(n *yaml.Node, key, format string, args ...any) *Error {
 	line := 0
@@ -28,6 +50,18 @@ func (d *decoder) errf(n *yaml.Node, key, format string, args ...any) *Error {
 		line = n.Line
 	}
 	return &Error{File: d.file, Line: line, Key: key, Msg: fmt.Sprintf(format, args...)}
+}
+
+// failf reports a mistake at node n.
+func (d *decoder) failf(n *yaml.Node, key, format string, args ...any) {
+	d.report(d.errf(n, key, format, args...))
+}
+
+// fail reports a mistake at node n whose words are the cause's.
+func (d *decoder) fail(n *yaml.Node, key string, cause error) {
+	e := d.errf(n, key, "")
+	e.Err = cause
+	d.report(e)
 }
 
 // object is a YAML mapping whose keys have been checked against a list of
@@ -38,6 +72,9 @@ type object struct {
 	path   string     // key path of the mapping ("" at the top)
 	keys   map[string]*yaml.Node
 	values map[string]*yaml.Node
+
+	opened  int  // d.reported when the object was opened
+	unknown bool // an unknown or repeated key was reported
 }
 
 func join(path, key string) string {
@@ -62,20 +99,26 @@ func kindName(n *yaml.Node) string {
 }
 
 // object checks that n is a mapping whose keys are all in allowed, without
-// duplicates, and returns it for lookups.
-func (d *decoder) object(n *yaml.Node, path string, allowed []string) (*object, error) {
-	if n == nil || n.Kind != yaml.MappingNode {
-		if n != nil && n.Kind == yaml.ScalarNode && n.Tag == "!!null" {
-			n2 := *n
-			return &object{d: d, node: &n2, path: path, keys: map[string]*yaml.Node{}, values: map[string]*yaml.Node{}}, nil
-		}
-		return nil, d.errf(n, path, "expected a mapping of keys (%s), found %s", strings.Join(allowed, ", "), kindName(n))
+// duplicates, and returns it for lookups. It reports an unknown or repeated
+// key and leaves it out; it reports and returns nil when n is not a
+// mapping.
+func (d *decoder) object(n *yaml.Node, path string, allowed []string) *object {
+	o := &object{d: d, node: n, path: path, keys: map[string]*yaml.Node{}, values: map[string]*yaml.Node{}, opened: d.reported}
+	if n != nil && n.Kind == yaml.ScalarNode && n.Tag == "!!null" {
+		n2 := *n
+		o.node = &n2
+		return o
 	}
-	o := &object{d: d, node: n, path: path, keys: map[string]*yaml.Node{}, values: map[string]*yaml.Node{}}
+	if n == nil || n.Kind != yaml.MappingNode {
+		d.failf(n, path, "expected a mapping of keys (%s), found %s", strings.Join(allowed, ", "), kindName(n))
+		return nil
+	}
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		if k.Kind != yaml.ScalarNode {
-			return nil, d.errf(k, path, "a key must be a plain word")
+			d.failf(k, path, "a key must be a plain word")
+			o.unknown = true
+			continue
 		}
 		name := k.Value
 		if !contains(allowed, name) {
@@ -85,15 +128,19 @@ func (d *decoder) object(n *yaml.Node, path string, allowed []string) (*object, 
 			} else {
 				msg += "; allowed here: " + strings.Join(sorted(allowed), ", ")
 			}
-			return nil, d.errf(k, join(path, name), "%s", msg)
+			d.failf(k, join(path, name), "%s", msg)
+			o.unknown = true
+			continue
 		}
 		if prev, dup := o.keys[name]; dup {
-			return nil, d.errf(k, join(path, name), "key given twice (first on line %d)", prev.Line)
+			d.failf(k, join(path, name), "key given twice (first on line %d)", prev.Line)
+			o.unknown = true
+			continue
 		}
 		o.keys[name] = k
 		o.values[name] = v
 	}
-	return o, nil
+	return o
 }
 
 func contains(list []string, s string) bool {
@@ -113,6 +160,11 @@ func sorted(list []string) []string {
 
 func (o *object) has(key string) bool { _, ok := o.values[key]; return ok }
 
+// clean reports whether no mistake was met since o was opened (in o or in
+// what it holds). Checks across keys run only on a clean object, so that
+// one mistake is not reported again as its consequences.
+func (o *object) clean() bool { return o.d.reported == o.opened }
+
 // line is the line of key (or of the mapping when absent).
 func (o *object) line(key string) int {
 	if k, ok := o.keys[key]; ok {
@@ -129,135 +181,178 @@ func (o *object) errKey(key, format string, args ...any) *Error {
 	return o.d.errf(n, join(o.path, key), format, args...)
 }
 
-func (o *object) missing(key, what string) *Error {
-	return o.d.errf(o.node, join(o.path, key), "missing key (%s)", what)
+// failf reports a mistake in the value of key (at the mapping when the key
+// is absent).
+func (o *object) failf(key, format string, args ...any) {
+	o.d.report(o.errKey(key, format, args...))
 }
 
-// scalar returns the plain text of key, or an error when it is not a scalar.
-func (o *object) scalar(key string) (string, *yaml.Node, error) {
+// fail reports a mistake in the value of key whose words are the cause's.
+func (o *object) fail(key string, cause error) {
+	e := o.errKey(key, "")
+	e.Err = cause
+	o.d.report(e)
+}
+
+// missing reports a required key that is absent, unless an unknown key of
+// the mapping (a misspelling of it, most likely) was reported already.
+func (o *object) missing(key, what string) {
+	if !o.unknown {
+		o.d.failf(o.node, join(o.path, key), "missing key (%s)", what)
+	}
+}
+
+// scalar returns the plain text of key; it reports a value that is not a
+// scalar.
+func (o *object) scalar(key string) (string, bool) {
 	v := o.values[key]
 	if v.Kind == yaml.AliasNode && v.Alias != nil {
 		v = v.Alias
 	}
 	if v.Kind != yaml.ScalarNode {
-		return "", v, o.errKey(key, "expected a single value, found %s", kindName(v))
+		o.failf(key, "expected a single value, found %s", kindName(v))
+		return "", false
 	}
 	if v.Tag == "!!null" {
-		return "", v, o.errKey(key, "has no value")
+		o.failf(key, "has no value")
+		return "", false
 	}
-	return strings.TrimSpace(v.Value), v, nil
+	return strings.TrimSpace(v.Value), true
 }
 
-// str decodes an optional string; ok is false when the key is absent.
-func (o *object) str(key string) (s string, ok bool, err error) {
+// The value helpers below read an optional key into *dst. They return true
+// when the key is present and its value good; they leave *dst alone when
+// it is absent, and report the mistake when it is bad.
+
+// str reads a string.
+func (o *object) str(key string, dst *string) bool {
 	if !o.has(key) {
-		return "", false, nil
+		return false
 	}
-	s, _, err = o.scalar(key)
-	return s, err == nil, err
+	s, ok := o.scalar(key)
+	if ok {
+		*dst = s
+	}
+	return ok
 }
 
-// quantity decodes an optional quantity of the given kind into SI units.
-func (o *object) quantity(key string, kind layers.Kind) (v float64, ok bool, err error) {
-	if !o.has(key) {
-		return 0, false, nil
+// quantity reads a quantity of the given kind in SI units.
+func (o *object) quantity(key string, kind layers.Kind, dst *float64) bool {
+	var s string
+	if !o.str(key, &s) {
+		return false
 	}
-	s, _, err := o.scalar(key)
+	v, err := layers.ParseQuantity(s, kind)
 	if err != nil {
-		return 0, false, err
+		o.fail(key, err)
+		return false
 	}
-	v, err = layers.ParseQuantity(s, kind)
-	if err != nil {
-		return 0, false, o.errKey(key, "%v", err)
-	}
-	return v, true, nil
+	*dst = v
+	return true
 }
 
-// positive decodes an optional quantity that must be > 0.
-func (o *object) positive(key string, kind layers.Kind) (float64, bool, error) {
-	v, ok, err := o.quantity(key, kind)
-	if err == nil && ok && !(v > 0) {
-		return 0, false, o.errKey(key, "must be positive, got %s", o.values[key].Value)
+// positive reads a quantity that must be > 0.
+func (o *object) positive(key string, kind layers.Kind, dst *float64) bool {
+	var v float64
+	if !o.quantity(key, kind, &v) {
+		return false
 	}
-	return v, ok, err
+	if !(v > 0) {
+		o.failf(key, "must be positive, got %s", o.values[key].Value)
+		return false
+	}
+	*dst = v
+	return true
 }
 
-// nonNegative decodes an optional quantity that must be >= 0.
-func (o *object) nonNegative(key string, kind layers.Kind) (float64, bool, error) {
-	v, ok, err := o.quantity(key, kind)
-	if err == nil && ok && v < 0 {
-		return 0, false, o.errKey(key, "must not be negative, got %s", o.values[key].Value)
+// nonNegative reads a quantity that must be >= 0.
+func (o *object) nonNegative(key string, kind layers.Kind, dst *float64) bool {
+	var v float64
+	if !o.quantity(key, kind, &v) {
+		return false
 	}
-	return v, ok, err
+	if v < 0 {
+		o.failf(key, "must not be negative, got %s", o.values[key].Value)
+		return false
+	}
+	*dst = v
+	return true
 }
 
-// boolean decodes an optional true/false value.
-func (o *object) boolean(key string) (b, ok bool, err error) {
-	if !o.has(key) {
-		return false, false, nil
-	}
-	s, _, err := o.scalar(key)
-	if err != nil {
-		return false, false, err
+// boolean reads true/false (also yes/no, on/off).
+func (o *object) boolean(key string, dst *bool) bool {
+	var s string
+	if !o.str(key, &s) {
+		return false
 	}
 	switch strings.ToLower(s) {
 	case "true", "yes", "on":
-		return true, true, nil
+		*dst = true
 	case "false", "no", "off":
-		return false, true, nil
+		*dst = false
+	default:
+		o.failf(key, "expected true or false, got %q", s)
+		return false
 	}
-	return false, false, o.errKey(key, "expected true or false, got %q", s)
+	return true
 }
 
-// integer decodes an optional whole number.
-func (o *object) integer(key string) (int, bool, error) {
-	if !o.has(key) {
-		return 0, false, nil
-	}
-	s, _, err := o.scalar(key)
-	if err != nil {
-		return 0, false, err
+// integer reads a whole number from lo to hi.
+func (o *object) integer(key string, lo, hi int, dst *int) bool {
+	var s string
+	if !o.str(key, &s) {
+		return false
 	}
 	var n int
 	if _, err := fmt.Sscanf(s, "%d", &n); err != nil || fmt.Sprint(n) != s {
-		return 0, false, o.errKey(key, "expected a whole number, got %q", s)
+		o.failf(key, "expected a whole number, got %q", s)
+		return false
 	}
-	return n, true, nil
+	if n < lo || n > hi {
+		o.failf(key, "must lie between %d and %d, got %d", lo, hi, n)
+		return false
+	}
+	*dst = n
+	return true
 }
 
-// choice decodes an optional word from a fixed list, with a did-you-mean.
-func (o *object) choice(key string, allowed []string) (string, bool, error) {
-	s, ok, err := o.str(key)
-	if err != nil || !ok {
-		return "", ok, err
+// choice reads a word from a fixed list, with a did-you-mean.
+func (o *object) choice(key string, allowed []string, dst *string) bool {
+	var s string
+	if !o.str(key, &s) {
+		return false
 	}
-	if contains(allowed, s) {
-		return s, true, nil
+	if !contains(allowed, s) {
+		msg := fmt.Sprintf("%q is not one of %s", s, strings.Join(allowed, ", "))
+		if c := layers.Closest(s, allowed, 1); len(c) > 0 {
+			msg += fmt.Sprintf("; did you mean %q?", c[0])
+		}
+		o.failf(key, "%s", msg)
+		return false
 	}
-	msg := fmt.Sprintf("%q is not one of %s", s, strings.Join(allowed, ", "))
-	if c := layers.Closest(s, allowed, 1); len(c) > 0 {
-		msg += fmt.Sprintf("; did you mean %q?", c[0])
-	}
-	return "", false, o.errKey(key, "%s", msg)
+	*dst = s
+	return true
 }
 
-// list returns the items of an optional sequence.
-func (o *object) list(key string) ([]*yaml.Node, bool, error) {
+// list returns the items of a sequence; ok is false when the key is absent
+// or not a list (reported).
+func (o *object) list(key string) ([]*yaml.Node, bool) {
 	if !o.has(key) {
-		return nil, false, nil
+		return nil, false
 	}
 	v := o.values[key]
 	if v.Kind != yaml.SequenceNode {
-		return nil, false, o.errKey(key, "expected a list, found %s", kindName(v))
+		o.failf(key, "expected a list, found %s", kindName(v))
+		return nil, false
 	}
-	return v.Content, true, nil
+	return v.Content, true
 }
 
-// child decodes an optional nested mapping.
-func (o *object) child(key string, allowed []string) (*object, bool, error) {
+// child opens a nested mapping; nil when the key is absent or not a
+// mapping (reported).
+func (o *object) child(key string, allowed []string) *object {
 	if !o.has(key) {
-		return nil, false, nil
+		return nil
 	}
-	c, err := o.d.object(o.values[key], join(o.path, key), allowed)
-	return c, c != nil, err
+	return o.d.object(o.values[key], join(o.path, key), allowed)
 }

@@ -10,6 +10,7 @@ import (
 	"sort"
 	"strings"
 	"sync"
+	"tempstack/fileerr"
 	"tempstack/scenarios/results"
 
 	"gopkg.in/yaml.v3"
@@ -153,194 +154,163 @@ func summarize(r *results.Results) results.Summary {
 
 // ---- decoding ----
 
-func (d *decoder) decodeStudy(top *object, s *Scenario) error {
+func (d *decoder) decodeStudy(top *object, s *Scenario) {
 	var st StudySpec
-	any := false
-	if items, ok, err := top.list("variants"); err != nil {
-		return err
-	} else if ok {
-		any = true
-		if len(items) == 0 {
-			return top.errKey("variants", "the list is empty")
-		}
-		names := map[string]bool{}
-		for i, n := range items {
-			o, err := d.object(n, fmt.Sprintf("variants[%d]", i+1), []string{"name", "set"})
-			if err != nil {
-				return err
-			}
-			name, ok, err := o.str("name")
-			if err != nil {
-				return err
-			}
-			if !ok || name == "" {
-				return o.missing("name", "a short name for the variant")
-			}
-			if names[name] {
-				return o.errKey("name", "two variants are called %q", name)
-			}
-			names[name] = true
-			sets, err := d.decodeSets(o)
-			if err != nil {
-				return err
-			}
-			st.Variants = append(st.Variants, VariantSpec{Name: name, Sets: sets, Line: n.Line})
-		}
+	st.Variants = d.decodeVariants(top)
+	if o := top.child("sweep", []string{"parameter", "from", "to", "steps", "values"}); o != nil {
+		st.Sweep = d.decodeSweep(o)
 	}
-	if o, ok, err := top.child("sweep", []string{"parameter", "from", "to", "steps", "values"}); err != nil {
-		return err
-	} else if ok {
-		any = true
-		sw, err := d.decodeSweep(o)
-		if err != nil {
-			return err
-		}
-		st.Sweep = sw
+	if o := top.child("target", []string{"parameter", "from", "to", "quantity", "at_least", "at_most", "prefer", "tolerance"}); o != nil {
+		st.Target = d.decodeTarget(o, s)
 	}
-	if o, ok, err := top.child("target", []string{"parameter", "from", "to", "quantity", "at_least", "at_most", "prefer", "tolerance"}); err != nil {
-		return err
-	} else if ok {
-		any = true
-		tg, err := d.decodeTarget(o, s)
-		if err != nil {
-			return err
-		}
-		st.Target = tg
+	if o := top.child("uncertainty", []string{"samples", "seed", "vary"}); o != nil {
+		st.Uncertainty = d.decodeUncertainty(o)
 	}
-	if o, ok, err := top.child("uncertainty", []string{"samples", "seed", "vary"}); err != nil {
-		return err
-	} else if ok {
-		any = true
-		u, err := d.decodeUncertainty(o)
-		if err != nil {
-			return err
-		}
-		st.Uncertainty = u
-	}
-	if any {
+	if st.Variants != nil || st.Sweep != nil || st.Target != nil || st.Uncertainty != nil {
 		s.Study = &st
 	}
-	return nil
 }
 
-func (d *decoder) decodeSets(o *object) ([]setSpec, error) {
+func (d *decoder) decodeVariants(top *object) []VariantSpec {
+	items, ok := top.list("variants")
+	if !ok {
+		return nil
+	}
+	if len(items) == 0 {
+		top.failf("variants", "the list is empty")
+		return nil
+	}
+	var out []VariantSpec
+	names := map[string]bool{}
+	for i, n := range items {
+		o := d.object(n, fmt.Sprintf("variants[%d]", i+1), []string{"name", "set"})
+		if o == nil {
+			continue
+		}
+		var name string
+		switch {
+		case !o.has("name") || o.str("name", &name) && name == "":
+			o.missing("name", "a short name for the variant")
+		case names[name]:
+			o.failf("name", "two variants are called %q", name)
+		}
+		names[name] = true
+		out = append(out, VariantSpec{Name: name, Sets: d.decodeSets(o), Line: n.Line})
+	}
+	return out
+}
+
+func (d *decoder) decodeSets(o *object) []setSpec {
 	if !o.has("set") {
-		return nil, o.missing("set", "the values this variant changes, e.g. set: {layers[2].thickness: 240 mm}")
+		o.missing("set", "the values this variant changes, e.g. set: {layers[2].thickness: 240 mm}")
+		return nil
 	}
 	// Parameter paths are free text, so the mapping is read directly
 	// rather than checked against a list of keys.
 	v := o.values["set"]
 	if v.Kind != yaml.MappingNode {
-		return nil, o.errKey("set", "expected a mapping of parameter: value lines")
+		o.failf("set", "expected a mapping of parameter: value lines")
+		return nil
 	}
 	var sets []setSpec
 	for i := 0; i+1 < len(v.Content); i += 2 {
 		k, val := v.Content[i], v.Content[i+1]
 		if _, err := parsePath(k.Value); err != nil {
-			return nil, d.errf(k, join(o.path, "set"), "%v", err)
+			d.fail(k, join(o.path, "set"), err)
+			continue
 		}
 		sets = append(sets, setSpec{Path: k.Value, Value: val, Line: k.Line})
 	}
-	if len(sets) == 0 {
-		return nil, o.errKey("set", "give at least one parameter: value")
+	if len(v.Content) == 0 {
+		o.failf("set", "give at least one parameter: value")
 	}
-	return sets, nil
+	return sets
 }
 
-func (d *decoder) pathKey(o *object, key string) (string, error) {
-	p, ok, err := o.str(key)
-	if err != nil {
-		return "", err
+// pathKey reads a parameter path such as layers[2].thickness.
+func (d *decoder) pathKey(o *object, key string) string {
+	var p string
+	if !o.has(key) || o.str(key, &p) && p == "" {
+		o.missing(key, `a parameter path such as layers[2].thickness`)
+		return ""
 	}
-	if !ok || p == "" {
-		return "", o.missing(key, `a parameter path such as layers[2].thickness`)
+	if _, err := parsePath(p); err != nil && p != "" {
+		o.fail(key, err)
 	}
-	if _, err := parsePath(p); err != nil {
-		return "", o.errKey(key, "%v", err)
-	}
-	return p, nil
+	return p
 }
 
 // numberKey reads "100 mm" style values: the number and its unit text.
-func (o *object) numberKey(key string) (float64, string, bool, error) {
-	if !o.has(key) {
-		return 0, "", false, nil
-	}
-	txt, _, err := o.scalar(key)
-	if err != nil {
-		return 0, "", false, err
+func (o *object) numberKey(key string) (float64, string, bool) {
+	var txt string
+	if !o.str(key, &txt) {
+		return 0, "", false
 	}
 	v, u, err := splitNumber(txt)
 	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-		return 0, "", false, o.errKey(key, "expected a number with an optional unit, got %q", txt)
+		o.failf(key, "expected a number with an optional unit, got %q", txt)
+		return 0, "", false
 	}
-	return v, u, true, nil
+	return v, u, true
 }
 
 // numberPair reads two numbers that share a unit (from/to, mean/sd,
 // min/max); what describes them for a missing-key message.
-func (o *object) numberPair(k1, k2, what string) (a, b float64, unit string, err error) {
-	a, u1, ok1, err := o.numberKey(k1)
-	if err != nil {
-		return 0, 0, "", err
+func (o *object) numberPair(k1, k2, what string) (a, b float64, unit string, ok bool) {
+	a, u1, ok1 := o.numberKey(k1)
+	b, u2, ok2 := o.numberKey(k2)
+	switch {
+	case !o.has(k1) || !o.has(k2):
+		o.missing(map[bool]string{true: k2, false: k1}[o.has(k1)], what)
+		return 0, 0, "", false
+	case !ok1 || !ok2:
+		return 0, 0, "", false
+	case u1 != u2:
+		o.failf(k2, "%s and %s must be in the same unit (%q and %q)", k1, k2, u1, u2)
+		return 0, 0, "", false
 	}
-	b, u2, ok2, err := o.numberKey(k2)
-	if err != nil {
-		return 0, 0, "", err
-	}
-	if !ok1 || !ok2 {
-		return 0, 0, "", o.missing(map[bool]string{true: k2, false: k1}[ok1], what)
-	}
-	if u1 != u2 {
-		return 0, 0, "", o.errKey(k2, "%s and %s must be in the same unit (%q and %q)", k1, k2, u1, u2)
-	}
-	return a, b, u1, nil
+	return a, b, u1, true
 }
 
-func (d *decoder) decodeSweep(o *object) (*SweepSpec, error) {
-	p, err := d.pathKey(o, "parameter")
-	if err != nil {
-		return nil, err
-	}
-	sw := &SweepSpec{Parameter: p, Line: o.node.Line}
-	if items, ok, err := o.list("values"); err != nil {
-		return nil, err
-	} else if ok {
+func (d *decoder) decodeSweep(o *object) *SweepSpec {
+	sw := &SweepSpec{Parameter: d.pathKey(o, "parameter"), Line: o.node.Line}
+	if items, ok := o.list("values"); ok {
 		if o.has("from") || o.has("to") || o.has("steps") {
-			return nil, o.errKey("values", "give either values or from, to and steps")
+			o.failf("values", "give either values or from, to and steps")
+			return sw
 		}
 		for i, n := range items {
+			key := fmt.Sprintf("sweep.values[%d]", i+1)
 			if n.Kind != yaml.ScalarNode {
-				return nil, d.errf(n, fmt.Sprintf("sweep.values[%d]", i+1), "expected a single value")
+				d.failf(n, key, "expected a single value")
+				continue
 			}
 			v, u, err := splitNumber(n.Value)
 			if err != nil {
-				return nil, d.errf(n, fmt.Sprintf("sweep.values[%d]", i+1), "%v", err)
+				d.fail(n, key, err)
+				continue
 			}
 			sw.Values = append(sw.Values, n.Value)
 			sw.Numbers = append(sw.Numbers, v)
 			sw.Unit = u
 		}
 		if len(items) < 2 {
-			return nil, o.errKey("values", "a sweep needs at least two values")
+			o.failf("values", "a sweep needs at least two values")
 		}
-		return sw, nil
+		return sw
 	}
-	from, to, u1, err := o.numberPair("from", "to", "the range of the parameter, or a list of values")
-	if err != nil {
-		return nil, err
+	if o.has("values") {
+		return sw
 	}
+	from, to, u1, ok := o.numberPair("from", "to", "the range of the parameter, or a list of values")
 	steps := 7
-	if n, ok, err := o.integer("steps"); err != nil {
-		return nil, err
-	} else if ok {
-		if n < 2 || n > 1000 {
-			return nil, o.errKey("steps", "must lie between 2 and 1000, got %d", n)
-		}
-		steps = n
+	o.integer("steps", 2, 1000, &steps)
+	if !ok || !o.clean() {
+		return sw
 	}
 	if from == to {
-		return nil, o.errKey("to", "the range is empty")
+		o.failf("to", "the range is empty")
+		return sw
 	}
 	sw.Unit = u1
 	for i := 0; i < steps; i++ {
@@ -348,136 +318,102 @@ func (d *decoder) decodeSweep(o *object) (*SweepSpec, error) {
 		sw.Numbers = append(sw.Numbers, v)
 		sw.Values = append(sw.Values, joinNumber(v, u1))
 	}
-	return sw, nil
+	return sw
 }
 
-func (d *decoder) decodeTarget(o *object, s *Scenario) (*TargetSpec, error) {
-	p, err := d.pathKey(o, "parameter")
-	if err != nil {
-		return nil, err
-	}
-	tg := &TargetSpec{Parameter: p, Line: o.node.Line}
-	from, to, u1, err := o.numberPair("from", "to", "the range to search")
-	if err != nil {
-		return nil, err
-	}
-	if !(to > from) {
-		return nil, o.errKey("to", "must be larger than from")
+func (d *decoder) decodeTarget(o *object, s *Scenario) *TargetSpec {
+	tg := &TargetSpec{Parameter: d.pathKey(o, "parameter"), Line: o.node.Line}
+	from, to, u1, ok := o.numberPair("from", "to", "the range to search")
+	if ok && !(to > from) {
+		o.failf("to", "must be larger than from")
 	}
 	tg.From, tg.To, tg.Unit = from, to, u1
-	q, ok, err := o.choice("quantity", quantityNames(s.Kind))
-	if err != nil {
-		return nil, err
+	names := quantityNames(s.Kind)
+	if !o.choice("quantity", names, &tg.Quantity) && !o.has("quantity") {
+		o.missing("quantity", strings.Join(names, ", "))
 	}
-	if !ok {
-		return nil, o.missing("quantity", strings.Join(quantityNames(s.Kind), ", "))
-	}
-	tg.Quantity = q
 	switch {
 	case o.has("at_least") && o.has("at_most"):
-		return nil, o.errKey("at_most", "give either at_least or at_most")
+		o.failf("at_most", "give either at_least or at_most")
 	case o.has("at_least"):
-		v, _, _, err := o.numberKey("at_least")
-		if err != nil {
-			return nil, err
-		}
-		tg.Goal, tg.AtLeast = v, true
+		tg.Goal, _, _ = o.numberKey("at_least")
+		tg.AtLeast = true
 	case o.has("at_most"):
-		v, _, _, err := o.numberKey("at_most")
-		if err != nil {
-			return nil, err
-		}
-		tg.Goal = v
+		tg.Goal, _, _ = o.numberKey("at_most")
 	default:
-		return nil, o.missing("at_least", "the goal: at_least or at_most, in the unit of the quantity's name")
+		o.missing("at_least", "the goal: at_least or at_most, in the unit of the quantity's name")
 	}
-	if pr, ok, err := o.choice("prefer", []string{"smallest", "largest"}); err != nil {
-		return nil, err
-	} else if ok {
-		tg.Largest = pr == "largest"
+	var prefer string
+	if o.choice("prefer", []string{"smallest", "largest"}, &prefer) {
+		tg.Largest = prefer == "largest"
 	}
 	tg.Tolerance = (to - from) / 1000
-	if v, _, ok, err := o.numberKey("tolerance"); err != nil {
-		return nil, err
-	} else if ok {
+	if v, _, ok := o.numberKey("tolerance"); ok {
 		if !(v > 0) {
-			return nil, o.errKey("tolerance", "must be positive")
+			o.failf("tolerance", "must be positive")
 		}
 		tg.Tolerance = v
 	}
-	return tg, nil
+	return tg
 }
 
-func (d *decoder) decodeUncertainty(o *object) (*UncertaintySpec, error) {
+func (d *decoder) decodeUncertainty(o *object) *UncertaintySpec {
 	u := &UncertaintySpec{Samples: 100, Seed: 1, Line: o.node.Line}
-	if n, ok, err := o.integer("samples"); err != nil {
-		return nil, err
-	} else if ok {
-		if n < 10 || n > 100000 {
-			return nil, o.errKey("samples", "must lie between 10 and 100000, got %d", n)
+	o.integer("samples", 10, 100000, &u.Samples)
+	seed := 1
+	if o.integer("seed", math.MinInt, math.MaxInt, &seed) {
+		if seed < 0 {
+			o.failf("seed", "must not be negative")
 		}
-		u.Samples = n
+		u.Seed = uint64(seed)
 	}
-	if n, ok, err := o.integer("seed"); err != nil {
-		return nil, err
-	} else if ok {
-		if n < 0 {
-			return nil, o.errKey("seed", "must not be negative")
-		}
-		u.Seed = uint64(n)
-	}
-	items, ok, err := o.list("vary")
-	if err != nil {
-		return nil, err
-	}
+	items, ok := o.list("vary")
 	if !ok || len(items) == 0 {
-		return nil, o.missing("vary", "a list of {parameter, normal: {mean, sd}} or {parameter, uniform: {min, max}}")
+		if ok || !o.has("vary") {
+			o.missing("vary", "a list of {parameter, normal: {mean, sd}} or {parameter, uniform: {min, max}}")
+		}
+		return u
 	}
 	for i, n := range items {
-		vo, err := d.object(n, fmt.Sprintf("uncertainty.vary[%d]", i+1), []string{"parameter", "normal", "uniform"})
-		if err != nil {
-			return nil, err
+		vo := d.object(n, fmt.Sprintf("uncertainty.vary[%d]", i+1), []string{"parameter", "normal", "uniform"})
+		if vo != nil {
+			u.Vary = append(u.Vary, d.decodeVary(vo))
 		}
-		p, err := d.pathKey(vo, "parameter")
-		if err != nil {
-			return nil, err
-		}
-		vs := VarySpec{Parameter: p}
-		switch {
-		case vo.has("normal") && vo.has("uniform"):
-			return nil, vo.errKey("uniform", "give either normal or uniform")
-		case vo.has("normal"):
-			no, _, err := vo.child("normal", []string{"mean", "sd"})
-			if err != nil {
-				return nil, err
-			}
-			m, sd, u1, err := no.numberPair("mean", "sd", "mean and standard deviation, in the same unit")
-			if err != nil {
-				return nil, err
-			}
-			if sd < 0 {
-				return nil, no.errKey("sd", "the standard deviation must be >= 0")
-			}
-			vs.Normal, vs.A, vs.B, vs.Unit = true, m, sd, u1
-		case vo.has("uniform"):
-			uo, _, err := vo.child("uniform", []string{"min", "max"})
-			if err != nil {
-				return nil, err
-			}
-			a, b, u1, err := uo.numberPair("min", "max", "the range, in one unit")
-			if err != nil {
-				return nil, err
-			}
-			if !(b > a) {
-				return nil, uo.errKey("max", "must be larger than min")
-			}
-			vs.A, vs.B, vs.Unit = a, b, u1
-		default:
-			return nil, vo.missing("normal", "a distribution: normal: {mean, sd} or uniform: {min, max}")
-		}
-		u.Vary = append(u.Vary, vs)
 	}
-	return u, nil
+	return u
+}
+
+// decodeVary reads one parameter's distribution: normal {mean, sd} or
+// uniform {min, max}.
+func (d *decoder) decodeVary(vo *object) VarySpec {
+	vs := VarySpec{Parameter: d.pathKey(vo, "parameter")}
+	switch {
+	case vo.has("normal") && vo.has("uniform"):
+		vo.failf("uniform", "give either normal or uniform")
+	case vo.has("normal"):
+		no := vo.child("normal", []string{"mean", "sd"})
+		if no == nil {
+			break
+		}
+		m, sd, u1, ok := no.numberPair("mean", "sd", "mean and standard deviation, in the same unit")
+		if ok && sd < 0 {
+			no.failf("sd", "the standard deviation must be >= 0")
+		}
+		vs.Normal, vs.A, vs.B, vs.Unit = true, m, sd, u1
+	case vo.has("uniform"):
+		uo := vo.child("uniform", []string{"min", "max"})
+		if uo == nil {
+			break
+		}
+		a, b, u1, ok := uo.numberPair("min", "max", "the range, in one unit")
+		if ok && !(b > a) {
+			uo.failf("max", "must be larger than min")
+		}
+		vs.A, vs.B, vs.Unit = a, b, u1
+	default:
+		vo.missing("normal", "a distribution: normal: {mean, sd} or uniform: {min, max}")
+	}
+	return vs
 }
 
 // ---- running ----
@@ -550,12 +486,22 @@ func checkStudy(s *Scenario) error {
 			}
 		}
 	}
+	// Every distinct mistake of the cases, in order, up to maxErrors.
+	var errs fileerr.List
+	seen := map[string]bool{}
 	for _, c := range cases {
-		if _, err := decodeCase(s, c); err != nil {
+		_, err := decodeCase(s, c)
+		for _, e := range fileerr.All(err) {
+			if msg := e.Error(); !seen[msg] && len(errs) < maxErrors {
+				seen[msg] = true
+				errs = append(errs, e)
+			}
+		}
+		if err != nil && fileerr.All(err) == nil {
 			return err
 		}
 	}
-	return nil
+	return errs.Err()
 }
 
 // parallel runs fn(0..n-1) on workers goroutines; results land by index,

@@ -15,6 +15,8 @@ import (
 	"strings"
 
 	"github.com/urfave/cli/v2"
+
+	"tempstack/fileerr"
 )
 
 // version is the tool version printed by --version and in reports.
@@ -50,11 +52,9 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	if err == nil {
 		return 0
 	}
-	msg := strings.TrimSpace(err.Error())
-	if i := strings.IndexByte(msg, '\n'); i >= 0 {
-		msg = msg[:i]
+	for _, line := range errorLines(err) {
+		fmt.Fprintf(stderr, "tempstack: %s\n", line)
 	}
-	fmt.Fprintf(stderr, "tempstack: %s\n", msg)
 	var ue userError
 	if errors.As(err, &ue) {
 		return 1
@@ -66,6 +66,24 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	// Anything else is not the user's doing (a result that cannot be
 	// encoded, a write that failed for a reason we did not foresee).
 	return 2
+}
+
+// errorLines is what the command prints for err: one line per mistake of
+// an input file (check and run report every mistake they found), otherwise
+// the first line of the message.
+func errorLines(err error) []string {
+	if all := fileerr.All(err); len(all) > 1 {
+		lines := make([]string, len(all))
+		for i, e := range all {
+			lines[i] = e.Error()
+		}
+		return lines
+	}
+	msg := strings.TrimSpace(err.Error())
+	if i := strings.IndexByte(msg, '\n'); i >= 0 {
+		msg = msg[:i]
+	}
+	return []string{msg}
 }
 
 func newApp(stdout, stderr io.Writer) *cli.App {
