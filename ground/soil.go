@@ -55,26 +55,87 @@ const (
 	ModelJohansen
 )
 
-// String returns "kersten" or "johansen".
+// A ConductivityModel gives the frozen and unfrozen thermal conductivity
+// of a soil, W/(m K).
+type ConductivityModel interface {
+	Conductivity(s Soil) (frozen, unfrozen float64, err error)
+}
+
+// models is the one table of the conductivity models: the key a scenario
+// names it by, the label a report cites, and the model itself. A new model
+// is one more row (and its equations with their sources).
+var models = []struct {
+	model Model
+	key   string // scenario key (lower case)
+	label string // author and year, for the source of a layer
+	impl  ConductivityModel
+}{
+	{ModelKersten, "kersten", "Kersten (1949)", kerstenModel{}},
+	{ModelJohansen, "johansen", "Johansen (1975)", johansenModel{}},
+}
+
+// ModelKeys lists the keys of the conductivity models, the default first.
+func ModelKeys() []string {
+	keys := make([]string, len(models))
+	for i, m := range models {
+		keys[i] = m.key
+	}
+	return keys
+}
+
+// String returns the model's key, e.g. "kersten".
 func (m Model) String() string {
-	switch m {
-	case ModelKersten:
-		return "kersten"
-	case ModelJohansen:
-		return "johansen"
+	if int(m) >= 0 && int(m) < len(models) {
+		return models[m].key
 	}
 	return fmt.Sprintf("Model(%d)", int(m))
 }
 
-// ParseModel reads a model key, "kersten" or "johansen".
-func ParseModel(s string) (Model, error) {
-	switch strings.ToLower(strings.TrimSpace(s)) {
-	case "kersten", "":
-		return ModelKersten, nil
-	case "johansen":
-		return ModelJohansen, nil
+// Label returns the author and year of the model, e.g. "Kersten (1949)".
+func (m Model) Label() string {
+	if int(m) >= 0 && int(m) < len(models) {
+		return models[m].label
 	}
-	return 0, fmt.Errorf("unknown conductivity model %q (want kersten or johansen)", s)
+	return m.String()
+}
+
+// valid reports whether m is a row of the table.
+func (m Model) valid() bool { return int(m) >= 0 && int(m) < len(models) }
+
+// ParseModel reads a model key (ModelKeys); "" is the default, Kersten.
+func ParseModel(s string) (Model, error) {
+	k := strings.ToLower(strings.TrimSpace(s))
+	if k == "" {
+		return ModelKersten, nil
+	}
+	for _, m := range models {
+		if m.key == k {
+			return m.model, nil
+		}
+	}
+	return 0, fmt.Errorf("unknown conductivity model %q (want %s)", s, strings.Join(ModelKeys(), " or "))
+}
+
+// kerstenModel is Kersten's regression (KerstenFrozen, KerstenUnfrozen).
+type kerstenModel struct{}
+
+func (kerstenModel) Conductivity(s Soil) (frozen, unfrozen float64, err error) {
+	if frozen, err = KerstenFrozen(s.Texture, s.DryDensity, s.WaterContent); err != nil {
+		return 0, 0, fmt.Errorf("soil: %w", err)
+	}
+	if unfrozen, err = KerstenUnfrozen(s.Texture, s.DryDensity, s.WaterContent); err != nil {
+		return 0, 0, fmt.Errorf("soil: %w", err)
+	}
+	return frozen, unfrozen, nil
+}
+
+// johansenModel is Johansen's method (JohansenFrozen, JohansenUnfrozen).
+type johansenModel struct{}
+
+func (johansenModel) Conductivity(s Soil) (frozen, unfrozen float64, err error) {
+	n, sr := s.Porosity(), math.Min(1, s.Saturation())
+	return JohansenFrozen(s.Texture, n, sr, s.Quartz, s.DryDensity),
+		JohansenUnfrozen(s.Texture, n, sr, s.Quartz, s.DryDensity), nil
 }
 
 // Physical constants of the pore water and the soil solids.
@@ -332,7 +393,7 @@ func (s Soil) Validate() error {
 		return fmt.Errorf("soil: solids specific heat must be positive, got %g J/(kg K)", s.SolidsHeat)
 	case !finite(s.Quartz) || s.Quartz < 0 || s.Quartz > 1:
 		return fmt.Errorf("soil: quartz fraction must be between 0 and 1, got %g", s.Quartz)
-	case s.Model != ModelKersten && s.Model != ModelJohansen:
+	case !s.Model.valid():
 		return fmt.Errorf("soil: unknown conductivity model %v", s.Model)
 	case !finite(s.FreezingPoint):
 		return errors.New("soil: freezing point is not a finite number")
@@ -353,20 +414,7 @@ func (s Soil) Conductivity() (frozen, unfrozen float64, err error) {
 	if err := s.Validate(); err != nil {
 		return 0, 0, err
 	}
-	switch s.Model {
-	case ModelJohansen:
-		n, sr := s.Porosity(), math.Min(1, s.Saturation())
-		return JohansenFrozen(s.Texture, n, sr, s.Quartz, s.DryDensity),
-			JohansenUnfrozen(s.Texture, n, sr, s.Quartz, s.DryDensity), nil
-	default:
-		if frozen, err = KerstenFrozen(s.Texture, s.DryDensity, s.WaterContent); err != nil {
-			return 0, 0, fmt.Errorf("soil: %w", err)
-		}
-		if unfrozen, err = KerstenUnfrozen(s.Texture, s.DryDensity, s.WaterContent); err != nil {
-			return 0, 0, fmt.Errorf("soil: %w", err)
-		}
-		return frozen, unfrozen, nil
-	}
+	return models[s.Model].impl.Conductivity(s)
 }
 
 // HeatCapacity returns the volumetric heat capacities of s, J/(m3 K), frozen

@@ -282,7 +282,7 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 	if !o.nonNegative("water_content", layers.Fraction, &soil.WaterContent) && !o.has("water_content") {
 		o.missing("water_content", "mass of water per mass of dry soil, e.g. 15 %")
 	}
-	if o.choice("model", []string{"kersten", "johansen"}, &model) {
+	if o.choice("model", ground.ModelKeys(), &model) {
 		var err error
 		if soil.Model, err = ground.ParseModel(model); err != nil {
 			o.fail("model", err)
@@ -310,10 +310,6 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 	l := fromSolverLayer(sl, bulkDensity(&soil))
 	l.Thickness = 0
 	l.Name = fmt.Sprintf("%s, %.0f kg/m3 dry, %.0f %% water", tex, soil.DryDensity, 100*soil.WaterContent)
-	model = "Kersten (1949)"
-	if soil.Model == ground.ModelJohansen {
-		model = "Johansen (1975)"
-	}
-	l.Source = "soil model: conductivity " + model + "; volumetric heat capacity of solids plus water or ice; latent heat = dry density × water content × 334 kJ/kg"
+	l.Source = "soil model: conductivity " + soil.Model.Label() + "; volumetric heat capacity of solids plus water or ice; latent heat = dry density × water content × 334 kJ/kg"
 	return l
 }

@@ -80,37 +80,56 @@ type VarySpec struct {
 	Unit      string
 }
 
-// quantities are the figures a study can compare, seek and spread, with
-// the function that reads each from Results.
-var quantities = map[string]func(r *results.Results) (float64, bool){
-	"u_value_W_m2K": func(r *results.Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == results.Wall },
-	"decrement_factor": func(r *results.Results) (float64, bool) {
+// studyQuantity is a figure a study can compare, seek and spread: its
+// name (the key in results.json, with its unit), the kind of scenario that
+// has it, and the function that reads it from Results (false: not
+// computed in this run).
+type studyQuantity struct {
+	name string
+	kind Kind
+	read func(r *results.Results) (float64, bool)
+}
+
+// quantities are the figures of a study, one table for both kinds.
+var quantities = []studyQuantity{
+	{"u_value_W_m2K", Wall, func(r *results.Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == results.Wall }},
+	{"decrement_factor", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.DecrementFactor })
-	},
-	"time_shift_h": func(r *results.Results) (float64, bool) {
+	}},
+	{"time_shift_h", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
-	},
-	"periodic_transmittance_W_m2K": func(r *results.Results) (float64, bool) {
+	}},
+	{"periodic_transmittance_W_m2K", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })
-	},
-	"inside_admittance_W_m2K": func(r *results.Results) (float64, bool) {
+	}},
+	{"inside_admittance_W_m2K", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.InsideAdmittance_W_m2K })
-	},
-	"inside_areal_heat_capacity_kJ_m2K": func(r *results.Results) (float64, bool) {
+	}},
+	{"inside_areal_heat_capacity_kJ_m2K", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.InsideArealHeatCapacity_kJ_m2K })
-	},
-	"max_frost_depth_m": func(r *results.Results) (float64, bool) {
+	}},
+	{"max_frost_depth_m", Ground, func(r *results.Results) (float64, bool) {
 		return frostQ(r, func(f *results.Frost) *float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
-	},
-	"stefan_depth_m": func(r *results.Results) (float64, bool) {
+	}},
+	{"stefan_depth_m", Ground, func(r *results.Results) (float64, bool) {
 		return frostQ(r, func(f *results.Frost) *float64 { return f.StefanDepth_m }, true)
-	},
-	"modified_berggren_depth_m": func(r *results.Results) (float64, bool) {
+	}},
+	{"modified_berggren_depth_m", Ground, func(r *results.Results) (float64, bool) {
 		return frostQ(r, func(f *results.Frost) *float64 { return f.ModifiedBerggrenDepth_m }, true)
-	},
-	"freezing_index_Cd": func(r *results.Results) (float64, bool) {
+	}},
+	{"freezing_index_Cd", Ground, func(r *results.Results) (float64, bool) {
 		return frostQ(r, func(f *results.Frost) *float64 { return f.FreezingIndex_Cd }, true)
-	},
+	}},
+}
+
+// quantityOf returns the quantity called name.
+func quantityOf(name string) (studyQuantity, bool) {
+	for _, q := range quantities {
+		if q.name == name {
+			return q, true
+		}
+	}
+	return studyQuantity{}, false
 }
 
 func first(r *results.Results, f func(results.PeriodicResult) float64) (float64, bool) {
@@ -132,10 +151,9 @@ func frostQ(r *results.Results, f func(*results.Frost) *float64, ok bool) (float
 // quantityNames lists the quantities a scenario kind has, sorted.
 func quantityNames(k Kind) []string {
 	var out []string
-	for name := range quantities {
-		wall := !strings.Contains(name, "frost") && !strings.Contains(name, "stefan") && !strings.Contains(name, "berggren") && !strings.Contains(name, "freezing")
-		if (k == Wall) == wall {
-			out = append(out, name)
+	for _, q := range quantities {
+		if q.kind == k {
+			out = append(out, q.name)
 		}
 	}
 	sort.Strings(out)
@@ -144,9 +162,9 @@ func quantityNames(k Kind) []string {
 
 func summarize(r *results.Results) results.Summary {
 	s := results.Summary{}
-	for name, f := range quantities {
-		if v, ok := f(r); ok {
-			s[name] = v
+	for _, q := range quantities {
+		if v, ok := q.read(r); ok {
+			s[q.name] = v
 		}
 	}
 	return s
@@ -643,7 +661,8 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 		if err != nil {
 			return 0, err
 		}
-		v, ok := quantities[tg.Quantity](rr)
+		q, _ := quantityOf(tg.Quantity)
+		v, ok := q.read(rr)
 		if !ok || math.IsNaN(v) {
 			return 0, &Error{File: s.File, Line: tg.Line, Key: "target.quantity", Msg: fmt.Sprintf("%s is not computed for this scenario", tg.Quantity)}
 		}

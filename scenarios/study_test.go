@@ -56,7 +56,8 @@ target:
 		check := func(mm float64) float64 {
 			rr := mustRun(t, strings.Replace(studyWall, "{material: concrete, thickness: 180 mm}",
 				fmt.Sprintf("{material: concrete, thickness: %g mm}", mm), 1))
-			v, _ := quantities[c.quantity](rr)
+			q, _ := quantityOf(c.quantity)
+			v, _ := q.read(rr)
 			return v
 		}
 		at, below := check(tg.Value), check(tg.Value-0.5)
@@ -313,5 +314,27 @@ sweep:
 				}
 			}
 		})
+	}
+}
+
+// TestQuantityKinds: every study quantity declares one kind; the names of
+// the two kinds split the table, and a frost quantity reads nothing from a
+// wall's results (it is absent there, not 0).
+func TestQuantityKinds(t *testing.T) {
+	wall, grnd := quantityNames(Wall), quantityNames(Ground)
+	if len(wall)+len(grnd) != len(quantities) || len(wall) == 0 || len(grnd) == 0 {
+		t.Fatalf("wall %v and ground %v do not split the %d quantities", wall, grnd, len(quantities))
+	}
+	for _, name := range grnd {
+		q, ok := quantityOf(name)
+		if !ok || q.kind != Ground {
+			t.Errorf("%s: kind %v", name, q.kind)
+		}
+		if v, ok := q.read(&results.Results{Kind: results.Wall}); ok {
+			t.Errorf("%s reads %g from a wall's results", name, v)
+		}
+	}
+	if _, ok := quantityOf("u_value"); ok {
+		t.Error("a name without its unit is a quantity")
 	}
 }
