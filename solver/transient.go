@@ -49,6 +49,17 @@ type Boundary struct {
 	Resistance  float64                 // m2 K/W, Environment only; 0 = prescribed surface temperature
 	Temperature func(t float64) float64 // degC at time t (s), Environment only
 	Flux        func(t float64) float64 // W/m2 into the column at time t (s), PrescribedFlux only
+
+	// ResistanceAt, when set, is the surface resistance (m2 K/W, finite,
+	// not negative) at time t (s) of an Environment boundary whose
+	// resistance varies in time (a snow cover, a shutter). Simulate holds
+	// it over each time step at its value at the step's midpoint, which
+	// keeps the scheme second order for a smooth resistance and is exact
+	// for one that changes on step boundaries; the energy balance closes
+	// as before. Resistance remains the representative value for what
+	// looks at the boundary outside a step (Settle's steady deep profile),
+	// and the start of the run until the first step.
+	ResistanceAt func(t float64) float64
 }
 
 // ColumnBoundaries returns Environment boundaries for both surfaces of c

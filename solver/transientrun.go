@@ -40,6 +40,8 @@ type fvBC struct {
 	rface float64 // massless layers on the surface face, m2 K/W
 	fn    func(float64) float64
 	g     float64 // conductance centre -> environment, W/(m2 K), Environment only
+
+	rAt func(float64) float64 // time-varying rb (Boundary.ResistanceAt); nil: constant
 }
 
 // value evaluates the boundary function at t.
@@ -301,7 +303,7 @@ func fvNewBC(side string, b Boundary, rface float64) (fvBC, error) {
 		if !(b.Resistance >= 0) || math.IsInf(b.Resistance, 0) {
 			return bc, fmt.Errorf("solver: %s surface resistance must be finite and not negative", side)
 		}
-		bc.fn = b.Temperature
+		bc.fn, bc.rAt = b.Temperature, b.ResistanceAt
 	case PrescribedFlux:
 		if b.Flux == nil {
 			return bc, fmt.Errorf("solver: %s flux boundary has no flux function", side)
@@ -482,6 +484,9 @@ func (r *fvRun) run() (*Result, error) {
 			t1 = p.Start + p.Duration
 		}
 		dt := t1 - t
+		if err = r.varyResistances(t + dt/2); err != nil {
+			return nil, err
+		}
 		if r.nonlinear {
 			err = r.stepEnthalpy(t, dt)
 		} else {
