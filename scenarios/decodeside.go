@@ -9,6 +9,7 @@ import (
 	"tempstack/climate"
 	"tempstack/ground"
 	"tempstack/layers"
+	"tempstack/solver"
 )
 
 func (d *decoder) decodeSides(top *object, s *Scenario) {
@@ -51,7 +52,7 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 			// Default bottom: the continental mean geothermal heat flux,
 			// 65 mW/m2 (Pollack, Hurter and Johnson 1993, Rev. Geophys.
 			// 31:267, abstract [read]).
-			side.HeatFlux, side.Flux = DefaultGeothermalFlux, true
+			side.Condition, side.HeatFlux = solver.PrescribedFlux, DefaultGeothermalFlux
 		default:
 			// Default inside: 20 degC air behind the ISO 6946 resistance.
 			side.Temperature = &Forcing{Periodic: climate.Periodic{Mean: 20}}
@@ -62,7 +63,7 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 	if o == nil {
 		return side
 	}
-	o.nonNegative("resistance", layers.Resistance, &side.Resistance)
+	d.decodeResistance(o, &side)
 	d.decodeNFactors(o, &side)
 	if o.has("temperature") {
 		side.Temperature = d.decodeForcing(o, "temperature", forcingTemperature)
@@ -74,25 +75,30 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 			o.failf("solar", "the sun shines on the outside surface only")
 		}
 	}
-	if o.quantity("heat_flux", layers.HeatFlux, &side.HeatFlux) {
-		side.Flux = true
+	given := 0
+	if o.has("temperature") {
+		given++
 	}
-	o.boolean("adiabatic", &side.Adiabatic)
+	if o.quantity("heat_flux", layers.HeatFlux, &side.HeatFlux) {
+		side.Condition = solver.PrescribedFlux
+		given++
+	}
+	var adiabatic bool
+	if o.boolean("adiabatic", &adiabatic) && adiabatic {
+		side.Condition = solver.Adiabatic
+		given++
+	}
 	if o.clean() {
-		checkSideCondition(o, key, s, side, outside)
+		checkSideCondition(o, key, s, side, outside, given)
 	}
 	return side
 }
 
 // checkSideCondition says what is wrong with the condition of a side that
 // was read without a mistake.
-func checkSideCondition(o *object, key string, s *Scenario, side Side, outside bool) {
-	n := 0
-	for _, given := range []bool{side.Temperature != nil, side.Flux, side.Adiabatic} {
-		if given {
-			n++
-		}
-	}
+// given counts the conditions given (temperature, heat_flux, adiabatic:
+// true).
+func checkSideCondition(o *object, key string, s *Scenario, side Side, outside bool, n int) {
 	switch {
 	case n == 0:
 		o.missing("temperature", "give temperature, heat_flux or adiabatic: true")

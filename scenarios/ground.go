@@ -101,7 +101,7 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
 	g := &results.GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
-	if s.Inside.Flux {
+	if s.Inside.Condition == solver.PrescribedFlux {
 		q := s.Inside.HeatFlux
 		g.GeothermalFlux_W_m2 = &q
 	}

@@ -15,6 +15,7 @@ import (
 	"tempstack/climate"
 	"tempstack/layers"
 	"tempstack/scenarios/results"
+	"tempstack/solver"
 )
 
 // Measured is a forcing read from a CSV time series.
@@ -447,14 +448,14 @@ func harmonicsInfo(hs []climate.Harmonic) []results.HarmonicInfo {
 }
 
 func sideInfo(sd Side) results.SideForcing {
-	out := results.SideForcing{Resistance_m2K_W: sd.Resistance, Cover: sd.Cover}
+	out := results.SideForcing{Resistance_m2K_W: sd.Resistance, ResistancePeriods: resistanceInfo(sd), Cover: sd.Cover}
 	if sd.hasNFactors() {
 		out.NFreezing, out.NThawing = sd.NFreezing, sd.nThawing()
 	}
 	switch f := sd.Temperature; {
-	case sd.Adiabatic:
+	case sd.Condition == solver.Adiabatic:
 		out.Kind = "adiabatic"
-	case sd.Flux:
+	case sd.Condition == solver.PrescribedFlux:
 		q := sd.HeatFlux
 		out.Kind, out.HeatFlux_W_m2 = "heat_flux", &q
 	case f == nil:

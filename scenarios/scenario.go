@@ -56,19 +56,27 @@ type Scenario struct {
 
 // Side is the boundary on one face of the column.
 type Side struct {
+	// Condition is what holds at the face, one of the solver's boundary
+	// kinds, one to one: solver.Environment (the environment Temperature
+	// behind Resistance, which may vary by ResistancePeriods),
+	// solver.PrescribedFlux (HeatFlux) or solver.Adiabatic (nothing
+	// crosses). Side.boundary maps it onto the solver's boundary.
+	Condition solver.BoundaryKind
+
 	// Resistance is the surface resistance in m2 K/W between the surface and
 	// the environment temperature; 0 imposes the temperature on the surface.
+	// With ResistancePeriods it is the value outside the periods.
 	Resistance float64
+	// ResistancePeriods are the times of each year when the resistance is
+	// another (a snow cover in winter); nil: Resistance all year.
+	ResistancePeriods []ResistancePeriod
 	// Temperature is the environment temperature (degC) behind the
 	// resistance. Nil on a side with a heat flux or adiabatic condition.
 	Temperature *Forcing
-	// HeatFlux, when Flux is true, is the heat flux in W/m2 entering the
-	// column through this face (ground bottom: the geothermal flux, positive
+	// HeatFlux is the heat flux in W/m2 entering the column through a
+	// PrescribedFlux face (ground bottom: the geothermal flux, positive
 	// upward into the column).
 	HeatFlux float64
-	Flux     bool
-	// Adiabatic: no heat crosses this face.
-	Adiabatic bool
 
 	// NFreezing and NThawing are the n-factors of a ground surface: the
 	// surface temperature is NFreezing x the air temperature below 0 degC

@@ -127,14 +127,14 @@ func warmestTime(f *Forcing) (float64, bool) {
 
 // boundary turns a scenario side into a solver boundary.
 func boundary(sd Side) solver.Boundary {
-	switch {
-	case sd.Adiabatic:
+	switch sd.Condition {
+	case solver.Adiabatic:
 		return solver.Boundary{Kind: solver.Adiabatic}
-	case sd.Flux:
+	case solver.PrescribedFlux:
 		q := sd.HeatFlux
 		return solver.Boundary{Kind: solver.PrescribedFlux, Flux: func(float64) float64 { return q }}
 	}
-	return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: sd.env()}
+	return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: sd.env(), ResistanceAt: sd.resistanceAt()}
 }
 
 // isLinear reports whether no layer of the column has latent heat.
@@ -187,7 +187,7 @@ func initialState(s *run, col solver.Column, mesh *solver.Mesh, t0 float64) ([]f
 		T, _, err = solver.Steady(c, forcingMean(out), forcingMean(s.Inside.Temperature), xs)
 	} else {
 		q := 0.0
-		if s.Inside.Flux {
+		if s.Inside.Condition == solver.PrescribedFlux {
 			q = s.Inside.HeatFlux
 		}
 		T, err = solver.SteadyWithBottomFlux(c, forcingMean(out), q, xs)
@@ -270,7 +270,8 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		if err != nil {
 			return nil, &Error{File: s.File, Msg: "initial state", Err: err}
 		}
-		if (!isLinear(col) || s.surfaceInexact) && s.Outside.Temperature.Step == nil {
+		varies := s.Outside.resistanceVaries() || s.Inside.resistanceVaries()
+		if (!isLinear(col) || s.surfaceInexact || varies) && s.Outside.Temperature.Step == nil {
 			// Latent heat makes the problem non-linear: the linear periodic
 			// solution is only a first guess. Repeat the longest forcing
 			// period until one cycle repeats the last.

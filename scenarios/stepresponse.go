@@ -30,7 +30,7 @@ func stepResponse(s *run, col solver.Column, r *results.Results) error {
 		far = s.Outside
 	}
 	farB := solver.Boundary{Kind: solver.Environment, Resistance: far.Resistance, Temperature: func(float64) float64 { return 0 }}
-	if s.Kind == Ground || far.Adiabatic {
+	if s.Kind == Ground || far.Condition == solver.Adiabatic {
 		farB = solver.Boundary{Kind: solver.Adiabatic}
 	}
 	// The flux after a sudden step falls like 1/sqrt(t) over many decades
@@ -162,7 +162,7 @@ func surfaceMean(s *run, col solver.Column, inside bool) (float64, error) {
 		return T[0], nil
 	}
 	q := 0.0
-	if s.Inside.Flux {
+	if s.Inside.Condition == solver.PrescribedFlux {
 		q = s.Inside.HeatFlux
 	}
 	T, err := solver.SteadyWithBottomFlux(c, out, q, []float64{x})

@@ -496,17 +496,30 @@ type ForcingInfo struct {
 
 // SideForcing is the condition on one side.
 type SideForcing struct {
-	Kind             string         `json:"kind"` // harmonic, measured, step, heat_flux, adiabatic
-	Resistance_m2K_W float64        `json:"resistance_m2K_W"`
-	Mean_C           float64        `json:"mean_C"` // measured: the fitted mean
-	Harmonics        []HarmonicInfo `json:"harmonics,omitempty"`
-	Step             *StepInfo      `json:"step,omitempty"`
-	HeatFlux_W_m2    *float64       `json:"heat_flux_W_m2,omitempty"` // entering the column
-	Record           string         `json:"record,omitempty"`         // file of a measured series
-	Cover            string         `json:"cover,omitempty"`
-	NFreezing        float64        `json:"n_factor_freezing,omitempty"`
-	NThawing         float64        `json:"n_factor_thawing,omitempty"`
-	Solar            *SolarInfo     `json:"solar,omitempty"`
+	Kind             string  `json:"kind"` // harmonic, measured, step, heat_flux, adiabatic
+	Resistance_m2K_W float64 `json:"resistance_m2K_W"`
+	// ResistancePeriods are the times of each year with another
+	// resistance (a snow cover); absent when the resistance is constant.
+	ResistancePeriods []ResistancePeriod `json:"resistance_periods,omitempty"`
+	Mean_C            float64            `json:"mean_C"` // measured: the fitted mean
+	Harmonics         []HarmonicInfo     `json:"harmonics,omitempty"`
+	Step              *StepInfo          `json:"step,omitempty"`
+	HeatFlux_W_m2     *float64           `json:"heat_flux_W_m2,omitempty"` // entering the column
+	Record            string             `json:"record,omitempty"`         // file of a measured series
+	Cover             string             `json:"cover,omitempty"`
+	NFreezing         float64            `json:"n_factor_freezing,omitempty"`
+	NThawing          float64            `json:"n_factor_thawing,omitempty"`
+	Solar             *SolarInfo         `json:"solar,omitempty"`
+}
+
+// ResistancePeriod is a time of each year when a surface resistance
+// differs from its usual value: from the start of FromDay to the start of
+// ToDay (days of the year, 1 = 1 January; ToDay < FromDay runs over the new
+// year).
+type ResistancePeriod struct {
+	FromDay          float64 `json:"from_day"`
+	ToDay            float64 `json:"to_day"`
+	Resistance_m2K_W float64 `json:"resistance_m2K_W"`
 }
 
 // HarmonicInfo is one harmonic: amplitude in K (irradiance: W/m2), peak

@@ -1,0 +1,158 @@
+package scenarios
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"gopkg.in/yaml.v3"
+
+	"tempstack/climate"
+	"tempstack/layers"
+	"tempstack/scenarios/results"
+)
+
+// ResistancePeriod is a time of each year when the surface resistance of a
+// side is not its usual value: a snow cover on the ground in winter, a
+// shutter closed over a window in summer.
+type ResistancePeriod struct {
+	From, To float64 // s after 1 January 00:00 of each year; To < From runs over the new year
+	Value    float64 // m2 K/W
+	Line     int     // line of the period, for messages
+}
+
+// contains reports whether the time of year y (s, 0 to a year) lies in p.
+func (p ResistancePeriod) contains(y float64) bool {
+	if p.From <= p.To {
+		return y >= p.From && y < p.To
+	}
+	return y >= p.From || y < p.To
+}
+
+// decodeResistance reads the resistance of a side: a number (m2 K/W), or
+// {value, periods: [{from_day, to_day, value}, ...]} for a resistance that
+// changes with the time of year.
+func (d *decoder) decodeResistance(o *object, side *Side) {
+	if !o.has("resistance") {
+		return
+	}
+	if o.values["resistance"].Kind == yaml.ScalarNode {
+		o.nonNegative("resistance", layers.Resistance, &side.Resistance)
+		return
+	}
+	ro := o.child("resistance", []string{"value", "periods"})
+	if ro == nil {
+		return
+	}
+	if !ro.nonNegative("value", layers.Resistance, &side.Resistance) && !ro.has("value") {
+		ro.missing("value", "the resistance outside the periods, m2 K/W")
+	}
+	items, ok := ro.list("periods")
+	if !ok && !ro.has("periods") {
+		ro.missing("periods", "a list of {from_day, to_day, value}; a constant resistance is a plain number")
+	}
+	for i, n := range items {
+		po := d.object(n, fmt.Sprintf("%s.periods[%d]", ro.path, i+1), []string{"from_day", "to_day", "value"})
+		if po == nil {
+			continue
+		}
+		p := ResistancePeriod{Line: n.Line}
+		p.From = po.dayOfYear("from_day")
+		p.To = po.dayOfYear("to_day")
+		if !po.nonNegative("value", layers.Resistance, &p.Value) && !po.has("value") {
+			po.missing("value", "the resistance during the period, m2 K/W")
+		}
+		if !po.clean() {
+			continue
+		}
+		if p.From == p.To {
+			po.failf("to_day", "the period is empty (to_day equals from_day)")
+			continue
+		}
+		for _, q := range side.ResistancePeriods {
+			if overlaps(p, q) {
+				po.failf("from_day", "the period overlaps the one on line %d", q.Line)
+				break
+			}
+		}
+		side.ResistancePeriods = append(side.ResistancePeriods, p)
+	}
+}
+
+// dayOfYear reads a required day of the year, 1 (1 January, 00:00) to 366
+// (the end of the year), and returns it as s after 1 January 00:00.
+func (o *object) dayOfYear(key string) float64 {
+	var s string
+	if !o.str(key, &s) {
+		if !o.has(key) {
+			o.missing(key, "a day of the year, 1 = 1 January")
+		}
+		return math.NaN()
+	}
+	x, err := strconv.ParseFloat(s, 64)
+	if err != nil || !(x >= 1 && x <= 366) {
+		o.failf(key, "a day of the year lies from 1 (1 January) to 366 (the end of the year), got %q", s)
+		return math.NaN()
+	}
+	return (x - 1) * climate.Day
+}
+
+// overlaps reports whether two periods share a time of year: two arcs of
+// the year overlap when one holds the other's start.
+func overlaps(a, b ResistancePeriod) bool { return a.contains(b.From) || b.contains(a.From) }
+
+// resistanceAt is the surface resistance of the side at time t (s), nil
+// when it does not vary.
+func (sd Side) resistanceAt() func(t float64) float64 {
+	if len(sd.ResistancePeriods) == 0 {
+		return nil
+	}
+	base, periods := sd.Resistance, sd.ResistancePeriods
+	return func(t float64) float64 {
+		y := math.Mod(t, climate.Year)
+		if y < 0 {
+			y += climate.Year
+		}
+		for _, p := range periods {
+			if p.contains(y) {
+				return p.Value
+			}
+		}
+		return base
+	}
+}
+
+// resistanceVaries reports whether the resistance of a side changes in the
+// course of a year.
+func (sd Side) resistanceVaries() bool {
+	for _, p := range sd.ResistancePeriods {
+		if p.Value != sd.Resistance {
+			return true
+		}
+	}
+	return false
+}
+
+// resistanceInfo is the periods of a side for results.json.
+func resistanceInfo(sd Side) []results.ResistancePeriod {
+	var out []results.ResistancePeriod
+	for _, p := range sd.ResistancePeriods {
+		out = append(out, results.ResistancePeriod{FromDay: p.From/climate.Day + 1, ToDay: p.To/climate.Day + 1, Resistance_m2K_W: p.Value})
+	}
+	return out
+}
+
+// resistanceWarnings says what a resistance that varies in time changes:
+// only the simulation follows it.
+func resistanceWarnings(s *Scenario) []string {
+	var out []string
+	for _, sd := range []struct {
+		name string
+		side Side
+	}{{map[Kind]string{Wall: "outside", Ground: "surface"}[s.Kind], s.Outside}, {map[Kind]string{Wall: "inside", Ground: "bottom"}[s.Kind], s.Inside}} {
+		if sd.side.resistanceVaries() {
+			out = append(out, fmt.Sprintf("the %s resistance changes in the course of the year: the simulation follows it; the exact periodic analysis and the closed forms use its value outside the periods, %g m2 K/W", sd.name, sd.side.Resistance))
+		}
+	}
+	return out
+}
