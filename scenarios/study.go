@@ -122,6 +122,16 @@ var quantities = []studyQuantity{
 	}},
 }
 
+// readQuantity reads the quantity called name from r; false when it is
+// not a quantity or was not computed.
+func readQuantity(name string, r *results.Results) (float64, bool) {
+	q, ok := quantityOf(name)
+	if !ok {
+		return math.NaN(), false
+	}
+	return q.read(r)
+}
+
 // quantityOf returns the quantity called name.
 func quantityOf(name string) (studyQuantity, bool) {
 	for _, q := range quantities {
@@ -661,8 +671,7 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 		if err != nil {
 			return 0, err
 		}
-		q, _ := quantityOf(tg.Quantity)
-		v, ok := q.read(rr)
+		v, ok := readQuantity(tg.Quantity, rr)
 		if !ok || math.IsNaN(v) {
 			return 0, &Error{File: s.File, Line: tg.Line, Key: "target.quantity", Msg: fmt.Sprintf("%s is not computed for this scenario", tg.Quantity)}
 		}

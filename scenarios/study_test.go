@@ -56,8 +56,7 @@ target:
 		check := func(mm float64) float64 {
 			rr := mustRun(t, strings.Replace(studyWall, "{material: concrete, thickness: 180 mm}",
 				fmt.Sprintf("{material: concrete, thickness: %g mm}", mm), 1))
-			q, _ := quantityOf(c.quantity)
-			v, _ := q.read(rr)
+			v, _ := readQuantity(c.quantity, rr)
 			return v
 		}
 		at, below := check(tg.Value), check(tg.Value-0.5)
