@@ -90,9 +90,13 @@ func runCommand() *cli.Command {
 			&cli.BoolFlag{Name: "quiet", Aliases: []string{"q"}, Usage: "print nothing on success"},
 			&cli.BoolFlag{Name: "force", Usage: "write into a non-empty --out folder that holds no earlier results.json"},
 			&cli.BoolFlag{Name: "date", Usage: "print today's date in the report (off by default, so the same input gives a byte-identical report)"},
+			&cli.IntFlag{Name: "workers", Usage: "run at most `N` cases of a study at once (default: one per core)"},
 		},
 		OnUsageError: usageError,
 		Action: func(c *cli.Context) error {
+			if w := c.Int("workers"); w < 0 {
+				return userErr("--workers: want a whole number of at least 1 (0 or none: one per core), got %d", w)
+			}
 			s, err := load(c)
 			if err != nil {
 				return err
@@ -109,7 +113,7 @@ func runCommand() *cli.Command {
 			if signalsWatched != nil {
 				signalsWatched()
 			}
-			res, err := scenarios.Run(ctx, s, scenarios.Options{Progress: progressFor(c.App.ErrWriter)})
+			res, err := scenarios.Run(ctx, s, scenarios.Options{Progress: progressFor(c.App.ErrWriter), Workers: c.Int("workers")})
 			if errors.Is(err, context.Canceled) {
 				return cli.Exit("interrupted: the run was stopped and nothing was written", 130)
 			}
