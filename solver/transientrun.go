@@ -81,64 +81,85 @@ func (b *fvBC) setG(rh float64) {
 	}
 }
 
-// fvRun is the state and workspace of one transient simulation.
+// fvRun is one transient simulation: what it was set up with, the state
+// of the column as it advances, and the scratch space of its solves.
 type fvRun struct {
+	fvConfig
+	fvState
+	fvWork
+
+	res *Result // the series being recorded, nil when not recording
+}
+
+// fvConfig is what a run is set up with and does not change while it
+// runs: the problem, the mesh, the properties of every cell and the time
+// stepping.
+type fvConfig struct {
 	p      *Problem
 	m      *Mesh
 	n      int
-	record bool
+	record bool // keep the result series (Simulate); a spin-up does not
 
-	h, invh  []float64 // cell widths, m
-	cvol     []float64 // unfrozen volumetric heat capacity, J/(m3 K)
-	capc     []float64 // h*C, J/(m2 K) (linear columns)
-	kc       []float64 // current conductivity, W/(m K)
-	rh       []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
-	rd       []float64 // resistance from the node to the lower face, m2 K/W
-	frozenUp []bool    // the side (sideUp) the resistances of a mushy isothermal cell were last set for
-	tStart   []float64 // temperatures at the start of the current implicit stage, degC
-	tStartOK bool      // tStart is set
-	cmin     []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
-	lagG     bool      // keep the conductances of the current iteration (see implicit)
-	dru, drd []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
-	rf       []float64 // massless resistance on each face, len n+1
-	gg       []float64 // conductance between centres i and i+1, len n-1
-	thr      []float64 // frost threshold per cell, degC
-
-	out, in fvBC
+	h, invh []float64 // cell widths, m, and their inverses
+	cvol    []float64 // unfrozen volumetric heat capacity, J/(m3 K)
+	capc    []float64 // h*C, J/(m2 K) (linear columns)
+	cmin    []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
+	rf      []float64 // massless resistance on each face, m2 K/W, len n+1
+	thr     []float64 // frost threshold per cell, degC
 
 	nonlinear bool
-	pidx      []int32 // phase index per cell, -1 for none
-	phases    []fvPhase
+	pidx      []int32   // phase index per cell, -1 for none
+	phases    []fvPhase // the freezing relations of the layers that freeze
+	pcells    []int     // cells with a phase change
 
-	// state
-	T, H, phi, slope []float64
-	T0, H0           []float64 // state at the start of the run
-	vo, vi           float64   // boundary values at the current time
+	nSteps, every int     // time steps, and steps between samples
+	dtLast        float64 // s, the last (shortened) step
+}
 
-	// workspace
-	tn, rhs, lo, di, up, w, tlin, hrhs, hn, hold []float64
-	ipiv                                         []float64 // inverse pivots of the enthalpy system
-	fa, fb                                       []float64 // dF_j/dH_j and dF_j/dH_{j+1} of each face flux F_j, W/m2 per J/m3
-	reg, nclip                                   []int8
-	pcells                                       []int   // cells with a phase change
-	regOK                                        bool    // reg holds the region of every phase cell's enthalpy
-	mLo, mHi                                     int     // the cells in their freezing range lie from mLo to mHi
-	nlTh                                         float64 // theta*dt of the kept factorisation
-	nlDirty                                      int     // rows from here up need factorising again
-	fac                                          fvSymTridiag
-	facUp                                        fvSymTridiagUp
-	facTh                                        float64
+// fvState is the state of the column and what follows from it: the
+// enthalpy and temperature of every cell and the properties that depend
+// on them, the surface conditions, the regions of the freezing cells and
+// the running energy balance.
+type fvState struct {
+	T, H, phi, slope []float64 // degC, J/m3, liquid fraction, dT/dH in m3 K/J
+	kc               []float64 // current conductivity, W/(m K)
+	rh               []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
+	rd               []float64 // resistance from the node to the lower face, m2 K/W
+	dru, drd         []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
+	frozenUp         []bool    // the side (sideUp) the resistances of a mushy isothermal cell were last set for
+	gg               []float64 // conductance between centres i and i+1, W/(m2 K), len n-1
+	lagG             bool      // keep the conductances of the current iteration (see implicit)
 
-	nSteps, every int
-	dtLast        float64
+	out, in fvBC    // surface conditions; their conductance g follows the surface cells' resistances
+	vo, vi  float64 // boundary values at the current time
+
+	T0, H0   []float64 // state at the start of the run
+	tStart   []float64 // temperatures at the start of the current implicit stage, degC
+	tStartOK bool      // tStart is set
+	reg      []int8    // region (0 frozen, 1 freezing range, 2 unfrozen) of each phase cell
+	regOK    bool      // reg holds the region of every phase cell's enthalpy
+	mLo, mHi int       // the cells in their freezing range lie from mLo to mHi (or a wider span)
 
 	eOut, eIn, eAbs fvKahan
 	lastT           float64 // time of the last sample, s
 	lastOut, lastIn float64 // eOut and eIn at the last sample, J/m2
 	iterations      int
 	unconverged     int
+}
 
-	res *Result
+// fvWork is the scratch space of the solves and the factorisations kept
+// between them.
+type fvWork struct {
+	tn, rhs, hrhs, hn   []float64 // previous temperatures, right-hand sides, enthalpy right-hand side, previous enthalpies
+	lo, di, up, w, tlin []float64 // the enthalpy system (di and up also the linear scheme's matrix, see ensureFactor)
+	ipiv                []float64 // inverse pivots of the enthalpy system
+	fa, fb              []float64 // dF_j/dH_j and dF_j/dH_{j+1} of each face flux F_j, W/m2 per J/m3
+	nclip               []int8    // kink stops of each cell in the current stage
+	nlTh                float64   // theta*dt of the kept factorisation
+	nlDirty             int       // rows from here up need factorising again
+	fac                 fvSymTridiag
+	facUp               fvSymTridiagUp
+	facTh               float64
 }
 
 func newFvRun(p *Problem, record bool) (*fvRun, error) {
@@ -164,7 +185,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		return nil, fmt.Errorf("solver: unknown time scheme %d", p.Scheme)
 	}
 	n := m.Cells()
-	r := &fvRun{p: p, m: m, n: n, record: record}
+	r := &fvRun{fvConfig: fvConfig{p: p, m: m, n: n, record: record}}
 	steps := math.Ceil(p.Duration/p.Step - 1e-9)
 	if steps > 1e9 {
 		return nil, fmt.Errorf("solver: %g time steps are too many", steps)
@@ -230,7 +251,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	}
 	r.T, r.H, r.phi, r.slope, r.T0, r.H0 = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.tn, r.rhs, r.lo, r.di, r.up, r.w = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
+	r.tlin, r.hrhs, r.hn = alloc(), alloc(), alloc()
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
 	r.ipiv = alloc()
 	r.fa, r.fb = alloc(), alloc()
