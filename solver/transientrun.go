@@ -104,6 +104,7 @@ type fvConfig struct {
 	cvol    []float64 // unfrozen volumetric heat capacity, J/(m3 K)
 	capc    []float64 // h*C, J/(m2 K) (linear columns)
 	cmin    []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
+	cutH    []float64 // an enthalpy correction below which it is round-off, J/m3 (fvTolCut kelvin of cmin)
 	rf      []float64 // massless resistance on each face, m2 K/W, len n+1
 	thr     []float64 // frost threshold per cell, degC
 
@@ -111,9 +112,17 @@ type fvConfig struct {
 	pidx      []int32   // phase index per cell, -1 for none
 	phases    []fvPhase // the freezing relations of the layers that freeze
 	pcells    []int     // cells with a phase change
+	spans     []fvSpan  // the column cut into runs of cells that can and cannot freeze
 
 	nSteps, every int     // time steps, and steps between samples
 	dtLast        float64 // s, the last (shortened) step
+}
+
+// fvSpan is a run of neighbouring cells lo..hi-1 that all can freeze
+// (phase) or all cannot.
+type fvSpan struct {
+	lo, hi int
+	phase  bool
 }
 
 // fvState is the state of the column and what follows from it: the
@@ -150,16 +159,26 @@ type fvState struct {
 // fvWork is the scratch space of the solves and the factorisations kept
 // between them.
 type fvWork struct {
-	tn, rhs, hrhs, hn   []float64 // previous temperatures, right-hand sides, enthalpy right-hand side, previous enthalpies
-	lo, di, up, w, tlin []float64 // the enthalpy system (di and up also the linear scheme's matrix, see ensureFactor)
-	ipiv                []float64 // inverse pivots of the enthalpy system
-	fa, fb              []float64 // dF_j/dH_j and dF_j/dH_{j+1} of each face flux F_j, W/m2 per J/m3
-	nclip               []int8    // kink stops of each cell in the current stage
-	nlTh                float64   // theta*dt of the kept factorisation
-	nlDirty             int       // rows from here up need factorising again
-	fac                 fvSymTridiag
-	facUp               fvSymTridiagUp
-	facTh               float64
+	tn, rhs, hrhs, hn []float64 // previous temperatures, right-hand sides (the eliminated residual of the enthalpy system), enthalpy right-hand side, previous enthalpies
+	di, up            []float64 // diagonal and off-diagonal of the linear scheme's matrix (ensureFactor)
+	rows              []fvRow   // the enthalpy system's factorisation, kept between iterations and steps
+	cth               []float64 // th/h per cell for the kept factorisation, s/m
+	nclip             []int8    // kink stops of each cell in the current stage
+	nlTh              float64   // theta*dt of the kept factorisation
+	nlDirty           int       // rows from here up need factorising again
+	fac               fvSymTridiag
+	facUp             fvSymTridiagUp
+	facTh             float64
+}
+
+// fvRow is row i of the enthalpy system, scaled by 1/h_i and eliminated
+// from the bottom up (see eliminate), and the derivatives of the flux
+// through the face below cell i.
+type fvRow struct {
+	ip     float64 // 1/pivot_i
+	w      float64 // lo_i/pivot_i, the multiplier of delta_{i-1} in the back-substitution
+	up     float64 // coefficient of delta_{i+1} in row i
+	fa, fb float64 // dF_i/dH_i and dF_i/dH_{i+1} of the face flux F_i, W/m2 per J/m3
 }
 
 func newFvRun(p *Problem, record bool) (*fvRun, error) {
@@ -250,17 +269,25 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		}
 	}
 	r.T, r.H, r.phi, r.slope, r.T0, r.H0 = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-	r.tn, r.rhs, r.lo, r.di, r.up, r.w = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-	r.tlin, r.hrhs, r.hn = alloc(), alloc(), alloc()
+	r.tn, r.rhs, r.di, r.up = alloc(), alloc(), alloc(), alloc()
+	r.hrhs, r.hn, r.cth = alloc(), alloc(), alloc()
+	r.rows = make([]fvRow, n)
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
-	r.ipiv = alloc()
-	r.fa, r.fb = alloc(), alloc()
-	r.cmin = alloc()
+	r.cmin, r.cutH = alloc(), alloc()
 	for i := range r.cmin {
 		r.cmin[i] = r.cvol[i]
 		if k := r.pidx[i]; k >= 0 {
 			r.cmin[i] = math.Min(r.phases[k].cf, r.phases[k].cu)
 		}
+		r.cutH[i] = fvTolCut * r.cmin[i]
+	}
+	for i := 0; i < n; {
+		sp := fvSpan{lo: i, phase: r.pidx[i] >= 0}
+		for i < n && (r.pidx[i] >= 0) == sp.phase {
+			i++
+		}
+		sp.hi = i
+		r.spans = append(r.spans, sp)
 	}
 	r.nlTh, r.nlDirty = math.NaN(), n-1
 	for i := range r.pidx {
@@ -805,295 +832,4 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 		r.vo, r.vi = vo1, vi1
 	}
 	return nil
-}
-
-// implicit solves h_i (H_i - hrhs_i) = th F_i(T(H)) for H, where F_i is
-// the net inflow of cell i with the boundary values vo, vi, starting from
-// the current state. Each iteration linearises the face fluxes around the
-// current enthalpy, with the slope dT/dH of each cell's phase region and
-// the derivatives of the resistances that depend on the frozen fraction
-// (Newton on the enthalpy), solves the tridiagonal system for the enthalpy
-// change, and then sets the enthalpy from the conservative update
-// H_i = hrhs_i + th/h_i (linearised net inflow of cell i): every face flux
-// enters its two cells with opposite signs. A cell whose update crosses a kink of T(H) (an end of the
-// freezing range) is stopped on the kink and linearised in the region
-// beyond it in the next iteration, which makes the iteration converge
-// where plain Newton would cycle across the kink; the iteration ends only
-// on an unclipped, conservative update, so the energy balance of every
-// accepted stage is exact to round-off. It returns the surface inflows of
-// that update.
-//
-// The system is eliminated from the bottom up and its pivots are kept
-// between iterations and steps: only the rows above the deepest cell whose
-// slope or conductivity changed are factorised again (in a ground column
-// the frost stays near the surface, so the deep rows are reused), and
-// the derivatives of the face fluxes are kept with them. A freezing cell
-// that stays fully frozen or fully unfrozen is linear: only its
-// temperature is updated; its slope, conductivity and resistances stand
-// (TestEnthalpyCachedStateMatchesFresh checks that they equal a fresh
-// evaluation).
-func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
-	n := r.n
-	H, T, s, kc := r.H[:n], r.T[:n], r.slope[:n], r.kc[:n]
-	h, invh, hrhs, tlin := r.h[:n], r.invh[:n], r.hrhs[:n], r.tlin[:n]
-	lo, di, up, y, wb, ip := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n], r.ipiv[:n]
-	reg, nclip := r.reg[:n], r.nclip[:n]
-	gg := r.gg
-	fa, fb := r.fa[:max(n-1, 0)], r.fb[:max(n-1, 0)]
-	pidx, phases := r.pidx[:n], r.phases
-	dru, drd := r.dru[:n], r.drd[:n]
-	out, in := &r.out, &r.in
-	if !r.regOK {
-		r.mLo, r.mHi = n, -1
-		for _, i := range r.pcells {
-			reg[i] = r.phases[r.pidx[i]].region(H[i])
-			if reg[i] == 1 {
-				r.mLo, r.mHi = min(r.mLo, i), max(r.mHi, i)
-			}
-		}
-		// A stage ends on an unclipped update, which leaves reg as the
-		// region of each cell's enthalpy for the next stage, and mLo, mHi
-		// around the cells in their freezing range.
-		r.regOK = true
-	}
-	clear(nclip)
-	// The side on which an isothermal cell freezes first is decided from
-	// the temperatures at the start of the stage (sideUp); a partly
-	// frozen cell whose side changed gets new resistances. The other cells
-	// take their side when they become partly frozen.
-	copy(r.tStart, T)
-	r.tStartOK = true
-	for i := max(r.mLo, 0); i <= min(r.mHi, n-1); i++ {
-		if reg[i] == 1 && phases[pidx[i]].isoTerm && r.sideUp(i) != r.frozenUp[i] {
-			r.setHalves(i)
-			r.nlDirty = n - 1
-			r.updateConductances()
-		}
-	}
-	if th != r.nlTh {
-		r.nlTh = th
-		r.nlDirty = n - 1
-	}
-	for it := 0; ; it++ {
-		r.iterations++
-		if it == fvLagAfter {
-			// The resistances of a partly frozen cell jump where it
-			// becomes fully frozen or unfrozen (its node moves from the
-			// front to the centre); a solution sitting on that kink makes
-			// them alternate. Keep the current ones for the rest of the
-			// stage: the iteration then converges on T(H) alone.
-			r.lagG = true
-			for _, j := range r.pcells {
-				if r.dru[j] != 0 || r.drd[j] != 0 {
-					r.dru[j], r.drd[j] = 0, 0
-					r.nlDirty = max(r.nlDirty, min(j+1, n-1))
-				}
-			}
-		}
-		// Factorise the rows that changed, bottom up:
-		// piv_i = di_i - up_i w_{i+1}, w_i = lo_i / piv_i.
-		// Boundary derivatives d(inflow)/dH of the end cells.
-		ao, ai := 0.0, 0.0
-		if out.kind == Environment {
-			ao = -out.g*s[0] - (vo-T[0])*out.g*out.g*r.dru[0]
-		}
-		if in.kind == Environment {
-			ai = -in.g*s[n-1] - (vi-T[n-1])*in.g*in.g*r.drd[n-1]
-		}
-		// Face j between cells j and j+1 carries F_j = G_j (T_j - T_{j+1});
-		// a_j = dF_j/dH_j, b_j = dF_j/dH_{j+1} (including dG/dH), kept in
-		// fa, fb for the update below. The faces of the rows kept join
-		// linear cells: their a, b depend on neither T nor H.
-		var aL, bL float64 // face below row i
-		if i := r.nlDirty; i >= 0 && i < n-1 {
-			g, dT := gg[i], T[i]-T[i+1]
-			aL = g*s[i] - dT*g*g*drd[i]
-			bL = -g*s[i+1] - dT*g*g*dru[i+1]
-			fa[i], fb[i] = aL, bL
-		}
-		for i := r.nlDirty; i >= 0; i-- {
-			var dN float64 // d(net inflow of cell i)/dH_i
-			var aU, bU float64
-			lo[i], up[i] = 0, 0
-			if i > 0 {
-				g, dT := gg[i-1], T[i-1]-T[i]
-				aU = g*s[i-1] - dT*g*g*drd[i-1]
-				bU = -g*s[i] - dT*g*g*dru[i]
-				fa[i-1], fb[i-1] = aU, bU
-				dN += bU
-				lo[i] = -th * aU
-			} else {
-				dN += ao
-			}
-			if i < n-1 {
-				dN -= aL
-				up[i] = th * bL
-			} else {
-				dN += ai
-			}
-			aL, bL = aU, bU
-			di[i] = h[i] - th*dN
-			piv := di[i]
-			if i < n-1 {
-				piv -= up[i] * wb[i+1]
-			}
-			ip[i] = 1 / piv
-			wb[i] = lo[i] * ip[i]
-		}
-		r.nlDirty = -1
-		// Residual R_i = h_i (hrhs_i - H_i) + th F_i(T), eliminated bottom up.
-		qo, qi = out.inflow(vo, T[0]), in.inflow(vi, T[n-1])
-		fBelow := -qi
-		yNext := 0.0
-		for i := n - 1; i >= 0; i-- {
-			fAbove := qo
-			if i > 0 {
-				fAbove = gg[i-1] * (T[i-1] - T[i])
-			}
-			yi := h[i]*(hrhs[i]-H[i]) + th*(fAbove-fBelow) - up[i]*yNext
-			yi *= ip[i]
-			y[i] = yi
-			yNext = yi
-			fBelow = fAbove
-		}
-		// Back substitution top down, linearised temperatures, conservative
-		// update of each cell once the fluxes through both its faces are
-		// known, and the new state of the cell.
-		last := it+1 >= fvMaxIter
-		errT, dk := 0.0, 0.0
-		mLo, mHi := n, -1 // cells left in their freezing range
-		clipped := false
-		klo, khi := n, -1
-		x := y[0] // delta_i
-		tlin[0] = T[0] + s[0]*x
-		qo = out.inflow(vo, T[0]) + ao*x
-		fAbove := qo
-		for i := 0; i < n; i++ {
-			var fBelow float64
-			if i < n-1 {
-				xn := y[i+1] - wb[i+1]*x
-				tlin[i+1] = T[i+1] + s[i+1]*xn
-				// Linearised face flux F_i + a_i delta_i + b_i delta_{i+1}.
-				fBelow = gg[i]*(T[i]-T[i+1]) + fa[i]*x + fb[i]*xn
-				x = xn
-			} else {
-				qi = in.inflow(vi, T[i]) + ai*x
-				fBelow = -qi
-			}
-			hi := hrhs[i] + th*invh[i]*(fAbove-fBelow)
-			H[i] = hi
-			fAbove = fBelow
-			k := pidx[i]
-			if k < 0 {
-				T[i] = hi * s[i]
-				if e := math.Abs(T[i] - tlin[i]); e > errT {
-					errT = e
-				}
-				continue
-			}
-			ph := &phases[k]
-			// A cell still fully unfrozen or fully frozen is linear: its
-			// slope, conductivity and resistances are those it had
-			// (updateCell would set the same values), so only its
-			// temperature changes, by the formulas of state.
-			if reg[i] == 2 && hi >= ph.hp {
-				T[i] = ph.tp + (hi-ph.hp)/ph.cu
-				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
-					errT = e
-				}
-				continue
-			} else if reg[i] == 0 && hi <= 0 {
-				T[i] = ph.tl + hi/ph.cf
-				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
-					errT = e
-				}
-				continue
-			}
-			rn := ph.region(H[i])
-			sold, ruOld, rdOld := s[i], r.rh[i], r.rd[i]
-			druOld, drdOld := r.dru[i], r.drd[i]
-			if rn != reg[i] && nclip[i] < 4 && !last {
-				// Stop on the first kink crossed; continue beyond it.
-				next := reg[i] + 1
-				if rn < reg[i] {
-					next = reg[i] - 1
-				}
-				atHp := (rn > reg[i] && reg[i] == 1) || (rn < reg[i] && reg[i] == 2)
-				H[i] = 0
-				if atHp {
-					H[i] = ph.hp
-				}
-				T[i], r.phi[i], s[i], kc[i] = ph.kink(atHp, next)
-				r.setHalves(i)
-				reg[i] = next
-				nclip[i]++
-				clipped = true
-			} else {
-				r.updateCell(i)
-				reg[i] = rn
-			}
-			if reg[i] == 1 {
-				mLo, mHi = min(mLo, i), max(mHi, i)
-			}
-			if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
-				errT = e
-			}
-			if r.rh[i] != ruOld || r.rd[i] != rdOld {
-				rs := r.rh[i] + r.rd[i]
-				dk = math.Max(dk, math.Max(math.Abs(r.rh[i]-ruOld), math.Abs(r.rd[i]-rdOld))/rs)
-				klo, khi = min(klo, i), max(khi, i)
-			}
-			// The rows next to a cell whose slope, resistances or their
-			// derivatives are (or were, in the rows kept) not those of a
-			// linear cell are factorised again.
-			if r.rh[i] != ruOld || r.rd[i] != rdOld || s[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 || druOld != 0 || drdOld != 0 {
-				r.nlDirty = max(r.nlDirty, min(i+1, n-1))
-			}
-		}
-		if khi >= 0 {
-			// Conductances next to the cells whose conductivity changed.
-			for j := max(klo-1, 0); j <= min(khi, n-2); j++ {
-				gg[j] = 1 / (r.rd[j] + r.rf[j+1] + r.rh[j+1])
-			}
-			if klo == 0 {
-				out.setG(r.rh[0])
-			}
-			if khi == n-1 {
-				in.setG(r.rd[n-1])
-			}
-			if dk > fvTolK && !clipped && errT <= fvTolT {
-				// The linearised fluxes were exact except next to the cells
-				// whose resistances changed: if the residual of the
-				// conservation equation there, in kelvin of the cell's
-				// heat capacity, is negligible, the stage has converged.
-				dk = 0
-				for j := max(klo-1, 0); j <= min(khi+1, n-1); j++ {
-					fa := out.inflow(vo, T[0])
-					if j > 0 {
-						fa = gg[j-1] * (T[j-1] - T[j])
-					}
-					fb := -in.inflow(vi, T[n-1])
-					if j < n-1 {
-						fb = gg[j] * (T[j] - T[j+1])
-					}
-					res := math.Abs(h[j]*(hrhs[j]-H[j])+th*(fa-fb)) / (h[j] * r.cmin[j])
-					if res > fvTolR {
-						dk = math.Inf(1)
-						break
-					}
-				}
-			}
-		}
-		if !clipped && errT <= fvTolT && dk <= fvTolK {
-			r.endLag()
-			r.mLo, r.mHi = mLo, mHi
-			return qo, qi
-		}
-		if last {
-			r.unconverged++
-			r.endLag()
-			r.mLo, r.mHi = mLo, mHi
-			return qo, qi
-		}
-	}
 }
