@@ -161,7 +161,7 @@ func (r *fvRun) surfaceSlopes(vo, vi float64) (ao, ai float64) {
 // a_j = dF_j/dH_j and b_j = dF_j/dH_{j+1} (including dG/dH), and dN_i =
 // b_{i-1} - a_i is the derivative of the cell's net inflow. From the
 // bottom up: piv_i = 1 - c_i dN_i - up_i w_{i+1}, w_i = lo_i/piv_i,
-// y_i = (R_i - up_i y_{i+1})/piv_i. The faces of the rows kept join
+// u_i = up_i/piv_i, y_i = R_i/piv_i - u_i y_{i+1}. The faces of the rows kept join
 // linear cells: their a, b depend on neither T nor H.
 func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int) (t, start int) {
 	n := r.n
@@ -209,10 +209,11 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int) (t, start int) {
 				dN += ai
 			}
 			ip := 1 / (1 - c*dN - up*wNext)
-			rw.ip, rw.up, rw.w = ip, up, -c*aU*ip
+			rw.ip, rw.u, rw.w = ip, up*ip, -c*aU*ip
 			aL, bL = aU, bU
 		}
-		yi := (hrhs[i] - H[i] + c*(fAbove-fBelow) - rw.up*yNext) * rw.ip
+		// One multiplication and one subtraction on the recurrence.
+		yi := (hrhs[i]-H[i]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext
 		y[i] = yi
 		if i < a && math.Abs(yi) <= cut[i] {
 			// Rows i-1 and above keep their old pivots for now.
@@ -247,6 +248,7 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 	n := r.n
 	T, s, H, hrhs, cth, y := r.T[:n], r.slope[:n], r.H[:n], r.hrhs[:n], r.cth[:n], r.rhs[:n]
 	rows, gg := r.rows[:n], r.gg
+	reg, pidx, phases := r.reg[:n], r.pidx[:n], r.phases
 	sw := fvSweep{t: t, e: n - 1, klo: n, khi: -1, dlo: n, dhi: -1, mlo: n, mhi: -1}
 	x := y[t]
 	var fAbove float64
@@ -278,12 +280,21 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 			}
 			hi := hrhs[i] + cth[i]*(fAbove-fBelow)
 			H[i] = hi
-			if sp.phase {
-				r.phaseState(i, T[i]+s[i]*x, last, &sw)
-			} else {
+			switch {
+			case !sp.phase:
 				// T(H) is linear: T - (T + s delta) is the rounding of
 				// the solve, far below fvTolT.
 				T[i] = hi * s[i]
+			case reg[i] == 2 && hi >= phases[pidx[i]].hp:
+				// Still fully unfrozen: as in phaseState.
+				ph := &phases[pidx[i]]
+				tl := T[i] + s[i]*x
+				T[i] = ph.tp + (hi-ph.hp)/ph.cu
+				if e := math.Abs(T[i] - tl); e > sw.errT || e != e {
+					sw.errT = e
+				}
+			default:
+				r.phaseState(i, T[i]+s[i]*x, last, &sw)
 			}
 			x, fAbove = xn, fBelow
 		}

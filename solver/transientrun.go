@@ -177,7 +177,7 @@ type fvWork struct {
 type fvRow struct {
 	ip     float64 // 1/pivot_i
 	w      float64 // lo_i/pivot_i, the multiplier of delta_{i-1} in the back-substitution
-	up     float64 // coefficient of delta_{i+1} in row i
+	u      float64 // up_i/pivot_i, with up_i the coefficient of delta_{i+1} in row i
 	fa, fb float64 // dF_i/dH_i and dF_i/dH_{i+1} of the face flux F_i, W/m2 per J/m3
 }
 
