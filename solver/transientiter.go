@@ -48,8 +48,8 @@ const fvTolCut = 1e-14 // K
 //
 // TestEnthalpyIterationGolden holds the answers to those of the iteration
 // that did the whole column every time, within 1e-9 K.
-func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
-	r.beginStage(th)
+func (r *fvRun) implicit(th, vo, vi float64, rhs fvRHS) (qo, qi float64) {
+	r.beginStage(th, &rhs)
 	n := r.n
 	a, b := 0, n-1 // rows whose residual is more than round-off
 	for it := 0; ; it++ {
@@ -59,7 +59,8 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 		}
 		last := it+1 >= fvMaxIter
 		ao, ai := r.surfaceSlopes(vo, vi)
-		t, start := r.eliminate(vo, vi, ao, ai, a, b)
+		t, start := r.eliminate(vo, vi, ao, ai, a, b, rhs)
+		rhs.kind = fvRHSGiven
 		sw := r.substitute(vo, vi, ao, ai, t, start, last, &qo, &qi)
 		r.mergeMushySpan(&sw)
 		r.newConductances(th, vo, vi, &sw)
@@ -75,10 +76,22 @@ func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
 	}
 }
 
+// fvRHS says how the first sweep of a stage forms hrhs.
+type fvRHS struct {
+	kind     int8
+	qo0, qi0 float64 // surface inflows at the start of the step (fvRHSExplicit)
+}
+
+const (
+	fvRHSGiven    = iota // hrhs is set
+	fvRHSExplicit        // hrhs = H + th/h (net inflow with qo0, qi0), and hn = H (TR-BDF2 stage 1)
+	fvRHSBDF2            // hrhs = C1 H - C2 hn (TR-BDF2 stage 2)
+)
+
 // beginStage prepares an implicit stage with theta*dt = th: the regions
 // of the freezing cells, the side on which partly frozen isothermal cells
 // freeze, and the factorisation when th changed.
-func (r *fvRun) beginStage(th float64) {
+func (r *fvRun) beginStage(th float64, rhs *fvRHS) {
 	n := r.n
 	if !r.regOK {
 		r.mLo, r.mHi = n, -1
@@ -100,19 +113,41 @@ func (r *fvRun) beginStage(th float64) {
 	// take their side when they become partly frozen.
 	copy(r.tStart, r.T)
 	r.tStartOK = true
-	for i := max(r.mLo, 0); i <= min(r.mHi, n-1); i++ {
-		if r.reg[i] == 1 && r.phases[r.pidx[i]].isoTerm && r.sideUp(i) != r.frozenUp[i] {
-			r.setHalves(i)
-			r.nlDirty = n - 1
-			r.updateConductances()
-		}
-	}
 	if th != r.nlTh {
 		r.nlTh = th
 		r.nlDirty = n - 1
 		for i, v := range r.invh {
 			r.cth[i] = th * v
 		}
+	}
+	for i := max(r.mLo, 0); i <= min(r.mHi, n-1); i++ {
+		if r.reg[i] == 1 && r.phases[r.pidx[i]].isoTerm && r.sideUp(i) != r.frozenUp[i] {
+			if rhs.kind == fvRHSExplicit {
+				// The explicit part sees the conductances before.
+				r.explicitRHS(rhs.qo0, rhs.qi0)
+				rhs.kind = fvRHSGiven
+			}
+			r.setHalves(i)
+			r.nlDirty = n - 1
+			r.updateConductances()
+		}
+	}
+}
+
+// explicitRHS sets hn = H and hrhs = H + th/h (net inflow) for the
+// surface inflows qo0, qi0, as the first sweep does for fvRHSExplicit.
+func (r *fvRun) explicitRHS(qo0, qi0 float64) {
+	n := r.n
+	H, T, gg, cth := r.H[:n], r.T[:n], r.gg, r.cth[:n]
+	fl := qo0
+	for i := range H {
+		fr := -qi0
+		if i < n-1 {
+			fr = gg[i] * (T[i] - T[i+1])
+		}
+		r.hn[i] = H[i]
+		r.hrhs[i] = H[i] + cth[i]*(fl-fr)
+		fl = fr
 	}
 }
 
@@ -162,10 +197,12 @@ func (r *fvRun) surfaceSlopes(vo, vi float64) (ao, ai float64) {
 // b_{i-1} - a_i is the derivative of the cell's net inflow. From the
 // bottom up: piv_i = 1 - c_i dN_i - up_i w_{i+1}, w_i = lo_i/piv_i,
 // u_i = up_i/piv_i, y_i = R_i/piv_i - u_i y_{i+1}. The faces of the rows kept join
-// linear cells: their a, b depend on neither T nor H.
-func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int) (t, start int) {
+// linear cells: their a, b depend on neither T nor H. In the first sweep
+// of a stage (which covers the whole column) hrhs is formed as rhs says.
+func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start int) {
 	n := r.n
 	T, s, H, hrhs, cth, y := r.T[:n], r.slope[:n], r.H[:n], r.hrhs[:n], r.cth[:n], r.rhs[:n]
+	hn := r.hn[:n]
 	dru, drd, cut := r.dru[:n], r.drd[:n], r.cutH[:n]
 	rows, gg := r.rows[:n], r.gg
 	dirty := r.nlDirty
@@ -211,6 +248,20 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int) (t, start int) {
 			ip := 1 / (1 - c*dN - up*wNext)
 			rw.ip, rw.u, rw.w = ip, up*ip, -c*aU*ip
 			aL, bL = aU, bU
+		}
+		switch rhs.kind {
+		case fvRHSExplicit:
+			f0a, f0b := fAbove, fBelow
+			if i == 0 {
+				f0a = rhs.qo0
+			}
+			if i == n-1 {
+				f0b = -rhs.qi0
+			}
+			hn[i] = H[i]
+			hrhs[i] = H[i] + c*(f0a-f0b)
+		case fvRHSBDF2:
+			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
 		}
 		// One multiplication and one subtraction on the recurrence.
 		yi := (hrhs[i]-H[i]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext

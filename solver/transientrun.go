@@ -772,7 +772,7 @@ func (r *fvRun) netFlux(T []float64, vo, vi float64, f []float64) (qo, qi float6
 // stepEnthalpy advances a column with freezing layers by dt from t.
 func (r *fvRun) stepEnthalpy(t, dt float64) error {
 	n := r.n
-	H, hrhs, hn, f := r.H[:n], r.hrhs[:n], r.hn[:n], r.tn[:n]
+	H, hrhs, f := r.H[:n], r.hrhs[:n], r.tn[:n]
 	vo0, vi0 := r.vo, r.vi
 	switch r.p.Scheme {
 	case TRBDF2:
@@ -785,27 +785,12 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 		if err != nil {
 			return err
 		}
-		// Stage 1 right-hand side H + th/h (net inflow), as netFlux.
-		T, gg, invh := r.T[:n], r.gg, r.invh[:n]
-		qo0, qi0 := r.out.inflow(vo0, T[0]), r.in.inflow(vi0, T[n-1])
-		fl := qo0
-		for i := range H {
-			hi := H[i]
-			hn[i] = hi
-			var fr float64
-			if i < n-1 {
-				fr = gg[i] * (T[i] - T[i+1])
-			} else {
-				fr = -qi0
-			}
-			hrhs[i] = hi + th*invh[i]*(fl-fr)
-			fl = fr
-		}
-		qom, qim := r.implicit(th, vom, vim)
-		for i := range H {
-			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
-		}
-		qo1, qi1 := r.implicit(th, vo1, vi1)
+		// Stage 1: hrhs = H + th/h (net inflow at the start of the step);
+		// stage 2: hrhs = C1 H* - C2 H^n. Both are formed in the first
+		// elimination sweep of their stage.
+		qo0, qi0 := r.out.inflow(vo0, r.T[0]), r.in.inflow(vi0, r.T[n-1])
+		qom, qim := r.implicit(th, vom, vim, fvRHS{kind: fvRHSExplicit, qo0: qo0, qi0: qi0})
+		qo1, qi1 := r.implicit(th, vo1, vi1, fvRHS{kind: fvRHSBDF2})
 		r.account(fvW0*dt, fvW0*dt, fvW1*dt, qo0, qom, qo1, qi0, qim, qi1)
 		r.vo, r.vi = vo1, vi1
 	case CrankNicolson:
@@ -818,7 +803,7 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 		for i := range H {
 			hrhs[i] = H[i] + th*r.invh[i]*f[i]
 		}
-		qo1, qi1 := r.implicit(th, vo1, vi1)
+		qo1, qi1 := r.implicit(th, vo1, vi1, fvRHS{})
 		r.account(th, 0, th, qo0, 0, qo1, qi0, 0, qi1)
 		r.vo, r.vi = vo1, vi1
 	case BackwardEuler:
@@ -827,7 +812,7 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 			return err
 		}
 		copy(hrhs, H)
-		qo1, qi1 := r.implicit(dt, vo1, vi1)
+		qo1, qi1 := r.implicit(dt, vo1, vi1, fvRHS{})
 		r.account(0, 0, dt, 0, 0, qo1, 0, 0, qi1)
 		r.vo, r.vi = vo1, vi1
 	}
