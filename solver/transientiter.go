@@ -217,6 +217,17 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 	qo := r.out.inflow(vo, T[0])
 	var aL, bL, yNext float64 // derivatives of the face below row i; y_{i+1}
 	for i := start; i >= 0; i-- {
+		if lo := max(dirty+1, 1); i < n-1 && i >= lo {
+			// Interior rows whose factorisation is kept.
+			var cutAt int
+			fBelow, yNext, cutAt = r.elimKept(i, lo, a, fBelow, yNext, rhs.kind)
+			if cutAt >= 0 {
+				r.nlDirty = min(dirty, cutAt-1)
+				return cutAt + 1, start
+			}
+			wNext, i = rows[lo].w, lo
+			continue
+		}
 		fAbove := qo
 		if i > 0 {
 			fAbove = gg[i-1] * (T[i-1] - T[i])
@@ -277,6 +288,36 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 	return 0, start
 }
 
+// elimKept is eliminate over the interior rows hi down to lo (1 <= lo <=
+// hi < n-1) whose factorisation is kept, from the flux fBelow through the
+// face below row hi and y_{hi+1} = yNext. It returns the flux through the
+// face above row lo and y_lo, or, if it stopped at a row above a whose
+// eliminated residual is round-off, that row's flux, y and index (else
+// cut < 0).
+func (r *fvRun) elimKept(hi, lo, a int, fBelow, yNext float64, kind int8) (f, y float64, cut int) {
+	T, gg, H, hrhs, hn := r.T[:hi+1], r.gg[:hi], r.H[:hi+1], r.hrhs[:hi+1], r.hn[:hi+1]
+	cth, ys, rows, cutH := r.cth[:hi+1], r.rhs[:hi+1], r.rows[:hi+1], r.cutH[:hi+1]
+	for i := hi; i >= lo; i-- {
+		fAbove := gg[i-1] * (T[i-1] - T[i])
+		c := cth[i]
+		switch kind {
+		case fvRHSExplicit:
+			hn[i] = H[i]
+			hrhs[i] = H[i] + c*(fAbove-fBelow)
+		case fvRHSBDF2:
+			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
+		}
+		rw := &rows[i]
+		yi := (hrhs[i]-H[i]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext
+		ys[i] = yi
+		if i < a && math.Abs(yi) <= cutH[i] {
+			return fAbove, yi, i
+		}
+		yNext, fBelow = yi, fAbove
+	}
+	return fBelow, yNext, -1
+}
+
 // fvSweep is what one back-substitution found.
 type fvSweep struct {
 	t, e     int     // rows updated
@@ -316,7 +357,13 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 		if sp.lo > start {
 			break
 		}
-		for i := max(sp.lo, t); i < min(sp.hi, start+1); i++ {
+		i0 := max(sp.lo, t)
+		if !sp.phase && i0 < start && i0 < min(sp.hi, start)-1 {
+			// Cells that cannot freeze, each with a neighbour below.
+			x, fAbove = r.substLinear(i0, min(sp.hi, start)-1, x, fAbove)
+			i0 = min(sp.hi, start) - 1
+		}
+		for i := i0; i < min(sp.hi, start+1); i++ {
 			var fBelow, xn float64
 			if i < n-1 {
 				if i < start {
@@ -337,10 +384,17 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 				// the solve, far below fvTolT.
 				T[i] = hi * s[i]
 			case reg[i] == 2 && hi >= phases[pidx[i]].hp:
-				// Still fully unfrozen: as in phaseState.
+				// Still fully unfrozen, or frozen: as in phaseState.
 				ph := &phases[pidx[i]]
 				tl := T[i] + s[i]*x
 				T[i] = ph.tp + (hi-ph.hp)/ph.cu
+				if e := math.Abs(T[i] - tl); e > sw.errT || e != e {
+					sw.errT = e
+				}
+			case reg[i] == 0 && hi <= 0:
+				ph := &phases[pidx[i]]
+				tl := T[i] + s[i]*x
+				T[i] = ph.tl + hi/ph.cf
 				if e := math.Abs(T[i] - tl); e > sw.errT || e != e {
 					sw.errT = e
 				}
@@ -354,6 +408,25 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 		r.tail(start+1, x, vi, ai, last, qi, &sw)
 	}
 	return sw
+}
+
+// substLinear is substitute over rows lo to hi-1 (hi <= start), cells
+// that cannot freeze, from delta_lo = x and the flux fAbove through the
+// face above row lo; it returns delta_hi and the flux through the face
+// above row hi. Their T(H) is linear: T - (T + s delta) is the rounding of
+// the solve, far below fvTolT, and is not looked at.
+func (r *fvRun) substLinear(lo, hi int, x, fAbove float64) (float64, float64) {
+	T, s, H, hrhs, cth := r.T[:hi+1], r.slope[:hi], r.H[:hi], r.hrhs[:hi], r.cth[:hi]
+	y, rows, gg := r.rhs[:hi+1], r.rows[:hi+1], r.gg[:hi]
+	for i := lo; i < hi; i++ {
+		xn := y[i+1] - rows[i+1].w*x
+		fBelow := gg[i]*(T[i]-T[i+1]) + rows[i].fa*x + rows[i].fb*xn
+		hi := hrhs[i] + cth[i]*(fAbove-fBelow)
+		H[i] = hi
+		T[i] = hi * s[i]
+		x, fAbove = xn, fBelow
+	}
+	return x, fAbove
 }
 
 // tail carries the correction below row start, where the residual is
