@@ -295,25 +295,33 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 // eliminated residual is round-off, that row's flux, y and index (else
 // cut < 0).
 func (r *fvRun) elimKept(hi, lo, a int, fBelow, yNext float64, kind int8) (f, y float64, cut int) {
-	T, gg, H, hrhs, hn := r.T[:hi+1], r.gg[:hi], r.H[:hi+1], r.hrhs[:hi+1], r.hn[:hi+1]
-	cth, ys, rows, cutH := r.cth[:hi+1], r.rhs[:hi+1], r.rows[:hi+1], r.cutH[:hi+1]
-	for i := hi; i >= lo; i-- {
-		fAbove := gg[i-1] * (T[i-1] - T[i])
-		c := cth[i]
+	// Row lo+j is index j of the windows (T: cell lo-1+j; gg: the face
+	// above row lo+j); equal lengths let the compiler drop the bounds
+	// checks.
+	gg := r.gg[lo-1 : hi]
+	m := len(gg)
+	T := r.T[lo-1 : lo+m]
+	H, hrhs, hn, cth := r.H[lo:lo+m], r.hrhs[lo:lo+m], r.hn[lo:lo+m], r.cth[lo:lo+m]
+	ys, rows, cutH := r.rhs[lo:lo+m], r.rows[lo:lo+m], r.cutH[lo:lo+m]
+	tBelow := T[m]
+	for j := m - 1; j >= 0; j-- {
+		tj := T[j]
+		fAbove := gg[j] * (tj - tBelow)
+		c := cth[j]
 		switch kind {
 		case fvRHSExplicit:
-			hn[i] = H[i]
-			hrhs[i] = H[i] + c*(fAbove-fBelow)
+			hn[j] = H[j]
+			hrhs[j] = H[j] + c*(fAbove-fBelow)
 		case fvRHSBDF2:
-			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
+			hrhs[j] = fvC1*H[j] - fvC2*hn[j]
 		}
-		rw := &rows[i]
-		yi := (hrhs[i]-H[i]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext
-		ys[i] = yi
-		if i < a && math.Abs(yi) <= cutH[i] {
-			return fAbove, yi, i
+		rw := &rows[j]
+		yi := (hrhs[j]-H[j]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext
+		ys[j] = yi
+		if lo+j < a && math.Abs(yi) <= cutH[j] {
+			return fAbove, yi, lo + j
 		}
-		yNext, fBelow = yi, fAbove
+		yNext, fBelow, tBelow = yi, fAbove, tj
 	}
 	return fBelow, yNext, -1
 }
@@ -416,15 +424,22 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 // above row hi. Their T(H) is linear: T - (T + s delta) is the rounding of
 // the solve, far below fvTolT, and is not looked at.
 func (r *fvRun) substLinear(lo, hi int, x, fAbove float64) (float64, float64) {
-	T, s, H, hrhs, cth := r.T[:hi+1], r.slope[:hi], r.H[:hi], r.hrhs[:hi], r.cth[:hi]
-	y, rows, gg := r.rhs[:hi+1], r.rows[:hi+1], r.gg[:hi]
-	for i := lo; i < hi; i++ {
-		xn := y[i+1] - rows[i+1].w*x
-		fBelow := gg[i]*(T[i]-T[i+1]) + rows[i].fa*x + rows[i].fb*xn
-		hi := hrhs[i] + cth[i]*(fAbove-fBelow)
-		H[i] = hi
-		T[i] = hi * s[i]
-		x, fAbove = xn, fBelow
+	// Row lo+j is index j of the windows; equal lengths let the compiler
+	// drop the bounds checks.
+	gg := r.gg[lo:hi]
+	m := len(gg)
+	T, rows := r.T[lo:lo+m+1], r.rows[lo:lo+m+1]
+	s, H, hrhs, cth := r.slope[lo:lo+m], r.H[lo:lo+m], r.hrhs[lo:lo+m], r.cth[lo:lo+m]
+	y := r.rhs[lo+1 : lo+1+m]
+	tj := T[0]
+	for j := 0; j < m; j++ {
+		xn := y[j] - rows[j+1].w*x
+		tn := T[j+1]
+		fBelow := gg[j]*(tj-tn) + rows[j].fa*x + rows[j].fb*xn
+		hj := hrhs[j] + cth[j]*(fAbove-fBelow)
+		H[j] = hj
+		T[j] = hj * s[j]
+		x, fAbove, tj = xn, fBelow, tn
 	}
 	return x, fAbove
 }
