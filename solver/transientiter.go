@@ -371,6 +371,10 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 			x, fAbove = r.substLinear(i0, min(sp.hi, start)-1, x, fAbove)
 			i0 = min(sp.hi, start) - 1
 		}
+		if sp.phase && i0 < start && i0 < min(sp.hi, start)-1 {
+			x, fAbove = r.substPhase(i0, min(sp.hi, start)-1, x, fAbove, last, &sw)
+			i0 = min(sp.hi, start) - 1
+		}
 		for i := i0; i < min(sp.hi, start+1); i++ {
 			var fBelow, xn float64
 			if i < n-1 {
@@ -441,6 +445,49 @@ func (r *fvRun) substLinear(lo, hi int, x, fAbove float64) (float64, float64) {
 		T[j] = hj * s[j]
 		x, fAbove, tj = xn, fBelow, tn
 	}
+	return x, fAbove
+}
+
+// substPhase is substitute over rows lo to hi-1 (hi <= start), cells
+// that can freeze, from delta_lo = x and the flux fAbove through the face
+// above row lo; it returns delta_hi and the flux through the face above
+// row hi. A cell that stays fully unfrozen or fully frozen is updated
+// here (as in phaseState), the others by phaseCell.
+func (r *fvRun) substPhase(lo, hi int, x, fAbove float64, last bool, sw *fvSweep) (float64, float64) {
+	gg := r.gg[lo:hi]
+	m := len(gg)
+	T, rows := r.T[lo:lo+m+1], r.rows[lo:lo+m+1]
+	s, H, hrhs, cth := r.slope[lo:lo+m], r.H[lo:lo+m], r.hrhs[lo:lo+m], r.cth[lo:lo+m]
+	reg, pidx := r.reg[lo:lo+m], r.pidx[lo:lo+m]
+	y := r.rhs[lo+1 : lo+1+m]
+	phases := r.phases
+	errT := sw.errT
+	for j := 0; j < m; j++ {
+		xn := y[j] - rows[j+1].w*x
+		// Linearised face flux F_i + a_i delta_i + b_i delta_{i+1}.
+		fBelow := gg[j]*(T[j]-T[j+1]) + rows[j].fa*x + rows[j].fb*xn
+		hj := hrhs[j] + cth[j]*(fAbove-fBelow)
+		H[j] = hj
+		ph := &phases[pidx[j]]
+		tl := T[j] + s[j]*x
+		switch {
+		case reg[j] == 2 && hj >= ph.hp:
+			T[j] = ph.tp + (hj-ph.hp)/ph.cu
+		case reg[j] == 0 && hj <= 0:
+			T[j] = ph.tl + hj/ph.cf
+		default:
+			sw.errT = errT
+			r.phaseCell(lo+j, tl, last, sw)
+			errT = sw.errT
+			x, fAbove = xn, fBelow
+			continue
+		}
+		if e := math.Abs(T[j] - tl); e > errT || e != e {
+			errT = e
+		}
+		x, fAbove = xn, fBelow
+	}
+	sw.errT = errT
 	return x, fAbove
 }
 
