@@ -348,7 +348,6 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 	n := r.n
 	T, s, H, hrhs, cth, y := r.T[:n], r.slope[:n], r.H[:n], r.hrhs[:n], r.cth[:n], r.rhs[:n]
 	rows, gg := r.rows[:n], r.gg
-	reg, pidx, phases := r.reg[:n], r.pidx[:n], r.phases
 	sw := fvSweep{t: t, e: n - 1, klo: n, khi: -1, dlo: n, dhi: -1, mlo: n, mhi: -1}
 	x := y[t]
 	var fAbove float64
@@ -390,28 +389,12 @@ func (r *fvRun) substitute(vo, vi, ao, ai float64, t, start int, last bool, qo, 
 			}
 			hi := hrhs[i] + cth[i]*(fAbove-fBelow)
 			H[i] = hi
-			switch {
-			case !sp.phase:
+			if sp.phase {
+				r.phaseState(i, T[i]+s[i]*x, last, &sw)
+			} else {
 				// T(H) is linear: T - (T + s delta) is the rounding of
 				// the solve, far below fvTolT.
 				T[i] = hi * s[i]
-			case reg[i] == 2 && hi >= phases[pidx[i]].hp:
-				// Still fully unfrozen, or frozen: as in phaseState.
-				ph := &phases[pidx[i]]
-				tl := T[i] + s[i]*x
-				T[i] = ph.tp + (hi-ph.hp)/ph.cu
-				if e := math.Abs(T[i] - tl); e > sw.errT || e != e {
-					sw.errT = e
-				}
-			case reg[i] == 0 && hi <= 0:
-				ph := &phases[pidx[i]]
-				tl := T[i] + s[i]*x
-				T[i] = ph.tl + hi/ph.cf
-				if e := math.Abs(T[i] - tl); e > sw.errT || e != e {
-					sw.errT = e
-				}
-			default:
-				r.phaseState(i, T[i]+s[i]*x, last, &sw)
 			}
 			x, fAbove = xn, fBelow
 		}

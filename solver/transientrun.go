@@ -196,7 +196,6 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	if err := fvCheckMesh(c, m); err != nil {
 		return nil, err
 	}
-	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 	if !finite(p.Start) || !finite(p.Duration) || !finite(p.Step) || !(p.Duration > 0) || !(p.Step > 0) {
 		return nil, errors.New("solver: start, duration and step must be finite, duration and step positive")
 	}
@@ -205,22 +204,8 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	}
 	n := m.Cells()
 	r := &fvRun{fvConfig: fvConfig{p: p, m: m, n: n, record: record}}
-	steps := math.Ceil(p.Duration/p.Step - 1e-9)
-	if steps > 1e9 {
-		return nil, fmt.Errorf("solver: %g time steps are too many", steps)
-	}
-	r.nSteps = max(int(steps), 1)
-	r.dtLast = p.Duration - float64(r.nSteps-1)*p.Step
-	r.every = 1
-	if p.SampleEvery != 0 {
-		if !finite(p.SampleEvery) || p.SampleEvery < 0 {
-			return nil, errors.New("solver: sample spacing must be finite and positive")
-		}
-		k := math.Round(p.SampleEvery / p.Step)
-		if k < 1 || math.Abs(k*p.Step-p.SampleEvery) > 1e-6*p.Step {
-			return nil, fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.SampleEvery, p.Step)
-		}
-		r.every = int(math.Min(k, 1e9))
+	if err := r.setSteps(); err != nil {
+		return nil, err
 	}
 	thick := m.Thickness()
 	for _, x := range p.Probes {
@@ -236,6 +221,45 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		return nil, err
 	}
 
+	r.setCells()
+	if err := r.setInitial(); err != nil {
+		return nil, err
+	}
+	for i := range r.H {
+		r.updateCell(i)
+	}
+	r.updateConductances()
+	return r, nil
+}
+
+// setSteps sets the number of steps, the last step and the steps between
+// samples of the problem, and checks them.
+func (r *fvRun) setSteps() error {
+	p := r.p
+	steps := math.Ceil(p.Duration/p.Step - 1e-9)
+	if steps > 1e9 {
+		return fmt.Errorf("solver: %g time steps are too many", steps)
+	}
+	r.nSteps = max(int(steps), 1)
+	r.dtLast = p.Duration - float64(r.nSteps-1)*p.Step
+	r.every = 1
+	if p.SampleEvery != 0 {
+		if !finite(p.SampleEvery) || p.SampleEvery < 0 {
+			return errors.New("solver: sample spacing must be finite and positive")
+		}
+		k := math.Round(p.SampleEvery / p.Step)
+		if k < 1 || math.Abs(k*p.Step-p.SampleEvery) > 1e-6*p.Step {
+			return fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.SampleEvery, p.Step)
+		}
+		r.every = int(math.Min(k, 1e9))
+	}
+	return nil
+}
+
+// setCells sets up the properties of the cells, the freezing relations
+// of the layers that freeze, and the scratch space.
+func (r *fvRun) setCells() {
+	n, m, c := r.n, r.m, r.p.Column
 	alloc := func() []float64 { return make([]float64, n) }
 	r.h, r.invh, r.cvol, r.capc, r.kc, r.rh, r.thr = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.rd, r.dru, r.drd = alloc(), alloc(), alloc()
@@ -296,21 +320,25 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		}
 	}
 
-	// Initial state.
+}
+
+// setInitial sets the enthalpies of the initial state.
+func (r *fvRun) setInitial() error {
+	p, n, m := r.p, r.n, r.m
 	switch {
 	case p.InitialEnthalpy != nil:
 		if len(p.InitialEnthalpy) != n {
-			return nil, fmt.Errorf("solver: %d initial enthalpies for %d cells", len(p.InitialEnthalpy), n)
+			return fmt.Errorf("solver: %d initial enthalpies for %d cells", len(p.InitialEnthalpy), n)
 		}
 		copy(r.H, p.InitialEnthalpy)
 		for i, v := range r.H {
 			if !finite(v) {
-				return nil, fmt.Errorf("solver: initial enthalpy of cell %d is not finite", i)
+				return fmt.Errorf("solver: initial enthalpy of cell %d is not finite", i)
 			}
 		}
 	case p.Initial != nil || p.InitialFunc != nil:
 		if p.Initial != nil && len(p.Initial) != n {
-			return nil, fmt.Errorf("solver: %d initial temperatures for %d cells", len(p.Initial), n)
+			return fmt.Errorf("solver: %d initial temperatures for %d cells", len(p.Initial), n)
 		}
 		for i := range r.H {
 			var t float64
@@ -320,7 +348,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 				t = p.InitialFunc(m.Centers[i])
 			}
 			if !finite(t) {
-				return nil, fmt.Errorf("solver: initial temperature of cell %d is not finite", i)
+				return fmt.Errorf("solver: initial temperature of cell %d is not finite", i)
 			}
 			if k := r.pidx[i]; k >= 0 {
 				r.H[i] = r.phases[k].enthalpy(t)
@@ -329,14 +357,13 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 			}
 		}
 	default:
-		return nil, errors.New("solver: no initial state (Initial, InitialFunc or InitialEnthalpy)")
+		return errors.New("solver: no initial state (Initial, InitialFunc or InitialEnthalpy)")
 	}
-	for i := range r.H {
-		r.updateCell(i)
-	}
-	r.updateConductances()
-	return r, nil
+	return nil
 }
+
+// finite reports whether v is neither NaN nor infinite.
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 // fvNewBC checks b and turns it into the run's form.
 func fvNewBC(side string, b Boundary, rface float64) (fvBC, error) {
