@@ -293,7 +293,13 @@ func (r *fvRun) setCells() {
 		}
 	}
 	r.T, r.H, r.phi, r.slope, r.T0, r.H0 = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-	r.tn, r.rhs, r.di, r.up = alloc(), alloc(), alloc(), alloc()
+	// The arrays the linear scheme sweeps, in one block (a stride of n+9
+	// keeps their elements i off the same offset within a 4 KiB page).
+	blk, st := make([]float64, 6*(n+9)), n+9
+	part := func(k int) []float64 { return blk[k*st : k*st+n : k*st+n] }
+	r.tn, r.rhs = part(0), part(1)
+	r.fac.dinv, r.fac.l, r.facUp.dinv, r.facUp.u = part(2), part(3), part(4), part(5)
+	r.di, r.up = alloc(), alloc()
 	r.hrhs, r.hn, r.cth = alloc(), alloc(), alloc()
 	r.rows = make([]fvRow, n)
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
