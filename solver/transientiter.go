@@ -435,7 +435,8 @@ func (r *fvRun) substLinear(lo, hi int, x, fAbove float64) (float64, float64) {
 // that can freeze, from delta_lo = x and the flux fAbove through the face
 // above row lo; it returns delta_hi and the flux through the face above
 // row hi. A cell that stays fully unfrozen or fully frozen is updated
-// here (as in phaseState), the others by phaseCell.
+// here (as in phaseState, without looking at the rounding of its linear
+// T(H)), the others by phaseCell.
 func (r *fvRun) substPhase(lo, hi int, x, fAbove float64, last bool, sw *fvSweep) (float64, float64) {
 	gg := r.gg[lo:hi]
 	m := len(gg)
@@ -444,33 +445,25 @@ func (r *fvRun) substPhase(lo, hi int, x, fAbove float64, last bool, sw *fvSweep
 	reg, pidx := r.reg[lo:lo+m], r.pidx[lo:lo+m]
 	y := r.rhs[lo+1 : lo+1+m]
 	phases := r.phases
-	errT := sw.errT
 	for j := 0; j < m; j++ {
 		xn := y[j] - rows[j+1].w*x
 		// Linearised face flux F_i + a_i delta_i + b_i delta_{i+1}.
 		fBelow := gg[j]*(T[j]-T[j+1]) + rows[j].fa*x + rows[j].fb*xn
 		hj := hrhs[j] + cth[j]*(fAbove-fBelow)
 		H[j] = hj
-		ph := &phases[pidx[j]]
-		tl := T[j] + s[j]*x
-		switch {
+		// A cell that stays fully unfrozen or frozen is linear there:
+		// T - (T + s delta) is the rounding of the solve, far below
+		// fvTolT (a NaN fails both tests and goes to phaseCell).
+		switch ph := &phases[pidx[j]]; {
 		case reg[j] == 2 && hj >= ph.hp:
 			T[j] = ph.tp + (hj-ph.hp)/ph.cu
 		case reg[j] == 0 && hj <= 0:
 			T[j] = ph.tl + hj/ph.cf
 		default:
-			sw.errT = errT
-			r.phaseCell(lo+j, tl, last, sw)
-			errT = sw.errT
-			x, fAbove = xn, fBelow
-			continue
-		}
-		if e := math.Abs(T[j] - tl); e > errT || e != e {
-			errT = e
+			r.phaseCell(lo+j, T[j]+s[j]*x, last, sw)
 		}
 		x, fAbove = xn, fBelow
 	}
-	sw.errT = errT
 	return x, fAbove
 }
 
