@@ -528,20 +528,7 @@ func (r *fvRun) phaseCell(i int, tl float64, last bool, sw *fvSweep) {
 	sold, ruOld, rdOld := r.slope[i], r.rh[i], r.rd[i]
 	druOld, drdOld := r.dru[i], r.drd[i]
 	if rn != reg[i] && r.nclip[i] < 4 && !last {
-		// Stop on the first kink crossed; continue beyond it.
-		next := reg[i] + 1
-		if rn < reg[i] {
-			next = reg[i] - 1
-		}
-		atHp := (rn > reg[i] && reg[i] == 1) || (rn < reg[i] && reg[i] == 2)
-		r.H[i] = 0
-		if atHp {
-			r.H[i] = ph.hp
-		}
-		r.T[i], r.phi[i], r.slope[i], r.kc[i] = ph.kink(atHp, next)
-		r.setHalves(i)
-		reg[i] = next
-		r.nclip[i]++
+		r.stopOnKink(i, rn)
 		sw.clipped = true
 	} else {
 		r.updateCell(i)
@@ -564,6 +551,26 @@ func (r *fvRun) phaseCell(i int, tl float64, last bool, sw *fvSweep) {
 	if r.rh[i] != ruOld || r.rd[i] != rdOld || r.slope[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 || druOld != 0 || drdOld != 0 {
 		r.nlDirty = max(r.nlDirty, min(i+1, n-1))
 	}
+}
+
+// stopOnKink stops freezing cell i, whose update went from its region
+// into region rn, on the first kink of T(H) it crossed, and gives it the
+// state seen from the region beyond, where the next iteration continues.
+func (r *fvRun) stopOnKink(i int, rn int8) {
+	ph, reg := &r.phases[r.pidx[i]], r.reg
+	next := reg[i] + 1
+	if rn < reg[i] {
+		next = reg[i] - 1
+	}
+	atHp := (rn > reg[i] && reg[i] == 1) || (rn < reg[i] && reg[i] == 2)
+	r.H[i] = 0
+	if atHp {
+		r.H[i] = ph.hp
+	}
+	r.T[i], r.phi[i], r.slope[i], r.kc[i] = ph.kink(atHp, next)
+	r.setHalves(i)
+	reg[i] = next
+	r.nclip[i]++
 }
 
 // mergeMushySpan sets mLo, mHi around the cells in their freezing range:
