@@ -219,8 +219,12 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 	for i := start; i >= 0; i-- {
 		if lo := max(dirty+1, 1); i < n-1 && i >= lo {
 			// Interior rows whose factorisation is kept.
-			var cutAt int
-			fBelow, yNext, cutAt = r.elimKept(i, lo, a, fBelow, yNext, rhs.kind)
+			cutAt := -1
+			if rhs.kind == fvRHSGiven {
+				fBelow, yNext, cutAt = r.elimKept(i, lo, a, fBelow, yNext)
+			} else {
+				fBelow, yNext = r.elimFirst(i, lo, fBelow, yNext, rhs.kind == fvRHSExplicit)
+			}
 			if cutAt >= 0 {
 				r.nlDirty = min(dirty, cutAt-1)
 				return cutAt + 1, start
@@ -289,34 +293,27 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 }
 
 // elimKept is eliminate over the interior rows hi down to lo (1 <= lo <=
-// hi < n-1) whose factorisation is kept, from the flux fBelow through the
-// face below row hi and y_{hi+1} = yNext. It returns the flux through the
+// hi < n-1) whose factorisation is kept, with hrhs set, from the flux
+// fBelow through the face below row hi and y_{hi+1} = yNext. It returns the flux through the
 // face above row lo and y_lo, or, if it stopped at a row above a whose
 // eliminated residual is round-off, that row's flux, y and index (else
 // cut < 0).
-func (r *fvRun) elimKept(hi, lo, a int, fBelow, yNext float64, kind int8) (f, y float64, cut int) {
+func (r *fvRun) elimKept(hi, lo, a int, fBelow, yNext float64) (f, y float64, cut int) {
 	// Row lo+j is index j of the windows (T: cell lo-1+j; gg: the face
 	// above row lo+j); equal lengths let the compiler drop the bounds
 	// checks.
 	gg := r.gg[lo-1 : hi]
 	m := len(gg)
 	T := r.T[lo-1 : lo+m]
-	H, hrhs, hn, cth := r.H[lo:lo+m], r.hrhs[lo:lo+m], r.hn[lo:lo+m], r.cth[lo:lo+m]
+	H, hrhs, cth := r.H[lo:lo+m], r.hrhs[lo:lo+m], r.cth[lo:lo+m]
 	ys, rows, cutH := r.rhs[lo:lo+m], r.rows[lo:lo+m], r.cutH[lo:lo+m]
 	tBelow := T[m]
 	for j := m - 1; j >= 0; j-- {
 		tj := T[j]
 		fAbove := gg[j] * (tj - tBelow)
-		c := cth[j]
-		switch kind {
-		case fvRHSExplicit:
-			hn[j] = H[j]
-			hrhs[j] = H[j] + c*(fAbove-fBelow)
-		case fvRHSBDF2:
-			hrhs[j] = fvC1*H[j] - fvC2*hn[j]
-		}
 		rw := &rows[j]
-		yi := (hrhs[j]-H[j]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext
+		// One multiplication and one subtraction on the recurrence.
+		yi := (hrhs[j]-H[j]+cth[j]*(fAbove-fBelow))*rw.ip - rw.u*yNext
 		ys[j] = yi
 		if lo+j < a && math.Abs(yi) <= cutH[j] {
 			return fAbove, yi, lo + j
@@ -324,6 +321,43 @@ func (r *fvRun) elimKept(hi, lo, a int, fBelow, yNext float64, kind int8) (f, y 
 		yNext, fBelow, tBelow = yi, fAbove, tj
 	}
 	return fBelow, yNext, -1
+}
+
+// elimFirst is elimKept in the first sweep of a TR-BDF2 stage, which
+// also forms hrhs: H + th/h (net inflow) and hn = H in stage 1
+// (explicit), C1 H - C2 hn in stage 2.
+func (r *fvRun) elimFirst(hi, lo int, fBelow, yNext float64, explicit bool) (f, y float64) {
+	gg := r.gg[lo-1 : hi]
+	m := len(gg)
+	T := r.T[lo-1 : lo+m]
+	H, hrhs, hn, cth := r.H[lo:lo+m], r.hrhs[lo:lo+m], r.hn[lo:lo+m], r.cth[lo:lo+m]
+	ys, rows := r.rhs[lo:lo+m], r.rows[lo:lo+m]
+	tBelow := T[m]
+	if explicit {
+		for j := m - 1; j >= 0; j-- {
+			tj := T[j]
+			fAbove := gg[j] * (tj - tBelow)
+			hj, d := H[j], cth[j]*(fAbove-fBelow)
+			hn[j] = hj
+			hr := hj + d
+			hrhs[j] = hr
+			yi := (hr-hj+d)*rows[j].ip - rows[j].u*yNext
+			ys[j] = yi
+			yNext, fBelow, tBelow = yi, fAbove, tj
+		}
+		return fBelow, yNext
+	}
+	for j := m - 1; j >= 0; j-- {
+		tj := T[j]
+		fAbove := gg[j] * (tj - tBelow)
+		hj := H[j]
+		hr := fvC1*hj - fvC2*hn[j]
+		hrhs[j] = hr
+		yi := (hr-hj+cth[j]*(fAbove-fBelow))*rows[j].ip - rows[j].u*yNext
+		ys[j] = yi
+		yNext, fBelow, tBelow = yi, fAbove, tj
+	}
+	return fBelow, yNext
 }
 
 // fvSweep is what one back-substitution found.
