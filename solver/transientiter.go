@@ -201,10 +201,8 @@ func (r *fvRun) surfaceSlopes(vo, vi float64) (ao, ai float64) {
 // of a stage (which covers the whole column) hrhs is formed as rhs says.
 func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start int) {
 	n := r.n
-	T, s, H, hrhs, cth, y := r.T[:n], r.slope[:n], r.H[:n], r.hrhs[:n], r.cth[:n], r.rhs[:n]
-	hn := r.hn[:n]
-	dru, drd, cut := r.dru[:n], r.drd[:n], r.cutH[:n]
-	rows, gg := r.rows[:n], r.gg
+	T, H, hrhs, cth, y := r.T[:n], r.H[:n], r.hrhs[:n], r.cth[:n], r.rhs[:n]
+	rows, gg, cut := r.rows[:n], r.gg, r.cutH[:n]
 	dirty := r.nlDirty
 	start = max(b, dirty)
 	var fBelow, wNext float64
@@ -239,20 +237,15 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 		rw, c := &rows[i], cth[i]
 		if i <= dirty {
 			if i == dirty && i < n-1 {
-				g := gg[i]
-				gd := (T[i] - T[i+1]) * g * g
-				aL, bL = g*s[i]-gd*drd[i], -g*s[i+1]-gd*dru[i+1]
+				aL, bL = r.faceSlopes(i)
 				rw.fa, rw.fb = aL, bL
 			}
-			var aU, bU, dN, up float64
+			// piv_i = 1 - c_i dN_i - up_i w_{i+1}, dN_i = b_{i-1} - a_i.
+			aU, bU, dN, up := 0.0, 0.0, ao, 0.0
 			if i > 0 {
-				g := gg[i-1]
-				gd := (T[i-1] - T[i]) * g * g
-				aU, bU = g*s[i-1]-gd*drd[i-1], -g*s[i]-gd*dru[i]
+				aU, bU = r.faceSlopes(i - 1)
 				rows[i-1].fa, rows[i-1].fb = aU, bU
 				dN = bU
-			} else {
-				dN = ao
 			}
 			if i < n-1 {
 				dN -= aL
@@ -264,19 +257,8 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 			rw.ip, rw.u, rw.w = ip, up*ip, -c*aU*ip
 			aL, bL = aU, bU
 		}
-		switch rhs.kind {
-		case fvRHSExplicit:
-			f0a, f0b := fAbove, fBelow
-			if i == 0 {
-				f0a = rhs.qo0
-			}
-			if i == n-1 {
-				f0b = -rhs.qi0
-			}
-			hn[i] = H[i]
-			hrhs[i] = H[i] + c*(f0a-f0b)
-		case fvRHSBDF2:
-			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
+		if rhs.kind != fvRHSGiven {
+			r.formRHS(i, fAbove, fBelow, rhs)
 		}
 		// One multiplication and one subtraction on the recurrence.
 		yi := (hrhs[i]-H[i]+c*(fAbove-fBelow))*rw.ip - rw.u*yNext
@@ -290,6 +272,32 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 	}
 	r.nlDirty = -1
 	return 0, start
+}
+
+// faceSlopes returns a_j = dF_j/dH_j and b_j = dF_j/dH_{j+1} of the flux
+// F_j = G_j (T_j - T_{j+1}) through face j, including dG/dH.
+func (r *fvRun) faceSlopes(j int) (a, b float64) {
+	g := r.gg[j]
+	gd := (r.T[j] - r.T[j+1]) * g * g
+	return g*r.slope[j] - gd*r.drd[j], -g*r.slope[j+1] - gd*r.dru[j+1]
+}
+
+// formRHS forms hrhs_i in the first sweep of a stage as rhs says, from
+// the fluxes through the faces above and below row i.
+func (r *fvRun) formRHS(i int, fAbove, fBelow float64, rhs fvRHS) {
+	switch rhs.kind {
+	case fvRHSExplicit:
+		if i == 0 {
+			fAbove = rhs.qo0
+		}
+		if i == r.n-1 {
+			fBelow = -rhs.qi0
+		}
+		r.hn[i] = r.H[i]
+		r.hrhs[i] = r.H[i] + r.cth[i]*(fAbove-fBelow)
+	case fvRHSBDF2:
+		r.hrhs[i] = fvC1*r.H[i] - fvC2*r.hn[i]
+	}
 }
 
 // elimKept is eliminate over the interior rows hi down to lo (1 <= lo <=
