@@ -62,7 +62,9 @@ func (r *fvRun) implicit(th, vo, vi float64, rhs fvRHS) (qo, qi float64) {
 		t, start := r.eliminate(vo, vi, ao, ai, a, b, rhs)
 		rhs.kind = fvRHSGiven
 		sw := r.substitute(vo, vi, ao, ai, t, start, last, &qo, &qi)
-		r.mergeMushySpan(&sw)
+		// Every cell in its freezing range leaves the linear path, so it
+		// lies in the rows of the next iteration: the sweep saw them all.
+		r.mLo, r.mHi = sw.mlo, sw.mhi
 		r.newConductances(th, vo, vi, &sw)
 		converged := !sw.clipped && sw.errT <= fvTolT && sw.dk <= fvTolK
 		if converged || last {
@@ -613,20 +615,6 @@ func (r *fvRun) stopOnKink(i int, rn int8) {
 	r.setHalves(i)
 	reg[i] = next
 	r.nclip[i]++
-}
-
-// mergeMushySpan sets mLo, mHi around the cells in their freezing range:
-// those the sweep updated, and those outside the rows it updated, which
-// kept their region.
-func (r *fvRun) mergeMushySpan(sw *fvSweep) {
-	lo, hi := sw.mlo, sw.mhi
-	if r.mLo < sw.t {
-		lo, hi = min(lo, r.mLo), max(hi, min(r.mHi, sw.t-1))
-	}
-	if r.mHi > sw.e {
-		lo, hi = min(lo, max(r.mLo, sw.e+1)), max(hi, r.mHi)
-	}
-	r.mLo, r.mHi = lo, hi
 }
 
 // newConductances brings the conductances next to the cells whose
