@@ -38,8 +38,8 @@ const fvTolCut = 1e-14 // K
 //     fluxes were exact everywhere else. So the iterations after the first
 //     eliminate only from the deepest of those rows up, stop where the
 //     eliminated residual above them falls below round-off (fvTolCut), and
-//     stop the back-substitution below them where the correction, which
-//     decays geometrically there, does; the cells outside keep their state.
+//     below them carry the correction, which decays geometrically there,
+//     until it does (tail); the cells outside keep their state.
 //   - A freezing cell that stays fully frozen or fully unfrozen is linear:
 //     only its temperature is updated; its slope, conductivity and
 //     resistances stand (TestEnthalpyCachedStateMatchesFresh checks that
@@ -47,7 +47,8 @@ const fvTolCut = 1e-14 // K
 //     phase bookkeeping altogether.
 //
 // TestEnthalpyIterationGolden holds the answers to those of the iteration
-// that did the whole column every time, within 1e-9 K.
+// that did the whole column every time: within 1e-9 K, or within what
+// round-off alone moved that iteration's own answers by.
 func (r *fvRun) implicit(th, vo, vi float64, rhs fvRHS) (qo, qi float64) {
 	r.beginStage(th, &rhs)
 	n := r.n
