@@ -14,29 +14,58 @@ import (
 // the resistances of the side sideUp reports, and the conductances agree
 // with the resistances. The column mixes an isothermal and a
 // freezing-range layer under a daily wave that freezes and thaws the top
-// cells every day, in each time scheme.
+// cells every day, in each time scheme. A second column freezes from both
+// ends, an isothermal layer at each under a long stretch of rock, so that
+// the later iterations of a stage, restricted to the rows around one
+// front, leave the partly frozen cells of the other outside their rows.
 func TestEnthalpyCachedStateMatchesFresh(t *testing.T) {
-	col := Column{Layers: []Layer{
-		{Name: "top", Thickness: 0.3, Conductivity: 1.2, HeatCapacity: 2.4e6,
-			Freeze: &Freezing{Point: 0, LatentHeat: 8e7, ConductivityFrozen: 1.9, HeatCapacityFrozen: 1.8e6}},
-		{Name: "below", Thickness: 0.7, Conductivity: 1.6, HeatCapacity: 2.6e6,
-			Freeze: &Freezing{Point: -0.1, Range: 0.8, LatentHeat: 6e7, ConductivityFrozen: 2.2, HeatCapacityFrozen: 2.0e6}},
-		{Name: "rock", Thickness: 1, Conductivity: 2.5, HeatCapacity: 2.2e6},
-	}}
-	mesh, err := NewMesh(col, MeshOptions{SurfaceCell: 0.02, Growth: 1.1})
-	if err != nil {
-		t.Fatal(err)
+	iso := func(name string, d float64) Layer {
+		return Layer{Name: name, Thickness: d, Conductivity: 1.2, HeatCapacity: 2.4e6,
+			Freeze: &Freezing{Point: 0, LatentHeat: 8e7, ConductivityFrozen: 1.9, HeatCapacityFrozen: 1.8e6}}
 	}
-	for _, scheme := range []TimeScheme{TRBDF2, CrankNicolson, BackwardEuler} {
-		p := Problem{
-			Column: col, Mesh: mesh, Scheme: scheme,
-			Outside: Boundary{Kind: Environment, Resistance: 0.04, Temperature: func(t float64) float64 {
-				return -3 - 6*math.Cos(2*math.Pi*t/(20*86400)) + 5*math.Sin(2*math.Pi*t/86400)
-			}},
-			Inside:      Boundary{Kind: PrescribedFlux, Flux: func(float64) float64 { return 0.06 }},
-			InitialFunc: func(x float64) float64 { return 1 + x },
-			Duration:    30 * 86400, Step: 1800,
+	cases := []struct {
+		name   string
+		col    Column
+		mesh   MeshOptions
+		inside Boundary
+	}{
+		{"isothermal over a freezing range", Column{Layers: []Layer{
+			iso("top", 0.3),
+			{Name: "below", Thickness: 0.7, Conductivity: 1.6, HeatCapacity: 2.6e6,
+				Freeze: &Freezing{Point: -0.1, Range: 0.8, LatentHeat: 6e7, ConductivityFrozen: 2.2, HeatCapacityFrozen: 2.0e6}},
+			{Name: "rock", Thickness: 1, Conductivity: 2.5, HeatCapacity: 2.2e6},
+		}}, MeshOptions{SurfaceCell: 0.02, Growth: 1.1}, Boundary{Kind: PrescribedFlux, Flux: func(float64) float64 { return 0.06 }}},
+		{"freezing at both ends", Column{Layers: []Layer{
+			iso("top", 0.3),
+			{Name: "rock", Thickness: 3, Conductivity: 2.5, HeatCapacity: 2.2e6},
+			iso("bottom", 0.3),
+		}}, MeshOptions{SurfaceCell: 0.02, Growth: 1}, Boundary{Kind: Environment, Resistance: 0.1, Temperature: func(t float64) float64 { return -4 + 3*math.Sin(2*math.Pi*t/(3*86400)) }}},
+	}
+	for _, tc := range cases {
+		col := tc.col
+		mesh, err := NewMesh(col, tc.mesh)
+		if err != nil {
+			t.Fatal(err)
 		}
+		for _, scheme := range []TimeScheme{TRBDF2, CrankNicolson, BackwardEuler} {
+			cachedStateRun(t, tc.name, scheme, Problem{
+				Column: col, Mesh: mesh, Scheme: scheme,
+				Outside: Boundary{Kind: Environment, Resistance: 0.04, Temperature: func(t float64) float64 {
+					return -3 - 6*math.Cos(2*math.Pi*t/(20*86400)) + 5*math.Sin(2*math.Pi*t/86400)
+				}},
+				Inside:      tc.inside,
+				InitialFunc: func(x float64) float64 { return 1 + 0.2*x },
+				Duration:    30 * 86400, Step: 1800,
+			})
+		}
+	}
+}
+
+// cachedStateRun steps p and checks the cached state after every step
+// (see TestEnthalpyCachedStateMatchesFresh).
+func cachedStateRun(t *testing.T, name string, scheme TimeScheme, p Problem) {
+	t.Helper()
+	{
 		r, err := newFvRun(&p, false)
 		if err != nil {
 			t.Fatal(err)
@@ -63,7 +92,7 @@ func TestEnthalpyCachedStateMatchesFresh(t *testing.T) {
 				if r.reg[i] == 1 {
 					mushy++
 					if i < r.mLo || i > r.mHi {
-						t.Fatalf("scheme %d, step %d: cell %d in its freezing range outside %d..%d", scheme, step, i, r.mLo, r.mHi)
+						t.Fatalf("%s, scheme %d, step %d: cell %d in its freezing range outside %d..%d", name, scheme, step, i, r.mLo, r.mHi)
 					}
 				}
 				tt, phi, s, k := ph.state(r.H[i])
@@ -84,7 +113,7 @@ func TestEnthalpyCachedStateMatchesFresh(t *testing.T) {
 				}
 			}
 		}
-		t.Logf("scheme %d: %d cell-steps in a freezing range, %d region changes", scheme, mushy, transitions)
+		t.Logf("%s, scheme %d: %d cell-steps in a freezing range, %d region changes", name, scheme, mushy, transitions)
 		// The run must exercise what the test is about.
 		if mushy == 0 || transitions < 20 {
 			t.Errorf("scheme %d: %d cell-steps in a freezing range, %d region changes: the case does not exercise the phase changes", scheme, mushy, transitions)

@@ -83,64 +83,104 @@ func (b *fvBC) setG(rh float64) {
 	}
 }
 
-// fvRun is the state and workspace of one transient simulation.
+// fvRun is one transient simulation: what it was set up with, the state
+// of the column as it advances, and the scratch space of its solves.
 type fvRun struct {
+	fvConfig
+	fvState
+	fvWork
+
+	res *Result // the series being recorded, nil when not recording
+}
+
+// fvConfig is what a run is set up with and does not change while it
+// runs: the problem, the mesh, the properties of every cell and the time
+// stepping.
+type fvConfig struct {
 	p      *Problem
 	m      *Mesh
 	n      int
-	record bool
+	record bool // keep the result series (Simulate); a spin-up does not
 
-	h, invh  []float64 // cell widths, m
-	cvol     []float64 // unfrozen volumetric heat capacity, J/(m3 K)
-	capc     []float64 // h*C, J/(m2 K) (linear columns)
-	kc       []float64 // current conductivity, W/(m K)
-	rh       []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
-	rd       []float64 // resistance from the node to the lower face, m2 K/W
-	frozenUp []bool    // the side (sideUp) the resistances of a mushy isothermal cell were last set for
-	tStart   []float64 // temperatures at the start of the current implicit stage, degC
-	tStartOK bool      // tStart is set
-	cmin     []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
-	lagG     bool      // keep the conductances of the current iteration (see implicit)
-	dru, drd []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
-	rf       []float64 // massless resistance on each face, len n+1
-	gg       []float64 // conductance between centres i and i+1, len n-1
-	thr      []float64 // frost threshold per cell, degC
-
-	out, in fvBC
+	h, invh []float64 // cell widths, m, and their inverses
+	cvol    []float64 // unfrozen volumetric heat capacity, J/(m3 K)
+	capc    []float64 // h*C, J/(m2 K) (linear columns)
+	cmin    []float64 // smaller of the frozen and unfrozen heat capacity, J/(m3 K)
+	cutH    []float64 // an enthalpy correction below which it is round-off, J/m3 (fvTolCut kelvin of cmin)
+	rf      []float64 // massless resistance on each face, m2 K/W, len n+1
+	thr     []float64 // frost threshold per cell, degC
 
 	nonlinear bool
-	pidx      []int32 // phase index per cell, -1 for none
-	phases    []fvPhase
+	pidx      []int32   // phase index per cell, -1 for none
+	phases    []fvPhase // the freezing relations of the layers that freeze
+	pcells    []int     // cells with a phase change
+	spans     []fvSpan  // the column cut into runs of cells that can and cannot freeze
 
-	// state
-	T, H, phi, slope []float64
-	T0, H0           []float64 // state at the start of the run
-	vo, vi           float64   // boundary values at the current time
+	nSteps, every int     // time steps, and steps between samples
+	dtLast        float64 // s, the last (shortened) step
+}
 
-	// workspace
-	tn, rhs, lo, di, up, w, tlin, hrhs, hn, hold []float64
-	ipiv                                         []float64 // inverse pivots of the enthalpy system
-	fa, fb                                       []float64 // dF_j/dH_j and dF_j/dH_{j+1} of each face flux F_j, W/m2 per J/m3
-	reg, nclip                                   []int8
-	pcells                                       []int   // cells with a phase change
-	regOK                                        bool    // reg holds the region of every phase cell's enthalpy
-	mLo, mHi                                     int     // the cells in their freezing range lie from mLo to mHi
-	nlTh                                         float64 // theta*dt of the kept factorisation
-	nlDirty                                      int     // rows from here up need factorising again
-	fac                                          fvSymTridiag
-	facUp                                        fvSymTridiagUp
-	facTh                                        float64
+// fvSpan is a run of neighbouring cells lo..hi-1 that all can freeze
+// (phase) or all cannot.
+type fvSpan struct {
+	lo, hi int
+	phase  bool
+}
 
-	nSteps, every int
-	dtLast        float64
+// fvState is the state of the column and what follows from it: the
+// enthalpy and temperature of every cell and the properties that depend
+// on them, the surface conditions, the regions of the freezing cells and
+// the running energy balance.
+type fvState struct {
+	T, H, phi, slope []float64 // degC, J/m3, liquid fraction, dT/dH in m3 K/J
+	kc               []float64 // current conductivity, W/(m K)
+	rh               []float64 // resistance from the cell's node to its upper face, m2 K/W (h/(2k) but in a mushy isothermal cell)
+	rd               []float64 // resistance from the node to the lower face, m2 K/W
+	dru, drd         []float64 // d(rh)/dH and d(rd)/dH, (m2 K/W) per (J/m3)
+	frozenUp         []bool    // the side (sideUp) the resistances of a mushy isothermal cell were last set for
+	gg               []float64 // conductance between centres i and i+1, W/(m2 K), len n-1
+	lagG             bool      // keep the conductances of the current iteration (see implicit)
+
+	out, in fvBC    // surface conditions; their conductance g follows the surface cells' resistances
+	vo, vi  float64 // boundary values at the current time
+
+	T0, H0   []float64 // state at the start of the run
+	tStart   []float64 // temperatures at the start of the current implicit stage, degC
+	tStartOK bool      // tStart is set
+	reg      []int8    // region (0 frozen, 1 freezing range, 2 unfrozen) of each phase cell
+	regOK    bool      // reg holds the region of every phase cell's enthalpy
+	mLo, mHi int       // the cells in their freezing range lie from mLo to mHi (or a wider span)
 
 	eOut, eIn, eAbs fvKahan
 	lastT           float64 // time of the last sample, s
 	lastOut, lastIn float64 // eOut and eIn at the last sample, J/m2
 	iterations      int
 	unconverged     int
+}
 
-	res *Result
+// fvWork is the scratch space of the solves and the factorisations kept
+// between them.
+type fvWork struct {
+	tn, rhs, hrhs, hn []float64 // previous temperatures, right-hand sides (the eliminated residual of the enthalpy system), enthalpy right-hand side, previous enthalpies
+	di, up            []float64 // diagonal and off-diagonal of the linear scheme's matrix (ensureFactor)
+	rows              []fvRow   // the enthalpy system's factorisation, kept between iterations and steps
+	cth               []float64 // th/h per cell for the kept factorisation, s/m
+	nclip             []int8    // kink stops of each cell in the current stage
+	nlTh              float64   // theta*dt of the kept factorisation
+	nlDirty           int       // rows from here up need factorising again
+	fac               fvSymTridiag
+	facUp             fvSymTridiagUp
+	facTh             float64
+}
+
+// fvRow is row i of the enthalpy system, scaled by 1/h_i and eliminated
+// from the bottom up (see eliminate), and the derivatives of the flux
+// through the face below cell i.
+type fvRow struct {
+	ip     float64 // 1/pivot_i
+	w      float64 // lo_i/pivot_i, the multiplier of delta_{i-1} in the back-substitution
+	u      float64 // up_i/pivot_i, with up_i the coefficient of delta_{i+1} in row i
+	fa, fb float64 // dF_i/dH_i and dF_i/dH_{i+1} of the face flux F_i, W/m2 per J/m3
 }
 
 func newFvRun(p *Problem, record bool) (*fvRun, error) {
@@ -158,7 +198,6 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 	if err := fvCheckMesh(c, m); err != nil {
 		return nil, err
 	}
-	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 	if !finite(p.Start) || !finite(p.Duration) || !finite(p.Step) || !(p.Duration > 0) || !(p.Step > 0) {
 		return nil, errors.New("solver: start, duration and step must be finite, duration and step positive")
 	}
@@ -166,23 +205,9 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		return nil, fmt.Errorf("solver: unknown time scheme %d", p.Scheme)
 	}
 	n := m.Cells()
-	r := &fvRun{p: p, m: m, n: n, record: record}
-	steps := math.Ceil(p.Duration/p.Step - 1e-9)
-	if steps > 1e9 {
-		return nil, fmt.Errorf("solver: %g time steps are too many", steps)
-	}
-	r.nSteps = max(int(steps), 1)
-	r.dtLast = p.Duration - float64(r.nSteps-1)*p.Step
-	r.every = 1
-	if p.SampleEvery != 0 {
-		if !finite(p.SampleEvery) || p.SampleEvery < 0 {
-			return nil, errors.New("solver: sample spacing must be finite and positive")
-		}
-		k := math.Round(p.SampleEvery / p.Step)
-		if k < 1 || math.Abs(k*p.Step-p.SampleEvery) > 1e-6*p.Step {
-			return nil, fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.SampleEvery, p.Step)
-		}
-		r.every = int(math.Min(k, 1e9))
+	r := &fvRun{fvConfig: fvConfig{p: p, m: m, n: n, record: record}}
+	if err := r.setSteps(); err != nil {
+		return nil, err
 	}
 	thick := m.Thickness()
 	for _, x := range p.Probes {
@@ -198,6 +223,45 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		return nil, err
 	}
 
+	r.setCells()
+	if err := r.setInitial(); err != nil {
+		return nil, err
+	}
+	for i := range r.H {
+		r.updateCell(i)
+	}
+	r.updateConductances()
+	return r, nil
+}
+
+// setSteps sets the number of steps, the last step and the steps between
+// samples of the problem, and checks them.
+func (r *fvRun) setSteps() error {
+	p := r.p
+	steps := math.Ceil(p.Duration/p.Step - 1e-9)
+	if steps > 1e9 {
+		return fmt.Errorf("solver: %g time steps are too many", steps)
+	}
+	r.nSteps = max(int(steps), 1)
+	r.dtLast = p.Duration - float64(r.nSteps-1)*p.Step
+	r.every = 1
+	if p.SampleEvery != 0 {
+		if !finite(p.SampleEvery) || p.SampleEvery < 0 {
+			return errors.New("solver: sample spacing must be finite and positive")
+		}
+		k := math.Round(p.SampleEvery / p.Step)
+		if k < 1 || math.Abs(k*p.Step-p.SampleEvery) > 1e-6*p.Step {
+			return fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.SampleEvery, p.Step)
+		}
+		r.every = int(math.Min(k, 1e9))
+	}
+	return nil
+}
+
+// setCells sets up the properties of the cells, the freezing relations
+// of the layers that freeze, and the scratch space.
+func (r *fvRun) setCells() {
+	n, m, c := r.n, r.m, r.p.Column
 	alloc := func() []float64 { return make([]float64, n) }
 	r.h, r.invh, r.cvol, r.capc, r.kc, r.rh, r.thr = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
 	r.rd, r.dru, r.drd = alloc(), alloc(), alloc()
@@ -231,17 +295,31 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		}
 	}
 	r.T, r.H, r.phi, r.slope, r.T0, r.H0 = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-	r.tn, r.rhs, r.lo, r.di, r.up, r.w = alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-	r.tlin, r.hrhs, r.hn, r.hold = alloc(), alloc(), alloc(), alloc()
+	// The arrays the linear scheme sweeps, in one block (a stride of n+9
+	// keeps their elements i off the same offset within a 4 KiB page).
+	blk, st := make([]float64, 6*(n+9)), n+9
+	part := func(k int) []float64 { return blk[k*st : k*st+n : k*st+n] }
+	r.tn, r.rhs = part(0), part(1)
+	r.fac.dinv, r.fac.l, r.facUp.dinv, r.facUp.u = part(2), part(3), part(4), part(5)
+	r.di, r.up = alloc(), alloc()
+	r.hrhs, r.hn, r.cth = alloc(), alloc(), alloc()
+	r.rows = make([]fvRow, n)
 	r.reg, r.nclip = make([]int8, n), make([]int8, n)
-	r.ipiv = alloc()
-	r.fa, r.fb = alloc(), alloc()
-	r.cmin = alloc()
+	r.cmin, r.cutH = alloc(), alloc()
 	for i := range r.cmin {
 		r.cmin[i] = r.cvol[i]
 		if k := r.pidx[i]; k >= 0 {
 			r.cmin[i] = math.Min(r.phases[k].cf, r.phases[k].cu)
 		}
+		r.cutH[i] = fvTolCut * r.cmin[i]
+	}
+	for i := 0; i < n; {
+		sp := fvSpan{lo: i, phase: r.pidx[i] >= 0}
+		for i < n && (r.pidx[i] >= 0) == sp.phase {
+			i++
+		}
+		sp.hi = i
+		r.spans = append(r.spans, sp)
 	}
 	r.nlTh, r.nlDirty = math.NaN(), n-1
 	for i := range r.pidx {
@@ -250,21 +328,25 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		}
 	}
 
-	// Initial state.
+}
+
+// setInitial sets the enthalpies of the initial state.
+func (r *fvRun) setInitial() error {
+	p, n, m := r.p, r.n, r.m
 	switch {
 	case p.InitialEnthalpy != nil:
 		if len(p.InitialEnthalpy) != n {
-			return nil, fmt.Errorf("solver: %d initial enthalpies for %d cells", len(p.InitialEnthalpy), n)
+			return fmt.Errorf("solver: %d initial enthalpies for %d cells", len(p.InitialEnthalpy), n)
 		}
 		copy(r.H, p.InitialEnthalpy)
 		for i, v := range r.H {
 			if !finite(v) {
-				return nil, fmt.Errorf("solver: initial enthalpy of cell %d is not finite", i)
+				return fmt.Errorf("solver: initial enthalpy of cell %d is not finite", i)
 			}
 		}
 	case p.Initial != nil || p.InitialFunc != nil:
 		if p.Initial != nil && len(p.Initial) != n {
-			return nil, fmt.Errorf("solver: %d initial temperatures for %d cells", len(p.Initial), n)
+			return fmt.Errorf("solver: %d initial temperatures for %d cells", len(p.Initial), n)
 		}
 		for i := range r.H {
 			var t float64
@@ -274,7 +356,7 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 				t = p.InitialFunc(m.Centers[i])
 			}
 			if !finite(t) {
-				return nil, fmt.Errorf("solver: initial temperature of cell %d is not finite", i)
+				return fmt.Errorf("solver: initial temperature of cell %d is not finite", i)
 			}
 			if k := r.pidx[i]; k >= 0 {
 				r.H[i] = r.phases[k].enthalpy(t)
@@ -283,14 +365,13 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 			}
 		}
 	default:
-		return nil, errors.New("solver: no initial state (Initial, InitialFunc or InitialEnthalpy)")
+		return errors.New("solver: no initial state (Initial, InitialFunc or InitialEnthalpy)")
 	}
-	for i := range r.H {
-		r.updateCell(i)
-	}
-	r.updateConductances()
-	return r, nil
+	return nil
 }
+
+// finite reports whether v is neither NaN nor infinite.
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 // fvNewBC checks b and turns it into the run's form.
 func fvNewBC(side string, b Boundary, rface float64) (fvBC, error) {
@@ -729,7 +810,7 @@ func (r *fvRun) netFlux(T []float64, vo, vi float64, f []float64) (qo, qi float6
 // stepEnthalpy advances a column with freezing layers by dt from t.
 func (r *fvRun) stepEnthalpy(t, dt float64) error {
 	n := r.n
-	H, hrhs, hn, f := r.H[:n], r.hrhs[:n], r.hn[:n], r.tn[:n]
+	H, hrhs, f := r.H[:n], r.hrhs[:n], r.tn[:n]
 	vo0, vi0 := r.vo, r.vi
 	switch r.p.Scheme {
 	case TRBDF2:
@@ -742,27 +823,12 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 		if err != nil {
 			return err
 		}
-		// Stage 1 right-hand side H + th/h (net inflow), as netFlux.
-		T, gg, invh := r.T[:n], r.gg, r.invh[:n]
-		qo0, qi0 := r.out.inflow(vo0, T[0]), r.in.inflow(vi0, T[n-1])
-		fl := qo0
-		for i := range H {
-			hi := H[i]
-			hn[i] = hi
-			var fr float64
-			if i < n-1 {
-				fr = gg[i] * (T[i] - T[i+1])
-			} else {
-				fr = -qi0
-			}
-			hrhs[i] = hi + th*invh[i]*(fl-fr)
-			fl = fr
-		}
-		qom, qim := r.implicit(th, vom, vim)
-		for i := range H {
-			hrhs[i] = fvC1*H[i] - fvC2*hn[i]
-		}
-		qo1, qi1 := r.implicit(th, vo1, vi1)
+		// Stage 1: hrhs = H + th/h (net inflow at the start of the step);
+		// stage 2: hrhs = C1 H* - C2 H^n. Both are formed in the first
+		// elimination sweep of their stage.
+		qo0, qi0 := r.out.inflow(vo0, r.T[0]), r.in.inflow(vi0, r.T[n-1])
+		qom, qim := r.implicit(th, vom, vim, fvRHS{kind: fvRHSExplicit, qo0: qo0, qi0: qi0})
+		qo1, qi1 := r.implicit(th, vo1, vi1, fvRHS{kind: fvRHSBDF2})
 		r.account(fvW0*dt, fvW0*dt, fvW1*dt, qo0, qom, qo1, qi0, qim, qi1)
 		r.vo, r.vi = vo1, vi1
 	case CrankNicolson:
@@ -775,7 +841,7 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 		for i := range H {
 			hrhs[i] = H[i] + th*r.invh[i]*f[i]
 		}
-		qo1, qi1 := r.implicit(th, vo1, vi1)
+		qo1, qi1 := r.implicit(th, vo1, vi1, fvRHS{})
 		r.account(th, 0, th, qo0, 0, qo1, qi0, 0, qi1)
 		r.vo, r.vi = vo1, vi1
 	case BackwardEuler:
@@ -784,300 +850,9 @@ func (r *fvRun) stepEnthalpy(t, dt float64) error {
 			return err
 		}
 		copy(hrhs, H)
-		qo1, qi1 := r.implicit(dt, vo1, vi1)
+		qo1, qi1 := r.implicit(dt, vo1, vi1, fvRHS{})
 		r.account(0, 0, dt, 0, 0, qo1, 0, 0, qi1)
 		r.vo, r.vi = vo1, vi1
 	}
 	return nil
-}
-
-// implicit solves h_i (H_i - hrhs_i) = th F_i(T(H)) for H, where F_i is
-// the net inflow of cell i with the boundary values vo, vi, starting from
-// the current state. Each iteration linearises the face fluxes around the
-// current enthalpy, with the slope dT/dH of each cell's phase region and
-// the derivatives of the resistances that depend on the frozen fraction
-// (Newton on the enthalpy), solves the tridiagonal system for the enthalpy
-// change, and then sets the enthalpy from the conservative update
-// H_i = hrhs_i + th/h_i (linearised net inflow of cell i): every face flux
-// enters its two cells with opposite signs. A cell whose update crosses a kink of T(H) (an end of the
-// freezing range) is stopped on the kink and linearised in the region
-// beyond it in the next iteration, which makes the iteration converge
-// where plain Newton would cycle across the kink; the iteration ends only
-// on an unclipped, conservative update, so the energy balance of every
-// accepted stage is exact to round-off. It returns the surface inflows of
-// that update.
-//
-// The system is eliminated from the bottom up and its pivots are kept
-// between iterations and steps: only the rows above the deepest cell whose
-// slope or conductivity changed are factorised again (in a ground column
-// the frost stays near the surface, so the deep rows are reused), and
-// the derivatives of the face fluxes are kept with them. A freezing cell
-// that stays fully frozen or fully unfrozen is linear: only its
-// temperature is updated; its slope, conductivity and resistances stand
-// (TestEnthalpyCachedStateMatchesFresh checks that they equal a fresh
-// evaluation).
-func (r *fvRun) implicit(th, vo, vi float64) (qo, qi float64) {
-	n := r.n
-	H, T, s, kc := r.H[:n], r.T[:n], r.slope[:n], r.kc[:n]
-	h, invh, hrhs, tlin := r.h[:n], r.invh[:n], r.hrhs[:n], r.tlin[:n]
-	lo, di, up, y, wb, ip := r.lo[:n], r.di[:n], r.up[:n], r.rhs[:n], r.w[:n], r.ipiv[:n]
-	reg, nclip := r.reg[:n], r.nclip[:n]
-	gg := r.gg
-	fa, fb := r.fa[:max(n-1, 0)], r.fb[:max(n-1, 0)]
-	pidx, phases := r.pidx[:n], r.phases
-	dru, drd := r.dru[:n], r.drd[:n]
-	out, in := &r.out, &r.in
-	if !r.regOK {
-		r.mLo, r.mHi = n, -1
-		for _, i := range r.pcells {
-			reg[i] = r.phases[r.pidx[i]].region(H[i])
-			if reg[i] == 1 {
-				r.mLo, r.mHi = min(r.mLo, i), max(r.mHi, i)
-			}
-		}
-		// A stage ends on an unclipped update, which leaves reg as the
-		// region of each cell's enthalpy for the next stage, and mLo, mHi
-		// around the cells in their freezing range.
-		r.regOK = true
-	}
-	clear(nclip)
-	// The side on which an isothermal cell freezes first is decided from
-	// the temperatures at the start of the stage (sideUp); a partly
-	// frozen cell whose side changed gets new resistances. The other cells
-	// take their side when they become partly frozen.
-	copy(r.tStart, T)
-	r.tStartOK = true
-	for i := max(r.mLo, 0); i <= min(r.mHi, n-1); i++ {
-		if reg[i] == 1 && phases[pidx[i]].isoTerm && r.sideUp(i) != r.frozenUp[i] {
-			r.setHalves(i)
-			r.nlDirty = n - 1
-			r.updateConductances()
-		}
-	}
-	if th != r.nlTh {
-		r.nlTh = th
-		r.nlDirty = n - 1
-	}
-	for it := 0; ; it++ {
-		r.iterations++
-		if it == fvLagAfter {
-			// The resistances of a partly frozen cell jump where it
-			// becomes fully frozen or unfrozen (its node moves from the
-			// front to the centre); a solution sitting on that kink makes
-			// them alternate. Keep the current ones for the rest of the
-			// stage: the iteration then converges on T(H) alone.
-			r.lagG = true
-			for _, j := range r.pcells {
-				if r.dru[j] != 0 || r.drd[j] != 0 {
-					r.dru[j], r.drd[j] = 0, 0
-					r.nlDirty = max(r.nlDirty, min(j+1, n-1))
-				}
-			}
-		}
-		// Factorise the rows that changed, bottom up:
-		// piv_i = di_i - up_i w_{i+1}, w_i = lo_i / piv_i.
-		// Boundary derivatives d(inflow)/dH of the end cells.
-		ao, ai := 0.0, 0.0
-		if out.kind == Environment {
-			ao = -out.g*s[0] - (vo-T[0])*out.g*out.g*r.dru[0]
-		}
-		if in.kind == Environment {
-			ai = -in.g*s[n-1] - (vi-T[n-1])*in.g*in.g*r.drd[n-1]
-		}
-		// Face j between cells j and j+1 carries F_j = G_j (T_j - T_{j+1});
-		// a_j = dF_j/dH_j, b_j = dF_j/dH_{j+1} (including dG/dH), kept in
-		// fa, fb for the update below. The faces of the rows kept join
-		// linear cells: their a, b depend on neither T nor H.
-		var aL, bL float64 // face below row i
-		if i := r.nlDirty; i >= 0 && i < n-1 {
-			g, dT := gg[i], T[i]-T[i+1]
-			aL = g*s[i] - dT*g*g*drd[i]
-			bL = -g*s[i+1] - dT*g*g*dru[i+1]
-			fa[i], fb[i] = aL, bL
-		}
-		for i := r.nlDirty; i >= 0; i-- {
-			var dN float64 // d(net inflow of cell i)/dH_i
-			var aU, bU float64
-			lo[i], up[i] = 0, 0
-			if i > 0 {
-				g, dT := gg[i-1], T[i-1]-T[i]
-				aU = g*s[i-1] - dT*g*g*drd[i-1]
-				bU = -g*s[i] - dT*g*g*dru[i]
-				fa[i-1], fb[i-1] = aU, bU
-				dN += bU
-				lo[i] = -th * aU
-			} else {
-				dN += ao
-			}
-			if i < n-1 {
-				dN -= aL
-				up[i] = th * bL
-			} else {
-				dN += ai
-			}
-			aL, bL = aU, bU
-			di[i] = h[i] - th*dN
-			piv := di[i]
-			if i < n-1 {
-				piv -= up[i] * wb[i+1]
-			}
-			ip[i] = 1 / piv
-			wb[i] = lo[i] * ip[i]
-		}
-		r.nlDirty = -1
-		// Residual R_i = h_i (hrhs_i - H_i) + th F_i(T), eliminated bottom up.
-		qo, qi = out.inflow(vo, T[0]), in.inflow(vi, T[n-1])
-		fBelow := -qi
-		yNext := 0.0
-		for i := n - 1; i >= 0; i-- {
-			fAbove := qo
-			if i > 0 {
-				fAbove = gg[i-1] * (T[i-1] - T[i])
-			}
-			yi := h[i]*(hrhs[i]-H[i]) + th*(fAbove-fBelow) - up[i]*yNext
-			yi *= ip[i]
-			y[i] = yi
-			yNext = yi
-			fBelow = fAbove
-		}
-		// Back substitution top down, linearised temperatures, conservative
-		// update of each cell once the fluxes through both its faces are
-		// known, and the new state of the cell.
-		last := it+1 >= fvMaxIter
-		errT, dk := 0.0, 0.0
-		mLo, mHi := n, -1 // cells left in their freezing range
-		clipped := false
-		klo, khi := n, -1
-		x := y[0] // delta_i
-		tlin[0] = T[0] + s[0]*x
-		qo = out.inflow(vo, T[0]) + ao*x
-		fAbove := qo
-		for i := 0; i < n; i++ {
-			var fBelow float64
-			if i < n-1 {
-				xn := y[i+1] - wb[i+1]*x
-				tlin[i+1] = T[i+1] + s[i+1]*xn
-				// Linearised face flux F_i + a_i delta_i + b_i delta_{i+1}.
-				fBelow = gg[i]*(T[i]-T[i+1]) + fa[i]*x + fb[i]*xn
-				x = xn
-			} else {
-				qi = in.inflow(vi, T[i]) + ai*x
-				fBelow = -qi
-			}
-			hi := hrhs[i] + th*invh[i]*(fAbove-fBelow)
-			H[i] = hi
-			fAbove = fBelow
-			k := pidx[i]
-			if k < 0 {
-				T[i] = hi * s[i]
-				if e := math.Abs(T[i] - tlin[i]); e > errT {
-					errT = e
-				}
-				continue
-			}
-			ph := &phases[k]
-			// A cell still fully unfrozen or fully frozen is linear: its
-			// slope, conductivity and resistances are those it had
-			// (updateCell would set the same values), so only its
-			// temperature changes, by the formulas of state.
-			if reg[i] == 2 && hi >= ph.hp {
-				T[i] = ph.tp + (hi-ph.hp)/ph.cu
-				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
-					errT = e
-				}
-				continue
-			} else if reg[i] == 0 && hi <= 0 {
-				T[i] = ph.tl + hi/ph.cf
-				if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
-					errT = e
-				}
-				continue
-			}
-			rn := ph.region(H[i])
-			sold, ruOld, rdOld := s[i], r.rh[i], r.rd[i]
-			druOld, drdOld := r.dru[i], r.drd[i]
-			if rn != reg[i] && nclip[i] < 4 && !last {
-				// Stop on the first kink crossed; continue beyond it.
-				next := reg[i] + 1
-				if rn < reg[i] {
-					next = reg[i] - 1
-				}
-				atHp := (rn > reg[i] && reg[i] == 1) || (rn < reg[i] && reg[i] == 2)
-				H[i] = 0
-				if atHp {
-					H[i] = ph.hp
-				}
-				T[i], r.phi[i], s[i], kc[i] = ph.kink(atHp, next)
-				r.setHalves(i)
-				reg[i] = next
-				nclip[i]++
-				clipped = true
-			} else {
-				r.updateCell(i)
-				reg[i] = rn
-			}
-			if reg[i] == 1 {
-				mLo, mHi = min(mLo, i), max(mHi, i)
-			}
-			if e := math.Abs(T[i] - tlin[i]); e > errT || e != e {
-				errT = e
-			}
-			if r.rh[i] != ruOld || r.rd[i] != rdOld {
-				rs := r.rh[i] + r.rd[i]
-				dk = math.Max(dk, math.Max(math.Abs(r.rh[i]-ruOld), math.Abs(r.rd[i]-rdOld))/rs)
-				klo, khi = min(klo, i), max(khi, i)
-			}
-			// The rows next to a cell whose slope, resistances or their
-			// derivatives are (or were, in the rows kept) not those of a
-			// linear cell are factorised again.
-			if r.rh[i] != ruOld || r.rd[i] != rdOld || s[i] != sold || r.dru[i] != 0 || r.drd[i] != 0 || druOld != 0 || drdOld != 0 {
-				r.nlDirty = max(r.nlDirty, min(i+1, n-1))
-			}
-		}
-		if khi >= 0 {
-			// Conductances next to the cells whose conductivity changed.
-			for j := max(klo-1, 0); j <= min(khi, n-2); j++ {
-				gg[j] = 1 / (r.rd[j] + r.rf[j+1] + r.rh[j+1])
-			}
-			if klo == 0 {
-				out.setG(r.rh[0])
-			}
-			if khi == n-1 {
-				in.setG(r.rd[n-1])
-			}
-			if dk > fvTolK && !clipped && errT <= fvTolT {
-				// The linearised fluxes were exact except next to the cells
-				// whose resistances changed: if the residual of the
-				// conservation equation there, in kelvin of the cell's
-				// heat capacity, is negligible, the stage has converged.
-				dk = 0
-				for j := max(klo-1, 0); j <= min(khi+1, n-1); j++ {
-					fa := out.inflow(vo, T[0])
-					if j > 0 {
-						fa = gg[j-1] * (T[j-1] - T[j])
-					}
-					fb := -in.inflow(vi, T[n-1])
-					if j < n-1 {
-						fb = gg[j] * (T[j] - T[j+1])
-					}
-					res := math.Abs(h[j]*(hrhs[j]-H[j])+th*(fa-fb)) / (h[j] * r.cmin[j])
-					if res > fvTolR {
-						dk = math.Inf(1)
-						break
-					}
-				}
-			}
-		}
-		if !clipped && errT <= fvTolT && dk <= fvTolK {
-			r.endLag()
-			r.mLo, r.mHi = mLo, mHi
-			return qo, qi
-		}
-		if last {
-			r.unconverged++
-			r.endLag()
-			r.mLo, r.mHi = mLo, mHi
-			return qo, qi
-		}
-	}
 }
