@@ -207,7 +207,8 @@ func periodicTable(r *results.Results) *block {
 	t := newTable("Periodic properties per period", []string{
 		"Period", "Decrement factor f", "Time shift (h)", "|Y₁₂| (W/(m²·K))",
 		"|Y₁₁| " + in + " (W/(m²·K))", "Lead " + in + " (h)", "|Y₂₂| " + out + " (W/(m²·K))", "Lead " + out + " (h)",
-		"κ₁ " + in + " (kJ/(m²·K))", "κ₂ " + out + " (kJ/(m²·K))"}, "text")
+		"κ₁ " + in + " (kJ/(m²·K))", "κ₂ " + out + " (kJ/(m²·K))",
+		"Surface factor F " + in, "F lag (h)"}, "text")
 	var wrapped bool
 	for _, p := range r.Periodic {
 		shift := fixed(p.TimeShift_h, 1)
@@ -218,7 +219,8 @@ func periodicTable(r *results.Results) *block {
 		t.row(periodLabel(p.Period_h), sig(p.DecrementFactor, 3), shift, sig(p.PeriodicTransmittance_W_m2K, 3),
 			sig(p.InsideAdmittance_W_m2K, 3), fixed(p.InsideAdmittanceLead_h, 1),
 			sig(p.OutsideAdmittance_W_m2K, 3), fixed(p.OutsideAdmittanceLead_h, 1),
-			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3))
+			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3),
+			sig(p.SurfaceFactor, 3), fixed(p.SurfaceFactorLag_h, 1))
 	}
 	if r.Kind == results.Ground {
 		t.Notes = append(t.Notes,
@@ -227,7 +229,8 @@ func periodicTable(r *results.Results) *block {
 	} else {
 		t.Notes = append(t.Notes,
 			"f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance: the swing of heat flow into the room relative to a massless "+component(r)+" with the same U-value. It is not a ratio of surface temperatures.",
-			"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.")
+			"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.",
+			"Surface factor F = |1 − Rsi·Y₁₁| (admittance method): of a heat-flux swing absorbed at the inside surface (sun through a window, lights), the part passed on to the room air, and how long it lags the absorbed heat; the rest is taken up by the "+component(r)+". Here Rsi = "+sig(r.Steady.InsideSurfaceResistance, 3)+" m²·K/W of ISO 6946, as in the rest of the analysis (published surface-factor tables assume about 0.12).")
 	}
 	if wrapped {
 		t.Notes = append(t.Notes, "A time shift in brackets counts whole periods: it is the full travel time of the wave through the construction.")
@@ -339,6 +342,9 @@ func methods(r *results.Results) []string {
 	m = append(m,
 		"Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.",
 		"Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
+	if len(r.Periodic) > 0 {
+		m = append(m, "Surface factor of the admittance method (CIBSE Guide A, section 5): F = 1 − Rsi·Y₁₁, the part of a heat-flux swing absorbed at the inside surface that is passed on to the room air, with its lag.")
+	}
 	if r.Kind == results.Ground {
 		m = append(m, "Exact periodic ground temperatures: the same matrices ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π).")
 	}

@@ -182,6 +182,8 @@ func periodicResult(p solver.PeriodicProperties) results.PeriodicResult {
 		OutsideAdmittanceLead_h:         p.OutsideAdmittanceLead / 3600,
 		InsideArealHeatCapacity_kJ_m2K:  p.InsideArealHeatCapacity / 1000,
 		OutsideArealHeatCapacity_kJ_m2K: p.OutsideArealHeatCapacity / 1000,
+		SurfaceFactor:                   p.SurfaceFactorMagnitude,
+		SurfaceFactorLag_h:              p.SurfaceFactorLag / 3600,
 	}
 }
 

@@ -110,6 +110,12 @@ type PeriodicResult struct {
 	OutsideAdmittanceLead_h         float64 `json:"outside_admittance_lead_h"`
 	InsideArealHeatCapacity_kJ_m2K  float64 `json:"inside_areal_heat_capacity_kJ_m2K"`
 	OutsideArealHeatCapacity_kJ_m2K float64 `json:"outside_areal_heat_capacity_kJ_m2K"`
+	// SurfaceFactor is |F|, F = 1 - Rsi Y11 (admittance method): of a
+	// heat-flux swing absorbed at the inside surface, the part passed on
+	// to the inside air, dimensionless; SurfaceFactorLag_h its lag behind
+	// the absorbed heat, h, in [0, period).
+	SurfaceFactor      float64 `json:"surface_factor"`
+	SurfaceFactorLag_h float64 `json:"surface_factor_lag_h"`
 }
 
 // Simulation is the transient finite-volume result.
