@@ -272,8 +272,8 @@ func groundSummaryTable(r *results.Results) *block {
 	t := newTable("Ground temperature, exact periodic solution", []string{"Quantity", "Value"}, "text", "text")
 	t.row("Mean ground surface temperature (n-factors applied)", degC(g.SurfaceMean_C))
 	t.row("Annual swing at the surface (amplitude, half the range)", fixed(g.SurfaceAnnualAmplitude_K, 1)+" K")
-	if g.AnnualDampingDepth_m > 0 {
-		t.row("Depth where the annual swing falls below 0.1 K", fixed(g.AnnualDampingDepth_m, 1)+" m")
+	if g.AnnualSwingDepth_m > 0 {
+		t.row("Depth where the annual swing falls below 0.1 K", fixed(g.AnnualSwingDepth_m, 1)+" m")
 	}
 	t.row("Depth of the column", fixed(g.ColumnDepth_m, 1)+" m")
 	if g.DomainDeepEnough {
@@ -301,8 +301,11 @@ func groundPeriodTables(r *results.Results) []*block {
 			lagUnit, lagF = "d", 1.0/24
 		}
 		caption := fmt.Sprintf("Period %s: surface swing ±%s K", periodLabel(p.Period_h), fixed(p.SurfaceAmplitude_K, 1))
+		if p.SwingDepth_m > 0 {
+			caption += fmt.Sprintf(", below 0.1 K from %s m down", fixed(p.SwingDepth_m, 2))
+		}
 		if p.DampingDepth_m > 0 {
-			caption += fmt.Sprintf(", below 0.1 K from %s m down", fixed(p.DampingDepth_m, 2))
+			caption += fmt.Sprintf("; damping depth √(aP/π) of the top layer %s m", fixed(p.DampingDepth_m, 2))
 		}
 		t := newTable(caption, []string{"Depth (m)", "Swing, amplitude (K)", "Lag behind the surface (" + lagUnit + ")", "Lowest", "Mean", "Highest"})
 		tiny := false

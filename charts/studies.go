@@ -26,6 +26,8 @@ var quantities = []quantity{
 	{"u_value_W_m2K", "U-value (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
 	{"decrement_factor", "Decrement factor f", func(v float64) string { return sig(v, 3) }},
 	{"time_shift_h", "Time shift (h)", func(v float64) string { return fixed(v, 1) }},
+	{"time_shift_unwrapped_h", "Whole time shift (h)", func(v float64) string { return fixed(v, 1) }},
+	{"surface_factor", "Surface factor F", func(v float64) string { return sig(v, 3) }},
 	{"periodic_transmittance_W_m2K", "|Y₁₂| (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
 	{"inside_admittance_W_m2K", "|Y₁₁| inside (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
 	{"inside_areal_heat_capacity_kJ_m2K", "κ₁ inside (kJ/(m²·K))", func(v float64) string { return sig(v, 3) }},

@@ -55,7 +55,7 @@ func summary(r *results.Results) []string {
 		}
 		if g := r.Ground; g != nil && !g.DomainDeepEnough {
 			out = append(out, fmt.Sprintf("The %s m column is shallower than the depth the annual swing reaches (%s m): the deepest temperatures are disturbed by the bottom boundary.",
-				fixed(g.ColumnDepth_m, 1), fixed(g.AnnualDampingDepth_m, 1)))
+				fixed(g.ColumnDepth_m, 1), fixed(g.AnnualSwingDepth_m, 1)))
 		}
 		if sim := r.Simulation; sim != nil {
 			for i, p := range sim.Probes {

@@ -86,8 +86,16 @@ var quantities = map[string]func(r *results.Results) (float64, bool){
 	"decrement_factor": func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.DecrementFactor })
 	},
+	// time_shift_h is the same as periodic[].time_shift_h, in [0, period);
+	// the whole lag (the one a target should seek) is time_shift_unwrapped_h.
 	"time_shift_h": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShift_h })
+	},
+	"time_shift_unwrapped_h": func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
+	},
+	"surface_factor": func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.SurfaceFactor })
 	},
 	"periodic_transmittance_W_m2K": func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })

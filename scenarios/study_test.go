@@ -35,7 +35,7 @@ analysis:
 // does not (the exact ISO 13786 solution decides both).
 func TestTargetFedBack(t *testing.T) {
 	cases := []struct{ quantity, goal string }{
-		{"time_shift_h", "at_least: 10"},
+		{"time_shift_unwrapped_h", "at_least: 10"},
 		{"periodic_transmittance_W_m2K", "at_most: 0.03"},
 		{"decrement_factor", "at_most: 0.1"},
 	}
@@ -313,5 +313,48 @@ sweep:
 				}
 			}
 		})
+	}
+}
+
+// TestTimeShiftOneMeaning: a study's time_shift_h is periodic[].time_shift_h
+// (in [0, period)) and its time_shift_unwrapped_h the whole lag, also when
+// the lag passes a period: a sweep of a stone wall from 0.3 to 1.2 m, whose
+// lag grows past 24 h (about 1.4 h per 0.1 m of stone: d/delta per 0.1 m
+// with delta = 0.15 m [derived, ISO 13786 penetration depth]), each point
+// against the same wall run on its own.
+func TestTimeShiftOneMeaning(t *testing.T) {
+	const wall = `
+title: stone
+kind: wall
+layers:
+  - {name: stone, conductivity: 2.3, density: 2500, specific_heat: 1000, thickness: THICK}
+outside:
+  temperature: {mean: 10, daily: {amplitude: 5, peak_hour: 15}}
+analysis:
+  simulate: false
+`
+	r := mustRun(t, strings.Replace(wall, "THICK", "0.3 m", 1)+`
+sweep:
+  parameter: layers[1].thickness
+  values: [0.3 m, 0.9 m, 1.2 m]
+`)
+	if r.Sweep == nil || len(r.Sweep.Points) != 3 {
+		t.Fatalf("sweep: %+v", r.Sweep)
+	}
+	wrapped := false
+	for _, pt := range r.Sweep.Points {
+		one := mustRun(t, strings.Replace(wall, "THICK", pt.Text, 1)).Periodic[0]
+		if got := pt.Quantities["time_shift_h"]; got != one.TimeShift_h || got < 0 || got >= 24 {
+			t.Errorf("%s: study time_shift_h %g, periodic[].time_shift_h %g (want equal, in [0, 24))", pt.Text, got, one.TimeShift_h)
+		}
+		if got := pt.Quantities["time_shift_unwrapped_h"]; got != one.TimeShiftUnwrapped_h {
+			t.Errorf("%s: study time_shift_unwrapped_h %g, periodic[] %g", pt.Text, got, one.TimeShiftUnwrapped_h)
+		}
+		if one.TimeShiftUnwrapped_h > 24 {
+			wrapped = true
+		}
+	}
+	if !wrapped {
+		t.Error("no sweep point has a lag above 24 h: the check of the wrap did not happen")
 	}
 }

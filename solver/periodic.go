@@ -92,7 +92,7 @@ type PeriodicProperties struct {
 // ErrPeriodicHalfSpace is returned by Periodic and Response for a
 // half-space (ground) column: it has no inside environment, hence no U,
 // transmittance or decrement factor. Use GroundPeriodic, SurfaceAdmittance
-// and DampingDepth for such columns.
+// and SwingDepth for such columns.
 var ErrPeriodicHalfSpace = errors.New("solver: a half-space column has no inside surface; use GroundPeriodic for ground columns")
 
 // tmCheckColumn validates c and also rejects infinite surface resistances

@@ -158,11 +158,11 @@ type PeriodicCheck struct {
 
 // GroundTemperature is the exact periodic ground-temperature result.
 type GroundTemperature struct {
-	SurfaceMean_C            float64          `json:"surface_mean_C"`             // mean surface temperature (n-factors applied)
-	SurfaceAnnualAmplitude_K float64          `json:"surface_annual_amplitude_K"` // half the annual surface swing
-	AnnualDampingDepth_m     float64          `json:"annual_damping_depth_m"`     // depth where the annual swing falls below 0.1 K
+	SurfaceMean_C            float64          `json:"surface_mean_C"`                  // mean surface temperature (n-factors applied)
+	SurfaceAnnualAmplitude_K float64          `json:"surface_annual_amplitude_K"`      // half the annual surface swing
+	AnnualSwingDepth_m       float64          `json:"annual_depth_swing_below_0_1K_m"` // depth where the annual swing falls below 0.1 K
 	ColumnDepth_m            float64          `json:"column_depth_m"`
-	DomainDeepEnough         bool             `json:"domain_deep_enough"`             // column deeper than AnnualDampingDepth_m
+	DomainDeepEnough         bool             `json:"domain_deep_enough"`             // column deeper than AnnualSwingDepth_m
 	GeothermalFlux_W_m2      *float64         `json:"geothermal_flux_W_m2,omitempty"` // upward into the column; nil with a fixed bottom temperature or an adiabatic bottom
 	NFactorFreezing          float64          `json:"n_factor_freezing,omitempty"`
 	NFactorThawing           float64          `json:"n_factor_thawing,omitempty"`
@@ -171,10 +171,17 @@ type GroundTemperature struct {
 
 // GroundPeriodic is the exact periodic ground temperature for one period.
 type GroundPeriodic struct {
-	Period_h           float64       `json:"period_h"`
-	SurfaceAmplitude_K float64       `json:"surface_amplitude_K"`
-	DampingDepth_m     float64       `json:"damping_depth_m,omitempty"` // amplitude below 0.1 K
-	Probes             []GroundProbe `json:"probes"`
+	Period_h           float64 `json:"period_h"`
+	SurfaceAmplitude_K float64 `json:"surface_amplitude_K"`
+	// SwingDepth_m is the depth below which this period's swing stays
+	// under 0.1 K, m (0, left out, when the surface swing is smaller).
+	SwingDepth_m float64 `json:"depth_swing_below_0_1K_m,omitempty"`
+	// DampingDepth_m is the textbook damping depth d = sqrt(2a/omega) =
+	// sqrt(a P / pi) of the uppermost soil layer (unfrozen), m: in a
+	// uniform half-space the swing falls to 1/e of the surface swing at d
+	// and lags it there by P/(2 pi).
+	DampingDepth_m float64       `json:"damping_depth_m"`
+	Probes         []GroundProbe `json:"probes"`
 }
 
 // GroundProbe is the exact periodic temperature at one depth.
