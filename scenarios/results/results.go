@@ -394,9 +394,10 @@ type TargetResult struct {
 	From           float64       `json:"from"`
 	To             float64       `json:"to"`
 	Met            bool          `json:"met"`
-	Value          float64       `json:"value"`    // the parameter value found (or the closest when not met)
-	Achieved       float64       `json:"achieved"` // the quantity there
-	Margin         float64       `json:"margin"`   // on the good side of the goal when positive
+	Tolerance      float64       `json:"tolerance"` // in Unit; Value is a multiple of the largest 1-2-5 step not above it
+	Value          float64       `json:"value"`     // the parameter value found (or the closest when not met)
+	Achieved       float64       `json:"achieved"`  // the quantity there
+	Margin         float64       `json:"margin"`    // on the good side of the goal when positive
 	Message        string        `json:"message"`
 	Evaluations    int           `json:"evaluations"`
 	Scan           []TargetPoint `json:"scan"`
@@ -423,16 +424,18 @@ type UncertaintyResult struct {
 // UncertainParameter is one varied parameter: normal (A mean, B sd) or
 // uniform (A min, B max), in Unit.
 type UncertainParameter struct {
-	Parameter    string  `json:"parameter"`
-	Distribution string  `json:"distribution"`
-	A            float64 `json:"a"`
-	B            float64 `json:"b"`
-	Unit         string  `json:"unit"`
+	Parameter      string  `json:"parameter"`
+	ParameterLabel string  `json:"parameter_label"` // the path in words
+	Distribution   string  `json:"distribution"`
+	A              float64 `json:"a"`
+	B              float64 `json:"b"`
+	Unit           string  `json:"unit"`
 }
 
 // Spread is the distribution of one quantity over the samples.
 type Spread struct {
 	Quantity string  `json:"quantity"`
+	Unit     string  `json:"unit"` // of mean, sd and the percentiles; "" for a ratio
 	N        int     `json:"n"`
 	Mean     float64 `json:"mean"`
 	SD       float64 `json:"sd"`
