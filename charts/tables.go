@@ -339,14 +339,19 @@ func methods(r *results.Results) []string {
 		m = append(m, fmt.Sprintf("Steady state: layers in series with the surface resistances of ISO 6946 (here Rsi = %s and Rse = %s m²·K/W); U = 1 / (Rsi + ΣR + Rse).",
 			sig(s.InsideSurfaceResistance, 3), sig(s.OutsideSurfaceResistance, 3)))
 	}
-	m = append(m,
-		"Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.",
-		"Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
-	if len(r.Periodic) > 0 {
+	if r.Kind != results.Ground {
+		m = append(m, "Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.")
+	}
+	if r.Kind == results.Ground {
+		m = append(m, "Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786), the damping depth d of the ground: in a uniform soil the swing has fallen to 1/e of the surface swing at d.")
+	} else {
+		m = append(m, "Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
+	}
+	if len(r.Periodic) > 0 && r.Kind != results.Ground {
 		m = append(m, "Surface factor of the admittance method (CIBSE Guide A, section 5): F = 1 − Rsi·Y₁₁, the part of a heat-flux swing absorbed at the inside surface that is passed on to the room air, with its lag.")
 	}
 	if r.Kind == results.Ground {
-		m = append(m, "Exact periodic ground temperatures: the same matrices ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π).")
+		m = append(m, "Exact periodic ground temperatures: the heat transfer matrices of ISO 13786 for each period, layers in series from the surface down, ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π). Linear: no latent heat, unfrozen properties.")
 	}
 	if sim := r.Simulation; sim != nil {
 		m = append(m, fmt.Sprintf("Transient simulation: one-dimensional finite volumes (%d cells, layer interfaces on cell faces), an L-stable second-order time scheme (TR-BDF2) with a time step of %s h and a tridiagonal solve per step; latent heat by an enthalpy formulation. Relative energy-balance error %s.",

@@ -53,8 +53,8 @@ func cleanOSError(err error) string {
 }
 
 var (
-	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
-	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil"}
+	topKeys      = []string{"title", "description", "project", "client", "prepared_by", "revision", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
+	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil", "family"}
 	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
 	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
@@ -125,6 +125,9 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*S
 	}
 	s.Title = title
 	if s.Description, _, err = top.str("description"); err != nil {
+		return nil, err
+	}
+	if err := decodeTitleBlock(top, s); err != nil {
 		return nil, err
 	}
 
@@ -281,6 +284,9 @@ func (d *decoder) decodeLayer(o *object, s *Scenario) (layers.Layer, error) {
 		return l, err
 	} else if ok {
 		l.Name = name
+	}
+	if err := decodeFamily(o, &l); err != nil {
+		return l, err
 	}
 
 	if d, ok, err := o.positive("thickness", layers.Length); err != nil {

@@ -68,6 +68,7 @@ func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, err
 		return nil, err
 	}
 	r.SimulationSkipped = p.skipped
+	r.TitleBlock = s.TitleBlock
 	r.Cautions = results.CautionsWith(r, recordWarnings(s.Scenario, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()

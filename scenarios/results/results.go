@@ -18,7 +18,8 @@ const (
 // fields hold the same values in those same units, converted from SI at the
 // end of a run.
 type Results struct {
-	Title        string  `json:"title"`
+	Title string `json:"title"`
+	TitleBlock
 	Kind         Kind    `json:"kind"`
 	ScenarioFile string  `json:"scenario_file,omitempty"` // as given on the command line, or "(embedded demo)"
 	Orientation  string  `json:"orientation,omitempty"`   // wall kind: wall | roof | floor
@@ -589,4 +590,14 @@ type StepResult struct {
 	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
 	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`
 	ContactTemperature_C     *float64 `json:"contact_temperature_C,omitempty"`
+}
+
+// TitleBlock holds the optional words of a report's title block, as the
+// scenario gives them (results.json: top-level project, client,
+// prepared_by and revision, absent when not given).
+type TitleBlock struct {
+	Project    string `json:"project,omitempty"`
+	Client     string `json:"client,omitempty"`
+	PreparedBy string `json:"prepared_by,omitempty"`
+	Revision   string `json:"revision,omitempty"`
 }
