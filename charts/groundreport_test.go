@@ -78,3 +78,24 @@ func TestTitleBlock(t *testing.T) {
 		}
 	}
 }
+
+// TestSurfaceFactorTable: a wall report lists the surface factor and its
+// lag per period in a table of its own, naming the Rsi used; a ground
+// report has none.
+func TestSurfaceFactorTable(t *testing.T) {
+	r := wallFixture()
+	for i := range r.Periodic {
+		r.Periodic[i].SurfaceFactor, r.Periodic[i].SurfaceFactorLag_h = 0.48355, 1.611
+	}
+	page := render(t, r, Options{})
+	rows := tableRows(t, page, "Surface factor (admittance method)")
+	if got := rowOf(t, rows, "24 h"); got[1] != "0.484" || got[2] != "1.6" {
+		t.Errorf("surface factor row %q, want 0.484 and 1.6 h", got)
+	}
+	if !strings.Contains(page, "Here Rsi = 0.130 m²·K/W of ISO 6946") {
+		t.Error("the Rsi used for the surface factor is not named")
+	}
+	if page := render(t, groundFixture(), Options{}); strings.Contains(page, "Surface factor") {
+		t.Error("a ground report shows a surface factor")
+	}
+}

@@ -212,7 +212,7 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	}
 
 	per := section{ID: "periodic", Heading: "Periodic properties (ISO 13786)"}
-	add(&per, periodicTable(r), chart(cycleChart))
+	add(&per, periodicTable(r), surfaceFactorTable(r), chart(cycleChart))
 	if !ground {
 		add(&per, chart(envelopeChart))
 	}

@@ -207,8 +207,7 @@ func periodicTable(r *results.Results) *block {
 	t := newTable("Periodic properties per period", []string{
 		"Period", "Decrement factor f", "Time shift (h)", "|Y₁₂| (W/(m²·K))",
 		"|Y₁₁| " + in + " (W/(m²·K))", "Lead " + in + " (h)", "|Y₂₂| " + out + " (W/(m²·K))", "Lead " + out + " (h)",
-		"κ₁ " + in + " (kJ/(m²·K))", "κ₂ " + out + " (kJ/(m²·K))",
-		"Surface factor F " + in, "F lag (h)"}, "text")
+		"κ₁ " + in + " (kJ/(m²·K))", "κ₂ " + out + " (kJ/(m²·K))"}, "text")
 	var wrapped bool
 	for _, p := range r.Periodic {
 		shift := fixed(p.TimeShift_h, 1)
@@ -219,8 +218,7 @@ func periodicTable(r *results.Results) *block {
 		t.row(periodLabel(p.Period_h), sig(p.DecrementFactor, 3), shift, sig(p.PeriodicTransmittance_W_m2K, 3),
 			sig(p.InsideAdmittance_W_m2K, 3), fixed(p.InsideAdmittanceLead_h, 1),
 			sig(p.OutsideAdmittance_W_m2K, 3), fixed(p.OutsideAdmittanceLead_h, 1),
-			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3),
-			sig(p.SurfaceFactor, 3), fixed(p.SurfaceFactorLag_h, 1))
+			sig(p.InsideArealHeatCapacity_kJ_m2K, 3), sig(p.OutsideArealHeatCapacity_kJ_m2K, 3))
 	}
 	if r.Kind == results.Ground {
 		t.Notes = append(t.Notes,
@@ -229,12 +227,25 @@ func periodicTable(r *results.Results) *block {
 	} else {
 		t.Notes = append(t.Notes,
 			"f = |Y₁₂|/U is the ratio of the periodic to the steady thermal transmittance: the swing of heat flow into the room relative to a massless "+component(r)+" with the same U-value. It is not a ratio of surface temperatures.",
-			"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.",
-			"Surface factor F = |1 − Rsi·Y₁₁| (admittance method): of a heat-flux swing absorbed at the inside surface (sun through a window, lights), the part passed on to the room air, and how long it lags the absorbed heat; the rest is taken up by the "+component(r)+". Here Rsi = "+sig(r.Steady.InsideSurfaceResistance, 3)+" m²·K/W of ISO 6946, as in the rest of the analysis (published surface-factor tables assume about 0.12).")
+			"Time shift: how long the heat-flow swing into the room lags the outside temperature, in [0, period). Y₁₁ and Y₂₂ are the admittances (heat-flux swing per kelvin of temperature swing on the same side) with how far they lead the temperature; κ₁ and κ₂ are the areal heat capacities, surface resistances included.")
 	}
 	if wrapped {
 		t.Notes = append(t.Notes, "A time shift in brackets counts whole periods: it is the full travel time of the wave through the construction.")
 	}
+	return &block{Table: t}
+}
+
+// surfaceFactorTable lists the surface factor of the admittance method
+// per period (walls only).
+func surfaceFactorTable(r *results.Results) *block {
+	if len(r.Periodic) == 0 || r.Kind == results.Ground {
+		return nil
+	}
+	t := newTable("Surface factor (admittance method)", []string{"Period", "Surface factor F", "Lag behind the absorbed heat (h)"}, "text")
+	for _, p := range r.Periodic {
+		t.row(periodLabel(p.Period_h), sig(p.SurfaceFactor, 3), fixed(p.SurfaceFactorLag_h, 1))
+	}
+	t.Notes = append(t.Notes, "F = |1 − Rsi·Y₁₁|: of a heat-flux swing absorbed at the inside surface (sun through a window, lights), the part passed on to the room air, lagging the absorbed heat by the time given; the rest is taken up by the "+component(r)+". A massless "+component(r)+" passes on (R + Rse)/(Rsi + R + Rse). Here Rsi = "+sig(r.Steady.InsideSurfaceResistance, 3)+" m²·K/W of ISO 6946, as in the rest of the analysis (published surface-factor tables assume about 0.12).")
 	return &block{Table: t}
 }
 
