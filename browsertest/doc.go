@@ -16,7 +16,11 @@
 // chromium binary is looked up as TEMPSTACK_CHROMIUM, then /usr/bin/chromium,
 // then chromium and chromium-browser on PATH.
 //
-// Screenshots of every demo report are written to artifacts/screenshots/
-// at the repository root (git-ignored), or to TEMPSTACK_SCREENSHOTS when
-// that is set.
+// Screenshots of every demo report are written to the folder named by
+// TEMPSTACK_SCREENSHOTS when that is set (e.g.
+// TEMPSTACK_SCREENSHOTS=$PWD/artifacts/screenshots, git-ignored), and not
+// at all otherwise, so that a repeated go test ./... can use its cache: the
+// test opens the sources of the tempstack binary it builds, and its cached
+// result stands until one of them (or the chromium binary, or one of the
+// TEMPSTACK_ variables) changes.
 package browsertest

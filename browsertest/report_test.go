@@ -71,6 +71,10 @@ func setup(t *testing.T) (*browser, string) {
 			shared.err = fmt.Errorf("building tempstack: %v\n%s", err, out)
 			return
 		}
+		if err := openToolSources(goBin); err != nil {
+			shared.err = err
+			return
+		}
 		shared.browser, shared.err = launchBrowser(path, filepath.Join(tmp, "profile"))
 	})
 	if shared.skip != "" {
@@ -85,6 +89,51 @@ func setup(t *testing.T) (*browser, string) {
 	return shared.browser, shared.tool
 }
 
+// openToolSources opens (and closes) every file of this module that goes
+// into the tempstack binary: the Go and embedded files of each package
+// tempstack/cmd/tempstack depends on, and go.mod and go.sum. The binary is
+// built by a separate go command, which the go test cache cannot see; the
+// files a test opens are part of its cache key, so opening them makes a
+// cached result of this package stand only while none of them changed
+// (a change to the report's script or template, the charts package or the
+// command reruns the browser test; nothing else does).
+func openToolSources(goBin string) error {
+	const format = `{{if .Module}}{{if .Module.Main}}{{.Dir}}|{{join .GoFiles ","}}|{{join .EmbedFiles ","}}{{end}}{{end}}`
+	out, err := exec.Command(goBin, "list", "-deps", "-f", format, "tempstack/cmd/tempstack").Output()
+	if err != nil {
+		return fmt.Errorf("listing the sources of tempstack: %v", err)
+	}
+	root, err := filepath.Abs("..")
+	if err != nil {
+		return err
+	}
+	files := []string{filepath.Join(root, "go.mod"), filepath.Join(root, "go.sum")}
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		parts := strings.Split(line, "|")
+		if len(parts) != 3 {
+			continue
+		}
+		for _, list := range parts[1:] {
+			for _, name := range strings.Split(list, ",") {
+				if name != "" {
+					files = append(files, filepath.Join(parts[0], name))
+				}
+			}
+		}
+	}
+	if len(files) < 10 {
+		return fmt.Errorf("go list named only %d source files of tempstack", len(files))
+	}
+	for _, name := range files {
+		f, err := os.Open(name)
+		if err != nil {
+			return err
+		}
+		f.Close()
+	}
+	return nil
+}
+
 // runTool runs the built tempstack with args and fails t on a non-zero
 // exit.
 func runTool(t *testing.T, tool string, args ...string) {
@@ -96,20 +145,17 @@ func runTool(t *testing.T, tool string, args ...string) {
 	}
 }
 
-// screenshotDir is where the demo screenshots are kept: artifacts/
-// screenshots at the repository root (git-ignored), or TEMPSTACK_SCREENSHOTS.
-func screenshotDir(t *testing.T) string {
-	if d := os.Getenv("TEMPSTACK_SCREENSHOTS"); d != "" {
-		return d
+// screenshotPath is where the screenshot called name is saved:
+// in the folder TEMPSTACK_SCREENSHOTS (made when missing), or nowhere ("")
+// when that is not set. Screenshots are for people to look at, not part of
+// any check; writing them on every run would also keep go test from
+// caching this package (a file written during a test is too new to trust).
+func screenshotPath(name string) string {
+	d := os.Getenv("TEMPSTACK_SCREENSHOTS")
+	if d == "" {
+		return ""
 	}
-	root, err := filepath.Abs("..")
-	if err != nil {
-		t.Fatal(err)
-	}
-	if _, err := os.Stat(filepath.Join(root, "go.mod")); err != nil {
-		t.Fatalf("repository root not found above %s: %v", root, err)
-	}
-	return filepath.Join(root, "artifacts", "screenshots")
+	return filepath.Join(d, name)
 }
 
 // logResult writes what the page reported into the test log.
@@ -135,7 +181,6 @@ func TestDemoReports(t *testing.T) {
 	if len(examples) == 0 {
 		t.Fatal("no embedded examples found")
 	}
-	shots := screenshotDir(t)
 	for _, ex := range examples {
 		t.Run(ex.Name, func(t *testing.T) {
 			t.Parallel()
@@ -145,7 +190,7 @@ func TestDemoReports(t *testing.T) {
 			t.Logf("tempstack run took %v", time.Since(start).Round(time.Millisecond))
 			start = time.Now()
 			res, err := b.visit(context.Background(), filepath.Join(out, "report.html"),
-				filepath.Join(shots, ex.Name+".png"))
+				screenshotPath(ex.Name+".png"))
 			if err != nil {
 				t.Fatalf("%v\nchromium log:\n%s", err, b.log())
 			}
@@ -233,7 +278,7 @@ func TestInjectedText(t *testing.T) {
 	out := filepath.Join(dir, "out")
 	runTool(t, tool, "run", file, "--out", out, "--quiet")
 	res, err := b.visit(context.Background(), filepath.Join(out, "report.html"),
-		filepath.Join(screenshotDir(t), "injected-text.png"))
+		screenshotPath("injected-text.png"))
 	if err != nil {
 		t.Fatalf("%v\nchromium log:\n%s", err, b.log())
 	}

@@ -126,13 +126,13 @@ func groundFixture() *results.Results {
 				{Label: "winter 2", Start_d: 181, End_d: 546, Complete: true, Settled: true, AirFreezingIndex_Cd: 420, AirThawingIndex_Cd: 2100, MaxFrostDepth_m: 0.82, MaxFrostDay: 405, MaxFrostDate: "year 2, 10 Feb",
 					MaxThawDepth_m: 0.4, FrozenDays: []results.ProbeDays{{Depth_m: 0.5, Days: 63}, {Depth_m: 2, Days: 0}}},
 			}},
-		Ground: &results.GroundTemperature{SurfaceMean_C: 6.2, SurfaceAnnualAmplitude_K: 11, AnnualDampingDepth_m: 10.4, ColumnDepth_m: 3,
+		Ground: &results.GroundTemperature{SurfaceMean_C: 6.2, SurfaceAnnualAmplitude_K: 11, AnnualSwingDepth_m: 10.4, ColumnDepth_m: 3,
 			DomainDeepEnough: false, GeothermalFlux_W_m2: ptr(0.065), NFactorFreezing: 0.7, NFactorThawing: 1.1,
 			Periodic: []results.GroundPeriodic{
-				{Period_h: 8760, SurfaceAmplitude_K: 11, DampingDepth_m: 10.4, Probes: []results.GroundProbe{
+				{Period_h: 8760, SurfaceAmplitude_K: 11, SwingDepth_m: 10.4, Probes: []results.GroundProbe{
 					{Depth_m: 0.5, Amplitude_K: 9.1, Lag_h: 300, Lag_d: 12.5, Mean_C: 6.2, Min_C: -2.9, Max_C: 15.3},
 					{Depth_m: 2, Amplitude_K: 5.0, Lag_h: 1100, Lag_d: 45.8, Mean_C: 6.3, Min_C: 1.3, Max_C: 11.3}}},
-				{Period_h: 24, SurfaceAmplitude_K: 3, DampingDepth_m: 0.5, Probes: []results.GroundProbe{
+				{Period_h: 24, SurfaceAmplitude_K: 3, SwingDepth_m: 0.5, Probes: []results.GroundProbe{
 					{Depth_m: 0.5, Amplitude_K: 0.05, Lag_h: 14, Mean_C: 6.2, Min_C: 6.15, Max_C: 6.25},
 					{Depth_m: 2, Amplitude_K: 1e-9, Lag_h: 48, Mean_C: 6.3, Min_C: 6.3, Max_C: 6.3}}},
 			}},

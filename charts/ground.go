@@ -272,8 +272,8 @@ func groundSummaryTable(r *results.Results) *block {
 	t := newTable("Ground temperature, exact periodic solution", []string{"Quantity", "Value"}, "text", "text")
 	t.row("Mean ground surface temperature (n-factors applied)", degC(g.SurfaceMean_C))
 	t.row("Annual swing at the surface (amplitude, half the range)", fixed(g.SurfaceAnnualAmplitude_K, 1)+" K")
-	if g.AnnualDampingDepth_m > 0 {
-		t.row("Depth where the annual swing falls below 0.1 K", fixed(g.AnnualDampingDepth_m, 1)+" m")
+	if g.AnnualSwingDepth_m > 0 {
+		t.row("Depth where the annual swing falls below 0.1 K", fixed(g.AnnualSwingDepth_m, 1)+" m")
 	}
 	t.row("Depth of the column", fixed(g.ColumnDepth_m, 1)+" m")
 	if g.DomainDeepEnough {
@@ -292,19 +292,54 @@ func groundPeriodTables(r *results.Results) []*block {
 		return nil
 	}
 	var out []*block
-	for _, p := range g.Periodic {
+	freezes := false
+	for _, l := range r.Layers {
+		freezes = freezes || l.Freezing
+	}
+	// The simulated range at each probe depth, set beside the exact
+	// values of the longest period (a freezing column's exact solution
+	// knows no latent heat).
+	simAt := map[float64]results.Probe{}
+	if r.Simulation != nil {
+		for _, q := range r.Simulation.Probes {
+			simAt[q.Depth_m] = q
+		}
+	}
+	longest := -1
+	var unforced []string
+	for i, p := range g.Periodic {
+		if len(p.Probes) > 0 && p.SurfaceAmplitude_K >= 0.005 && (longest < 0 || p.Period_h > g.Periodic[longest].Period_h) {
+			longest = i
+		}
+	}
+	for i, p := range g.Periodic {
 		if len(p.Probes) == 0 {
 			continue
 		}
+		if p.SurfaceAmplitude_K < 0.005 {
+			unforced = append(unforced, periodLabel(p.Period_h))
+			continue
+		}
+		withSim := i == longest && len(simAt) > 0
 		lagUnit, lagF := "h", 1.0
 		if p.Period_h > 240 {
 			lagUnit, lagF = "d", 1.0/24
 		}
 		caption := fmt.Sprintf("Period %s: surface swing ±%s K", periodLabel(p.Period_h), fixed(p.SurfaceAmplitude_K, 1))
-		if p.DampingDepth_m > 0 {
-			caption += fmt.Sprintf(", below 0.1 K from %s m down", fixed(p.DampingDepth_m, 2))
+		if p.SwingDepth_m > 0 {
+			caption += fmt.Sprintf(", below 0.1 K from %s m down", fixed(p.SwingDepth_m, 2))
 		}
-		t := newTable(caption, []string{"Depth (m)", "Swing, amplitude (K)", "Lag behind the surface (" + lagUnit + ")", "Lowest", "Mean", "Highest"})
+		if p.DampingDepth_m > 0 {
+			caption += fmt.Sprintf("; damping depth √(aP/π) of the top layer %s m", fixed(p.DampingDepth_m, 2))
+		}
+		if freezes {
+			caption += " (exact, without latent heat)"
+		}
+		head := []string{"Depth (m)", "Swing, amplitude (K)", "Lag behind the surface (" + lagUnit + ")", "Lowest", "Mean", "Highest"}
+		if withSim {
+			head = append(head, "Simulated lowest", "Simulated highest")
+		}
+		t := newTable(caption, head)
 		tiny := false
 		for _, q := range p.Probes {
 			amp, lag := sig(q.Amplitude_K, 2), fixed(q.Lag_h*lagF, 1)
@@ -312,13 +347,30 @@ func groundPeriodTables(r *results.Results) []*block {
 				amp, lag = "< 0.001", dash
 				tiny = true
 			}
-			t.row(fixed(q.Depth_m, 2), amp, lag, degC(q.Min_C), degC(q.Mean_C), degC(q.Max_C))
+			cells := []string{fixed(q.Depth_m, 2), amp, lag, degC(q.Min_C), degC(q.Mean_C), degC(q.Max_C)}
+			if withSim {
+				if s, ok := simAt[q.Depth_m]; ok {
+					cells = append(cells, degC(s.Min_C), degC(s.Max_C))
+				} else {
+					cells = append(cells, dash, dash)
+				}
+			}
+			t.row(cells...)
+		}
+		if freezes {
+			t.Notes = append(t.Notes, "These exact periodic values ignore latent heat: they treat the soil as if it never froze, with its unfrozen properties. Where the ground freezes the real swing is smaller and later; the simulated range (latent heat included) is the one to use there.")
 		}
 		t.Notes = append(t.Notes, "Lowest and highest are the mean minus and plus this period's swing alone; the other periods add to it.")
+		if withSim {
+			t.Notes = append(t.Notes, "Simulated lowest and highest: the whole range of the transient simulation at that depth, every period of the forcing together"+map[bool]string{true: ", latent heat included", false: ""}[freezes]+".")
+		}
 		if tiny {
 			t.Notes = append(t.Notes, "A swing below 0.001 K has died out; its lag is not given.")
 		}
 		out = append(out, &block{Table: t})
+	}
+	if len(unforced) > 0 {
+		out = append(out, &block{Text: []string{"No exact periodic table for the period of " + strings.Join(unforced, " and ") + ": the surface forcing has no swing at that period."}})
 	}
 	return out
 }

@@ -36,6 +36,7 @@ type Options struct {
 type page struct {
 	Title, KindLabel, ScenarioFile, Orientation string
 	GeneratedAt, ToolVersion                    string
+	TitleBlock                                  results.TitleBlock
 	Summary, Warnings                           []string
 	Sections                                    []section
 	Methods, Cautions                           []string
@@ -140,6 +141,7 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 		Orientation:  r.Orientation,
 		GeneratedAt:  o.GeneratedAt,
 		ToolVersion:  o.ToolVersion,
+		TitleBlock:   r.TitleBlock,
 	}
 	// Warnings are printed as sentences, with the degree sign.
 	for _, w := range r.Warnings {
@@ -210,7 +212,7 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	}
 
 	per := section{ID: "periodic", Heading: "Periodic properties (ISO 13786)"}
-	add(&per, periodicTable(r), chart(cycleChart))
+	add(&per, periodicTable(r), surfaceFactorTable(r), chart(cycleChart))
 	if !ground {
 		add(&per, chart(envelopeChart))
 	}

@@ -5,6 +5,7 @@ import (
 	"html/template"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 
 	"tempstack/scenarios/results"
@@ -26,6 +27,8 @@ var quantities = []quantity{
 	{"u_value_W_m2K", "U-value (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
 	{"decrement_factor", "Decrement factor f", func(v float64) string { return sig(v, 3) }},
 	{"time_shift_h", "Time shift (h)", func(v float64) string { return fixed(v, 1) }},
+	{"time_shift_unwrapped_h", "Whole time shift (h)", func(v float64) string { return fixed(v, 1) }},
+	{"surface_factor", "Surface factor F", func(v float64) string { return sig(v, 3) }},
 	{"periodic_transmittance_W_m2K", "|Y₁₂| (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
 	{"inside_admittance_W_m2K", "|Y₁₁| inside (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
 	{"inside_areal_heat_capacity_kJ_m2K", "κ₁ inside (kJ/(m²·K))", func(v float64) string { return sig(v, 3) }},
@@ -235,11 +238,12 @@ func sweepTable(r *results.Results) *block {
 		ss = append(ss, p.Quantities)
 	}
 	keys := summaryKeys(ss...)
-	head := []string{s.Parameter}
+	label := paramWords(s.ParameterLabel, s.Parameter)
+	head := []string{withUnit(upperFirst(label), s.Unit)}
 	for _, k := range keys {
 		head = append(head, quantityOf(k).label)
 	}
-	t := newTable("Sweep of "+s.Parameter, head, "text")
+	t := newTable("Sweep of the "+label, head, "text")
 	for _, p := range s.Points {
 		v := p.Text
 		if v == "" {
@@ -247,7 +251,7 @@ func sweepTable(r *results.Results) *block {
 		}
 		t.row(append([]string{v}, summaryCells(p.Quantities, keys)...)...)
 	}
-	t.Notes = append(t.Notes, "Each row is a full run of the scenario with only "+s.Parameter+" changed.")
+	t.Notes = append(t.Notes, "Each row is a full run of the scenario with only the "+label+" changed (parameter path "+s.Parameter+").")
 	return &block{Table: t}
 }
 
@@ -263,17 +267,19 @@ func targetBlock(r *results.Results) []*block {
 		rel = "at least"
 	}
 	name, unit := q.nameUnit()
+	label := paramWords(tr.ParameterLabel, tr.Parameter)
 	var text string
 	if tr.Met {
-		text = fmt.Sprintf("Target met: %s = %s %s gives %s = %s%s (goal: %s %s%s; margin %s%s). %d runs.",
-			tr.Parameter, trimZeros(sig(tr.Value, 4)), tr.Unit, name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, sig(tr.Margin, 2), unit, tr.Evaluations)
+		text = fmt.Sprintf("Target met: %s at %s gives %s = %s%s (goal: %s %s%s; margin %s%s; found to %s). %d runs.",
+			upperFirst(label), numberUnit(exact(tr.Value), tr.Unit), name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, sig(tr.Margin, 2), unit,
+			numberUnit(exact(tr.Tolerance), tr.Unit), tr.Evaluations)
 	} else {
-		text = fmt.Sprintf("Target not met between %s and %s %s: the closest, %s = %s %s, gives %s = %s%s (goal: %s %s%s). %d runs.",
-			trimZeros(sig(tr.From, 4)), trimZeros(sig(tr.To, 4)), tr.Unit, tr.Parameter, trimZeros(sig(tr.Value, 4)), tr.Unit, name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, tr.Evaluations)
+		text = fmt.Sprintf("Target not met between %s and %s: the closest, %s at %s, gives %s = %s%s (goal: %s %s%s). %d runs.",
+			numberUnit(trimZeros(sig(tr.From, 4)), tr.Unit), numberUnit(trimZeros(sig(tr.To, 4)), tr.Unit), label, numberUnit(trimZeros(sig(tr.Value, 4)), tr.Unit), name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, tr.Evaluations)
 	}
 	out := []*block{{Text: []string{text}}}
 	if len(tr.Scan) > 0 {
-		t := newTable("Target search: scan of "+tr.Parameter, []string{tr.Parameter + " (" + tr.Unit + ")", q.label, "Meets the goal"}, "", "", "text")
+		t := newTable("Target search: scan of the "+label, []string{withUnit(upperFirst(label), tr.Unit), q.label, "Meets the goal"}, "", "", "text")
 		for _, p := range tr.Scan {
 			m := "no"
 			if p.Meets {
@@ -299,7 +305,7 @@ func uncertaintyTables(r *results.Results) []*block {
 		if x.Distribution == "uniform" {
 			vals = fmt.Sprintf("from %s to %s %s", trimZeros(sig(x.A, 4)), trimZeros(sig(x.B, 4)), x.Unit)
 		}
-		p.row(x.Parameter, x.Distribution, vals)
+		p.row(upperFirst(paramWords(x.ParameterLabel, x.Parameter)), x.Distribution, vals)
 	}
 	p.Notes = append(p.Notes, fmt.Sprintf("%d samples (seed %d).", u.Samples, u.Seed))
 	if u.Rejected > 0 {
@@ -388,4 +394,42 @@ func recordRows(t *table, r *results.Results) *block {
 		return nil
 	}
 	return &block{Table: gaps}
+}
+
+// paramWords returns a parameter's label in words, or its path when it
+// has none.
+func paramWords(label, path string) string {
+	if label != "" {
+		return label
+	}
+	return path
+}
+
+// withUnit appends " (unit)" to a heading, nothing for a ratio.
+func withUnit(head, unit string) string {
+	if unit == "" {
+		return head
+	}
+	return head + " (" + unit + ")"
+}
+
+// numberUnit joins a formatted number and its unit.
+func numberUnit(num, unit string) string {
+	if unit == "" {
+		return num
+	}
+	return num + " " + unit
+}
+
+// exact writes v with the fewest digits that give it back (a target value
+// already rounded to its tolerance keeps exactly its digits).
+func exact(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) }
+
+// upperFirst capitalises the first letter of s.
+func upperFirst(s string) string {
+	r := []rune(s)
+	if len(r) == 0 {
+		return s
+	}
+	return strings.ToUpper(string(r[:1])) + string(r[1:])
 }

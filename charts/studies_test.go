@@ -21,11 +21,12 @@ func studyFixture() *results.Results {
 		{Name: "thin insulation", Changes: []string{"layers[2].thickness = 50 mm"}, Layers: thin,
 			Quantities: results.Summary{"u_value_W_m2K": 0.52, "decrement_factor": 0.25, "time_shift_h": 8.96, "custom_quantity": 1.5}},
 	}
-	r.Sweep = &results.SweepResult{Parameter: "layers[2].thickness", Unit: "mm", Points: []results.SweepPoint{
+	r.Sweep = &results.SweepResult{Parameter: "layers[2].thickness", ParameterLabel: "thickness of layer 2 (mineral wool)", Unit: "mm", Points: []results.SweepPoint{
 		{Value: 50, Text: "50 mm", Quantities: results.Summary{"u_value_W_m2K": 0.52}},
 		{Value: 100, Text: "100 mm", Quantities: results.Summary{"u_value_W_m2K": 0.303}},
 	}}
-	r.Target = &results.TargetResult{Parameter: "layers[3].thickness", Unit: "mm", Quantity: "time_shift_h", Goal: 10, AtLeast: true,
+	r.Target = &results.TargetResult{Parameter: "layers[3].thickness", ParameterLabel: "thickness of layer 3 (concrete)", Unit: "mm", Tolerance: 0.5,
+		Quantity: "time_shift_h", Goal: 10, AtLeast: true,
 		From: 100, To: 300, Met: true, Value: 142.5, Achieved: 10.02, Margin: 0.02, Evaluations: 12,
 		Scan: []results.TargetPoint{{Value: 100, Quantity: 9.4}, {Value: 200, Quantity: 12.1, Meets: true}}}
 	r.Uncertainty = &results.UncertaintyResult{Samples: 200, Seed: 7, Rejected: 1, FirstRejection: "layers[1].conductivity must be positive",
@@ -48,19 +49,22 @@ func TestStudySections(t *testing.T) {
 	if got := rowOf(t, opt, "base"); got[5] != dash {
 		t.Errorf("a quantity the base lacks shows %q, want a dash", got[5])
 	}
-	sw := tableRows(t, page, "Sweep of layers[2].thickness")
+	sw := tableRows(t, page, "Sweep of the thickness of layer 2 (mineral wool)")
+	if h := sw[0][0]; h != "Thickness of layer 2 (mineral wool) (mm)" {
+		t.Errorf("sweep heading %q: want the parameter in words with its unit", h)
+	}
 	if got := rowOf(t, sw, "50 mm"); got[1] != "0.520" {
 		t.Errorf("sweep row %q", got)
 	}
-	if !strings.Contains(page, "Target met: layers[3].thickness = 142.5 mm gives time shift = 10.0 h (goal: at least 10.0 h; margin 0.020 h). 12 runs.") {
+	if !strings.Contains(page, "Target met: Thickness of layer 3 (concrete) at 142.5 mm gives time shift = 10.0 h (goal: at least 10.0 h; margin 0.020 h; found to 0.5 mm). 12 runs.") {
 		t.Error("target sentence missing or wrong")
 	}
-	scan := tableRows(t, page, "Target search: scan of layers[3].thickness")
+	scan := tableRows(t, page, "Target search: scan of the thickness of layer 3 (concrete)")
 	if got := rowOf(t, scan, "200"); got[2] != "yes" {
 		t.Errorf("scan row %q", got)
 	}
 	r.Target.Met = false
-	if !strings.Contains(render(t, r, Options{}), "Target not met between 100 and 300 mm") {
+	if !strings.Contains(render(t, r, Options{}), "Target not met between 100 mm and 300 mm: the closest, thickness of layer 3 (concrete) at 142.5 mm") {
 		t.Error("unmet target not reported")
 	}
 	spread := tableRows(t, page, "Spread of the results")

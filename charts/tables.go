@@ -55,7 +55,7 @@ func summary(r *results.Results) []string {
 		}
 		if g := r.Ground; g != nil && !g.DomainDeepEnough {
 			out = append(out, fmt.Sprintf("The %s m column is shallower than the depth the annual swing reaches (%s m): the deepest temperatures are disturbed by the bottom boundary.",
-				fixed(g.ColumnDepth_m, 1), fixed(g.AnnualDampingDepth_m, 1)))
+				fixed(g.ColumnDepth_m, 1), fixed(g.AnnualSwingDepth_m, 1)))
 		}
 		if sim := r.Simulation; sim != nil {
 			for i, p := range sim.Probes {
@@ -235,6 +235,20 @@ func periodicTable(r *results.Results) *block {
 	return &block{Table: t}
 }
 
+// surfaceFactorTable lists the surface factor of the admittance method
+// per period (walls only).
+func surfaceFactorTable(r *results.Results) *block {
+	if len(r.Periodic) == 0 || r.Kind == results.Ground {
+		return nil
+	}
+	t := newTable("Surface factor (admittance method)", []string{"Period", "Surface factor F", "Lag behind the absorbed heat (h)"}, "text")
+	for _, p := range r.Periodic {
+		t.row(periodLabel(p.Period_h), sig(p.SurfaceFactor, 3), fixed(p.SurfaceFactorLag_h, 1))
+	}
+	t.Notes = append(t.Notes, "F = |1 − Rsi·Y₁₁|: of a heat-flux swing absorbed at the inside surface (sun through a window, lights), the part passed on to the room air, lagging the absorbed heat by the time given; the rest is taken up by the "+component(r)+". A massless "+component(r)+" passes on (R + Rse)/(Rsi + R + Rse). Here Rsi = "+sig(r.Steady.InsideSurfaceResistance, 3)+" m²·K/W of ISO 6946, as in the rest of the analysis (published surface-factor tables assume about 0.12).")
+	return &block{Table: t}
+}
+
 // energyTable sets the heat that entered through each surface beside the
 // change of heat stored in the construction over the simulated run.
 func energyTable(r *results.Results) *block {
@@ -336,11 +350,19 @@ func methods(r *results.Results) []string {
 		m = append(m, fmt.Sprintf("Steady state: layers in series with the surface resistances of ISO 6946 (here Rsi = %s and Rse = %s m²·K/W); U = 1 / (Rsi + ΣR + Rse).",
 			sig(s.InsideSurfaceResistance, 3), sig(s.OutsideSurfaceResistance, 3)))
 	}
-	m = append(m,
-		"Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.",
-		"Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
+	if r.Kind != results.Ground {
+		m = append(m, "Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.")
+	}
 	if r.Kind == results.Ground {
-		m = append(m, "Exact periodic ground temperatures: the same matrices ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π).")
+		m = append(m, "Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786), the damping depth d of the ground: in a uniform soil the swing has fallen to 1/e of the surface swing at d.")
+	} else {
+		m = append(m, "Periodic penetration depth δ = √(λT/(πρc)) (ISO 13786).")
+	}
+	if len(r.Periodic) > 0 && r.Kind != results.Ground {
+		m = append(m, "Surface factor of the admittance method (CIBSE Guide A, section 5): F = 1 − Rsi·Y₁₁, the part of a heat-flux swing absorbed at the inside surface that is passed on to the room air, with its lag.")
+	}
+	if r.Kind == results.Ground {
+		m = append(m, "Exact periodic ground temperatures: the heat transfer matrices of ISO 13786 for each period, layers in series from the surface down, ending in a half-space; in a uniform soil they reduce to T(z, t) = Tm − As·exp(−z/d)·cos(2πt/P − z/d) with d = √(aP/π). Linear: no latent heat, unfrozen properties.")
 	}
 	if sim := r.Simulation; sim != nil {
 		m = append(m, fmt.Sprintf("Transient simulation: one-dimensional finite volumes (%d cells, layer interfaces on cell faces), an L-stable second-order time scheme (TR-BDF2) with a time step of %s h and a tridiagonal solve per step; latent heat by an enthalpy formulation. Relative energy-balance error %s.",

@@ -50,8 +50,8 @@ func cleanOSError(err error) string {
 }
 
 var (
-	topKeys      = []string{"title", "description", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
-	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil"}
+	topKeys      = []string{"title", "description", "project", "client", "prepared_by", "revision", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
+	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil", "family"}
 	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
 	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
@@ -144,6 +144,7 @@ func (d *decoder) decodeHeader(top *object, s *Scenario) {
 		top.missing("title", "a one-line name for the report")
 	}
 	top.str("description", &s.Description)
+	decodeTitleBlock(top, s)
 	var kind string
 	if top.choice("kind", []string{string(Wall), string(Ground)}, &kind) {
 		s.Kind = Kind(kind)

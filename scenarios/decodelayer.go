@@ -65,6 +65,7 @@ func (d *decoder) decodeLayer(o *object, index int) layers.Layer {
 		o.missing("thickness", `e.g. "105 mm" or 0.105 (m)`)
 	}
 	d.decodeFreezing(o, &l)
+	decodeFamily(o, &l)
 	if o.clean() {
 		if err := l.Validate(); err != nil {
 			o.d.fail(o.node, o.path, err)

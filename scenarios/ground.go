@@ -128,21 +128,22 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 			})
 		}
 		if cmplx.Abs(z) > 0.1 {
-			if dd, err := solver.DampingDepth(hs, P, cmplx.Abs(z), 0.1); err == nil {
-				gp.DampingDepth_m = dd
+			if dd, err := solver.SwingDepth(hs, P, cmplx.Abs(z), 0.1); err == nil {
+				gp.SwingDepth_m = dd
 			}
 		}
+		gp.DampingDepth_m = surfaceDampingDepth(hs, P)
 		g.Periodic = append(g.Periodic, gp)
-		s.waveDepth = math.Max(s.waveDepth, gp.DampingDepth_m)
+		s.waveDepth = math.Max(s.waveDepth, gp.SwingDepth_m)
 		if math.Abs(P-climate.Year) < 1 {
 			g.SurfaceAnnualAmplitude_K = cmplx.Abs(z)
-			g.AnnualDampingDepth_m = gp.DampingDepth_m
+			g.AnnualSwingDepth_m = gp.SwingDepth_m
 		}
 	}
-	if g.AnnualDampingDepth_m > col.Thickness() {
+	if g.AnnualSwingDepth_m > col.Thickness() {
 		r.Warnings = append(r.Warnings, fmt.Sprintf(
 			"the column is %.1f m deep but the annual swing only falls below 0.1 K at %.1f m: the simulated bottom boundary disturbs the deepest temperatures; make the last layer thicker",
-			col.Thickness(), g.AnnualDampingDepth_m))
+			col.Thickness(), g.AnnualSwingDepth_m))
 		g.DomainDeepEnough = false
 	} else {
 		g.DomainDeepEnough = true
@@ -696,4 +697,17 @@ func dayOfYear(d float64) string {
 		return label[i+2:]
 	}
 	return label
+}
+
+// surfaceDampingDepth returns the textbook damping depth
+// d = sqrt(2a/omega) = sqrt(a P / pi) (m; Carslaw and Jaeger, section 2.6)
+// of the uppermost massive layer of c with its unfrozen properties, the
+// ISO 13786 periodic penetration depth of that layer; 0 when c has none.
+func surfaceDampingDepth(c solver.Column, period float64) float64 {
+	for _, l := range c.Layers {
+		if !l.IsResistance() {
+			return solver.LayerPenetrationDepth(l, period)
+		}
+	}
+	return 0
 }

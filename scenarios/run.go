@@ -69,6 +69,7 @@ func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, err
 	}
 	r.SimulationSkipped = p.skipped
 	r.Warnings = append(r.Warnings, resistanceWarnings(s.Scenario)...)
+	r.TitleBlock = s.TitleBlock
 	r.Cautions = results.CautionsWith(r, recordWarnings(s.Scenario, r))
 	r.Records = s.records()
 	r.Forcing = s.forcingInfo()
@@ -183,6 +184,8 @@ func periodicResult(p solver.PeriodicProperties) results.PeriodicResult {
 		OutsideAdmittanceLead_h:         p.OutsideAdmittanceLead / 3600,
 		InsideArealHeatCapacity_kJ_m2K:  p.InsideArealHeatCapacity / 1000,
 		OutsideArealHeatCapacity_kJ_m2K: p.OutsideArealHeatCapacity / 1000,
+		SurfaceFactor:                   p.SurfaceFactorMagnitude,
+		SurfaceFactorLag_h:              p.SurfaceFactorLag / 3600,
 	}
 }
 

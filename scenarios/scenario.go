@@ -35,6 +35,7 @@ type Scenario struct {
 	File        string // as given (for messages)
 	Title       string
 	Description string
+	TitleBlock  results.TitleBlock // project, client, prepared_by, revision: for the report's title block
 	Kind        Kind
 	Orientation layers.Orientation // wall kind: heat-flow direction for Rsi
 	Layers      []layers.Layer     // outside (ground: surface) first

@@ -8,9 +8,11 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"sort"
+	"strconv"
 	"strings"
 	"sync"
 	"tempstack/fileerr"
+	"tempstack/layers"
 	"tempstack/scenarios/results"
 
 	"gopkg.in/yaml.v3"
@@ -96,8 +98,16 @@ var quantities = []studyQuantity{
 	{"decrement_factor", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.DecrementFactor })
 	}},
+	// time_shift_h is the same as periodic[].time_shift_h, in [0, period);
+	// the whole lag (the one a target should seek) is time_shift_unwrapped_h.
 	{"time_shift_h", Wall, func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShift_h })
+	}},
+	{"time_shift_unwrapped_h", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
+	}},
+	{"surface_factor", Wall, func(r *results.Results) (float64, bool) {
+		return first(r, func(p results.PeriodicResult) float64 { return p.SurfaceFactor })
 	}},
 	{"periodic_transmittance_W_m2K", Wall, func(r *results.Results) (float64, bool) {
 		return first(r, func(p results.PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })
@@ -594,7 +604,7 @@ func runStudy(s *run, r *results.Results) error {
 		r.Variants = vr
 	}
 	if sw := st.Sweep; sw != nil {
-		res := &results.SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s.Scenario, sw.Parameter), Unit: sw.Unit}
+		res := &results.SweepResult{Parameter: sw.Parameter, ParameterLabel: parameterLabel(s.Scenario, sw.Parameter), Unit: parameterUnit(sw.Parameter, sw.Unit)}
 		points := make([]results.SweepPoint, len(sw.Values))
 		errs := make([]error, len(sw.Values))
 		if err := parallel(s.ctx, len(sw.Values), workers, func(i int) {
@@ -696,7 +706,8 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 	if err := firstErr(errs); err != nil {
 		return nil, err
 	}
-	res := &results.TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s.Scenario, tg.Parameter), Unit: tg.Unit, Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast,
+	res := &results.TargetResult{Parameter: tg.Parameter, ParameterLabel: parameterLabel(s.Scenario, tg.Parameter), Unit: parameterUnit(tg.Parameter, tg.Unit),
+		Quantity: tg.Quantity, Goal: tg.Goal, AtLeast: tg.AtLeast, Tolerance: tg.Tolerance,
 		From: tg.From, To: tg.To, Evaluations: n}
 	for i := range xs {
 		res.Scan = append(res.Scan, results.TargetPoint{Value: xs[i], Quantity: vs[i], Meets: meets(vs[i])})
@@ -737,19 +748,10 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 		prev = hit + 1
 	}
 	if prev >= 0 && prev < n {
-		bad := xs[prev]
-		for math.Abs(ok-bad) > tg.Tolerance {
-			mid := (ok + bad) / 2
-			v, err := eval(mid)
-			if err != nil {
-				return nil, err
-			}
-			res.Evaluations++
-			if meets(v) {
-				ok, okV = mid, v
-			} else {
-				bad = mid
-			}
+		var err error
+		ok, okV, err = bisectOnGrid(xs[prev], ok, okV, targetStep(tg.Tolerance), tg.Largest, eval, meets, &res.Evaluations)
+		if err != nil {
+			return nil, err
 		}
 	}
 	res.Value, res.Achieved, res.Margin = ok, okV, margin(tg, okV)
@@ -764,6 +766,75 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 	res.Message = fmt.Sprintf("%s %s meets %s %s %g: %s = %.4g, margin %.3g%s",
 		word, joinNumber(res.Value, tg.Unit), tg.Quantity, goalWord(tg), tg.Goal, tg.Quantity, okV, res.Margin, edge)
 	return res, nil
+}
+
+// targetStep returns the grid a target value is given on: the largest
+// 1, 2 or 5 times a power of ten not above the tolerance, so the value
+// is printed with the digits its tolerance justifies.
+func targetStep(tol float64) float64 {
+	p := math.Pow(10, math.Floor(math.Log10(tol)))
+	for _, m := range []float64{5, 2, 1} {
+		if m*p <= tol*(1+1e-12) {
+			return m * p
+		}
+	}
+	return p
+}
+
+// onGrid returns k*step written with the decimals of step, so that 199.2
+// is 199.2 and not 199.20000000000002.
+func onGrid(k, step float64) float64 {
+	dec := max(0, int(-math.Floor(math.Log10(step)+1e-9)))
+	v, _ := strconv.ParseFloat(strconv.FormatFloat(k*step, 'f', dec, 64), 64)
+	return v
+}
+
+// bisectOnGrid narrows the bracket between bad (fails the goal) and ok
+// (meets it, with the quantity okV) to neighbouring points of the grid
+// k*step and returns the grid point on the meeting side with its
+// quantity: a value that meets the goal while the grid point one step
+// towards bad (or bad itself, nearer) does not. Only when the first grid
+// point beyond ok (ok lying between grid points) fails, which a
+// quantity monotone in the parameter never does, ok stays off the grid.
+// largest: the search is for the largest value (bad > ok).
+func bisectOnGrid(bad, ok, okV, step float64, largest bool, eval func(float64) (float64, error), meets func(float64) bool, evals *int) (float64, float64, error) {
+	sg := 1.0
+	if largest {
+		sg = -1
+	}
+	lo, hi := sg*bad, sg*ok // lo < hi in these coordinates
+	for {
+		// Grid points k1 ... k2-1 lie strictly between lo and hi; k2 is
+		// hi itself or the first grid point beyond it.
+		k1, k2 := math.Floor(lo/step+1e-9)+1, math.Ceil(hi/step-1e-9)
+		if k1 >= k2 {
+			if sg*onGrid(sg*k2, step) == hi {
+				return sg * hi, okV, nil
+			}
+			x := onGrid(sg*k2, step)
+			v, err := eval(x)
+			if err != nil {
+				return 0, 0, err
+			}
+			*evals++
+			if meets(v) {
+				return x, v, nil
+			}
+			return sg * hi, okV, nil
+		}
+		m := math.Floor((k1 + k2 - 1) / 2)
+		x := onGrid(sg*m, step)
+		v, err := eval(x)
+		if err != nil {
+			return 0, 0, err
+		}
+		*evals++
+		if meets(v) {
+			hi, okV = sg*x, v
+		} else {
+			lo = sg * x
+		}
+	}
 }
 
 func goalWord(tg *TargetSpec) string {
@@ -818,7 +889,8 @@ func monteCarlo(s *run, u *UncertaintySpec, workers int) (*results.UncertaintyRe
 		if v.Normal {
 			d = "normal"
 		}
-		res.Parameters = append(res.Parameters, results.UncertainParameter{Parameter: v.Parameter, Distribution: d, A: v.A, B: v.B, Unit: v.Unit})
+		res.Parameters = append(res.Parameters, results.UncertainParameter{Parameter: v.Parameter, ParameterLabel: parameterLabel(s.Scenario, v.Parameter),
+			Distribution: d, A: v.A, B: v.B, Unit: parameterUnit(v.Parameter, v.Unit)})
 	}
 	for i, e := range errs {
 		if e != nil {
@@ -846,7 +918,7 @@ func monteCarlo(s *run, u *UncertaintySpec, workers int) (*results.UncertaintyRe
 			continue
 		}
 		sort.Float64s(xs)
-		q := results.Spread{Quantity: name, N: len(xs), P5: percentile(xs, 0.05), P50: percentile(xs, 0.5), P95: percentile(xs, 0.95), Min: xs[0], Max: xs[len(xs)-1]}
+		q := results.Spread{Quantity: name, Unit: results.Quantity(name).Unit, N: len(xs), P5: percentile(xs, 0.05), P50: percentile(xs, 0.5), P95: percentile(xs, 0.95), Min: xs[0], Max: xs[len(xs)-1]}
 		var sum, sq float64
 		for _, x := range xs {
 			sum += x
@@ -877,6 +949,44 @@ func percentile(xs []float64, p float64) float64 {
 
 // parameterLabel names a parameter path in words for reports, e.g.
 // "thickness of layer 2 (Mineral wool)".
+// parameterUnits maps the last key of a parameter path to the kind of
+// quantity it holds; a bare number is in that kind's default unit.
+var parameterUnits = map[string]layers.Kind{
+	"thickness": layers.Length, "conductivity": layers.Conductivity, "conductivity_frozen": layers.Conductivity,
+	"density": layers.Density, "dry_density": layers.Density, "solids_density": layers.Density,
+	"specific_heat": layers.SpecificHeat, "specific_heat_frozen": layers.SpecificHeat, "solids_specific_heat": layers.SpecificHeat,
+	"latent_heat": layers.LatentHeatVolumetric, "resistance": layers.Resistance,
+	"mean": layers.Temperature, "freezing_point": layers.Temperature, "initial_temperature": layers.Temperature,
+	"contact_temperature": layers.Temperature, "amplitude": layers.TemperatureDifference,
+	"freezing_range": layers.TemperatureDifference, "change": layers.TemperatureDifference,
+	"heat_flux": layers.HeatFlux, "design_freezing_index": layers.DegreeDays, "design_season_length": layers.Duration,
+	"contact_effusivity": layers.Effusivity,
+}
+
+// parameterUnit returns the unit the values of the parameter at path are
+// in: the unit they were written with, or for bare numbers the default
+// unit of the key ("" for a fraction or an unknown key). The irradiance's
+// mean and amplitude are W/m2, not temperatures.
+func parameterUnit(path, given string) string {
+	if given != "" {
+		return given
+	}
+	steps, err := parsePath(path)
+	if err != nil || len(steps) == 0 {
+		return ""
+	}
+	last := steps[len(steps)-1].key
+	for _, st := range steps {
+		if st.key == "irradiance" && (last == "mean" || last == "amplitude") {
+			return layers.DefaultUnit(layers.Irradiance)
+		}
+	}
+	if k, ok := parameterUnits[last]; ok {
+		return layers.DefaultUnit(k)
+	}
+	return ""
+}
+
 func parameterLabel(s *Scenario, path string) string {
 	steps, err := parsePath(path)
 	if err != nil || len(steps) == 0 {

@@ -7,6 +7,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -35,7 +36,7 @@ analysis:
 // does not (the exact ISO 13786 solution decides both).
 func TestTargetFedBack(t *testing.T) {
 	cases := []struct{ quantity, goal string }{
-		{"time_shift_h", "at_least: 10"},
+		{"time_shift_unwrapped_h", "at_least: 10"},
 		{"periodic_transmittance_W_m2K", "at_most: 0.03"},
 		{"decrement_factor", "at_most: 0.1"},
 	}
@@ -335,5 +336,138 @@ func TestQuantityKinds(t *testing.T) {
 	}
 	if _, ok := quantityOf("u_value"); ok {
 		t.Error("a name without its unit is a quantity")
+	}
+}
+
+// TestTimeShiftOneMeaning: a study's time_shift_h is periodic[].time_shift_h
+// (in [0, period)) and its time_shift_unwrapped_h the whole lag, also when
+// the lag passes a period: a sweep of a stone wall from 0.3 to 1.2 m, whose
+// lag grows past 24 h (about 1.4 h per 0.1 m of stone: d/delta per 0.1 m
+// with delta = 0.15 m [derived, ISO 13786 penetration depth]), each point
+// against the same wall run on its own.
+func TestTimeShiftOneMeaning(t *testing.T) {
+	const wall = `
+title: stone
+kind: wall
+layers:
+  - {name: stone, conductivity: 2.3, density: 2500, specific_heat: 1000, thickness: THICK}
+outside:
+  temperature: {mean: 10, daily: {amplitude: 5, peak_hour: 15}}
+analysis:
+  simulate: false
+`
+	r := mustRun(t, strings.Replace(wall, "THICK", "0.3 m", 1)+`
+sweep:
+  parameter: layers[1].thickness
+  values: [0.3 m, 0.9 m, 1.2 m]
+`)
+	if r.Sweep == nil || len(r.Sweep.Points) != 3 {
+		t.Fatalf("sweep: %+v", r.Sweep)
+	}
+	wrapped := false
+	for _, pt := range r.Sweep.Points {
+		one := mustRun(t, strings.Replace(wall, "THICK", pt.Text, 1)).Periodic[0]
+		if got := pt.Quantities["time_shift_h"]; got != one.TimeShift_h || got < 0 || got >= 24 {
+			t.Errorf("%s: study time_shift_h %g, periodic[].time_shift_h %g (want equal, in [0, 24))", pt.Text, got, one.TimeShift_h)
+		}
+		if got := pt.Quantities["time_shift_unwrapped_h"]; got != one.TimeShiftUnwrapped_h {
+			t.Errorf("%s: study time_shift_unwrapped_h %g, periodic[] %g", pt.Text, got, one.TimeShiftUnwrapped_h)
+		}
+		if one.TimeShiftUnwrapped_h > 24 {
+			wrapped = true
+		}
+	}
+	if !wrapped {
+		t.Error("no sweep point has a lag above 24 h: the check of the wrap did not happen")
+	}
+}
+
+// TestTargetOnToleranceGrid: the value a target returns is given to its
+// tolerance: a multiple of the largest 1-2-5 step not above it (0.3 mm ->
+// 0.2 mm; 3 mm -> 2 mm), meeting the goal while the grid point one step
+// back does not, for the smallest and the largest value (the wall's
+// whole time shift grows with the concrete thickness; ISO 13786 exact
+// solution decides).
+func TestTargetOnToleranceGrid(t *testing.T) {
+	for _, c := range []struct {
+		tol, step float64
+		prefer    string
+		goal      string
+	}{
+		{0.3, 0.2, "smallest", "at_least: 10"},
+		{3, 2, "smallest", "at_least: 10"},
+		{0.3, 0.2, "largest", "at_most: 10"},
+	} {
+		r := mustRun(t, studyWall+fmt.Sprintf(`
+target:
+  parameter: layers[3].thickness
+  from: 20 mm
+  to: 400 mm
+  quantity: time_shift_unwrapped_h
+  %s
+  prefer: %s
+  tolerance: %g
+`, c.goal, c.prefer, c.tol))
+		tg := r.Target
+		if tg == nil || !tg.Met {
+			t.Fatalf("%+v: not met: %+v", c, tg)
+		}
+		k := tg.Value / c.step
+		if math.Abs(k-math.Round(k)) > 1e-9 || tg.Tolerance != c.tol {
+			t.Errorf("%+v: value %v is not a multiple of %g (tolerance %g)", c, tg.Value, c.step, tg.Tolerance)
+		}
+		back := tg.Value - c.step
+		if c.prefer == "largest" {
+			back = tg.Value + c.step
+		}
+		q := func(mm float64) float64 {
+			rr := mustRun(t, strings.Replace(studyWall, "{material: concrete, thickness: 180 mm}",
+				fmt.Sprintf("{material: concrete, thickness: %g mm}", mm), 1))
+			return rr.Periodic[0].TimeShiftUnwrapped_h
+		}
+		meets := func(v float64) bool { return (v >= 10) == tg.AtLeast }
+		if at, b := q(tg.Value), q(back); !meets(at) || meets(b) {
+			t.Errorf("%+v: %v mm gives %.4f h, one step back (%v mm) %.4f h", c, tg.Value, at, back, b)
+		}
+		if want := strconv.FormatFloat(tg.Value, 'f', -1, 64) + " mm"; !strings.Contains(tg.Message, want) {
+			t.Errorf("%+v: message %q does not give the value as %q", c, tg.Message, want)
+		}
+	}
+}
+
+// TestStudyUnits: a study's parameter written as a bare number is in the
+// default unit of its key (README, "Scenario file"), and the results say
+// which; a quantity's spread carries the unit its key spells.
+func TestStudyUnits(t *testing.T) {
+	for _, c := range []struct{ path, given, want string }{
+		{"layers[2].thickness", "", "m"},
+		{"layers[2].thickness", "mm", "mm"},
+		{"layers[1].conductivity", "", "W/(m K)"},
+		{"layers[1].soil.water_content", "", ""},
+		{"outside.temperature.mean", "", "°C"},
+		{"outside.temperature.daily.amplitude", "", "K"},
+		{"outside.solar.irradiance.mean", "", "W/m2"},
+		{"layers[1].density", "", "kg/m3"},
+	} {
+		if got := parameterUnit(c.path, c.given); got != c.want {
+			t.Errorf("parameterUnit(%q, %q) = %q, want %q", c.path, c.given, got, c.want)
+		}
+	}
+	r := mustRun(t, studyWall+`
+uncertainty:
+  samples: 10
+  vary:
+    - parameter: layers[3].conductivity
+      normal: {mean: 2.0, sd: 0.1}
+`)
+	p := r.Uncertainty.Parameters[0]
+	if p.Unit != "W/(m K)" || !strings.Contains(p.ParameterLabel, "conductivity of layer 3") {
+		t.Errorf("uncertain parameter %+v: want unit W/(m K) and a label in words", p)
+	}
+	for _, q := range r.Uncertainty.Quantities {
+		want := map[string]string{"u_value_W_m2K": "W/(m2 K)", "time_shift_h": "h", "decrement_factor": ""}
+		if w, ok := want[q.Quantity]; ok && q.Unit != w {
+			t.Errorf("spread of %s has unit %q, want %q", q.Quantity, q.Unit, w)
+		}
 	}
 }

@@ -88,7 +88,7 @@ func ExampleGroundPeriodic() {
 	for i, z := range g.Depths {
 		fmt.Printf("z = %.1f m: amplitude ratio %.3f, lag %.0f days\n", z, g.AmplitudeRatio[i], g.Lag[i]/86400)
 	}
-	z, _ := solver.DampingDepth(soil, year, 10, 0.1)
+	z, _ := solver.SwingDepth(soil, year, 10, 0.1)
 	fmt.Printf("swing below 0.1 K deeper than %.2f m\n", z)
 	// Output:
 	// z = 0.5 m: amplitude ratio 0.790, lag 14 days

@@ -67,6 +67,23 @@ type PeriodicProperties struct {
 	InsideArealHeatCapacity  float64
 	OutsideArealHeatCapacity float64
 
+	// SurfaceFactor is the surface factor of the admittance method,
+	// F = 1 - Rsi Y11 (dimensionless, complex, exp(+i omega t)): of a
+	// periodic heat flux absorbed at the inside surface (radiant gains
+	// from sun or lights), the part that is passed on to the inside
+	// environment through Rsi, with its phase; the rest goes into the
+	// component. Rsi is the column's InsideResistance (ISO 6946 in a
+	// scenario). A massless component gives (Rse + R)/(Rsi + R + Rse), real
+	// (the heat splits between the two paths in inverse proportion to
+	// their resistances); a heavy one passes on less, later.
+	SurfaceFactor complex128
+	// SurfaceFactorMagnitude is |F|, dimensionless, between 0 and 1.
+	SurfaceFactorMagnitude float64
+	// SurfaceFactorLag is the time by which the heat passed on to the inside
+	// environment lags the absorbed heat, s, in [0, Period):
+	// (-T/(2 pi) arg F) mod T.
+	SurfaceFactorLag float64
+
 	// PenetrationDepths holds the periodic penetration depth of each
 	// layer, m, in the order of Column.Layers; 0 for massless layers.
 	PenetrationDepths []float64
@@ -75,7 +92,7 @@ type PeriodicProperties struct {
 // ErrPeriodicHalfSpace is returned by Periodic and Response for a
 // half-space (ground) column: it has no inside environment, hence no U,
 // transmittance or decrement factor. Use GroundPeriodic, SurfaceAdmittance
-// and DampingDepth for such columns.
+// and SwingDepth for such columns.
 var ErrPeriodicHalfSpace = errors.New("solver: a half-space column has no inside surface; use GroundPeriodic for ground columns")
 
 // tmCheckColumn validates c and also rejects infinite surface resistances
@@ -230,11 +247,33 @@ func Periodic(c Column, period float64) (PeriodicProperties, error) {
 	p.OutsideAdmittanceLead = tOver2Pi * cmplx.Phase(p.Y22)
 	p.InsideArealHeatCapacity = tOver2Pi * cmplx.Abs((m[0][0]-complex(inv, 0))/m[0][1])
 	p.OutsideArealHeatCapacity = tOver2Pi * cmplx.Abs((m[1][1]-complex(inv, 0))/m[0][1])
+	p.SurfaceFactor, p.SurfaceFactorMagnitude, p.SurfaceFactorLag = SurfaceFactor(p.Y11, c.InsideResistance, period)
 	p.PenetrationDepths = make([]float64, len(c.Layers))
 	for i, l := range c.Layers {
 		p.PenetrationDepths[i] = LayerPenetrationDepth(l, period)
 	}
 	return p, nil
+}
+
+// SurfaceFactor returns the surface factor F = 1 - rsi y11 of a component
+// whose inside admittance is y11 (W/(m2 K), including the inside surface
+// resistance rsi, m2 K/W), its magnitude and its lag (s, in
+// [0, period)) behind the heat absorbed at the inside surface.
+//
+// The heat q absorbed at the surface node splits into the part that goes
+// to the inside environment through rsi and the part that enters the
+// component. With the environment held at zero swing, the surface
+// temperature is theta_s = rsi q_room, and the component takes
+// theta_s Y_s, Y_s its admittance seen from the surface; with
+// y11 = Y_s / (1 + rsi Y_s) the passed-on part is
+// q_room / q = 1/(1 + rsi Y_s) = 1 - rsi y11. [derived] This is the
+// surface factor of the admittance method (CIBSE Guide A, section 5
+// [memory]; the Guide's tables assume Rsi of about 0.12 m2 K/W, here the
+// column's own Rsi is used). Time dependence exp(+i omega t): the lag is
+// (-arg F / omega) mod period.
+func SurfaceFactor(y11 complex128, rsi, period float64) (f complex128, magnitude, lag float64) {
+	f = 1 - complex(rsi, 0)*y11
+	return f, cmplx.Abs(f), tmLagMod(-period/(2*math.Pi)*cmplx.Phase(f), period)
 }
 
 // tmWallMatrix multiplies the elements (outside first) into the column

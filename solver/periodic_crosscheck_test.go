@@ -231,7 +231,7 @@ func TestSlabPrescribedSurfaces(t *testing.T) {
 	}
 }
 
-// TestDampingDepthClosedForm: the depth where the amplitude has fallen to a
+// TestSwingDepthClosedForm: the depth where the amplitude has fallen to a
 // fraction r of the surface value is d ln(1/r), d = sqrt(2a/omega), the
 // damping depth of the periodic half-space solution (Carslaw and Jaeger,
 // section 2.6; Hillel, Introduction to Soil Physics, 1982, chapter on soil
@@ -240,10 +240,10 @@ func TestSlabPrescribedSurfaces(t *testing.T) {
 // z = d ln 20 = 4.2447 m [derived by hand]; the depths where the daily and
 // annual swings fall to 1/20 are in the ratio sqrt(365) [derived: d scales
 // with sqrt(period)].
-func TestDampingDepthClosedForm(t *testing.T) {
+func TestSwingDepthClosedForm(t *testing.T) {
 	soil := Layer{Thickness: 1, Conductivity: 0.4, HeatCapacity: 0.4 / 2e-7}
 	c := Column{Layers: []Layer{soil}, HalfSpace: true}
-	za, err := DampingDepth(c, tmYear, 1, 0.05)
+	za, err := SwingDepth(c, tmYear, 1, 0.05)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -251,7 +251,7 @@ func TestDampingDepthClosedForm(t *testing.T) {
 	if tmRel(za, d*math.Log(20)) > 1e-12 || math.Abs(za-4.2447) > 5e-5 {
 		t.Errorf("annual 5%% depth %.6g m, want d ln 20 = %.6g m (4.2447 m by hand)", za, d*math.Log(20))
 	}
-	zd, err := DampingDepth(c, tmDay, 1, 0.05)
+	zd, err := SwingDepth(c, tmDay, 1, 0.05)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -12,7 +12,7 @@ import (
 // complex amplitudes of temperature and heat flux for one harmonic
 // (Harmonic), the mean state (Steady, SteadyWithBottomFlux), and the
 // response of a ground column to its surface forcing (GroundPeriodic,
-// SurfaceAdmittance, DampingDepth).
+// SurfaceAdmittance, SwingDepth).
 //
 // Method. The column is cut into elements (surface resistances, massless
 // layers, slabs) with a node at every requested position. A solution with
@@ -512,11 +512,13 @@ func SurfaceAdmittance(c Column, period float64) (complex128, error) {
 	return -ch.fromOutside(1).q[0], nil
 }
 
-// DampingDepth returns the depth (m from the surface) below which the
+// SwingDepth returns the depth (m from the surface) below which the
 // periodic temperature swing of period T (s) in the half-space column c is
 // smaller than threshold (K), when the surface environment temperature
 // swings with amplitude surfaceAmplitude (K, half the peak-to-peak range).
-// For example the annual wave with threshold 0.1 K.
+// For example the annual wave with threshold 0.1 K. (This is not the
+// damping depth d = sqrt(2a/omega) of the textbooks, where the swing of a
+// uniform half-space has fallen to 1/e: LayerPenetrationDepth gives that.)
 //
 // The amplitude falls monotonically with depth inside each massive layer
 // (d2|theta|^2/dx2 = 2|theta'|^2 >= 0 since Re(k^2) = 0, so |theta|^2 is
@@ -526,7 +528,7 @@ func SurfaceAdmittance(c Column, period float64) (complex128, error) {
 // is x0 + delta ln(A(x0)/threshold) exactly. It returns 0 when the surface
 // amplitude is already below threshold, and an error for a wall column or
 // non-positive threshold.
-func DampingDepth(c Column, period, surfaceAmplitude, threshold float64) (float64, error) {
+func SwingDepth(c Column, period, surfaceAmplitude, threshold float64) (float64, error) {
 	if err := tmCheckColumn(c); err != nil {
 		return 0, err
 	}
@@ -534,10 +536,10 @@ func DampingDepth(c Column, period, surfaceAmplitude, threshold float64) (float6
 		return 0, err
 	}
 	if !c.HalfSpace {
-		return 0, errors.New("solver: DampingDepth needs a half-space column (Column.HalfSpace)")
+		return 0, errors.New("solver: SwingDepth needs a half-space column (Column.HalfSpace)")
 	}
 	if !(threshold > 0) || math.IsInf(threshold, 0) || !(surfaceAmplitude >= 0) || math.IsInf(surfaceAmplitude, 0) {
-		return 0, errors.New("solver: DampingDepth needs a finite amplitude >= 0 and a finite threshold > 0")
+		return 0, errors.New("solver: SwingDepth needs a finite amplitude >= 0 and a finite threshold > 0")
 	}
 	ch := tmBuildChain(c, period, nil, false)
 	so := ch.fromOutside(complex(surfaceAmplitude, 0))

@@ -288,16 +288,16 @@ func TestSteadyGeothermal(t *testing.T) {
 	}
 }
 
-// TestDampingDepth: in a homogeneous half-space with no surface resistance
+// TestSwingDepth: in a homogeneous half-space with no surface resistance
 // the swing A exp(-z/d) reaches the threshold at z = d ln(A/threshold)
 // (from the amplitude ratio exp(-z/d) [derived]); in a layered column the returned depth
 // has exactly the threshold amplitude in the exact solution (bisection
 // branch) [derived].
-func TestDampingDepth(t *testing.T) {
+func TestSwingDepth(t *testing.T) {
 	// Annual wave of 10 K in wet clay, threshold 0.1 K.
 	c := Column{Layers: []Layer{tmWith(tmWetClay, 1)}, HalfSpace: true}
 	d := math.Sqrt(0.45e-6 * tmYear / math.Pi)
-	got, err := DampingDepth(c, tmYear, 10, 0.1)
+	got, err := SwingDepth(c, tmYear, 10, 0.1)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -307,7 +307,7 @@ func TestDampingDepth(t *testing.T) {
 	layered := Column{Layers: []Layer{tmWith(tmDrySand, 0.8), {Resistance: 0.5}, tmWith(tmWetClay, 3), tmWith(tmRock, 1)},
 		OutsideResistance: 0.04, HalfSpace: true}
 	for _, thr := range []float64{8, 3, 1, 0.1, 0.01, 1e-6} {
-		z, err := DampingDepth(layered, tmYear, 10, thr)
+		z, err := SwingDepth(layered, tmYear, 10, thr)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -327,7 +327,7 @@ func TestDampingDepth(t *testing.T) {
 			}
 		}
 	}
-	if z, _ := DampingDepth(c, tmYear, 0.05, 0.1); z != 0 {
+	if z, _ := SwingDepth(c, tmYear, 0.05, 0.1); z != 0 {
 		t.Errorf("amplitude below threshold at the surface: depth %g, want 0", z)
 	}
 }
@@ -388,10 +388,10 @@ func TestProfileErrors(t *testing.T) {
 	if _, err := GroundPeriodic(wall, tmDay, []float64{0}); err == nil {
 		t.Error("GroundPeriodic on a wall: no error")
 	}
-	if _, err := DampingDepth(wall, tmDay, 1, 0.1); err == nil {
-		t.Error("DampingDepth on a wall: no error")
+	if _, err := SwingDepth(wall, tmDay, 1, 0.1); err == nil {
+		t.Error("SwingDepth on a wall: no error")
 	}
-	if _, err := DampingDepth(ground, tmDay, 1, 0); err == nil {
+	if _, err := SwingDepth(ground, tmDay, 1, 0); err == nil {
 		t.Error("zero threshold: no error")
 	}
 	if _, err := SteadyWithBottomFlux(ground, 0, math.NaN(), []float64{1}); err == nil {

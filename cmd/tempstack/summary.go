@@ -3,7 +3,11 @@ package main
 import (
 	"fmt"
 	"io"
+	"math"
 	"os"
+	"strconv"
+	"strings"
+	"text/tabwriter"
 	"time"
 
 	"tempstack/scenarios"
@@ -61,6 +65,7 @@ func printSummary(w io.Writer, r *results.Results) {
 			val("freezing_index_Cd", f.FreezingIndex_Cd, "%.0f degC day"), src, sim,
 			val("stefan_depth_m", f.StefanDepth_m, "%.2f m"), val("modified_berggren_depth_m", f.ModifiedBerggrenDepth_m, "%.2f m"))
 	}
+	printStudies(w, r)
 	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  note: %s\n", warn)
 	}
@@ -96,4 +101,147 @@ func progressFor(w io.Writer) scenarios.Progress {
 			fmt.Fprint(f, "\r\033[K")
 		}
 	}
+}
+
+// printStudies prints the outcome of the scenario's design studies as short
+// tables with units: the options compared, the sweep, the target and the
+// spread of an uncertainty study. Periodic quantities are those of the
+// first analysis period.
+func printStudies(w io.Writer, r *results.Results) {
+	keys := headlineKeys(r)
+	if len(r.Variants) > 0 {
+		fmt.Fprintln(w, "  options compared:")
+		tw := newTable(w)
+		fmt.Fprintln(tw, "    option\t"+quantityHeads(keys))
+		for _, v := range r.Variants {
+			fmt.Fprintln(tw, "    "+v.Name+"\t"+quantityCells(v.Quantities, keys))
+		}
+		tw.Flush()
+	}
+	if s := r.Sweep; s != nil && len(s.Points) > 0 {
+		fmt.Fprintf(w, "  sweep of the %s:\n", words(s.ParameterLabel, s.Parameter))
+		tw := newTable(w)
+		fmt.Fprintln(tw, "    "+withUnit("value", s.Unit)+"\t"+quantityHeads(keys))
+		for _, p := range s.Points {
+			fmt.Fprintln(tw, "    "+strconv.FormatFloat(p.Value, 'g', 6, 64)+"\t"+quantityCells(p.Quantities, keys))
+		}
+		tw.Flush()
+	}
+	if t := r.Target; t != nil {
+		q := results.Quantity(t.Quantity)
+		rel := "at most"
+		if t.AtLeast {
+			rel = "at least"
+		}
+		label := words(t.ParameterLabel, t.Parameter)
+		if t.Met {
+			fmt.Fprintf(w, "  target met: %s at %s gives %s %s (goal %s %s; found to %s; %d runs)\n",
+				label, joinUnit(strconv.FormatFloat(t.Value, 'f', -1, 64), t.Unit), q.Words, joinUnit(formatQuantity(t.Quantity, t.Achieved), q.Unit),
+				rel, joinUnit(strconv.FormatFloat(t.Goal, 'g', -1, 64), q.Unit), joinUnit(strconv.FormatFloat(t.Tolerance, 'g', 3, 64), t.Unit), t.Evaluations)
+		} else {
+			fmt.Fprintf(w, "  target not met: no %s from %s to %s gives %s %s %s; the closest, %s, gives %s (%d runs)\n",
+				label, joinUnit(strconv.FormatFloat(t.From, 'g', 6, 64), t.Unit), joinUnit(strconv.FormatFloat(t.To, 'g', 6, 64), t.Unit),
+				q.Words, rel, joinUnit(strconv.FormatFloat(t.Goal, 'g', -1, 64), q.Unit),
+				joinUnit(strconv.FormatFloat(t.Value, 'g', 6, 64), t.Unit), joinUnit(formatQuantity(t.Quantity, t.Achieved), q.Unit), t.Evaluations)
+		}
+	}
+	if u := r.Uncertainty; u != nil && len(u.Quantities) > 0 {
+		var varied []string
+		for _, p := range u.Parameters {
+			varied = append(varied, words(p.ParameterLabel, p.Parameter))
+		}
+		fmt.Fprintf(w, "  uncertainty, %d samples (%d refused) varying the %s:\n", u.Samples, u.Rejected, strings.Join(varied, ", the "))
+		tw := newTable(w)
+		fmt.Fprintln(tw, "    quantity\tmean\tsd\t5 %\tmedian\t95 %")
+		for _, s := range u.Quantities {
+			q := results.Quantity(s.Quantity)
+			f := func(v float64) string { return formatQuantity(s.Quantity, v) }
+			fmt.Fprintf(tw, "    %s\t%s\t%s\t%s\t%s\t%s\n", withUnit(q.Words, q.Unit), f(s.Mean), sig3(s.SD), f(s.P5), f(s.P50), f(s.P95))
+		}
+		tw.Flush()
+	}
+}
+
+// headlineKeys are the quantities the option and sweep tables show: the
+// headline figures of the kind, and a target's quantity.
+func headlineKeys(r *results.Results) []string {
+	keys := []string{"u_value_W_m2K", "decrement_factor", "time_shift_h"}
+	if r.Kind == results.Ground {
+		keys = []string{"max_frost_depth_m", "stefan_depth_m", "modified_berggren_depth_m"}
+	}
+	if t := r.Target; t != nil && !contains(keys, t.Quantity) {
+		keys = append(keys, t.Quantity)
+	}
+	return keys
+}
+
+func newTable(w io.Writer) *tabwriter.Writer { return tabwriter.NewWriter(w, 0, 0, 2, ' ', 0) }
+
+// quantityHeads names the quantities with their units, tab separated.
+func quantityHeads(keys []string) string {
+	var hs []string
+	for _, k := range keys {
+		q := results.Quantity(k)
+		hs = append(hs, withUnit(q.Words, q.Unit))
+	}
+	return strings.Join(hs, "\t")
+}
+
+// quantityCells formats the quantities of s; "-" where one is not defined.
+func quantityCells(s results.Summary, keys []string) string {
+	var cs []string
+	for _, k := range keys {
+		v, ok := s[k]
+		if !ok || math.IsNaN(v) {
+			cs = append(cs, "-")
+			continue
+		}
+		cs = append(cs, formatQuantity(k, v))
+	}
+	return strings.Join(cs, "\t")
+}
+
+// formatQuantity writes v with the digits results.Quantity gives its key.
+func formatQuantity(key string, v float64) string {
+	if d := results.Quantity(key).Decimals; d >= 0 {
+		return strconv.FormatFloat(v, 'f', d, 64)
+	}
+	return sig3(v)
+}
+
+// sig3 writes v with three significant digits in fixed notation (0.260,
+// 75.9, 1230).
+func sig3(v float64) string {
+	if v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
+		return strconv.FormatFloat(v, 'f', -1, 64)
+	}
+	d := 2 - int(math.Floor(math.Log10(math.Abs(v))))
+	if d < 0 {
+		return strconv.FormatFloat(math.Round(v/math.Pow(10, float64(-d)))*math.Pow(10, float64(-d)), 'f', 0, 64)
+	}
+	return strconv.FormatFloat(v, 'f', d, 64)
+}
+
+// withUnit is "name (unit)", or the name alone for a ratio.
+func withUnit(name, unit string) string {
+	if unit == "" {
+		return name
+	}
+	return name + " (" + unit + ")"
+}
+
+// joinUnit is "number unit", or the number alone for a ratio.
+func joinUnit(num, unit string) string {
+	if unit == "" {
+		return num
+	}
+	return num + " " + unit
+}
+
+// words is a parameter's label in words, or its path when it has none.
+func words(label, path string) string {
+	if label != "" {
+		return label
+	}
+	return path
 }

@@ -29,12 +29,14 @@ func CSVFiles(r *Results) []CSVFile {
 			rows = append(rows, []float64{p.Period_h, p.DecrementFactor, p.TimeShift_h, p.TimeShiftUnwrapped_h,
 				p.PeriodicTransmittance_W_m2K, p.InsideAdmittance_W_m2K, p.InsideAdmittanceLead_h,
 				p.OutsideAdmittance_W_m2K, p.OutsideAdmittanceLead_h,
-				p.InsideArealHeatCapacity_kJ_m2K, p.OutsideArealHeatCapacity_kJ_m2K})
+				p.InsideArealHeatCapacity_kJ_m2K, p.OutsideArealHeatCapacity_kJ_m2K,
+				p.SurfaceFactor, p.SurfaceFactorLag_h})
 		}
 		out = append(out, table("periodic.csv", []string{"period_h", "decrement_factor", "time_shift_h", "time_shift_unwrapped_h",
 			"periodic_transmittance_W_m2K", "inside_admittance_W_m2K", "inside_admittance_lead_h",
 			"outside_admittance_W_m2K", "outside_admittance_lead_h",
-			"inside_areal_heat_capacity_kJ_m2K", "outside_areal_heat_capacity_kJ_m2K"}, rows))
+			"inside_areal_heat_capacity_kJ_m2K", "outside_areal_heat_capacity_kJ_m2K",
+			"surface_factor", "surface_factor_lag_h"}, rows))
 	}
 	s := &r.Series
 	if len(s.Response.Period_h) > 0 {

@@ -18,7 +18,8 @@ const (
 // fields hold the same values in those same units, converted from SI at the
 // end of a run.
 type Results struct {
-	Title        string  `json:"title"`
+	Title string `json:"title"`
+	TitleBlock
 	Kind         Kind    `json:"kind"`
 	ScenarioFile string  `json:"scenario_file,omitempty"` // as given on the command line, or "(embedded demo)"
 	Orientation  string  `json:"orientation,omitempty"`   // wall kind: wall | roof | floor
@@ -110,6 +111,12 @@ type PeriodicResult struct {
 	OutsideAdmittanceLead_h         float64 `json:"outside_admittance_lead_h"`
 	InsideArealHeatCapacity_kJ_m2K  float64 `json:"inside_areal_heat_capacity_kJ_m2K"`
 	OutsideArealHeatCapacity_kJ_m2K float64 `json:"outside_areal_heat_capacity_kJ_m2K"`
+	// SurfaceFactor is |F|, F = 1 - Rsi Y11 (admittance method): of a
+	// heat-flux swing absorbed at the inside surface, the part passed on
+	// to the inside air, dimensionless; SurfaceFactorLag_h its lag behind
+	// the absorbed heat, h, in [0, period).
+	SurfaceFactor      float64 `json:"surface_factor"`
+	SurfaceFactorLag_h float64 `json:"surface_factor_lag_h"`
 }
 
 // Simulation is the transient finite-volume result.
@@ -152,11 +159,11 @@ type PeriodicCheck struct {
 
 // GroundTemperature is the exact periodic ground-temperature result.
 type GroundTemperature struct {
-	SurfaceMean_C            float64          `json:"surface_mean_C"`             // mean surface temperature (n-factors applied)
-	SurfaceAnnualAmplitude_K float64          `json:"surface_annual_amplitude_K"` // half the annual surface swing
-	AnnualDampingDepth_m     float64          `json:"annual_damping_depth_m"`     // depth where the annual swing falls below 0.1 K
+	SurfaceMean_C            float64          `json:"surface_mean_C"`                  // mean surface temperature (n-factors applied)
+	SurfaceAnnualAmplitude_K float64          `json:"surface_annual_amplitude_K"`      // half the annual surface swing
+	AnnualSwingDepth_m       float64          `json:"annual_depth_swing_below_0_1K_m"` // depth where the annual swing falls below 0.1 K
 	ColumnDepth_m            float64          `json:"column_depth_m"`
-	DomainDeepEnough         bool             `json:"domain_deep_enough"`             // column deeper than AnnualDampingDepth_m
+	DomainDeepEnough         bool             `json:"domain_deep_enough"`             // column deeper than AnnualSwingDepth_m
 	GeothermalFlux_W_m2      *float64         `json:"geothermal_flux_W_m2,omitempty"` // upward into the column; nil with a fixed bottom temperature or an adiabatic bottom
 	NFactorFreezing          float64          `json:"n_factor_freezing,omitempty"`
 	NFactorThawing           float64          `json:"n_factor_thawing,omitempty"`
@@ -165,10 +172,17 @@ type GroundTemperature struct {
 
 // GroundPeriodic is the exact periodic ground temperature for one period.
 type GroundPeriodic struct {
-	Period_h           float64       `json:"period_h"`
-	SurfaceAmplitude_K float64       `json:"surface_amplitude_K"`
-	DampingDepth_m     float64       `json:"damping_depth_m,omitempty"` // amplitude below 0.1 K
-	Probes             []GroundProbe `json:"probes"`
+	Period_h           float64 `json:"period_h"`
+	SurfaceAmplitude_K float64 `json:"surface_amplitude_K"`
+	// SwingDepth_m is the depth below which this period's swing stays
+	// under 0.1 K, m (0, left out, when the surface swing is smaller).
+	SwingDepth_m float64 `json:"depth_swing_below_0_1K_m,omitempty"`
+	// DampingDepth_m is the textbook damping depth d = sqrt(2a/omega) =
+	// sqrt(a P / pi) of the uppermost soil layer (unfrozen), m: in a
+	// uniform half-space the swing falls to 1/e of the surface swing at d
+	// and lags it there by P/(2 pi).
+	DampingDepth_m float64       `json:"damping_depth_m"`
+	Probes         []GroundProbe `json:"probes"`
 }
 
 // GroundProbe is the exact periodic temperature at one depth.
@@ -381,9 +395,10 @@ type TargetResult struct {
 	From           float64       `json:"from"`
 	To             float64       `json:"to"`
 	Met            bool          `json:"met"`
-	Value          float64       `json:"value"`    // the parameter value found (or the closest when not met)
-	Achieved       float64       `json:"achieved"` // the quantity there
-	Margin         float64       `json:"margin"`   // on the good side of the goal when positive
+	Tolerance      float64       `json:"tolerance"` // in Unit; Value is a multiple of the largest 1-2-5 step not above it
+	Value          float64       `json:"value"`     // the parameter value found (or the closest when not met)
+	Achieved       float64       `json:"achieved"`  // the quantity there
+	Margin         float64       `json:"margin"`    // on the good side of the goal when positive
 	Message        string        `json:"message"`
 	Evaluations    int           `json:"evaluations"`
 	Scan           []TargetPoint `json:"scan"`
@@ -410,16 +425,18 @@ type UncertaintyResult struct {
 // UncertainParameter is one varied parameter: normal (A mean, B sd) or
 // uniform (A min, B max), in Unit.
 type UncertainParameter struct {
-	Parameter    string  `json:"parameter"`
-	Distribution string  `json:"distribution"`
-	A            float64 `json:"a"`
-	B            float64 `json:"b"`
-	Unit         string  `json:"unit"`
+	Parameter      string  `json:"parameter"`
+	ParameterLabel string  `json:"parameter_label"` // the path in words
+	Distribution   string  `json:"distribution"`
+	A              float64 `json:"a"`
+	B              float64 `json:"b"`
+	Unit           string  `json:"unit"`
 }
 
 // Spread is the distribution of one quantity over the samples.
 type Spread struct {
 	Quantity string  `json:"quantity"`
+	Unit     string  `json:"unit"` // of mean, sd and the percentiles; "" for a ratio
 	N        int     `json:"n"`
 	Mean     float64 `json:"mean"`
 	SD       float64 `json:"sd"`
@@ -586,4 +603,14 @@ type StepResult struct {
 	ContactBodyTemperature_C *float64 `json:"contact_body_temperature_C,omitempty"`
 	ContactBodyEffusivity    float64  `json:"contact_body_effusivity_W_s05_m2K,omitempty"`
 	ContactTemperature_C     *float64 `json:"contact_temperature_C,omitempty"`
+}
+
+// TitleBlock holds the optional words of a report's title block, as the
+// scenario gives them (results.json: top-level project, client,
+// prepared_by and revision, absent when not given).
+type TitleBlock struct {
+	Project    string `json:"project,omitempty"`
+	Client     string `json:"client,omitempty"`
+	PreparedBy string `json:"prepared_by,omitempty"`
+	Revision   string `json:"revision,omitempty"`
 }
