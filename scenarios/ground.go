@@ -272,16 +272,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 	if !(to > from) {
 		return fc, source, "a step or constant surface temperature has no freezing season of its own; give analysis.simulate (its duration is the cold period) or analysis.design_freezing_index"
 	}
-	ts, vs := sampleForcing(f, from, to)
-	var idx, cold float64
-	for k := 1; k < len(ts); k++ {
-		dt := ts[k] - ts[k-1]
-		v := 0.5 * (vs[k] + vs[k-1])
-		if v < 0 {
-			idx += -v * dt / climate.Day
-			cold += dt / climate.Day
-		}
-	}
+	idx, _, cold := degreeDays(f, from, to)
 	if idx <= 0 {
 		return fc, source, "the surface temperature never falls below 0 degC in the simulated period"
 	}
@@ -484,17 +475,8 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 	windowIndices := func(w window) (climate.Winter, bool) {
 		if whole {
 			// No annual cycle: the degree-days of the whole run.
-			ts, vs := sampleForcing(f, w.from, w.to)
 			var cw climate.Winter
-			for k := 1; k < len(ts); k++ {
-				v := 0.5 * (vs[k] + vs[k-1])
-				dd := v * (ts[k] - ts[k-1]) / climate.Day
-				if v < 0 {
-					cw.FreezingIndex -= dd
-				} else {
-					cw.ThawingIndex += dd
-				}
-			}
+			cw.FreezingIndex, cw.ThawingIndex, _ = degreeDays(f, w.from, w.to)
 			return cw, true
 		}
 		ts, vs := sampleForcing(f, w.from, w.from+2*climate.Year)
@@ -659,6 +641,24 @@ func minIn(v, t []float64, from, to float64) float64 {
 		}
 	}
 	return m
+}
+
+// degreeDays integrates a forcing sampled hourly over [from, to] by the
+// trapezoidal rule: the degrees below 0 degC times the days (freezing, degC
+// day), the degrees above (thawing), and the days below 0 degC (cold).
+func degreeDays(f *Forcing, from, to float64) (freezing, thawing, cold float64) {
+	ts, vs := sampleForcing(f, from, to)
+	for k := 1; k < len(ts); k++ {
+		days := (ts[k] - ts[k-1]) / climate.Day
+		v := 0.5 * (vs[k] + vs[k-1])
+		if v < 0 {
+			freezing -= v * days
+			cold += days
+		} else {
+			thawing += v * days
+		}
+	}
+	return freezing, thawing, cold
 }
 
 // sampleForcing samples a forcing hourly over [from, to].
