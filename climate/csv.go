@@ -134,42 +134,99 @@ func unitConv(u string) (func(float64) float64, error) {
 // a hole longer than MaxGap, or text in a number cell. Holes up to MaxGap
 // (missing cells, or rows missing from an otherwise regular record) are
 // bridged by linear interpolation and listed in Series.Bridged.
+//
+// The work is done in four steps: the options are checked (csvSettings),
+// the header is matched to the requested columns (readHeader), the rows are
+// read (readRows, with readStamp and parseValue), and the holes are bridged
+// (finish: bridgeRows, bridgeCells).
 func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
-	fail := func(line int, col, format string, a ...any) error {
-		return csvErr(name, line, col, fmt.Sprintf(format, a...), nil)
+	set, err := newCSVSettings(name, o)
+	if err != nil {
+		return nil, err
 	}
+	br := bufio.NewReaderSize(r, 64<<10)
+	if b, err := br.Peek(3); err == nil && bytes.Equal(b, []byte{0xEF, 0xBB, 0xBF}) {
+		br.Discard(3)
+	}
+	if set.sep == 0 {
+		if set.sep, err = detectSeparator(br, set.dec); err != nil {
+			return nil, csvErr(name, 0, "", "", err)
+		}
+	}
+	if set.sep == set.dec {
+		return nil, set.fail(0, "", "separator and decimal mark are both %q", set.sep)
+	}
+	cr := csv.NewReader(br)
+	cr.Comma = set.sep
+	cr.Comment = '#'
+	cr.FieldsPerRecord = -1
+	cr.ReuseRecord = true
+
+	cols, err := set.readHeader(cr)
+	if err != nil {
+		return nil, err
+	}
+	s := &Series{Name: name, Columns: append([]string(nil), o.Columns...), Values: map[string][]float64{}}
+	vals, err := set.readRows(cr, cols, s)
+	if err != nil {
+		return nil, err
+	}
+	if err := set.finish(s, vals); err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+// csvSettings are the checked options of one ReadCSV call.
+type csvSettings struct {
+	CSVOptions
+	name    string                  // file name, for messages
+	dec     rune                    // decimal mark, '.' or ','
+	sep     rune                    // field separator; 0 until detected
+	maxGap  time.Duration           // longest hole bridged
+	missing []string                // cell texts that mean "no value"
+	convs   []func(float64) float64 // per value column: to degC, or nil
+	numBuf  []byte                  // scratch for decimal-comma numbers
+}
+
+// fail returns a *fileerr.Error of the file at line (0: the whole file),
+// in column col ("" when not tied to one column).
+func (st *csvSettings) fail(line int, col, format string, a ...any) error {
+	return csvErr(st.name, line, col, fmt.Sprintf(format, a...), nil)
+}
+
+// newCSVSettings checks o and fills in its defaults.
+func newCSVSettings(name string, o CSVOptions) (*csvSettings, error) {
+	st := &csvSettings{CSVOptions: o, name: name, dec: o.Decimal, sep: o.Separator, maxGap: o.MaxGap, missing: o.Missing}
 	if len(o.Columns) == 0 {
-		return nil, fail(0, "", "no value columns requested")
+		return nil, st.fail(0, "", "no value columns requested")
 	}
 	if (o.TimeColumn == "") == (o.DateColumn == "") {
-		return nil, fail(0, "", "give either a time column or a date column (not both)")
+		return nil, st.fail(0, "", "give either a time column or a date column (not both)")
 	}
 	if o.HourColumn != "" && o.DateColumn == "" {
-		return nil, fail(0, "", "an hour column needs a date column")
+		return nil, st.fail(0, "", "an hour column needs a date column")
 	}
-	dec := o.Decimal
-	if dec == 0 {
-		dec = '.'
+	if st.dec == 0 {
+		st.dec = '.'
 	}
-	if dec != '.' && dec != ',' {
-		return nil, fail(0, "", "decimal mark must be '.' or ',', not %q", dec)
+	if st.dec != '.' && st.dec != ',' {
+		return nil, st.fail(0, "", "decimal mark must be '.' or ',', not %q", st.dec)
 	}
-	maxGap := o.MaxGap
-	if maxGap == 0 {
-		maxGap = DefaultMaxGap
+	if st.maxGap == 0 {
+		st.maxGap = DefaultMaxGap
 	}
-	if maxGap < 0 {
-		return nil, fail(0, "", "negative maximum gap %v", o.MaxGap)
+	if st.maxGap < 0 {
+		return nil, st.fail(0, "", "negative maximum gap %v", o.MaxGap)
 	}
-	missing := o.Missing
-	if missing == nil {
-		missing = defaultMissing
+	if st.missing == nil {
+		st.missing = defaultMissing
 	}
-	convs := make([]func(float64) float64, len(o.Columns))
+	st.convs = make([]func(float64) float64, len(o.Columns))
 	for i, c := range o.Columns {
 		for _, d := range o.Columns[:i] {
 			if d == c {
-				return nil, fail(0, c, "column requested twice")
+				return nil, st.fail(0, c, "column requested twice")
 			}
 		}
 		u := o.Unit
@@ -180,173 +237,118 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 		if err != nil {
 			return nil, csvErr(name, 0, c, "", err)
 		}
-		convs[i] = f
+		st.convs[i] = f
 	}
+	return st, nil
+}
 
-	br := bufio.NewReaderSize(r, 64<<10)
-	if b, err := br.Peek(3); err == nil && bytes.Equal(b, []byte{0xEF, 0xBB, 0xBF}) {
-		br.Discard(3)
-	}
-	sep := o.Separator
-	if sep == 0 {
-		var err error
-		sep, err = detectSeparator(br, dec)
-		if err != nil {
-			return nil, csvErr(name, 0, "", "", err)
-		}
-	}
-	if sep == dec {
-		return nil, fail(0, "", "separator and decimal mark are both %q", sep)
-	}
+// csvColumns are the positions in a row of the columns ReadCSV reads.
+type csvColumns struct {
+	names    []string // trimmed header names
+	hline    int      // line of the header
+	time     int      // time (or date) column
+	hour     int      // hour column, or -1
+	timeName string   // name of the time (or date) column, for messages
+	values   []int    // value columns, in the order requested
+	need     int      // the largest of these positions
+}
 
-	cr := csv.NewReader(br)
-	cr.Comma = sep
-	cr.Comment = '#'
-	cr.FieldsPerRecord = -1
-	cr.ReuseRecord = true
-
+// readHeader reads the header line and finds the requested columns in it.
+func (st *csvSettings) readHeader(cr *csv.Reader) (*csvColumns, error) {
 	header, err := cr.Read()
 	if err == io.EOF {
-		return nil, fail(0, "", "file is empty (no header line)")
+		return nil, st.fail(0, "", "file is empty (no header line)")
 	}
 	if err != nil {
-		return nil, csvReadError(name, err)
+		return nil, csvReadError(st.name, err)
 	}
-	hline, _ := cr.FieldPos(0)
-	names := make([]string, len(header))
+	c := &csvColumns{hour: -1, timeName: st.TimeColumn}
+	c.hline, _ = cr.FieldPos(0)
+	c.names = make([]string, len(header))
 	for i, h := range header {
-		names[i] = strings.TrimSpace(h)
+		c.names[i] = strings.TrimSpace(h)
 	}
-	find := func(col string) (int, error) {
-		for i, h := range names {
-			if h == col {
-				return i, nil
-			}
-		}
-		msg := fmt.Sprintf("no column %q in the header", col)
-		if s := closest(col, names); s != "" {
-			msg += fmt.Sprintf("; did you mean %q?", s)
-		}
-		msg += fmt.Sprintf(" (header: %s)", quoteList(names))
-		return 0, fail(hline, col, "%s", msg)
-	}
-	timeCol, hourCol := -1, -1
-	timeName := o.TimeColumn
-	if o.TimeColumn != "" {
-		if timeCol, err = find(o.TimeColumn); err != nil {
+	if st.TimeColumn != "" {
+		if c.time, err = st.find(c, st.TimeColumn); err != nil {
 			return nil, err
 		}
 	} else {
-		timeName = o.DateColumn
-		if timeCol, err = find(o.DateColumn); err != nil {
+		c.timeName = st.DateColumn
+		if c.time, err = st.find(c, st.DateColumn); err != nil {
 			return nil, err
 		}
-		if o.HourColumn != "" {
-			if hourCol, err = find(o.HourColumn); err != nil {
+		if st.HourColumn != "" {
+			if c.hour, err = st.find(c, st.HourColumn); err != nil {
 				return nil, err
 			}
 		}
 	}
-	idx := make([]int, len(o.Columns))
-	for i, c := range o.Columns {
-		if idx[i], err = find(c); err != nil {
+	c.values = make([]int, len(st.Columns))
+	for i, col := range st.Columns {
+		if c.values[i], err = st.find(c, col); err != nil {
 			return nil, err
 		}
 	}
-
-	s := &Series{Name: name, Columns: append([]string(nil), o.Columns...), Values: map[string][]float64{}}
-	vals := make([][]float64, len(o.Columns))
-	isMissing := func(f string) bool {
-		for _, m := range missing {
-			if f == m {
-				return true
-			}
-		}
-		return false
+	c.need = max(c.time, c.hour)
+	for _, j := range c.values {
+		c.need = max(c.need, j)
 	}
-	var numBuf []byte
+	return c, nil
+}
+
+// find returns the position of col in the header, or an error naming the
+// closest header name.
+func (st *csvSettings) find(c *csvColumns, col string) (int, error) {
+	for i, h := range c.names {
+		if h == col {
+			return i, nil
+		}
+	}
+	msg := fmt.Sprintf("no column %q in the header", col)
+	if s := closest(col, c.names); s != "" {
+		msg += fmt.Sprintf("; did you mean %q?", s)
+	}
+	msg += fmt.Sprintf(" (header: %s)", quoteList(c.names))
+	return 0, st.fail(c.hline, col, "%s", msg)
+}
+
+// readRows reads the data rows into s.Times and s.Lines and returns the
+// values of each requested column (NaN for a missing cell), converted to
+// degC where the column is a temperature.
+func (st *csvSettings) readRows(cr *csv.Reader, c *csvColumns, s *Series) ([][]float64, error) {
+	vals := make([][]float64, len(st.Columns))
 	for {
 		rec, err := cr.Read()
 		if err == io.EOF {
 			break
 		}
 		if err != nil {
-			return nil, csvReadError(name, err)
+			return nil, csvReadError(st.name, err)
 		}
 		line, _ := cr.FieldPos(0)
 		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
 			continue // blank line
 		}
-		need := timeCol
-		if hourCol > need {
-			need = hourCol
+		if len(rec) <= c.need {
+			return nil, st.fail(line, "", "row has %d fields, the header has %d", len(rec), len(c.names))
 		}
-		for _, j := range idx {
-			if j > need {
-				need = j
-			}
-		}
-		if len(rec) <= need {
-			return nil, fail(line, "", "row has %d fields, the header has %d", len(rec), len(names))
-		}
-		var ts time.Time
-		if o.TimeColumn != "" {
-			ts, err = parseISO(strings.TrimSpace(rec[timeCol]))
-		} else {
-			ts, err = parseISO(strings.TrimSpace(rec[timeCol]))
-			if err == nil && (len(strings.TrimSpace(rec[timeCol])) != 10) {
-				err = errors.New("want a date YYYY-MM-DD")
-			}
-			if err == nil && hourCol >= 0 {
-				var h time.Duration
-				h, err = parseHour(strings.TrimSpace(rec[hourCol]))
-				if err != nil {
-					return nil, csvErr(name, line, o.HourColumn, fmt.Sprintf("cannot read hour %q", rec[hourCol]), err)
-				}
-				ts = ts.Add(h)
-			}
-		}
+		ts, err := st.readStamp(rec, line, c)
 		if err != nil {
-			return nil, csvErr(name, line, timeName, fmt.Sprintf("cannot read time %q", rec[timeCol]), err)
+			return nil, err
 		}
 		if n := len(s.Times); n > 0 {
 			prev := s.Times[n-1]
 			if ts.Equal(prev) {
-				return nil, fail(line, timeName, "time %s repeats the stamp of line %d", rec[timeCol], s.Lines[n-1])
+				return nil, st.fail(line, c.timeName, "time %s repeats the stamp of line %d", rec[c.time], s.Lines[n-1])
 			}
 			if ts.Before(prev) {
-				return nil, fail(line, timeName, "time goes backward: %s comes after %s on line %d", rec[timeCol], prev.Format(time.RFC3339), s.Lines[n-1])
+				return nil, st.fail(line, c.timeName, "time goes backward: %s comes after %s on line %d", rec[c.time], prev.Format(time.RFC3339), s.Lines[n-1])
 			}
 		}
-		for k, j := range idx {
-			f := strings.TrimSpace(rec[j])
-			if isMissing(f) {
-				vals[k] = append(vals[k], math.NaN())
-				continue
-			}
-			num := f
-			if dec == ',' {
-				numBuf = append(numBuf[:0], f...)
-				for i, c := range numBuf {
-					switch c {
-					case ',':
-						numBuf[i] = '.'
-					case '.':
-						numBuf[i] = 'x' // a point is not a decimal mark here
-					}
-				}
-				num = string(numBuf)
-			}
-			v, perr := strconv.ParseFloat(num, 64)
-			if perr != nil || math.IsInf(v, 0) || math.IsNaN(v) {
-				hint := ""
-				if dec == '.' && strings.Count(f, ",") == 1 {
-					hint = " (decimal comma? set the decimal mark to ',')"
-				}
-				return nil, fail(line, o.Columns[k], "%q is not a number%s", f, hint)
-			}
-			if convs[k] != nil {
-				v = convs[k](v)
+		for k, j := range c.values {
+			v, err := st.parseValue(k, strings.TrimSpace(rec[j]), line)
+			if err != nil {
+				return nil, err
 			}
 			vals[k] = append(vals[k], v)
 		}
@@ -354,8 +356,71 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 		s.Lines = append(s.Lines, line)
 	}
 	if len(s.Times) == 0 {
-		return nil, fail(hline, "", "header only: no data rows")
+		return nil, st.fail(c.hline, "", "header only: no data rows")
 	}
+	return vals, nil
+}
+
+// readStamp reads the time of row rec (at line): a date-time, or a date
+// plus an hour.
+func (st *csvSettings) readStamp(rec []string, line int, c *csvColumns) (time.Time, error) {
+	cell := strings.TrimSpace(rec[c.time])
+	ts, err := parseISO(cell)
+	if st.TimeColumn == "" {
+		if err == nil && len(cell) != 10 {
+			err = errors.New("want a date YYYY-MM-DD")
+		}
+		if err == nil && c.hour >= 0 {
+			h, herr := parseHour(strings.TrimSpace(rec[c.hour]))
+			if herr != nil {
+				return ts, csvErr(st.name, line, st.HourColumn, fmt.Sprintf("cannot read hour %q", rec[c.hour]), herr)
+			}
+			ts = ts.Add(h)
+		}
+	}
+	if err != nil {
+		return ts, csvErr(st.name, line, c.timeName, fmt.Sprintf("cannot read time %q", rec[c.time]), err)
+	}
+	return ts, nil
+}
+
+// parseValue reads the trimmed cell f of value column k (at line): NaN
+// for a missing value, otherwise the number in degC (or the file unit).
+func (st *csvSettings) parseValue(k int, f string, line int) (float64, error) {
+	for _, m := range st.missing {
+		if f == m {
+			return math.NaN(), nil
+		}
+	}
+	num := f
+	if st.dec == ',' {
+		st.numBuf = append(st.numBuf[:0], f...)
+		for i, c := range st.numBuf {
+			switch c {
+			case ',':
+				st.numBuf[i] = '.'
+			case '.':
+				st.numBuf[i] = 'x' // a point is not a decimal mark here
+			}
+		}
+		num = string(st.numBuf)
+	}
+	v, err := strconv.ParseFloat(num, 64)
+	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
+		hint := ""
+		if st.dec == '.' && strings.Count(f, ",") == 1 {
+			hint = " (decimal comma? set the decimal mark to ',')"
+		}
+		return 0, st.fail(line, st.Columns[k], "%q is not a number%s", f, hint)
+	}
+	if st.convs[k] != nil {
+		v = st.convs[k](v)
+	}
+	return v, nil
+}
+
+// finish sets the time axis of s, bridges its holes and stores the values.
+func (st *csvSettings) finish(s *Series, vals [][]float64) error {
 	first := s.Times[0]
 	s.Start = time.Date(first.Year(), time.January, 1, 0, 0, 0, 0, first.Location())
 	s.T = make([]float64, len(s.Times))
@@ -363,53 +428,75 @@ func ReadCSV(r io.Reader, name string, o CSVOptions) (*Series, error) {
 		s.T[i] = ts.Sub(s.Start).Seconds()
 	}
 	s.Step = medianStep(s.T)
+	timeName := st.TimeColumn
+	if timeName == "" {
+		timeName = st.DateColumn
+	}
+	if err := st.bridgeRows(s, timeName); err != nil {
+		return err
+	}
+	for k, col := range st.Columns {
+		if err := st.bridgeCells(s, col, vals[k]); err != nil {
+			return err
+		}
+		s.Values[col] = vals[k]
+	}
+	sort.SliceStable(s.Bridged, func(a, b int) bool { return s.Bridged[a].From.Before(s.Bridged[b].From) })
+	return nil
+}
 
-	// Missing rows: a spacing well above the typical step.
-	gapLim := maxGap.Seconds()
+// bridgeRows checks the spacing of the records: a spacing above the
+// maximum gap is an error; one well above the typical step (rows missing
+// from a regular record) is listed in s.Bridged.
+func (st *csvSettings) bridgeRows(s *Series, timeName string) error {
+	gapLim := st.maxGap.Seconds()
 	for i := 1; i < len(s.T); i++ {
 		dt := s.T[i] - s.T[i-1]
 		if dt > gapLim {
-			return nil, fail(s.Lines[i], timeName, "gap of %s between line %d (%s) and line %d (%s) is longer than the maximum gap %s",
-				fmtDur(dt), s.Lines[i-1], s.Times[i-1].Format(time.RFC3339), s.Lines[i], s.Times[i].Format(time.RFC3339), maxGap)
+			return st.fail(s.Lines[i], timeName, "gap of %s between line %d (%s) and line %d (%s) is longer than the maximum gap %s",
+				fmtDur(dt), s.Lines[i-1], s.Times[i-1].Format(time.RFC3339), s.Lines[i], s.Times[i].Format(time.RFC3339), st.maxGap)
 		}
 		if s.Step > 0 && dt > 1.5*s.Step {
 			s.Bridged = append(s.Bridged, Gap{Line: s.Lines[i-1], From: s.Times[i-1], To: s.Times[i]})
 		}
 	}
-	// Missing cells: bridge linearly in time.
-	for k, col := range o.Columns {
-		v := vals[k]
-		for i := 0; i < len(v); i++ {
-			if !math.IsNaN(v[i]) {
-				continue
-			}
-			j := i
-			for j < len(v) && math.IsNaN(v[j]) {
-				j++
-			}
-			if i == 0 || j == len(v) {
-				where := "at the start"
-				if i > 0 {
-					where = "at the end"
-				}
-				return nil, fail(s.Lines[i], col, "no value %s of the record (lines %d to %d): nothing to interpolate from; trim the record", where, s.Lines[i], s.Lines[j-1])
-			}
-			if dt := s.T[j] - s.T[i-1]; dt > gapLim {
-				return nil, fail(s.Lines[i], col, "no value from line %d to line %d: a gap of %s between values is longer than the maximum gap %s",
-					s.Lines[i], s.Lines[j-1], fmtDur(dt), maxGap)
-			}
-			// Linear interpolation in time between (T[i-1], v[i-1]) and (T[j], v[j]).
-			for m := i; m < j; m++ {
-				w := (s.T[m] - s.T[i-1]) / (s.T[j] - s.T[i-1])
-				v[m] = v[i-1] + w*(v[j]-v[i-1])
-			}
-			s.Bridged = append(s.Bridged, Gap{Column: col, Line: s.Lines[i-1], From: s.Times[i-1], To: s.Times[j], Filled: j - i})
-			i = j
+	return nil
+}
+
+// bridgeCells fills the missing cells (NaN) of column col in v by linear
+// interpolation in time and lists each hole in s.Bridged. A hole at either
+// end of the record, or one whose values lie further apart than the
+// maximum gap, is an error.
+func (st *csvSettings) bridgeCells(s *Series, col string, v []float64) error {
+	gapLim := st.maxGap.Seconds()
+	for i := 0; i < len(v); i++ {
+		if !math.IsNaN(v[i]) {
+			continue
 		}
-		s.Values[col] = v
+		j := i
+		for j < len(v) && math.IsNaN(v[j]) {
+			j++
+		}
+		if i == 0 || j == len(v) {
+			where := "at the start"
+			if i > 0 {
+				where = "at the end"
+			}
+			return st.fail(s.Lines[i], col, "no value %s of the record (lines %d to %d): nothing to interpolate from; trim the record", where, s.Lines[i], s.Lines[j-1])
+		}
+		if dt := s.T[j] - s.T[i-1]; dt > gapLim {
+			return st.fail(s.Lines[i], col, "no value from line %d to line %d: a gap of %s between values is longer than the maximum gap %s",
+				s.Lines[i], s.Lines[j-1], fmtDur(dt), st.maxGap)
+		}
+		// Linear interpolation in time between (T[i-1], v[i-1]) and (T[j], v[j]).
+		for m := i; m < j; m++ {
+			w := (s.T[m] - s.T[i-1]) / (s.T[j] - s.T[i-1])
+			v[m] = v[i-1] + w*(v[j]-v[i-1])
+		}
+		s.Bridged = append(s.Bridged, Gap{Column: col, Line: s.Lines[i-1], From: s.Times[i-1], To: s.Times[j], Filled: j - i})
+		i = j
 	}
-	sort.SliceStable(s.Bridged, func(a, b int) bool { return s.Bridged[a].From.Before(s.Bridged[b].From) })
-	return s, nil
+	return nil
 }
 
 func csvReadError(name string, err error) error {
@@ -468,108 +555,139 @@ func detectSeparator(br *bufio.Reader, dec rune) (rune, error) {
 // clock time is taken as UTC. Hour 24:00 is accepted as 00:00 of the next
 // day.
 func parseISO(s string) (time.Time, error) {
-	bad := func(why string) (time.Time, error) {
-		return time.Time{}, errors.New(why)
+	y, mo, d, err := parseDate(s)
+	if err != nil {
+		return time.Time{}, err
 	}
+	rest := s[10:]
+	if rest == "" {
+		return time.Date(y, time.Month(mo), d, 0, 0, 0, 0, time.UTC), nil
+	}
+	if rest[0] != 'T' && rest[0] != ' ' {
+		return time.Time{}, errors.New("want 'T' or a space between date and time")
+	}
+	clock, loc, err := splitZone(strings.TrimLeft(rest[1:], " "))
+	if err != nil {
+		return time.Time{}, err
+	}
+	h, mi, sec, nsec, err := parseClock(strings.TrimSpace(clock))
+	if err != nil {
+		return time.Time{}, err
+	}
+	return time.Date(y, time.Month(mo), d, h, mi, sec, nsec, loc), nil
+}
+
+// parseDate reads the date YYYY-MM-DD at the start of s.
+func parseDate(s string) (y, mo, d int, err error) {
+	errForm := errors.New("want an ISO 8601 date YYYY-MM-DD or date-time YYYY-MM-DDThh:mm")
 	if len(s) < 10 || s[4] != '-' || s[7] != '-' {
-		return bad("want an ISO 8601 date YYYY-MM-DD or date-time YYYY-MM-DDThh:mm")
+		return 0, 0, 0, errForm
 	}
 	y, ok1 := atoiN(s[0:4])
 	mo, ok2 := atoiN(s[5:7])
 	d, ok3 := atoiN(s[8:10])
 	if !ok1 || !ok2 || !ok3 {
-		return bad("want an ISO 8601 date YYYY-MM-DD or date-time YYYY-MM-DDThh:mm")
+		return 0, 0, 0, errForm
 	}
 	if mo < 1 || mo > 12 || d < 1 || d > daysIn(y, mo) {
-		return bad("no such date")
+		return 0, 0, 0, errors.New("no such date")
 	}
-	rest := s[10:]
-	var h, mi, sec, nsec int
-	loc := time.UTC
-	if rest != "" {
-		if rest[0] != 'T' && rest[0] != ' ' {
-			return bad("want 'T' or a space between date and time")
+	return y, mo, d, nil
+}
+
+// splitZone splits a clock time from its zone suffix: Z, or a UTC offset
+// ±hh, ±hhmm or ±hh:mm. Without a suffix the zone is UTC.
+func splitZone(s string) (clock string, loc *time.Location, err error) {
+	if n := len(s); n > 0 && (s[n-1] == 'Z' || s[n-1] == 'z') {
+		return s[:n-1], time.UTC, nil
+	}
+	k := strings.LastIndexAny(s, "+-")
+	if k <= 0 {
+		return s, time.UTC, nil
+	}
+	zh, zm, ok := parseOffset(s[k+1:])
+	if !ok || zh > 23 || zm > 59 {
+		return "", nil, errors.New("cannot read the UTC offset")
+	}
+	off := zh*3600 + zm*60
+	if s[k] == '-' {
+		off = -off
+	}
+	if off == 0 {
+		return s[:k], time.UTC, nil
+	}
+	return s[:k], time.FixedZone("", off), nil
+}
+
+// parseOffset reads the hours and minutes of a UTC offset without its
+// sign: hh, hhmm or hh:mm.
+func parseOffset(z string) (zh, zm int, ok bool) {
+	switch {
+	case len(z) == 2:
+		zh, ok = atoiN(z)
+	case len(z) == 4:
+		zh, ok = atoiN(z[:2])
+		if ok {
+			zm, ok = atoiN(z[2:])
 		}
-		rest = strings.TrimLeft(rest[1:], " ")
-		// Zone suffix.
-		if n := len(rest); n > 0 && (rest[n-1] == 'Z' || rest[n-1] == 'z') {
-			rest = rest[:n-1]
-		} else if k := strings.LastIndexAny(rest, "+-"); k > 0 {
-			z := rest[k+1:]
-			sign := 1
-			if rest[k] == '-' {
-				sign = -1
-			}
-			rest = rest[:k]
-			var zh, zm int
-			var ok bool
-			switch len(z) {
-			case 2:
-				zh, ok = atoiN(z)
-			case 4:
-				zh, ok = atoiN(z[:2])
-				if ok {
-					zm, ok = atoiN(z[2:])
-				}
-			case 5:
-				if z[2] == ':' {
-					zh, ok = atoiN(z[:2])
-					if ok {
-						zm, ok = atoiN(z[3:])
-					}
-				}
-			}
-			if !ok || zh > 23 || zm > 59 {
-				return bad("cannot read the UTC offset")
-			}
-			off := sign * (zh*3600 + zm*60)
-			loc = time.FixedZone("", off)
-			if off == 0 {
-				loc = time.UTC
-			}
-		}
-		rest = strings.TrimSpace(rest)
-		var ok bool
-		switch {
-		case len(rest) == 2:
-			h, ok = atoiN(rest)
-		case len(rest) == 5 && rest[2] == ':':
-			h, ok = atoiN(rest[:2])
-			if ok {
-				mi, ok = atoiN(rest[3:5])
-			}
-		case len(rest) >= 8 && rest[2] == ':' && rest[5] == ':':
-			h, ok = atoiN(rest[:2])
-			if ok {
-				mi, ok = atoiN(rest[3:5])
-			}
-			if ok {
-				sec, ok = atoiN(rest[6:8])
-			}
-			if ok && len(rest) > 8 {
-				frac := rest[9:]
-				if (rest[8] != '.' && rest[8] != ',') || len(frac) == 0 || len(frac) > 9 {
-					ok = false
-				} else {
-					var f int
-					f, ok = atoiN(frac)
-					for i := len(frac); i < 9; i++ {
-						f *= 10
-					}
-					nsec = f
-				}
-			}
-		}
-		if !ok {
-			return bad("cannot read the clock time (want hh:mm or hh:mm:ss)")
-		}
-		if h == 24 && mi == 0 && sec == 0 && nsec == 0 {
-			// 24:00 is the end of the day (ISO 8601).
-		} else if h > 23 || mi > 59 || sec > 59 {
-			return bad("clock time out of range")
+	case len(z) == 5 && z[2] == ':':
+		zh, ok = atoiN(z[:2])
+		if ok {
+			zm, ok = atoiN(z[3:])
 		}
 	}
-	return time.Date(y, time.Month(mo), d, h, mi, sec, nsec, loc), nil
+	return zh, zm, ok
+}
+
+// parseClock reads a clock time hh, hh:mm, hh:mm:ss or hh:mm:ss.fff (a
+// decimal point or comma, 1 to 9 digits). 24:00 is the end of the day
+// (ISO 8601).
+func parseClock(s string) (h, mi, sec, nsec int, err error) {
+	var ok bool
+	switch {
+	case len(s) == 2:
+		h, ok = atoiN(s)
+	case len(s) == 5 && s[2] == ':':
+		h, ok = atoiN(s[:2])
+		if ok {
+			mi, ok = atoiN(s[3:5])
+		}
+	case len(s) >= 8 && s[2] == ':' && s[5] == ':':
+		h, ok = atoiN(s[:2])
+		if ok {
+			mi, ok = atoiN(s[3:5])
+		}
+		if ok {
+			sec, ok = atoiN(s[6:8])
+		}
+		if ok && len(s) > 8 {
+			nsec, ok = parseFraction(s[8:])
+		}
+	}
+	if !ok {
+		return 0, 0, 0, 0, errors.New("cannot read the clock time (want hh:mm or hh:mm:ss)")
+	}
+	if h == 24 && mi == 0 && sec == 0 && nsec == 0 {
+		return h, mi, sec, nsec, nil // 24:00 is the end of the day (ISO 8601)
+	}
+	if h > 23 || mi > 59 || sec > 59 {
+		return 0, 0, 0, 0, errors.New("clock time out of range")
+	}
+	return h, mi, sec, nsec, nil
+}
+
+// parseFraction reads the decimal fraction of a second, ".fff" or ",fff"
+// with 1 to 9 digits, as nanoseconds.
+func parseFraction(s string) (int, bool) {
+	frac := s[1:]
+	if (s[0] != '.' && s[0] != ',') || len(frac) == 0 || len(frac) > 9 {
+		return 0, false
+	}
+	f, ok := atoiN(frac)
+	for i := len(frac); i < 9; i++ {
+		f *= 10
+	}
+	return f, ok
 }
 
 // parseHour reads an hour of the day: an integer 0..24, or h:mm[:ss].
