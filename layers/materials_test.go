@@ -263,6 +263,30 @@ func TestClosest(t *testing.T) {
 			t.Errorf("Closest(%q, keys, %d) = %v, want %v", tc.word, tc.max, got, tc.want)
 		}
 	}
+	// Word and substring matches rank ahead of a distant edit: "brick" is
+	// two edits from "rock" but a word of "clay-brick".
+	mats := MaterialKeys()
+	words := []struct {
+		word string
+		want []string
+	}{
+		{"brick", []string{"clay-brick", "clay-brick-protected", "calcium-silicate-brick"}},
+		{"Brick Clay", []string{"clay-brick", "clay-brick-protected"}},
+		{"solid-clay-brick", []string{"clay-brick"}},
+		{"wool", []string{"glass-wool", "mineral-wool", "mineral-wool-light"}},
+		{"fibre", []string{"wood-fibre", "gypsum-fibre-board", "fibreboard"}}, // whole words first
+		{"clay-brik", []string{"clay-brick"}}, // a typo
+		{"xyzzy", nil},
+	}
+	for _, tc := range words {
+		got := Closest(tc.word, mats, 3)
+		if !slices.Equal(got, tc.want) {
+			t.Errorf("Closest(%q, materials, 3) = %v, want %v", tc.word, got, tc.want)
+		}
+	}
+	if got := Suggest("brick"); len(got) == 0 || got[0] != "clay-brick" {
+		t.Errorf("Suggest(brick) = %v, want clay-brick first", got)
+	}
 	// Order: closest first, then nearest in length, then alphabetical.
 	got := Closest("kin", []string{"skin", "kind", "king", "pin", "kilns"}, 10)
 	if !slices.Equal(got, []string{"pin", "kind", "king", "skin", "kilns"}) {

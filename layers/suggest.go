@@ -6,19 +6,26 @@ import (
 	"unicode/utf8"
 )
 
-// Closest returns up to max candidates that look like a misspelling of
-// word, closest first, for did-you-mean messages. Comparison ignores case
-// and treats "_" and "-" alike, so it serves both material keys and
-// scenario-file keys ("specific-heat" finds "specific_heat").
+// Closest returns up to max candidates that look like a misspelling or a
+// shortening of word, best first, for did-you-mean messages. Comparison
+// ignores case and treats "_", "-" and spaces alike, so it serves both
+// material keys and scenario-file keys ("specific-heat" finds
+// "specific_heat").
 //
-// A candidate qualifies when its edit distance to word (insertions,
-// deletions, substitutions and swaps of two adjacent letters, each counting
-// 1: the optimal string alignment distance) is at most
-// max(2, len(word)/3), or when one of its hyphen- or underscore-separated
-// parts equals word ("brick" finds "clay-brick"); such matches rank after
-// the edit-distance ones. Ties go to the candidate nearer in length, then
-// alphabetically. An exact match is returned alone. Closest returns nil when
-// nothing qualifies or max < 1.
+// Candidates qualify in three tiers, ranked in this order:
+//
+//  1. a typo: edit distance 1 (an insertion, deletion, substitution or swap
+//     of two adjacent letters; the optimal string alignment distance);
+//  2. a word match: every hyphen-separated word of the one is a word of the
+//     other ("brick" and "brick clay" find "clay-brick", "solid-clay-brick"
+//     finds "clay-brick"), or word, at least 3 letters long, is part of a
+//     candidate ("fibre" finds "fibreboard");
+//  3. a larger edit distance, up to max(2, len(word)/3).
+//
+// Within a tier, word matches sharing more whole words come first, then fewer
+// edits, then the candidate nearer in length, then alphabetical order. An
+// exact match is returned alone. Closest returns nil when nothing
+// qualifies or max < 1.
 func Closest(word string, candidates []string, max int) []string {
 	if max < 1 || len(candidates) == 0 {
 		return nil
@@ -32,9 +39,11 @@ func Closest(word string, candidates []string, max int) []string {
 		limit = 2
 	}
 	type scored struct {
-		s    string
-		dist int
-		diff int // difference in length, for ties
+		s      string
+		tier   int
+		shared int // wordMatch score (tier 2), more is better
+		dist   int // edit distance
+		diff   int // difference in length, for ties
 	}
 	var hits []scored
 	seen := map[string]bool{}
@@ -52,21 +61,28 @@ func Closest(word string, candidates []string, max int) []string {
 		if diff < 0 {
 			diff = -diff
 		}
-		switch {
+		switch shared := wordMatch(w, f); {
+		case d <= 1:
+			hits = append(hits, scored{c, 1, 0, d, diff})
+		case shared > 0:
+			hits = append(hits, scored{c, 2, shared, d, diff})
 		case d <= limit:
-			hits = append(hits, scored{c, d, diff})
-		case hasPart(f, w) || hasPart(w, f):
-			hits = append(hits, scored{c, limit + 1, diff})
+			hits = append(hits, scored{c, 3, 0, d, diff})
 		}
 	}
 	sort.Slice(hits, func(i, j int) bool {
-		if hits[i].dist != hits[j].dist {
-			return hits[i].dist < hits[j].dist
+		a, b := hits[i], hits[j]
+		switch {
+		case a.tier != b.tier:
+			return a.tier < b.tier
+		case a.shared != b.shared:
+			return a.shared > b.shared
+		case a.dist != b.dist:
+			return a.dist < b.dist
+		case a.diff != b.diff:
+			return a.diff < b.diff
 		}
-		if hits[i].diff != hits[j].diff {
-			return hits[i].diff < hits[j].diff
-		}
-		return hits[i].s < hits[j].s
+		return a.s < b.s
 	})
 	if len(hits) > max {
 		hits = hits[:max]
@@ -84,17 +100,50 @@ func foldWord(s string) string {
 	return strings.NewReplacer("_", "-", " ", "-").Replace(s)
 }
 
-// hasPart reports whether part is one of the "-"-separated parts of s.
-func hasPart(s, part string) bool {
-	if part == "" || len(part) < 3 {
-		return false
+// wordMatch scores how well the folded words w and f match as words:
+// twice the number of words they share when the words of one are all words
+// of the other (words under 3 letters do not count: "a", "of"), else 1 when
+// w of at least 3 letters is part of f, else 0.
+func wordMatch(w, f string) int {
+	wp, fp := words(w), words(f)
+	if subset(wp, fp) || subset(fp, wp) {
+		return 2 * min(len(wp), len(fp))
 	}
+	if utf8.RuneCountInString(w) >= 3 && strings.Contains(f, w) {
+		return 1 // part of a word ranks after a whole word
+	}
+	return 0
+}
+
+// words returns the "-"-separated words of s of at least 3 letters.
+func words(s string) []string {
+	var out []string
 	for _, p := range strings.Split(s, "-") {
-		if p == part {
-			return true
+		if utf8.RuneCountInString(p) >= 3 {
+			out = append(out, p)
 		}
 	}
-	return false
+	return out
+}
+
+// subset reports whether every word of a is among b (a not empty).
+func subset(a, b []string) bool {
+	if len(a) == 0 {
+		return false
+	}
+	for _, x := range a {
+		found := false
+		for _, y := range b {
+			if x == y {
+				found = true
+				break
+			}
+		}
+		if !found {
+			return false
+		}
+	}
+	return true
 }
 
 // editDistance is the optimal string alignment distance between a and b
