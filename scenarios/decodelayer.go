@@ -280,7 +280,7 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 	} else if !o.has("dry_density") {
 		o.missing("dry_density", "kg of solids per m3 of soil, e.g. 1700")
 	}
-	if !o.nonNegative("water_content", layers.Fraction, &soil.WaterContent) && !o.has("water_content") {
+	if !o.fraction("water_content", &soil.WaterContent) && !o.has("water_content") {
 		o.missing("water_content", "mass of water per mass of dry soil, e.g. 15 %")
 	}
 	if o.choice("model", ground.ModelKeys(), &model) {
@@ -289,7 +289,7 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 			o.fail("model", err)
 		}
 	}
-	if o.nonNegative("quartz", layers.Fraction, &soil.Quartz) && soil.Quartz > 1 {
+	if o.fraction("quartz", &soil.Quartz) && soil.Quartz > 1 {
 		o.failf("quartz", "a fraction of the solids must not exceed 1 (100 %%)")
 	}
 	o.positive("solids_density", layers.Density, &soil.SolidsDensity)

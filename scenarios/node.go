@@ -3,7 +3,9 @@ package scenarios
 import (
 	"fmt"
 	"io/fs"
+	"math"
 	"sort"
+	"strconv"
 	"strings"
 
 	"gopkg.in/yaml.v3"
@@ -355,4 +357,22 @@ func (o *object) child(key string, allowed []string) *object {
 		return nil
 	}
 	return o.d.object(o.values[key], join(o.path, key), allowed)
+}
+
+// fraction reads a non-negative fraction (0.15 or "15 %"). A bare number
+// above 1 is refused with the percentage it most likely means:
+// `water_content: 20` reads as 2000 %, and the message suggests "20 %"
+// (a unit makes a value above 100 % possible, e.g. "150 %" for a peat).
+func (o *object) fraction(key string, dst *float64) bool {
+	var s string
+	if !o.str(key, &s) {
+		return false
+	}
+	txt := strings.TrimSpace(s)
+	if v, err := strconv.ParseFloat(txt, 64); err == nil && v > 1 && !math.IsInf(v, 0) {
+		pct := layers.FormatQuantity(v, layers.Fraction)
+		o.failf(key, "a bare %s is read as a fraction, %s; did you mean \"%s %%\"? (write \"%s\" if you mean that)", txt, pct, txt, pct)
+		return false
+	}
+	return o.nonNegative(key, layers.Fraction, dst)
 }
