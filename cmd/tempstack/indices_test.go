@@ -335,7 +335,7 @@ func TestIndicesBadFiles(t *testing.T) {
 		{[]string{short, "--max-gap", "-2h"}, "must be positive"},
 		{[]string{short, "--return-period", "0.5"}, "above 1"},
 		{[]string{short, "--unit", "R"}, `unknown unit "R"`},
-		{[]string{short, "--nope"}, "flag provided but not defined"},
+		{[]string{short, "--nope"}, "unknown flag --nope"},
 		{nil, "needs one CSV file"},
 	}
 	for _, c := range cases {

@@ -17,6 +17,7 @@ import (
 	"github.com/urfave/cli/v2"
 
 	"tempstack/fileerr"
+	"tempstack/layers"
 )
 
 // version is the tool version printed by --version and in reports.
@@ -123,7 +124,59 @@ func newApp(stdout, stderr io.Writer) *cli.App {
 }
 
 func usageError(c *cli.Context, err error, _ bool) error {
-	return userErr("%v (try `tempstack help %s`)", err, c.Command.Name)
+	// urfave/cli (via the standard flag package) reports an unknown flag
+	// as "flag provided but not defined: -name", with one dash whatever
+	// was typed; name the flag as typed and the close one.
+	const undefined = "flag provided but not defined: -"
+	flags, help := c.App.Flags, "tempstack help"
+	if c.Command != nil && c.Command.Name != "" && c.Command.Name != c.App.Name {
+		flags, help = c.Command.Flags, help+" "+c.Command.Name
+	}
+	if msg := err.Error(); strings.HasPrefix(msg, undefined) {
+		name := strings.TrimPrefix(msg, undefined)
+		msg = "unknown flag " + flagText(name)
+		if s := closeFlag(name, flags); s != "" {
+			msg += "; did you mean " + flagText(s) + "?"
+		}
+		err = errors.New(msg)
+	}
+	return userErr("%v (try `%s`)", err, help)
+}
+
+// flagText writes a flag name as it is typed: -o, --out.
+func flagText(name string) string {
+	if len(name) == 1 {
+		return "-" + name
+	}
+	return "--" + name
+}
+
+// closeFlag returns the flag of flags that name most likely misspells or
+// abbreviates ("output" gives "out", "work" gives "workers"), or "".
+func closeFlag(name string, flags []cli.Flag) string {
+	var names []string
+	for _, f := range flags {
+		for _, n := range f.Names() {
+			if len(n) > 1 {
+				names = append(names, n)
+			}
+		}
+	}
+	if s := layers.Closest(name, names, 1); len(s) > 0 {
+		return s[0]
+	}
+	// One is the start of the other, both at least 3 letters long.
+	best := ""
+	for _, n := range names {
+		short, long := n, name
+		if len(short) > len(long) {
+			short, long = long, short
+		}
+		if len(short) >= 3 && strings.HasPrefix(long, short) && (best == "" || len(n) < len(best)) {
+			best = n
+		}
+	}
+	return best
 }
 
 // hoistFlags moves flags that follow a positional argument in front of it,
