@@ -39,6 +39,11 @@ type CSVOptions struct {
 
 	// Decimal is the decimal mark of the numbers: '.' (default) or ','.
 	Decimal rune
+	// DecimalHint is how the caller's user declares a decimal comma, named
+	// in the message for a number written with one while the mark is '.':
+	// "--decimal ," (a command-line flag) or `decimal: ","` (a scenario
+	// key). Empty names the option: "set the decimal mark to ','".
+	DecimalHint string
 	// Separator is the field separator; 0 detects ',', ';' or tab from the
 	// header line.
 	Separator rune
@@ -410,6 +415,9 @@ func (st *csvSettings) parseValue(k int, f string, line int) (float64, error) {
 		hint := ""
 		if st.dec == '.' && strings.Count(f, ",") == 1 {
 			hint = " (decimal comma? set the decimal mark to ',')"
+			if st.DecimalHint != "" {
+				hint = " (decimal comma? use " + st.DecimalHint + ")"
+			}
 		}
 		return 0, st.fail(line, st.Columns[k], "%q is not a number%s", f, hint)
 	}
@@ -454,7 +462,7 @@ func (st *csvSettings) bridgeRows(s *Series, timeName string) error {
 		dt := s.T[i] - s.T[i-1]
 		if dt > gapLim {
 			return st.fail(s.Lines[i], timeName, "gap of %s between line %d (%s) and line %d (%s) is longer than the maximum gap %s",
-				fmtDur(dt), s.Lines[i-1], s.Times[i-1].Format(time.RFC3339), s.Lines[i], s.Times[i].Format(time.RFC3339), st.maxGap)
+				fmtDur(dt), s.Lines[i-1], s.Times[i-1].Format(time.RFC3339), s.Lines[i], s.Times[i].Format(time.RFC3339), fmtDur(st.maxGap.Seconds()))
 		}
 		if s.Step > 0 && dt > 1.5*s.Step {
 			s.Bridged = append(s.Bridged, Gap{Line: s.Lines[i-1], From: s.Times[i-1], To: s.Times[i]})
@@ -486,7 +494,7 @@ func (st *csvSettings) bridgeCells(s *Series, col string, v []float64) error {
 		}
 		if dt := s.T[j] - s.T[i-1]; dt > gapLim {
 			return st.fail(s.Lines[i], col, "no value from line %d to line %d: a gap of %s between values is longer than the maximum gap %s",
-				s.Lines[i], s.Lines[j-1], fmtDur(dt), st.maxGap)
+				s.Lines[i], s.Lines[j-1], fmtDur(dt), fmtDur(st.maxGap.Seconds()))
 		}
 		// Linear interpolation in time between (T[i-1], v[i-1]) and (T[j], v[j]).
 		for m := i; m < j; m++ {
@@ -745,8 +753,16 @@ func medianStep(t []float64) float64 {
 	return d[len(d)/2]
 }
 
+// fmtDur writes a time span of sec seconds for messages, in hours from
+// 1 h up ("49 h", "6 h", "1.5 h"), else in minutes or seconds.
 func fmtDur(sec float64) string {
-	return (time.Duration(math.Round(sec)) * time.Second).String()
+	switch h := sec / 3600; {
+	case h >= 1:
+		return strconv.FormatFloat(math.Round(h*100)/100, 'f', -1, 64) + " h"
+	case sec >= 60:
+		return strconv.FormatFloat(math.Round(sec/60*100)/100, 'f', -1, 64) + " min"
+	}
+	return strconv.FormatFloat(math.Round(sec*1000)/1000, 'f', -1, 64) + " s"
 }
 
 func quoteList(s []string) string {

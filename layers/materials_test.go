@@ -275,7 +275,7 @@ func TestClosest(t *testing.T) {
 		{"solid-clay-brick", []string{"clay-brick"}},
 		{"wool", []string{"glass-wool", "mineral-wool", "mineral-wool-light"}},
 		{"fibre", []string{"wood-fibre", "gypsum-fibre-board", "fibreboard"}}, // whole words first
-		{"clay-brik", []string{"clay-brick"}}, // a typo
+		{"clay-brik", []string{"clay-brick"}},                                 // a typo
 		{"xyzzy", nil},
 	}
 	for _, tc := range words {

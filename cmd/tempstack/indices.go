@@ -150,11 +150,12 @@ func indicesColumns(c *cli.Context, file string, data []byte, dec rune) (climate
 		return climate.CSVOptions{}, "", userErr("%s: no header line (the file is empty or holds only comments)", file)
 	}
 	o := climate.CSVOptions{
-		TimeColumn: c.String("time-column"),
-		DateColumn: c.String("date-column"),
-		HourColumn: c.String("hour-column"),
-		Decimal:    dec,
-		Unit:       c.String("unit"),
+		TimeColumn:  c.String("time-column"),
+		DateColumn:  c.String("date-column"),
+		HourColumn:  c.String("hour-column"),
+		Decimal:     dec,
+		DecimalHint: "--decimal ,",
+		Unit:        c.String("unit"),
 	}
 	if o.TimeColumn != "" && o.DateColumn != "" {
 		return o, "", userErr("give either --time-column or --date-column, not both")

@@ -314,6 +314,7 @@ func TestIndicesBadFiles(t *testing.T) {
 	text := write("text.csv", "time,air\n2024-01-01T00:00,1\n2024-01-01T01:00,warm\n")
 	hole := write("hole.csv", "time,air\n2024-01-01T00:00,1\n2024-01-01T01:00,2\n2024-01-01T02:00,2\n2024-01-01T12:00,2\n")
 	short := write("short.csv", good)
+	comma := write("comma.csv", "time;air\n2024-01-01T00:00;1\n2024-01-01T01:00;1,5\n")
 	two := write("two.csv", "time,air,wind\n2024-01-01T00:00,1,3\n")
 	notime := write("notime.csv", "stamp,air\n2024-01-01T00:00,1\n")
 	empty := write("empty.csv", "# only a comment\n\n")
@@ -324,7 +325,8 @@ func TestIndicesBadFiles(t *testing.T) {
 		{[]string{short, "--column", "aire"}, short + `:2: column "aire": no column "aire" in the header; did you mean "air"?`},
 		{[]string{backward}, backward + `:5: column "time": time goes backward`},
 		{[]string{text}, text + `:3: column "air": "warm" is not a number`},
-		{[]string{hole}, hole + `:5: column "time": gap of 10h0m0s`},
+		{[]string{hole}, hole + `:5: column "time": gap of 10 h between line 4`},
+		{[]string{comma}, comma + `:3: column "air": "1,5" is not a number (decimal comma? use --decimal ,)`},
 		{[]string{two}, two + `: 2 value columns ("air", "wind"): choose the temperature with --column`},
 		{[]string{notime}, notime + `: no column "time"`},
 		{[]string{short}, "fewer than two whole days"},
