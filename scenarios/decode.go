@@ -167,6 +167,11 @@ func yamlError(file string, data []byte, err error) error {
 	if te := (*yaml.TypeError)(nil); errors.As(err, &te) && len(te.Errors) > 0 {
 		msg = te.Errors[0]
 	}
+	if line > 0 && (msg == "did not find expected key" || msg == "did not find expected '-' indicator") {
+		if bad := firstFailingLine(data, line, msg); bad > line {
+			return &Error{File: file, Line: bad, Msg: "not valid YAML: this line is not indented like the lines above it (" + msg + ")"}
+		}
+	}
 	if line == 0 {
 		// yaml.v3 gives no line for some errors: an unclosed quote or
 		// bracket runs to the end of the file; others point at the top.
@@ -177,6 +182,28 @@ func yamlError(file string, data []byte, err error) error {
 		}
 	}
 	return &Error{File: file, Line: line, Msg: "not valid YAML: " + msg}
+}
+
+// firstFailingLine finds the line of a mis-indented key. yaml.v3 reports
+// "did not find expected key" (and "... '-' indicator") at the line where
+// the enclosing block starts (its context mark), not at the offending line.
+// The offending line is the first line n after from at which the file cut
+// after line n fails to parse with the same message msg; 0 when there is
+// none (the cut then fails otherwise, e.g. inside a multi-line quote).
+func firstFailingLine(data []byte, from int, msg string) int {
+	lines := bytes.SplitAfter(data, []byte("\n"))
+	for n := from + 1; n <= len(lines) && n <= from+2000; n++ {
+		var doc yaml.Node
+		err := yaml.Unmarshal(bytes.Join(lines[:n], nil), &doc)
+		if err == nil {
+			continue
+		}
+		if strings.HasSuffix(err.Error(), ": "+msg) {
+			return n
+		}
+		return 0
+	}
+	return 0
 }
 
 func (d *decoder) decodeOrientation(top *object, s *Scenario) {

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"errors"
 	"fmt"
 	"os"
 	"regexp"
@@ -37,6 +38,31 @@ func TestPeakRangesAgreeWithReadme(t *testing.T) {
 		}
 		if want := fmt.Sprintf("between %s and %s", lo, hi); !strings.Contains(err.Error(), want) {
 			t.Errorf("%s: message %q does not say %q (README.md)", tc.key, err, want)
+		}
+	}
+}
+
+// TestMisindentedKeyLine: yaml.v3 reports a mis-indented key at the line
+// where its block starts; the decoder names the offending line itself.
+func TestMisindentedKeyLine(t *testing.T) {
+	head := "title: x\nkind: wall\nlayers:\n  - material: clay-brick\n"
+	tests := []struct {
+		name, doc string
+		line      int
+	}{
+		{"key too far in", head + "    thickness: 0.1\noutside:\n  temperature: {mean: 5}\n   inside: 3\n", 8},
+		{"list item key short", head + "   thickness: 0.1\noutside:\n  temperature: {mean: 5}\n", 5},
+		{"top key indented", head + "    thickness: 0.1\n outside:\n  temperature: 5\n", 6},
+		{"nested key short", head + "    thickness: 0.1\noutside:\n  temperature:\n    mean: 5\n   daily: {amplitude: 3}\n", 9},
+	}
+	for _, tc := range tests {
+		_, err := Decode("x.yaml", []byte(tc.doc))
+		var se *Error
+		if !errors.As(err, &se) {
+			t.Fatalf("%s: %v, want an *Error", tc.name, err)
+		}
+		if se.Line != tc.line || !strings.Contains(se.Msg, "not indented like the lines above") {
+			t.Errorf("%s: line %d %q, want line %d naming the indentation", tc.name, se.Line, se.Msg, tc.line)
 		}
 	}
 }
