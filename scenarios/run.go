@@ -69,6 +69,7 @@ func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, err
 	}
 	r.SimulationSkipped = p.skipped
 	r.Warnings = append(r.Warnings, resistanceWarnings(s.Scenario)...)
+	r.Warnings = append(WarningTexts(Warnings(s.Scenario)), r.Warnings...)
 	r.TitleBlock = s.TitleBlock
 	r.Cautions = results.CautionsWith(r, recordWarnings(s.Scenario, r))
 	r.Records = s.records()

@@ -380,6 +380,10 @@ func checkCommand() *cli.Command {
 			if err := scenarios.Check(s); err != nil {
 				return asUserError(err)
 			}
+			// Values that are valid but most likely a unit slip.
+			for _, w := range scenarios.Warnings(s) {
+				fmt.Fprintf(c.App.ErrWriter, "tempstack: warning: %s\n", w)
+			}
 			fmt.Fprintf(c.App.Writer, "%s: ok: %s scenario %q, %d layers\n", s.File, s.Kind, s.Title, len(s.Layers))
 			return nil
 		},
