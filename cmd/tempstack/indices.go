@@ -99,6 +99,10 @@ func computeIndices(file string, c *cli.Context) (*climate.RecordIndices, error)
 	if err != nil {
 		return nil, err
 	}
+	if (o.Unit == "C" || o.Unit == "") && climate.LooksFahrenheit(col) {
+		// A plausibility warning, not an error: the name is not proof.
+		fmt.Fprintf(c.App.ErrWriter, "tempstack: warning: %s: column %q is named like degrees Fahrenheit but is read in degC (--unit C); if it holds degF, give --unit F\n", file, col)
+	}
 	s, maxGap, err := readIndicesRecord(data, file, o, maxGap)
 	if err != nil {
 		return nil, err

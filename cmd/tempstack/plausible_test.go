@@ -58,3 +58,27 @@ func TestPlausibilityWarningsShown(t *testing.T) {
 		t.Error("report.html does not show the warning")
 	}
 }
+
+// TestIndicesFahrenheitColumnWarns: indices reading a column named like
+// Fahrenheit in degC (the default --unit) warns on stderr and still
+// answers; with --unit F it is quiet.
+func TestIndicesFahrenheitColumnWarns(t *testing.T) {
+	path := writeTiny(t, "tiny.csv", ",", func(c float64) float64 { return c*9/5 + 32 }, false)
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(path, []byte(strings.Replace(string(data), "day,air\n", "day,air_F\n", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	args := []string{"indices", path, "--time-column", "day", "--max-gap", "400d"}
+	code, _, stderr := runCLI(t, args...)
+	want := `tempstack: warning: ` + path + `: column "air_F" is named like degrees Fahrenheit but is read in degC (--unit C); if it holds degF, give --unit F`
+	if code != 0 || !strings.Contains(stderr, want) {
+		t.Errorf("exit %d, stderr %q; want 0 and %q", code, stderr, want)
+	}
+	code, _, stderr = runCLI(t, append(args, "--unit", "F")...)
+	if code != 0 || stderr != "" {
+		t.Errorf("--unit F: exit %d, stderr %q; want 0 and nothing", code, stderr)
+	}
+}
