@@ -64,7 +64,13 @@ func Warnings(s *Scenario) []*Error {
 		w.layerList(mapValue(top, "layers"), "layers")
 		if vs := mapValue(top, "variants"); vs != nil && vs.Kind == yaml.SequenceNode {
 			for i, v := range vs.Content {
-				w.layerList(mapValue(mapValue(v, "set"), "layers"), fmt.Sprintf("variants[%d].set.layers", i+1))
+				set := mapValue(v, "set")
+				w.layerList(mapValue(set, "layers"), fmt.Sprintf("variants[%d].set.layers", i+1))
+				// Single values set by path: layers[2].thickness: 240.
+				for j := 0; set != nil && set.Kind == yaml.MappingNode && j+1 < len(set.Content); j += 2 {
+					k, val := set.Content[j], set.Content[j+1]
+					w.thicknessRange(val, fmt.Sprintf("variants[%d].set.%s", i+1, k.Value), k, []*yaml.Node{val})
+				}
 			}
 		}
 		w.studies(top)
@@ -234,7 +240,10 @@ func (w *warner) thicknessRange(block *yaml.Node, key string, param *yaml.Node, 
 		nums = append(nums, n.Value)
 		big = big || v > plausibleWallLayer
 	}
-	if big {
+	switch {
+	case big && len(nums) == 1:
+		w.add(block, key, "a bare %s for %s is read as %s m, thicker than any layer of a wall; write the unit, e.g. \"%s mm\"", nums[0], p, nums[0], nums[0])
+	case big:
 		w.add(block, key, "the thickness values %s of %s have no unit and are read in metres, thicker than any layer of a wall; write the unit, e.g. \"%s mm\"",
 			strings.Join(nums, ", "), p, nums[len(nums)-1])
 	}
