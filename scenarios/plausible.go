@@ -269,20 +269,24 @@ func (w *warner) series(n *yaml.Node, path string) {
 	if mapValue(n, "file") != nil {
 		unit, _ := scalarText(mapValue(n, "unit"))
 		celsius := unit == "" || unit == "C"
-		var cols []*yaml.Node
+		type column struct {
+			key  string
+			node *yaml.Node
+		}
+		var cols []column
 		switch {
 		case strings.HasSuffix(path, "temperature"):
-			cols = append(cols, mapValue(n, "column"))
+			cols = append(cols, column{join(path, "column"), mapValue(n, "column")})
 		case path == "analysis.fit":
 			if ss := mapValue(n, "sensors"); ss != nil && ss.Kind == yaml.SequenceNode {
-				for _, s := range ss.Content {
-					cols = append(cols, mapValue(s, "column"))
+				for i, s := range ss.Content {
+					cols = append(cols, column{fmt.Sprintf("%s.sensors[%d].column", path, i+1), mapValue(s, "column")})
 				}
 			}
 		}
 		for _, c := range cols {
-			if name, ok := scalarText(c); ok && celsius && climate.LooksFahrenheit(name) {
-				w.add(c, join(path, "column"), "column %q is named like degrees Fahrenheit but is read in degC (unit: C%s); if it holds degF, add unit: F",
+			if name, ok := scalarText(c.node); ok && celsius && climate.LooksFahrenheit(name) {
+				w.add(c.node, c.key, "column %q is named like degrees Fahrenheit but is read in degC (unit: C%s); if it holds degF, add unit: F",
 					name, map[bool]string{true: ", the default", false: ""}[unit == ""])
 			}
 		}

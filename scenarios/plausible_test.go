@@ -154,6 +154,23 @@ func TestPlausibilityRealisticFilesQuiet(t *testing.T) {
 			t.Errorf("%s warns: %v", f, ws)
 		}
 	}
+	// The fit's sensor columns are temperatures too.
+	src, err := os.ReadFile(filepath.Join("..", "testdata", "golden", "scenarios", "sensor-fit.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	rec, err := os.ReadFile(filepath.Join("..", "testdata", "golden", "scenarios", "sensors.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	fsysF := fstest.MapFS{"sensors.csv": {Data: []byte(strings.Replace(string(rec), "time,t20,", "time,t20_F,", 1))}}
+	s, err := DecodeFS("fit.yaml", []byte(strings.Replace(string(src), "column: t20}", "column: t20_F}", 1)), fsysF)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ws := Warnings(s); len(ws) != 1 || ws[0].Line != 15 || ws[0].Key != "analysis.fit.sensors[1].column" {
+		t.Errorf("fit sensor column t20_F: warnings %v, want one at line 15", ws)
+	}
 	for _, m := range layers.Materials() {
 		l := m.Layer()
 		if m.IsResistance() {
