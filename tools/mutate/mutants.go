@@ -326,4 +326,21 @@ var mutants = []Mutant{
 	{ID: "scen-wall-rsi-rse", File: "scenarios/run.go",
 		Old: "return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)", New: "return s.construction().Column(s.Inside.Resistance, s.Outside.Resistance)",
 		Desc: "wall column with the surface resistances swapped", Pkgs: pScenarios},
+
+	// --- plausibility warnings (unit slips) ---
+	{ID: "plaus-wall-layer", File: "scenarios/plausible.go",
+		Old: "plausibleWallLayer = 1.0", New: "plausibleWallLayer = 0.1",
+		Desc: "a bare 0.2 m wall layer taken for a unit slip", Pkgs: pScenarios},
+	{ID: "plaus-density", File: "scenarios/plausible.go",
+		Old: "plausibleDensity = 10.0", New: "plausibleDensity = 1.0",
+		Desc: "a density of 1.7 kg/m3 passes without a warning", Pkgs: pScenarios},
+	{ID: "plaus-metal-family", File: "scenarios/plausible.go",
+		Old: `if n := mapValue(l, k); n != nil && family != "metal" {`, New: `if n := mapValue(l, k); n != nil {`,
+		Desc: "a metal layer's conductivity warned as a slip", Pkgs: pScenarios},
+	{ID: "layers-closest-words", File: "layers/suggest.go",
+		Old: "case shared > 0:", New: "case shared > 99:",
+		Desc: "did-you-mean by edit distance only (brick suggests rock)", Pkgs: pLayers},
+	{ID: "climate-fahrenheit-word", File: "climate/unitname.go",
+		Old: `if w == "f" || w == "degf"`, New: `if w == "degf"`,
+		Desc: "a column temp_F not taken for Fahrenheit", Pkgs: pClimate},
 }
