@@ -88,7 +88,7 @@ func (d *decoder) decodeSeries(o *object, valueUnit string) *Measured {
 // seriesOptions reads how the CSV file of a series block is read: its time
 // columns, number format, unit and longest gap.
 func (d *decoder) seriesOptions(o *object, col, valueUnit string) (climate.CSVOptions, bool) {
-	opt := climate.CSVOptions{Columns: []string{col}, DecimalHint: `decimal: "," in the series block`}
+	opt := climate.CSVOptions{Columns: []string{col}, DecimalHint: `decimal: "," next to its file: key`}
 	if len(d.extraColumns) > 0 {
 		opt.Columns = d.extraColumns
 	}
