@@ -37,7 +37,7 @@ func (l Layer) IsMix() bool { return len(l.Mix) > 0 }
 // The layer returned carries the parts in Mix and, until
 // Construction.Homogenised replaces it, the equivalent conductivity of
 // the lower limit of ISO 6946 (clause 6.7.2.3 of the 2017 edition, 6.2.4
-// of 2007 [memory]): lambda'' = d / R'', 1/R'' = sum f_m / R_m, with R_m
+// of 2007 [memory]): lambda_lo = d / R_lo, 1/R_lo = sum f_m / R_m, with R_m
 // = d/lambda_m (or an air part's resistance). Density and volumetric heat
 // capacity are the area-fraction-weighted means, rho = sum f_m rho_m and
 // rho c = sum f_m rho_m c_m (the heat stored by the parts side by side;

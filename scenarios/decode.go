@@ -51,7 +51,7 @@ func cleanOSError(err error) string {
 
 var (
 	topKeys      = []string{"title", "description", "project", "client", "prepared_by", "revision", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
-	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil", "family"}
+	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil", "family", "mix"}
 	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
 	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
@@ -125,6 +125,9 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*S
 	d.decodeAnalysis(top, s, layersClean)
 	d.decodeStudy(top, s)
 	if err := d.err(); err != nil {
+		return nil, err
+	}
+	if err := homogeniseMixes(s); err != nil {
 		return nil, err
 	}
 	if s.Analysis.Simulate != nil && s.Outside.Temperature != nil {
