@@ -318,8 +318,6 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 	return l
 }
 
-// mixPartKeys are the keys of one part of a mixed layer.
-var mixPartKeys = []string{"material", "name", "fraction", "conductivity", "density", "specific_heat"}
 
 // decodeMix reads a mixed layer (studs in insulation, mortar joints in
 // blockwork): a thickness and a mix list of parts, each a library
@@ -328,7 +326,7 @@ var mixPartKeys = []string{"material", "name", "fraction", "conductivity", "dens
 // equivalent homogeneous layer is fixed once the surface resistances are
 // known (homogeniseMixes).
 func (d *decoder) decodeMix(o *object, index int) layers.Layer {
-	for _, k := range layerKeys {
+	for _, k := range layerKeys.names() {
 		if o.has(k) && k != "mix" && k != "name" && k != "thickness" && k != "family" {
 			o.failf(k, "a mixed layer takes its properties from its parts: give %s inside a part of mix, or drop mix", k)
 		}
