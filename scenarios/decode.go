@@ -49,7 +49,6 @@ func cleanOSError(err error) string {
 	return err.Error()
 }
 
-
 // Decode decodes a scenario from data; file names it in error messages and
 // files the scenario names (CSV series) are read relative to its folder.
 func Decode(file string, data []byte) (*Scenario, error) {

@@ -318,7 +318,6 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 	return l
 }
 
-
 // decodeMix reads a mixed layer (studs in insulation, mortar joints in
 // blockwork): a thickness and a mix list of parts, each a library
 // material or inline properties with the fraction of the face area it

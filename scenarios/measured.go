@@ -32,7 +32,6 @@ func (m *Measured) Span() (float64, float64) {
 	return m.Series.T[0], m.Series.T[len(m.Series.T)-1]
 }
 
-
 // decodeSeries reads a `{file: ..., column: ...}` block: a CSV series named
 // relative to the scenario file. valueUnit is "C" for temperatures or
 // "W/m2" for irradiance. It returns nil after a mistake (reported).
