@@ -282,3 +282,61 @@ func TestNewMixErrors(t *testing.T) {
 		t.Errorf("air part resistance %g, want 0.18", r)
 	}
 }
+
+// The timber-framed wall example of the Scottish Executive's guidance:
+// Building (Scotland) Act 2003, consultation on building regulations and
+// guidance document (non-domestic), Annex 6.B "Worked examples of U-value
+// calculations using the combined method", 6.B.2 "Timber framed wall
+// example". Read from it [read]: the resistances Rse 0.040, bricks 0.132,
+// air cavity 0.090, plywood 0.146, mineral wool 3.333 (90.5 % of the
+// face), timber studs 1.077 (9.5 %), plasterboard 0.100, Rsi 0.130 m2 K/W,
+// and the path totals R1 = 3.971 (through the wool) and R2 = 1.715 m2 K/W
+// (through a stud). The limits the document goes on to give could not be
+// read; they are computed here from those inputs with the formulas of
+// ISO 6946 [derived]:
+//
+//	upper: 1/(0.905/3.971 + 0.095/1.715) = 3.5299
+//	lower: 0.638 + 1/(0.905/3.333 + 0.095/1.077) = 0.638 + 2.7798 = 3.4178
+//	R_T = 3.4739, U = 0.2879 W/(m2 K), e = 1.61 %
+func TestCombinedScottishAnnexExample(t *testing.T) {
+	res := func(name string, r float64) Layer { return Layer{Name: name, Resistance: r} }
+	const d = 0.14 // thickness of the stud layer; only the resistances matter
+	c := Construction{Layers: []Layer{
+		res("bricks", 0.132),
+		res("air cavity", 0.090),
+		res("plywood", 0.146),
+		mustMix(t, "studs in wool", d,
+			MixPart{Layer: massive("mineral wool", 0, d/3.333, 30, 1030), Fraction: 0.905},
+			MixPart{Layer: massive("timber studs", 0, d/1.077, 500, 1600), Fraction: 0.095}),
+		res("plasterboard", 0.100),
+	}}
+	// The path totals of the document, as this construction gives them.
+	plain := 0.040 + 0.132 + 0.090 + 0.146 + 0.100 + 0.130
+	for _, p := range []struct {
+		name string
+		got  float64
+		want float64
+	}{{"R1 (wool)", plain + c.Layers[3].Mix[0].Layer.ThermalResistance(), 3.971}, {"R2 (stud)", plain + c.Layers[3].Mix[1].Layer.ThermalResistance(), 1.715}} {
+		if math.Abs(p.got-p.want) > 5e-4 {
+			t.Errorf("%s = %.4f, the document gives %.3f", p.name, p.got, p.want)
+		}
+	}
+	got, err := c.Combined(0.130, 0.040)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, q := range []struct {
+		name      string
+		got, want float64
+	}{
+		{"upper", got.Upper, 3.5299},
+		{"lower", got.Lower, 3.4178},
+		{"total", got.Total, 3.4739},
+		{"U", 1 / got.Total, 0.2879},
+		{"relative error", got.RelativeError, 0.016128},
+	} {
+		if !near(q.got, q.want, 2e-4) {
+			t.Errorf("%s = %.5g, want %.5g", q.name, q.got, q.want)
+		}
+	}
+}
