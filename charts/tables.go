@@ -192,6 +192,13 @@ func steadyTable(r *results.Results) *block {
 	t.row("Inside surface resistance Rsi", sig(s.InsideSurfaceResistance, 3), "m²·K/W")
 	t.row("Outside surface resistance Rse", sig(s.OutsideSurfaceResistance, 3), "m²·K/W")
 	t.row("Total resistance, environment to environment", sig(s.TotalResistance_m2K_W, 3), "m²·K/W")
+	if cm := s.CombinedMethod; cm != nil {
+		t.row("Upper limit R′T (heat-flow paths side by side)", sig(cm.UpperLimit_m2K_W, 4), "m²·K/W")
+		t.row("Lower limit R″T (layers in series, mixed layers averaged)", sig(cm.LowerLimit_m2K_W, 4), "m²·K/W")
+		t.row("Combined method RT = (R′T + R″T)/2", sig(cm.Mean_m2K_W, 4), "m²·K/W")
+		t.row("Relative error e = (R′T − R″T)/(2 RT)", sig(100*cm.RelativeError, 2), "%")
+		t.Notes = append(t.Notes, "A layer is mixed: U and the total resistance are those of the combined method of ISO 6946. For the periodic analysis and the simulation "+cm.Equivalent+".")
+	}
 	return &block{Table: t}
 }
 
@@ -349,6 +356,10 @@ func methods(r *results.Results) []string {
 	} else {
 		m = append(m, fmt.Sprintf("Steady state: layers in series with the surface resistances of ISO 6946 (here Rsi = %s and Rse = %s m²·K/W); U = 1 / (Rsi + ΣR + Rse).",
 			sig(s.InsideSurfaceResistance, 3), sig(s.OutsideSurfaceResistance, 3)))
+		if cm := s.CombinedMethod; cm != nil {
+			m = append(m, fmt.Sprintf("Mixed layers (studs in insulation, mortar joints): the combined method of ISO 6946 (clause 6.7 of ISO 6946:2017). Upper limit R′T: the %d heat-flow paths side by side, each path in series from environment to environment, 1/R′T = Σ fp/RTp (the parts of different mixed layers taken as laid out independently, path fraction = product of the parts' fractions). Lower limit R″T: the layers in series, each mixed layer as its parts side by side, 1/R″j = Σ fm/Rmj. RT = (R′T + R″T)/2, relative error e = (R′T − R″T)/(2 RT). For the periodic analysis and the simulation %s.",
+				cm.Paths, cm.Equivalent))
+		}
 	}
 	if r.Kind != results.Ground {
 		m = append(m, "Periodic properties: heat transfer matrices of ISO 13786 for each period, layers in series with the surface resistances. Decrement factor f = |Y₁₂|/U (periodic over steady thermal transmittance); time shift from the argument of Y₁₂; admittances Y₁₁ and Y₂₂; areal heat capacities κ₁ and κ₂.")

@@ -164,6 +164,12 @@ type Layer struct {
 	Resistance   float64 // m2 K/W, resistance layers only
 
 	Freeze *solver.Freezing // latent heat of pore water; nil: none
+
+	// Mix holds the parts of a mixed layer (studs in insulation, mortar
+	// joints in blockwork; see NewMix); nil for a homogeneous layer. The
+	// properties above are then those of the equivalent homogeneous layer
+	// (see Construction.Homogenised).
+	Mix []MixPart
 }
 
 // NewLayer makes a layer of the given thickness (m) from the library

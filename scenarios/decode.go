@@ -49,19 +49,6 @@ func cleanOSError(err error) string {
 	return err.Error()
 }
 
-var (
-	topKeys      = []string{"title", "description", "project", "client", "prepared_by", "revision", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
-	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil", "family"}
-	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
-	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
-	surfaceKeys  = []string{"resistance", "temperature", "n_factor", "cover"}
-	bottomKeys   = []string{"temperature", "heat_flux", "adiabatic"}
-	tempKeys     = []string{"mean", "daily", "annual", "harmonics", "step"}
-	analysisKeys = []string{"periods", "response", "probes", "simulate", "step_response", "design_freezing_index", "design_season_length", "fit"}
-	simulateKeys = []string{"start", "duration", "step", "output_step", "initial_temperature", "mesh", "spin_up_cycles"}
-	meshKeys     = []string{"surface_cell", "growth", "max_cell", "cells_per_depth", "min_cells_per_layer"}
-)
-
 // Decode decodes a scenario from data; file names it in error messages and
 // files the scenario names (CSV series) are read relative to its folder.
 func Decode(file string, data []byte) (*Scenario, error) {
@@ -127,6 +114,9 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*S
 	if err := d.err(); err != nil {
 		return nil, err
 	}
+	if err := homogeniseMixes(s); err != nil {
+		return nil, err
+	}
 	if s.Analysis.Simulate != nil && s.Outside.Temperature != nil {
 		// Resolved here, once: no run changes a decoded scenario.
 		simDefaults(s)
@@ -146,7 +136,7 @@ func (d *decoder) decodeHeader(top *object, s *Scenario) {
 	top.str("description", &s.Description)
 	decodeTitleBlock(top, s)
 	var kind string
-	if top.choice("kind", []string{string(Wall), string(Ground)}, &kind) {
+	if top.choice("kind", kindWords(), &kind) {
 		s.Kind = Kind(kind)
 	} else if !top.has("kind") {
 		top.missing("kind", "wall or ground")

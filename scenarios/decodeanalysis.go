@@ -89,7 +89,7 @@ func (d *decoder) decodeDesign(o *object, s *Scenario) {
 
 // decodeResponse reads the range of the frequency response.
 func (d *decoder) decodeResponse(o *object, a *Analysis) {
-	r := o.child("response", []string{"from", "to", "points"})
+	r := o.child("response", responseKeys)
 	if r == nil {
 		return
 	}
@@ -214,7 +214,7 @@ func (o *object) number(key string, lo, hi float64, msg string, dst *float64) bo
 
 // decodeStepResponse reads analysis.step_response.
 func (d *decoder) decodeStepResponse(o *object, s *Scenario) {
-	so := o.child("step_response", []string{"side", "change", "duration", "contact_temperature", "contact_effusivity"})
+	so := o.child("step_response", stepResponseKeys)
 	if so == nil {
 		return
 	}

@@ -36,6 +36,9 @@ func (d *decoder) decodeLayers(top *object, s *Scenario) bool {
 // soil, or properties given inline (or a bare resistance), each key of it
 // overriding the library. index counts the layers read before it.
 func (d *decoder) decodeLayer(o *object, index int) layers.Layer {
+	if o.has("mix") {
+		return d.decodeMix(o, index)
+	}
 	l, fromLibrary := d.layerBase(o)
 	o.str("name", &l.Name)
 	var thickness float64
@@ -313,4 +316,100 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 	l.Name = fmt.Sprintf("%s, %.0f kg/m3 dry, %.0f %% water", tex, soil.DryDensity, 100*soil.WaterContent)
 	l.Source = "soil model: conductivity " + soil.Model.Label() + "; volumetric heat capacity of solids plus water or ice; latent heat = dry density × water content × 334 kJ/kg"
 	return l
+}
+
+// decodeMix reads a mixed layer (studs in insulation, mortar joints in
+// blockwork): a thickness and a mix list of parts, each a library
+// material or inline properties with the fraction of the face area it
+// takes. The layer's properties come from its parts (layers.NewMix); the
+// equivalent homogeneous layer is fixed once the surface resistances are
+// known (homogeniseMixes).
+func (d *decoder) decodeMix(o *object, index int) layers.Layer {
+	for _, k := range layerKeys.names() {
+		if o.has(k) && k != "mix" && k != "name" && k != "thickness" && k != "family" {
+			o.failf(k, "a mixed layer takes its properties from its parts: give %s inside a part of mix, or drop mix", k)
+		}
+	}
+	var name string
+	o.str("name", &name)
+	var thickness float64
+	if !o.positive("thickness", layers.Length, &thickness) && !o.has("thickness") {
+		o.missing("thickness", `e.g. "140 mm" or 0.14 (m)`)
+	}
+	items, ok := o.list("mix")
+	if ok && len(items) == 0 {
+		o.failf("mix", "the list is empty; give the parts, e.g. [{material: softwood, fraction: 15 %%}, {material: mineral-wool, fraction: 85 %%}]")
+	}
+	var parts []layers.MixPart
+	for i, n := range items {
+		po := d.object(n, fmt.Sprintf("%s.mix[%d]", o.path, i+1), mixPartKeys)
+		if po == nil {
+			continue
+		}
+		p := layers.MixPart{}
+		var fromLibrary bool
+		p.Layer, fromLibrary = d.layerBase(po)
+		po.str("name", &p.Layer.Name)
+		po.positive("conductivity", layers.Conductivity, &p.Layer.Conductivity)
+		po.positive("density", layers.Density, &p.Layer.Density)
+		po.positive("specific_heat", layers.SpecificHeat, &p.Layer.SpecificHeat)
+		if !fromLibrary {
+			if p.Layer.Name == "" {
+				p.Layer.Name = fmt.Sprintf("part %d", i+1)
+			}
+			p.Layer.Source = "given in the scenario"
+			for _, k := range []string{"conductivity", "density", "specific_heat"} {
+				if !po.has(k) {
+					po.missing(k, "a part without a library material needs conductivity, density and specific_heat (or a material key)")
+					break
+				}
+			}
+		} else if po.has("conductivity") || po.has("density") || po.has("specific_heat") {
+			p.Layer.Source = "given in the scenario (overrides the library value)"
+		}
+		if po.positive("fraction", layers.Fraction, &p.Fraction) && p.Fraction > 1 {
+			po.failf("fraction", "a fraction of the layer's face area must not exceed 1 (100 %%), got %s", po.values["fraction"].Value)
+		} else if !po.has("fraction") {
+			po.missing("fraction", "the part of the layer's face area, e.g. 15 % or 0.15")
+		}
+		parts = append(parts, p)
+	}
+	var l layers.Layer
+	if o.clean() && ok && len(items) > 0 {
+		var err error
+		if l, err = layers.NewMix(name, thickness, parts); err != nil {
+			o.d.fail(o.keys["mix"], join(o.path, "mix"), err) // at the key: the list starts a line below
+		}
+		if name == "" {
+			l.Name = fmt.Sprintf("layer %d (%s)", index+1, l.MixLabel())
+		}
+	}
+	decodeFamily(o, &l)
+	return l
+}
+
+// homogeniseMixes replaces each mixed layer of s by its equivalent
+// homogeneous layer (layers.Construction.Homogenised) with the scenario's
+// surface resistances: the conductivity that makes the layers in series
+// give the combined method's total resistance. A ground column has no
+// inside surface resistance.
+func homogeniseMixes(s *Scenario) error {
+	c := s.construction()
+	if !c.HasMix() {
+		return nil
+	}
+	rsi := 0.0
+	if s.Kind == Wall {
+		rsi = s.Inside.Resistance
+	}
+	h, _, err := c.Homogenised(rsi, s.Outside.Resistance)
+	if err != nil {
+		line := 0
+		if len(s.LayerLines) > 0 {
+			line = s.LayerLines[0]
+		}
+		return &Error{File: s.File, Line: line, Key: "layers", Err: err}
+	}
+	s.Layers = h.Layers
+	return nil
 }

@@ -141,7 +141,7 @@ func (d *decoder) decodeForcing(parent *object, key string, kind forcingKind) *F
 		}
 		return f
 	}
-	o := d.object(parent.values[key], join(parent.path, key), append(append([]string(nil), tempKeys...), seriesKeys...))
+	o := d.object(parent.values[key], join(parent.path, key), forcingKeys)
 	if o == nil {
 		return nil
 	}
@@ -165,7 +165,7 @@ func (d *decoder) decodeForcing(parent *object, key string, kind forcingKind) *F
 // decodeMeasuredForcing reads a forcing given as a CSV series, and fits its
 // mean and harmonics.
 func (d *decoder) decodeMeasuredForcing(o *object, kind forcingKind, f *Forcing) {
-	for _, k := range tempKeys {
+	for _, k := range tempKeys.names() {
 		if o.has(k) {
 			o.failf(k, "a measured series stands alone; remove %s or file", k)
 			return
@@ -186,7 +186,7 @@ func (d *decoder) decodeMeasuredForcing(o *object, kind forcingKind, f *Forcing)
 
 // rejectSeriesKeys reports the keys of a series in a forcing without file.
 func rejectSeriesKeys(o *object) bool {
-	for _, k := range seriesKeys {
+	for _, k := range seriesKeys.names() {
 		if o.has(k) {
 			o.failf(k, "belongs to a measured series: give file too")
 			return true
@@ -197,7 +197,7 @@ func rejectSeriesKeys(o *object) bool {
 
 // decodeStepForcing reads {step: {from, to, at}}.
 func (d *decoder) decodeStepForcing(o *object, f *Forcing) {
-	st := o.child("step", []string{"from", "to", "at"})
+	st := o.child("step", stepKeys)
 	if st == nil {
 		return
 	}
@@ -236,7 +236,7 @@ func (d *decoder) decodeHarmonicForcing(o *object, kind forcingKind, f *Forcing)
 	}
 	items, _ := o.list("harmonics")
 	for i, n := range items {
-		ho := d.object(n, fmt.Sprintf("%s.harmonics[%d]", o.path, i+1), []string{"period", "amplitude", "peak"})
+		ho := d.object(n, fmt.Sprintf("%s.harmonics[%d]", o.path, i+1), harmonicKeys)
 		if ho == nil {
 			continue
 		}
@@ -255,7 +255,7 @@ func (d *decoder) decodeHarmonicForcing(o *object, kind forcingKind, f *Forcing)
 // harmonicBlock decodes {amplitude, peak_X} where the peak is given in
 // units of unit seconds (hours for daily, days for annual).
 func (d *decoder) harmonicBlock(o *object, key, peakKey string, period, unit float64, ampKind layers.Kind) (climate.Harmonic, bool) {
-	c := o.child(key, []string{"amplitude", peakKey})
+	c := o.child(key, map[string]*keyTable{"peak_hour": dailyKeys, "peak_day": annualKeys}[peakKey])
 	if c == nil {
 		return climate.Harmonic{}, false
 	}
@@ -303,7 +303,7 @@ func (d *decoder) decodeNFactors(o *object, side *Side) {
 			if o.positive("n_factor", layers.Fraction, &n) {
 				side.NFreezing, side.NThawing = n, n
 			}
-		} else if no := o.child("n_factor", []string{"freezing", "thawing"}); no != nil {
+		} else if no := o.child("n_factor", nFactorKeys); no != nil {
 			no.positive("freezing", layers.Fraction, &side.NFreezing)
 			no.positive("thawing", layers.Fraction, &side.NThawing)
 		}

@@ -22,7 +22,7 @@ type FitSpec struct {
 }
 
 func (d *decoder) decodeFit(parent *object, s *Scenario) {
-	o := parent.child("fit", []string{"file", "time_column", "date_column", "hour_column", "decimal", "separator", "unit", "max_gap", "sensors", "periods", "bottom"})
+	o := parent.child("fit", fitKeys)
 	if o == nil {
 		return
 	}
@@ -73,7 +73,7 @@ func (d *decoder) decodeSensors(o *object, spec *FitSpec) bool {
 	}
 	clean := true
 	for i, n := range items {
-		so := d.object(n, fmt.Sprintf("analysis.fit.sensors[%d]", i+1), []string{"depth", "column"})
+		so := d.object(n, fmt.Sprintf("analysis.fit.sensors[%d]", i+1), sensorKeys)
 		if so == nil {
 			clean = false
 			continue

@@ -32,8 +32,6 @@ func (m *Measured) Span() (float64, float64) {
 	return m.Series.T[0], m.Series.T[len(m.Series.T)-1]
 }
 
-var seriesKeys = []string{"file", "time_column", "date_column", "hour_column", "column", "decimal", "separator", "unit", "max_gap"}
-
 // decodeSeries reads a `{file: ..., column: ...}` block: a CSV series named
 // relative to the scenario file. valueUnit is "C" for temperatures or
 // "W/m2" for irradiance. It returns nil after a mistake (reported).
@@ -209,7 +207,7 @@ type Solar struct {
 }
 
 func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) {
-	so := o.child("solar", []string{"absorptance", "irradiance", "sky_correction"})
+	so := o.child("solar", solarKeys)
 	if so == nil {
 		return
 	}

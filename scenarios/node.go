@@ -75,8 +75,9 @@ type object struct {
 	keys   map[string]*yaml.Node
 	values map[string]*yaml.Node
 
-	opened  int  // d.reported when the object was opened
-	unknown bool // an unknown or repeated key was reported
+	table   *keyTable // the keys allowed here, with their forms
+	opened  int       // d.reported when the object was opened
+	unknown bool      // an unknown or repeated key was reported
 }
 
 func join(path, key string) string {
@@ -104,8 +105,9 @@ func kindName(n *yaml.Node) string {
 // duplicates, and returns it for lookups. It reports an unknown or repeated
 // key and leaves it out; it reports and returns nil when n is not a
 // mapping.
-func (d *decoder) object(n *yaml.Node, path string, allowed []string) *object {
-	o := &object{d: d, node: n, path: path, keys: map[string]*yaml.Node{}, values: map[string]*yaml.Node{}, opened: d.reported}
+func (d *decoder) object(n *yaml.Node, path string, table *keyTable) *object {
+	allowed := table.names()
+	o := &object{d: d, node: n, path: path, table: table, keys: map[string]*yaml.Node{}, values: map[string]*yaml.Node{}, opened: d.reported}
 	if n != nil && n.Kind == yaml.ScalarNode && n.Tag == "!!null" {
 		n2 := *n
 		o.node = &n2
@@ -231,6 +233,7 @@ func (o *object) str(key string, dst *string) bool {
 	if !o.has(key) {
 		return false
 	}
+	o.expect(key, read{shape: shapeText})
 	s, ok := o.scalar(key)
 	if ok {
 		*dst = s
@@ -240,6 +243,7 @@ func (o *object) str(key string, dst *string) bool {
 
 // quantity reads a quantity of the given kind in SI units.
 func (o *object) quantity(key string, kind layers.Kind, dst *float64) bool {
+	o.expect(key, read{shape: shapeQuantity, kind: kind})
 	var s string
 	if !o.str(key, &s) {
 		return false
@@ -283,6 +287,7 @@ func (o *object) nonNegative(key string, kind layers.Kind, dst *float64) bool {
 
 // boolean reads true/false (also yes/no, on/off).
 func (o *object) boolean(key string, dst *bool) bool {
+	o.expect(key, read{shape: shapeBool})
 	var s string
 	if !o.str(key, &s) {
 		return false
@@ -301,6 +306,7 @@ func (o *object) boolean(key string, dst *bool) bool {
 
 // integer reads a whole number from lo to hi.
 func (o *object) integer(key string, lo, hi int, dst *int) bool {
+	o.expect(key, read{shape: shapeInteger})
 	var s string
 	if !o.str(key, &s) {
 		return false
@@ -320,6 +326,7 @@ func (o *object) integer(key string, lo, hi int, dst *int) bool {
 
 // choice reads a word from a fixed list, with a did-you-mean.
 func (o *object) choice(key string, allowed []string, dst *string) bool {
+	o.expect(key, read{shape: shapeChoice, words: allowed})
 	var s string
 	if !o.str(key, &s) {
 		return false
@@ -342,6 +349,7 @@ func (o *object) list(key string) ([]*yaml.Node, bool) {
 	if !o.has(key) {
 		return nil, false
 	}
+	o.expect(key, read{shape: shapeList})
 	v := o.values[key]
 	if v.Kind != yaml.SequenceNode {
 		o.failf(key, "expected a list, found %s", kindName(v))
@@ -352,11 +360,12 @@ func (o *object) list(key string) ([]*yaml.Node, bool) {
 
 // child opens a nested mapping; nil when the key is absent or not a
 // mapping (reported).
-func (o *object) child(key string, allowed []string) *object {
+func (o *object) child(key string, table *keyTable) *object {
 	if !o.has(key) {
 		return nil
 	}
-	return o.d.object(o.values[key], join(o.path, key), allowed)
+	o.expect(key, read{shape: shapeObject, table: table})
+	return o.d.object(o.values[key], join(o.path, key), table)
 }
 
 // fraction reads a non-negative fraction (0.15 or "15 %"). A bare number

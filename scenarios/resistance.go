@@ -40,7 +40,7 @@ func (d *decoder) decodeResistance(o *object, side *Side) {
 		o.nonNegative("resistance", layers.Resistance, &side.Resistance)
 		return
 	}
-	ro := o.child("resistance", []string{"value", "periods"})
+	ro := o.child("resistance", sideResistanceKeys)
 	if ro == nil {
 		return
 	}
@@ -52,7 +52,7 @@ func (d *decoder) decodeResistance(o *object, side *Side) {
 		ro.missing("periods", "a list of {from_day, to_day, value}; a constant resistance is a plain number")
 	}
 	for i, n := range items {
-		po := d.object(n, fmt.Sprintf("%s.periods[%d]", ro.path, i+1), []string{"from_day", "to_day", "value"})
+		po := d.object(n, fmt.Sprintf("%s.periods[%d]", ro.path, i+1), resistancePeriodKeys)
 		if po == nil {
 			continue
 		}

@@ -115,6 +115,13 @@ func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 		InsideSurfaceResistance:  rsi,
 		OutsideSurfaceResistance: rse,
 	}
+	if c.HasMix() {
+		cm, err := combinedMethod(c, rsi, rse)
+		if err != nil {
+			return nil, &Error{File: s.File, Key: "layers", Err: err}
+		}
+		r.Steady.CombinedMethod = cm
+	}
 	r.Layers = layerResults(s.Layers, s.Analysis.Periods[0])
 
 	for _, per := range s.Analysis.Periods {
@@ -142,6 +149,27 @@ func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 	return r, nil
 }
 
+// EquivalentLayerNote says how the periodic analysis and the simulation
+// treat a mixed layer (layers.Construction.Homogenised).
+const EquivalentLayerNote = "each mixed layer is replaced by an equivalent homogeneous layer: conductivity chosen so that the layers in series give the combined method's R_T (the layer's lower-limit resistance plus its share, in proportion to that resistance, of R_T − R''_T), density and volumetric heat capacity weighted by area fraction"
+
+// combinedMethod is the combined method of ISO 6946 for construction c
+// with mixed layers, for results.json.
+func combinedMethod(c layers.Construction, rsi, rse float64) (*results.CombinedMethod, error) {
+	cr, err := c.Combined(rsi, rse)
+	if err != nil {
+		return nil, err
+	}
+	return &results.CombinedMethod{
+		UpperLimit_m2K_W: cr.Upper,
+		LowerLimit_m2K_W: cr.Lower,
+		Mean_m2K_W:       cr.Total,
+		RelativeError:    cr.RelativeError,
+		Paths:            cr.Paths,
+		Equivalent:       EquivalentLayerNote,
+	}, nil
+}
+
 func layerResults(ls []layers.Layer, period float64) []results.Layer {
 	out := make([]results.Layer, len(ls))
 	for i, l := range ls {
@@ -160,6 +188,17 @@ func layerResults(ls []layers.Layer, period float64) []results.Layer {
 			out[i].PenetrationDepth_m = l.PenetrationDepth(period)
 			out[i].Diffusivity_m2_s = l.Diffusivity()
 			out[i].Effusivity_Ws05_m2K = l.Effusivity()
+		}
+		for _, p := range l.Mix {
+			out[i].Mix = append(out[i].Mix, results.MixPart{
+				Name:               p.Layer.Name,
+				Material:           p.Layer.MaterialKey,
+				Fraction:           p.Fraction,
+				Conductivity_W_mK:  p.Layer.Conductivity,
+				Density_kg_m3:      p.Layer.Density,
+				SpecificHeat_J_kgK: p.Layer.SpecificHeat,
+				Resistance_m2K_W:   p.Layer.ThermalResistance(),
+			})
 		}
 		if f := l.Freeze; f != nil {
 			out[i].Freezing = true

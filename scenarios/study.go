@@ -195,13 +195,13 @@ func summarize(r *results.Results) results.Summary {
 func (d *decoder) decodeStudy(top *object, s *Scenario) {
 	var st StudySpec
 	st.Variants = d.decodeVariants(top)
-	if o := top.child("sweep", []string{"parameter", "from", "to", "steps", "values"}); o != nil {
+	if o := top.child("sweep", sweepKeys); o != nil {
 		st.Sweep = d.decodeSweep(o)
 	}
-	if o := top.child("target", []string{"parameter", "from", "to", "quantity", "at_least", "at_most", "prefer", "tolerance"}); o != nil {
+	if o := top.child("target", targetKeys); o != nil {
 		st.Target = d.decodeTarget(o, s)
 	}
-	if o := top.child("uncertainty", []string{"samples", "seed", "vary"}); o != nil {
+	if o := top.child("uncertainty", uncertaintyKeys); o != nil {
 		st.Uncertainty = d.decodeUncertainty(o)
 	}
 	if st.Variants != nil || st.Sweep != nil || st.Target != nil || st.Uncertainty != nil {
@@ -221,7 +221,7 @@ func (d *decoder) decodeVariants(top *object) []VariantSpec {
 	var out []VariantSpec
 	names := map[string]bool{}
 	for i, n := range items {
-		o := d.object(n, fmt.Sprintf("variants[%d]", i+1), []string{"name", "set"})
+		o := d.object(n, fmt.Sprintf("variants[%d]", i+1), variantKeys)
 		if o == nil {
 			continue
 		}
@@ -245,6 +245,7 @@ func (d *decoder) decodeSets(o *object) []setSpec {
 	}
 	// Parameter paths are free text, so the mapping is read directly
 	// rather than checked against a list of keys.
+	o.expect("set", read{shape: shapeMap})
 	v := o.values["set"]
 	if v.Kind != yaml.MappingNode {
 		o.failf("set", "expected a mapping of parameter: value lines")
@@ -413,7 +414,7 @@ func (d *decoder) decodeUncertainty(o *object) *UncertaintySpec {
 		return u
 	}
 	for i, n := range items {
-		vo := d.object(n, fmt.Sprintf("uncertainty.vary[%d]", i+1), []string{"parameter", "normal", "uniform"})
+		vo := d.object(n, fmt.Sprintf("uncertainty.vary[%d]", i+1), varyKeys)
 		if vo != nil {
 			u.Vary = append(u.Vary, d.decodeVary(vo))
 		}
@@ -429,7 +430,7 @@ func (d *decoder) decodeVary(vo *object) VarySpec {
 	case vo.has("normal") && vo.has("uniform"):
 		vo.failf("uniform", "give either normal or uniform")
 	case vo.has("normal"):
-		no := vo.child("normal", []string{"mean", "sd"})
+		no := vo.child("normal", normalKeys)
 		if no == nil {
 			break
 		}
@@ -439,7 +440,7 @@ func (d *decoder) decodeVary(vo *object) VarySpec {
 		}
 		vs.Normal, vs.A, vs.B, vs.Unit = true, m, sd, u1
 	case vo.has("uniform"):
-		uo := vo.child("uniform", []string{"min", "max"})
+		uo := vo.child("uniform", uniformKeys)
 		if uo == nil {
 			break
 		}

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"tempstack/scenarios"
 )
 
 // readResults runs `run` on args into a new folder and returns stdout,
@@ -87,6 +89,8 @@ func TestGroundStarterOpensWithCaution(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
+	// The editor's schema line may come first; the caution comes before any key.
+	out = strings.TrimPrefix(out, "# yaml-language-server: $schema="+scenarios.SchemaFile+"\n")
 	first, _, _ := strings.Cut(out, "\ntitle:")
 	if !strings.HasPrefix(out, "# CAUTION:") {
 		t.Errorf("starter begins %q, want the caution", out[:min(len(out), 60)])

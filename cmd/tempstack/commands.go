@@ -502,7 +502,47 @@ func newCommand() *cli.Command {
 				return err
 			}
 			fmt.Fprintf(c.App.Writer, "wrote %s; edit it, then `tempstack run %s`\n", out, out)
+			// The starter's first line points editors at the schema beside it.
+			schemaPath := filepath.Join(filepath.Dir(out), scenarios.SchemaFile)
+			schema, err := scenarios.Schema()
+			if err != nil {
+				return err
+			}
+			if old, err := os.ReadFile(schemaPath); err == nil && bytes.Equal(old, schema) {
+				return nil
+			}
+			if err := writeFileAtomic(schemaPath, schema); err != nil {
+				return err
+			}
+			fmt.Fprintf(c.App.Writer, "wrote %s (for editors that read the starter's schema line)\n", schemaPath)
 			return nil
+		},
+	}
+}
+
+func schemaCommand() *cli.Command {
+	return &cli.Command{
+		Name:  "schema",
+		Usage: "print the JSON Schema of the scenario file (for editors)",
+		Flags: []cli.Flag{
+			&cli.StringFlag{Name: "out", Aliases: []string{"o"}, Usage: "write to `FILE` instead of standard output"},
+		},
+		OnUsageError: usageError,
+		Description: "The schema is made from the decoder's own key tables; it checks keys and the shapes of\n" +
+			"values. A starter from `tempstack new` names it on its first line (" + scenarios.SchemaFile + ").",
+		Action: func(c *cli.Context) error {
+			if c.NArg() > 0 {
+				return userErr("schema takes no arguments")
+			}
+			data, err := scenarios.Schema()
+			if err != nil {
+				return err
+			}
+			if out := c.String("out"); out != "" && out != "-" {
+				return writeFileAtomic(out, data)
+			}
+			_, err = c.App.Writer.Write(data)
+			return err
 		},
 	}
 }

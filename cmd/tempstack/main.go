@@ -106,6 +106,7 @@ func newApp(stdout, stderr io.Writer) *cli.App {
 			materialsCommand(),
 			newCommand(),
 			examplesCommand(),
+			schemaCommand(),
 			indicesCommand(),
 			completionCommand(),
 		},

@@ -8,6 +8,8 @@ import (
 	"regexp"
 	"strings"
 	"testing"
+
+	"tempstack/scenarios"
 )
 
 // runCLI runs the command in-process and returns exit code, stdout, stderr.
@@ -249,5 +251,36 @@ func TestReportIsDeterministicUnlessDated(t *testing.T) {
 	}
 	if bytes.Equal(a["report.html"], c["report.html"]) {
 		t.Error("--date left the report unchanged")
+	}
+}
+
+// `new` writes the schema its starter names beside the starter, and
+// `schema` prints the schema published in the repository.
+func TestNewWritesSchemaAndSchemaCommand(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "wall.yaml")
+	code, stdout, stderr := runCLI(t, "new", "wall", "--out", out)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, stderr)
+	}
+	written, err := os.ReadFile(filepath.Join(dir, scenarios.SchemaFile))
+	if err != nil {
+		t.Fatalf("new did not write the schema: %v (stdout %q)", err, stdout)
+	}
+	published, err := os.ReadFile(filepath.Join("..", "..", "scenarios", "schema", scenarios.SchemaFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(written, published) {
+		t.Error("the schema new writes differs from the published one")
+	}
+	code, printed, stderr := runCLI(t, "schema")
+	if code != 0 || printed != string(published) {
+		t.Errorf("schema: exit %d, %d bytes (stderr %q); want the published %d bytes", code, len(printed), stderr, len(published))
+	}
+	// A second starter in the same folder leaves the schema as it is.
+	code, stdout, _ = runCLI(t, "new", "ground", "--out", filepath.Join(dir, "ground.yaml"))
+	if code != 0 || strings.Contains(stdout, scenarios.SchemaFile) {
+		t.Errorf("second new: exit %d, %q; want the schema left alone", code, stdout)
 	}
 }

@@ -20,6 +20,11 @@ func printSummary(w io.Writer, r *results.Results) {
 	if r.Kind == results.Wall {
 		fmt.Fprintf(w, "  U = %.3f W/(m2 K), R = %.3f m2 K/W (surface to surface)\n",
 			r.Steady.UValue_W_m2K, r.Steady.ThermalResistance_m2K_W)
+		if cm := r.Steady.CombinedMethod; cm != nil {
+			fmt.Fprintf(w, "  mixed layer: combined method of ISO 6946, R'T = %.3f, R''T = %.3f, RT = %.3f m2 K/W, relative error %.1f %%\n",
+				cm.UpperLimit_m2K_W, cm.LowerLimit_m2K_W, cm.Mean_m2K_W, 100*cm.RelativeError)
+			fmt.Fprintf(w, "  periodic analysis and simulation: an equivalent homogeneous layer per mixed layer (conductivity giving RT; density and heat capacity area-weighted)\n")
+		}
 	}
 	for _, p := range r.Periodic {
 		if r.Kind != results.Wall {

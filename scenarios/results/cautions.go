@@ -22,6 +22,10 @@ var (
 		"with the stated properties; frost heave, ice lenses and water moving to the frost front are not modelled."
 	wallModelCaution = "Results assume one-dimensional heat flow through plane, homogeneous layers with the " +
 		"stated, constant properties; thermal bridges, edges, moisture and air movement are not included."
+	wallMixCaution = "A mixed layer (studs in insulation, mortar joints) is taken by the combined method of ISO 6946, " +
+		"whose U lies between its upper and lower limits with the relative error shown; metal fasteners and " +
+		"bridges that cross the insulation are not included. The periodic and simulated results treat the mixed " +
+		"layer as one equivalent homogeneous layer, so they give the area-average response, not the temperature over a stud."
 	wallMaterialCaution = "Material values are those listed in the layer table with their sources; " +
 		"check them against the products actually used."
 )
@@ -49,6 +53,9 @@ func Cautions(r *Results) []string {
 // the measured record the run followed (nil for none).
 func CautionsWith(r *Results, rec []string) []string {
 	if r.Kind != Ground {
+		if r.Steady.CombinedMethod != nil {
+			return []string{wallModelCaution, wallMixCaution, wallMaterialCaution}
+		}
 		return []string{wallModelCaution, wallMaterialCaution}
 	}
 	out := []string{frostCaution, boundCaution}

@@ -87,6 +87,20 @@ type Layer struct {
 	HeatCapacityFrozen_J_m3K float64 `json:"heat_capacity_frozen_J_m3K,omitempty"`
 	LatentHeat_J_m3          float64 `json:"latent_heat_J_m3,omitempty"`
 	FreezingPoint_C          float64 `json:"freezing_point_C,omitempty"`
+	// Mix lists the parts of a mixed layer; the values above are then its
+	// equivalent homogeneous layer's. Absent for a homogeneous layer.
+	Mix []MixPart `json:"mix,omitempty"`
+}
+
+// MixPart is one part of a mixed layer.
+type MixPart struct {
+	Name               string  `json:"name"`
+	Material           string  `json:"material,omitempty"` // library key, empty for inline properties
+	Fraction           float64 `json:"fraction"`           // of the layer's face area, 0 to 1
+	Conductivity_W_mK  float64 `json:"conductivity_W_mK,omitempty"`
+	Density_kg_m3      float64 `json:"density_kg_m3,omitempty"`
+	SpecificHeat_J_kgK float64 `json:"specific_heat_J_kgK,omitempty"`
+	Resistance_m2K_W   float64 `json:"resistance_m2K_W"` // of the part across the layer's thickness
 }
 
 // Steady is the steady-state (ISO 6946) result.
@@ -96,6 +110,25 @@ type Steady struct {
 	TotalResistance_m2K_W    float64 `json:"total_resistance_m2K_W"`   // including both surface resistances
 	InsideSurfaceResistance  float64 `json:"inside_surface_resistance_m2K_W"`
 	OutsideSurfaceResistance float64 `json:"outside_surface_resistance_m2K_W"`
+	// CombinedMethod holds the limits of the combined method of ISO 6946
+	// when a layer is mixed (studs in insulation); nil (absent) when every
+	// layer is homogeneous. U-value and total resistance above are then
+	// those of the method's mean R_T.
+	CombinedMethod *CombinedMethod `json:"combined_method,omitempty"`
+}
+
+// CombinedMethod is the total thermal resistance of a construction with
+// mixed layers by the combined method of ISO 6946 (clause 6.7 of the 2017
+// edition), environment to environment.
+type CombinedMethod struct {
+	UpperLimit_m2K_W float64 `json:"upper_limit_total_resistance_m2K_W"` // R'_T, heat-flow paths side by side
+	LowerLimit_m2K_W float64 `json:"lower_limit_total_resistance_m2K_W"` // R''_T, layers in series, mixed layers as parts side by side
+	Mean_m2K_W       float64 `json:"total_resistance_m2K_W"`             // R_T = (R'_T + R''_T)/2, the value used
+	RelativeError    float64 `json:"relative_error"`                     // e = (R'_T - R''_T)/(2 R_T), dimensionless
+	Paths            int     `json:"paths"`                              // heat-flow paths of the upper limit
+	// Equivalent says how the periodic analysis and the simulation
+	// treat each mixed layer.
+	Equivalent string `json:"equivalent_layer"`
 }
 
 // PeriodicResult holds the ISO 13786 properties for one period.
