@@ -36,7 +36,7 @@ func (d *decoder) decodeLayers(top *object, s *Scenario) bool {
 // soil, or properties given inline (or a bare resistance), each key of it
 // overriding the library. index counts the layers read before it.
 func (d *decoder) decodeLayer(o *object, index int) layers.Layer {
-	if o.has("mix") {
+	if o.has("fractions") {
 		return d.decodeMix(o, index)
 	}
 	l, fromLibrary := d.layerBase(o)
@@ -319,15 +319,15 @@ func (d *decoder) decodeSoil(parent *object) layers.Layer {
 }
 
 // decodeMix reads a mixed layer (studs in insulation, mortar joints in
-// blockwork): a thickness and a mix list of parts, each a library
+// blockwork): a thickness and a fractions list of parts, each a library
 // material or inline properties with the fraction of the face area it
 // takes. The layer's properties come from its parts (layers.NewMix); the
 // equivalent homogeneous layer is fixed once the surface resistances are
 // known (homogeniseMixes).
 func (d *decoder) decodeMix(o *object, index int) layers.Layer {
 	for _, k := range layerKeys.names() {
-		if o.has(k) && k != "mix" && k != "name" && k != "thickness" && k != "family" {
-			o.failf(k, "a mixed layer takes its properties from its parts: give %s inside a part of mix, or drop mix", k)
+		if o.has(k) && k != "fractions" && k != "name" && k != "thickness" && k != "family" {
+			o.failf(k, "a mixed layer takes its properties from its parts: give %s inside a part of fractions, or drop fractions", k)
 		}
 	}
 	var name string
@@ -336,13 +336,13 @@ func (d *decoder) decodeMix(o *object, index int) layers.Layer {
 	if !o.positive("thickness", layers.Length, &thickness) && !o.has("thickness") {
 		o.missing("thickness", `e.g. "140 mm" or 0.14 (m)`)
 	}
-	items, ok := o.list("mix")
+	items, ok := o.list("fractions")
 	if ok && len(items) == 0 {
-		o.failf("mix", "the list is empty; give the parts, e.g. [{material: softwood, fraction: 15 %%}, {material: mineral-wool, fraction: 85 %%}]")
+		o.failf("fractions", "the list is empty; give the parts, e.g. [{material: softwood, fraction: 15 %%}, {material: mineral-wool, fraction: 85 %%}]")
 	}
 	var parts []layers.MixPart
 	for i, n := range items {
-		po := d.object(n, fmt.Sprintf("%s.mix[%d]", o.path, i+1), mixPartKeys)
+		po := d.object(n, fmt.Sprintf("%s.fractions[%d]", o.path, i+1), mixPartKeys)
 		if po == nil {
 			continue
 		}
@@ -378,7 +378,7 @@ func (d *decoder) decodeMix(o *object, index int) layers.Layer {
 	if o.clean() && ok && len(items) > 0 {
 		var err error
 		if l, err = layers.NewMix(name, thickness, parts); err != nil {
-			o.d.fail(o.keys["mix"], join(o.path, "mix"), err) // at the key: the list starts a line below
+			o.d.fail(o.keys["fractions"], join(o.path, "fractions"), err) // at the key: the list starts a line below
 		}
 		if name == "" {
 			l.Name = fmt.Sprintf("layer %d (%s)", index+1, l.MixLabel())

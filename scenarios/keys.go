@@ -155,7 +155,7 @@ var (
 			k("freezing_range", "below the freezing point", fQty(layers.TemperatureDifference)),
 			k("soil", "a soil described by its state", fObject(func() *keyTable { return soilKeys })),
 			k("family", "how the report tints the layer", fChoice(layers.Families)),
-			k("mix", "a mixed layer (studs in insulation): parts side by side with their area fractions", fList(fObject(func() *keyTable { return mixPartKeys }))),
+			k("fractions", "a mixed layer (studs in insulation): parts side by side with their area fractions", fList(fObject(func() *keyTable { return mixPartKeys }))),
 		},
 	}
 	mixPartKeys = &keyTable{

@@ -22,7 +22,7 @@ layers:
   - {material: clay-brick, thickness: 102.5 mm}
   - {material: plywood, thickness: 12 mm}
   - thickness: 140 mm
-    mix:
+    fractions:
       - {material: softwood, fraction: 15 %}
       - {material: mineral-wool, fraction: 0.85}
   - {material: gypsum-board, thickness: 12.5 mm}
@@ -114,7 +114,7 @@ analysis:
 		return res.Steady, res.Periodic, cm
 	}
 	s1, p1, cm1 := run("  - {material: mineral-wool, thickness: 100 mm}\n")
-	s2, p2, cm2 := run("  - thickness: 100 mm\n    mix: [{material: mineral-wool, fraction: 1}]\n")
+	s2, p2, cm2 := run("  - thickness: 100 mm\n    fractions: [{material: mineral-wool, fraction: 1}]\n")
 	if cm1 || !cm2 {
 		t.Errorf("combined_method present: plain %v, mix %v; want false, true", cm1, cm2)
 	}
@@ -131,13 +131,13 @@ func TestMixedLayerErrors(t *testing.T) {
 	for _, tc := range []struct {
 		name, layer, want string
 	}{
-		{"no thickness", "  - mix: [{material: softwood, fraction: 1}]\n", "layers[1].thickness: missing key"},
-		{"empty", "  - {thickness: 0.1, mix: []}\n", "the list is empty"},
-		{"unknown material", "  - {thickness: 0.1, mix: [{material: sofwood, fraction: 1}]}\n", `did you mean "softwood"`},
-		{"no fraction", "  - {thickness: 0.1, mix: [{material: softwood}]}\n", "layers[1].mix[1].fraction: missing key"},
-		{"inline incomplete", "  - {thickness: 0.1, mix: [{conductivity: 0.1, fraction: 1}]}\n", "mix[1].density: missing key"},
-		{"zero fraction", "  - {thickness: 0.1, mix: [{material: softwood, fraction: 0}, {material: eps, fraction: 1}]}\n", "must be positive"},
-		{"soil", "  - {thickness: 0.1, soil: {texture: sand}, mix: [{material: softwood, fraction: 1}]}\n", "layers[1].soil: a mixed layer takes its properties from its parts"},
+		{"no thickness", "  - fractions: [{material: softwood, fraction: 1}]\n", "layers[1].thickness: missing key"},
+		{"empty", "  - {thickness: 0.1, fractions: []}\n", "the list is empty"},
+		{"unknown material", "  - {thickness: 0.1, fractions: [{material: sofwood, fraction: 1}]}\n", `did you mean "softwood"`},
+		{"no fraction", "  - {thickness: 0.1, fractions: [{material: softwood}]}\n", "layers[1].fractions[1].fraction: missing key"},
+		{"inline incomplete", "  - {thickness: 0.1, fractions: [{conductivity: 0.1, fraction: 1}]}\n", "fractions[1].density: missing key"},
+		{"zero fraction", "  - {thickness: 0.1, fractions: [{material: softwood, fraction: 0}, {material: eps, fraction: 1}]}\n", "must be positive"},
+		{"soil", "  - {thickness: 0.1, soil: {texture: sand}, fractions: [{material: softwood, fraction: 1}]}\n", "layers[1].soil: a mixed layer takes its properties from its parts"},
 	} {
 		src := "title: x\nkind: wall\nlayers:\n" + tc.layer + "outside:\n  temperature: {mean: 5}\ninside:\n  temperature: {mean: 20}\n"
 		_, err := Decode("m.yaml", []byte(src))

@@ -89,7 +89,7 @@ type Layer struct {
 	FreezingPoint_C          float64 `json:"freezing_point_C,omitempty"`
 	// Mix lists the parts of a mixed layer; the values above are then its
 	// equivalent homogeneous layer's. Absent for a homogeneous layer.
-	Mix []MixPart `json:"mix,omitempty"`
+	Mix []MixPart `json:"fractions,omitempty"`
 }
 
 // MixPart is one part of a mixed layer.
