@@ -14,16 +14,23 @@ import (
 
 // hasNFactors reports whether the side turns air into surface temperature
 // with n-factors other than 1.
-func (sd Side) hasNFactors() bool {
-	return sd.Temperature != nil && (sd.NFreezing != 1 || sd.nThawing() != 1)
+func (sd Environment) hasNFactors() bool {
+	nf, nt := sd.nFactors()
+	return sd.Temperature != nil && (nf != 1 || nt != 1)
 }
 
-// nThawing is the thawing n-factor, 1 when the cover's table gives none.
-func (sd Side) nThawing() float64 {
-	if sd.NThawing == 0 {
-		return 1
+// nFactors are the freezing and thawing n-factors of the side: 1 and 1
+// without n-factors, a thawing n-factor of 1 when the cover's table gives
+// none.
+func (sd Environment) nFactors() (freezing, thawing float64) {
+	n := sd.NFactors
+	if n == nil {
+		return 1, 1
 	}
-	return sd.NThawing
+	if n.Thawing == 0 {
+		return n.Freezing, 1
+	}
+	return n.Freezing, n.Thawing
 }
 
 // nFactored is the surface temperature for air temperature t (degC):
@@ -64,10 +71,10 @@ func runGround(s *run, p *runPlan, progress Progress) (*results.Results, error) 
 		OutsideSurfaceResistance: s.Outside.Resistance,
 		TotalResistance_m2K_W:    c.ThermalResistance() + s.Outside.Resistance,
 	}
-	if s.Outside.Cover != "" && s.Outside.NThawing == 0 {
+	if n := s.Outside.NFactors; n != nil && n.Cover != "" && n.Thawing == 0 {
 		r.Warnings = append(r.Warnings, fmt.Sprintf(
 			"UFC 3-130-04 Table 4-1 gives no single thawing n-factor for cover %q; the thawing n-factor is taken as 1 (surface = air temperature above 0 degC): give n_factor: {thawing: ...} to change it",
-			s.Outside.Cover))
+			n.Cover))
 	}
 	if err := groundPeriodic(s, col, r); err != nil {
 		return nil, err
@@ -101,15 +108,15 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
 	g := &results.GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
-	if s.Inside.Condition == solver.PrescribedFlux {
-		q := s.Inside.HeatFlux
+	if hf, ok := s.Inside.(HeatFlux); ok {
+		q := hf.Flux
 		g.GeothermalFlux_W_m2 = &q
 	}
 	if s.Outside.hasNFactors() {
-		g.NFactorFreezing, g.NFactorThawing = s.Outside.NFreezing, s.Outside.nThawing()
+		g.NFactorFreezing, g.NFactorThawing = s.Outside.nFactors()
 	}
 	probes := append([]float64(nil), s.Analysis.Probes...)
-	mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), probes)
+	mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.steadyFlux()), probes)
 	if err != nil {
 		return &Error{File: s.File, Err: err}
 	}
@@ -151,7 +158,7 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	r.Ground = g
 	// Exact envelope against depth for the chart.
 	xs := profilePositions(nonHalf(col), 200)
-	meanX, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), xs)
+	meanX, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.steadyFlux()), xs)
 	if err != nil {
 		return &Error{File: s.File, Err: err}
 	}
@@ -209,7 +216,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 	if f == nil {
 		return fc, source, "the surface has no temperature"
 	}
-	nf := s.Outside.NFreezing
+	nf, _ := s.Outside.nFactors()
 	if m := f.Measured; m != nil {
 		ws, err := recordWinters(m)
 		if err != nil {
@@ -334,14 +341,15 @@ func frostClosedForms(s *run, col solver.Column, r *results.Results, from, to fl
 			r.Warnings = append(r.Warnings, "the record has fewer than 3 complete winters: the closed forms use its coldest complete winter, which understates a design freezing index (the mean of the 3 coldest of 30 winters)")
 		}
 	}
-	fr.FreezingNFactor = s.Outside.NFreezing
+	nf, _ := s.Outside.nFactors()
+	fr.FreezingNFactor = nf
 	if d := s.Analysis.DesignFreezingIndex; d != nil {
 		if !ok {
 			fc = ground.FrostClimate{MeanAnnual: forcingMean(s.Outside.Temperature)}
 		}
 		fc.AirIndex = *d
-		fc.NFactor = s.Outside.NFreezing
-		fc.SurfaceIndex = s.Outside.NFreezing * *d
+		fc.NFactor = nf
+		fc.SurfaceIndex = nf * *d
 		if s.Analysis.DesignSeason > 0 {
 			fc.SeasonDays = s.Analysis.DesignSeason / climate.Day
 		}
@@ -416,6 +424,7 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 		return err
 	}
 	fr := r.Frost
+	nFreezing, _ := s.Outside.nFactors()
 	dt := 0.0
 	if len(times) > 1 {
 		dt = times[1] - times[0]
@@ -563,7 +572,7 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 					fw.Complete = cw.Complete // the record's winter, as `indices` calls it
 				}
 				if s.Outside.Temperature.Measured != nil && cw.Complete && cw.FreezingIndex > 0 {
-					if fc, err := ground.FrostClimateFromWinter(cw, s.Outside.NFreezing); err == nil {
+					if fc, err := ground.FrostClimateFromWinter(cw, nFreezing); err == nil {
 						if st, b, err := closedForms(col, fc); err == nil {
 							fw.StefanDepth_m, fw.ModifiedBerggrenDepth_m = st, b.Depth
 						}

@@ -524,8 +524,8 @@ type SideForcing struct {
 	HeatFlux_W_m2     *float64           `json:"heat_flux_W_m2,omitempty"` // entering the column
 	Record            string             `json:"record,omitempty"`         // file of a measured series
 	Cover             string             `json:"cover,omitempty"`
-	NFreezing         float64            `json:"n_factor_freezing,omitempty"`
-	NThawing          float64            `json:"n_factor_thawing,omitempty"`
+	NFactorFreezing   float64            `json:"n_factor_freezing,omitempty"`
+	NFactorThawing    float64            `json:"n_factor_thawing,omitempty"`
 	Solar             *SolarInfo         `json:"solar,omitempty"`
 }
 

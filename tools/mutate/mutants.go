@@ -305,7 +305,7 @@ var mutants = []Mutant{
 		Old: "const DefaultGeothermalFlux = 0.065", New: "const DefaultGeothermalFlux = 0.65",
 		Desc: "default geothermal flux ten times too large", Pkgs: pScenarios},
 	{ID: "scen-ground-mean-flux", File: "scenarios/ground.go",
-		Old:  "mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), probes)",
+		Old:  "mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.steadyFlux()), probes)",
 		New:  "mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, 0, probes)",
 		Desc: "exact ground means forget the geothermal gradient", Pkgs: pScenarios},
 	{ID: "scen-step-contact", File: "scenarios/stepresponse.go",
@@ -324,6 +324,6 @@ var mutants = []Mutant{
 		Old: "out.HeatAbsorbed_J_m2 += res.Energy.InflowOutside", New: "out.HeatAbsorbed_J_m2 = res.Energy.InflowOutside",
 		Desc: "heat taken up counts only the last time segment", Pkgs: pScenarios},
 	{ID: "scen-wall-rsi-rse", File: "scenarios/run.go",
-		Old: "return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)", New: "return s.construction().Column(s.Inside.Resistance, s.Outside.Resistance)",
+		Old: "return s.construction().Column(s.Outside.Resistance, s.Inside.SurfaceResistance())", New: "return s.construction().Column(s.Inside.SurfaceResistance(), s.Outside.Resistance)",
 		Desc: "wall column with the surface resistances swapped", Pkgs: pScenarios},
 }

@@ -1,0 +1,232 @@
+package scenarios
+
+import (
+	"fmt"
+	"strings"
+
+	"tempstack/climate"
+	"tempstack/layers"
+	"tempstack/scenarios/results"
+	"tempstack/solver"
+)
+
+// Side is the condition at one face of the column, one of a closed set of
+// variants: Environment (an environment temperature behind a surface
+// resistance, with n-factors or the sun), HeatFlux (a flux prescribed into
+// the column) and Adiabatic (nothing crosses). Each variant decodes itself
+// (sideVariants), describes itself for results.json (Info) and maps one to
+// one onto the solver's boundary (Boundary); nothing else decides what a
+// side is.
+type Side interface {
+	// Boundary is the condition of the side in the transient solver; the
+	// variant decides its solver.BoundaryKind, one to one.
+	Boundary() solver.Boundary
+	// Info describes the side for results.json.
+	Info() results.SideForcing
+	// SurfaceResistance is the surface resistance, m2 K/W, that the column
+	// and the exact (steady and periodic) analysis use; of a resistance
+	// that varies in time, its usual value.
+	SurfaceResistance() float64
+
+	// temperature is the environment temperature behind the surface, nil
+	// when the side has none.
+	temperature() *Forcing
+	// steadyFlux is the heat flux, W/m2, entering the column through a
+	// side without an environment in the steady state (0 when adiabatic or
+	// when the side has an environment).
+	steadyFlux() float64
+	// varies reports whether the side's boundary changes in a way the
+	// exact periodic solution does not follow, so that the simulation
+	// needs a settled start.
+	varies() bool
+	// notes says what the exact analysis leaves out of the side (for the
+	// run's warnings); name is the side as the scenario names it.
+	notes(name string) []string
+}
+
+// sideAt is where a side is decoded: what its variant may depend on.
+type sideAt struct {
+	s       *Scenario
+	key     string  // the side's key: outside, inside, surface or bottom
+	outside bool    // the outside (ground: surface) face
+	r       float64 // the surface resistance given (or the default), m2 K/W
+	// periods are the times of the year with another resistance; nil:
+	// constant.
+	periods []ResistancePeriod
+}
+
+// sideVariants are the conditions a side may hold, each chosen by its key;
+// a side holds exactly one. decode reads the variant from o (the side's
+// mapping, which has key) and returns nil when the key does not choose it
+// (adiabatic: false) or after a mistake, which it reported.
+var sideVariants = []struct {
+	key    string // the key that chooses the variant
+	hint   string // how a message asks for it
+	decode func(d *decoder, o *object, at sideAt) Side
+}{
+	{"temperature", "temperature", decodeEnvironment},
+	{"heat_flux", "heat_flux", decodeHeatFlux},
+	{"adiabatic", "adiabatic: true", decodeAdiabatic},
+}
+
+// HeatFlux is a side through which a prescribed heat flux enters the
+// column (ground bottom: the geothermal flux, positive upward into the
+// column).
+type HeatFlux struct {
+	Flux float64 // W/m2 into the column
+	// Resistance is the surface resistance, m2 K/W, the column carries for
+	// the exact analysis (a wall's ISO 6946 value); the flux enters the
+	// surface whatever it is.
+	Resistance float64
+}
+
+func decodeHeatFlux(d *decoder, o *object, at sideAt) Side {
+	sd := HeatFlux{Resistance: at.r}
+	if !o.quantity("heat_flux", layers.HeatFlux, &sd.Flux) || !constantResistance(o, at, "a heat flux") {
+		return nil
+	}
+	return sd
+}
+
+// Boundary is a solver.PrescribedFlux boundary.
+func (sd HeatFlux) Boundary() solver.Boundary {
+	q := sd.Flux
+	return solver.Boundary{Kind: solver.PrescribedFlux, Flux: func(float64) float64 { return q }}
+}
+
+// Info describes the side: kind heat_flux.
+func (sd HeatFlux) Info() results.SideForcing {
+	q := sd.Flux
+	return results.SideForcing{Kind: "heat_flux", Resistance_m2K_W: sd.Resistance, HeatFlux_W_m2: &q}
+}
+
+// SurfaceResistance is Resistance.
+func (sd HeatFlux) SurfaceResistance() float64 { return sd.Resistance }
+
+func (sd HeatFlux) temperature() *Forcing      { return nil }
+func (sd HeatFlux) steadyFlux() float64        { return sd.Flux }
+func (sd HeatFlux) varies() bool               { return false }
+func (sd HeatFlux) notes(name string) []string { return nil }
+
+// Adiabatic is a side that no heat crosses (a plane of symmetry, a
+// perfectly insulated face).
+type Adiabatic struct {
+	// Resistance is the surface resistance, m2 K/W, the column carries for
+	// the exact analysis (a wall's ISO 6946 value).
+	Resistance float64
+}
+
+func decodeAdiabatic(d *decoder, o *object, at sideAt) Side {
+	var adiabatic bool
+	if !o.boolean("adiabatic", &adiabatic) || !adiabatic || !constantResistance(o, at, "an adiabatic face") {
+		return nil
+	}
+	return Adiabatic{Resistance: at.r}
+}
+
+// Boundary is a solver.Adiabatic boundary.
+func (sd Adiabatic) Boundary() solver.Boundary { return solver.Boundary{Kind: solver.Adiabatic} }
+
+// Info describes the side: kind adiabatic.
+func (sd Adiabatic) Info() results.SideForcing {
+	return results.SideForcing{Kind: "adiabatic", Resistance_m2K_W: sd.Resistance}
+}
+
+// SurfaceResistance is Resistance.
+func (sd Adiabatic) SurfaceResistance() float64 { return sd.Resistance }
+
+func (sd Adiabatic) temperature() *Forcing      { return nil }
+func (sd Adiabatic) steadyFlux() float64        { return 0 }
+func (sd Adiabatic) varies() bool               { return false }
+func (sd Adiabatic) notes(name string) []string { return nil }
+
+// constantResistance reports a resistance that varies in time on a side
+// without an environment, where it would mean nothing.
+func constantResistance(o *object, at sideAt, what string) bool {
+	if len(at.periods) > 0 {
+		o.failf("resistance", "a resistance that changes in the course of the year needs a temperature behind it; %s takes a plain number", what)
+		return false
+	}
+	return true
+}
+
+// sideNotes collects what the exact analysis leaves out of either side.
+func sideNotes(s *Scenario) []string {
+	names := map[Kind][2]string{Wall: {"outside", "inside"}, Ground: {"surface", "bottom"}}[s.Kind]
+	return append(s.Outside.notes(names[0]), s.Inside.notes(names[1])...)
+}
+
+// decodeSide reads one side: its resistance, and exactly one of the
+// variants of sideVariants. A side that is not given takes its default:
+// 20 degC behind the ISO 6946 resistance inside a wall, the geothermal
+// flux below the ground. It returns nil after a mistake.
+func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR float64, outside bool) Side {
+	allowed := sideKeys
+	if s.Kind == Ground {
+		defaultR = 0
+		allowed = bottomKeys
+		if outside {
+			allowed = surfaceKeys
+		}
+	}
+	if !top.has(key) {
+		switch {
+		case outside:
+			top.missing(key, "the temperature on this side, e.g. temperature: {mean: 10, daily: {amplitude: 8, peak_hour: 15}}")
+			return nil
+		case s.Kind == Ground:
+			// Default bottom: the continental mean geothermal heat flux,
+			// 65 mW/m2 (Pollack, Hurter and Johnson 1993, Rev. Geophys.
+			// 31:267, abstract [read]).
+			return HeatFlux{Flux: DefaultGeothermalFlux}
+		}
+		// Default inside: 20 degC air behind the ISO 6946 resistance.
+		return Environment{Temperature: &Forcing{Periodic: climate.Periodic{Mean: 20}}, Resistance: defaultR}
+	}
+	o := top.child(key, allowed)
+	if o == nil {
+		return nil
+	}
+	at := sideAt{s: s, key: key, outside: outside, r: defaultR}
+	d.decodeResistance(o, &at.r, &at.periods)
+	if o.has("solar") && !outside {
+		o.failf("solar", "the sun shines on the outside surface only")
+	}
+	var chosen []Side
+	var keys, hints []string
+	for _, v := range sideVariants {
+		keys, hints = append(keys, v.key), append(hints, v.hint)
+		if o.has(v.key) {
+			if sd := v.decode(d, o, at); sd != nil {
+				chosen = append(chosen, sd)
+			}
+		}
+	}
+	if !o.clean() {
+		return nil
+	}
+	switch {
+	case len(chosen) == 0:
+		o.missing(keys[0], "give "+orList(hints, "or"))
+	case len(chosen) > 1:
+		o.d.failf(o.node, o.path, "give only one of %s", orList(keys, "and"))
+	case outside && !isEnvironment(chosen[0]):
+		o.missing("temperature", "the "+key+" side is driven by a temperature")
+	default:
+		return chosen[0]
+	}
+	return nil
+}
+
+func isEnvironment(sd Side) bool {
+	_, ok := sd.(Environment)
+	return ok
+}
+
+// orList joins words as "a, b or c".
+func orList(words []string, conj string) string {
+	if len(words) < 2 {
+		return strings.Join(words, "")
+	}
+	return fmt.Sprintf("%s %s %s", strings.Join(words[:len(words)-1], ", "), conj, words[len(words)-1])
+}
