@@ -101,6 +101,7 @@ func (sd Environment) Info() results.SideForcing {
 func (sd Environment) SurfaceResistance() float64 { return sd.Resistance }
 
 func (sd Environment) temperature() *Forcing { return sd.Temperature }
+func (sd Environment) drive() *Forcing       { return sd.Temperature }
 func (sd Environment) steadyFlux() float64   { return 0 }
 func (sd Environment) varies() bool          { return sd.resistanceVaries() }
 

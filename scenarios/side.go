@@ -31,6 +31,10 @@ type Side interface {
 	// temperature is the environment temperature behind the surface, nil
 	// when the side has none.
 	temperature() *Forcing
+	// drive is what drives the side in time (the environment temperature,
+	// a flux that changes in time), for the periods a run resolves and
+	// settles over; nil when the side is constant.
+	drive() *Forcing
 	// steadyFlux is the heat flux, W/m2, entering the column through a
 	// side without an environment in the steady state (0 when adiabatic or
 	// when the side has an environment).
@@ -104,6 +108,7 @@ func (sd HeatFlux) Info() results.SideForcing {
 func (sd HeatFlux) SurfaceResistance() float64 { return sd.Resistance }
 
 func (sd HeatFlux) temperature() *Forcing      { return nil }
+func (sd HeatFlux) drive() *Forcing            { return nil }
 func (sd HeatFlux) steadyFlux() float64        { return sd.Flux }
 func (sd HeatFlux) varies() bool               { return false }
 func (sd HeatFlux) notes(name string) []string { return nil }
@@ -136,6 +141,7 @@ func (sd Adiabatic) Info() results.SideForcing {
 func (sd Adiabatic) SurfaceResistance() float64 { return sd.Resistance }
 
 func (sd Adiabatic) temperature() *Forcing      { return nil }
+func (sd Adiabatic) drive() *Forcing            { return nil }
 func (sd Adiabatic) steadyFlux() float64        { return 0 }
 func (sd Adiabatic) varies() bool               { return false }
 func (sd Adiabatic) notes(name string) []string { return nil }

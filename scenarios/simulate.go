@@ -92,7 +92,7 @@ func shortestPeriod(s *Scenario) float64 {
 	for _, q := range s.Analysis.Periods {
 		p = math.Min(p, q)
 	}
-	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.temperature()} {
+	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.drive()} {
 		if f == nil {
 			continue
 		}
@@ -368,7 +368,7 @@ func uniform(n int, v float64) []float64 {
 
 func longestForcingPeriod(s *Scenario) float64 {
 	var p float64
-	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.temperature()} {
+	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.drive()} {
 		if f == nil || f.Step != nil {
 			continue
 		}
@@ -518,8 +518,8 @@ const spinUpFrontTolerance = 1e-3
 // when the bottom condition is constant. It returns an error only for a
 // failed simulation.
 func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
-	constInside := s.Inside.temperature() == nil ||
-		(len(s.Inside.temperature().Harmonics) == 0 && s.Inside.temperature().Measured == nil && s.Inside.temperature().Step == nil)
+	f := s.Inside.drive()
+	constInside := f == nil || (len(f.Harmonics) == 0 && f.Measured == nil && f.Step == nil)
 	o := solver.SettleOptions{
 		Period: period, MaxCycles: max, Tolerance: spinUpTolerance, FrontTolerance: spinUpFrontTolerance,
 		ConstantInside: constInside,
