@@ -36,13 +36,17 @@ type forcingKind int
 const (
 	forcingTemperature forcingKind = iota // degC, amplitudes in K
 	forcingIrradiance                     // W/m2, amplitudes in W/m2
+	forcingHeatFlux                       // W/m2 into the column, amplitudes in W/m2
 )
 
 // kinds returns the quantity kinds of a forcing's values and amplitudes,
 // and the unit of a series of it.
 func (k forcingKind) kinds() (value, amplitude layers.Kind, unit string) {
-	if k == forcingIrradiance {
+	switch k {
+	case forcingIrradiance:
 		return layers.Irradiance, layers.Irradiance, "W/m2"
+	case forcingHeatFlux:
+		return layers.HeatFlux, layers.HeatFlux, "W/m2"
 	}
 	return layers.Temperature, layers.TemperatureDifference, "C"
 }

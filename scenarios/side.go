@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"strings"
 
+	"gopkg.in/yaml.v3"
+
 	"tempstack/climate"
 	"tempstack/layers"
 	"tempstack/scenarios/results"
@@ -75,43 +77,79 @@ var sideVariants = []struct {
 
 // HeatFlux is a side through which a prescribed heat flux enters the
 // column (ground bottom: the geothermal flux, positive upward into the
-// column).
+// column), constant or changing in time (a heating cable on a schedule).
 type HeatFlux struct {
-	Flux float64 // W/m2 into the column
+	Flux float64 // W/m2 into the column; of a flux that changes in time, its mean
+	// Varying is the flux over time, W/m2 into the column (a mean and
+	// harmonics, the mean equal to Flux); nil: Flux all the time.
+	Varying *Forcing
 	// Resistance is the surface resistance, m2 K/W, the column carries for
 	// the exact analysis (a wall's ISO 6946 value); the flux enters the
 	// surface whatever it is.
 	Resistance float64
 }
 
+// decodeHeatFlux reads heat_flux: a value (W/m2), or a mean with daily,
+// annual and further harmonics for a flux that changes in time.
 func decodeHeatFlux(d *decoder, o *object, at sideAt) Side {
 	sd := HeatFlux{Resistance: at.r}
-	if !o.quantity("heat_flux", layers.HeatFlux, &sd.Flux) || !constantResistance(o, at, "a heat flux") {
+	if !constantResistance(o, at, "a heat flux") {
 		return nil
 	}
+	n := o.values["heat_flux"]
+	if n.Kind != yaml.MappingNode {
+		if !o.quantity("heat_flux", layers.HeatFlux, &sd.Flux) {
+			return nil
+		}
+		return sd
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		if k := n.Content[i].Value; k == "file" || k == "step" {
+			d.failf(n.Content[i], join(join(o.path, "heat_flux"), k), "a heat flux takes a mean and harmonics (daily, annual, harmonics)")
+			return nil
+		}
+	}
+	f := d.decodeForcing(o, "heat_flux", forcingHeatFlux)
+	if f == nil {
+		return nil
+	}
+	sd.Flux, sd.Varying = f.Mean, f
 	return sd
 }
 
 // Boundary is a solver.PrescribedFlux boundary.
 func (sd HeatFlux) Boundary() solver.Boundary {
+	if f := sd.Varying; f != nil {
+		return solver.Boundary{Kind: solver.PrescribedFlux, Flux: f.At}
+	}
 	q := sd.Flux
 	return solver.Boundary{Kind: solver.PrescribedFlux, Flux: func(float64) float64 { return q }}
 }
 
-// Info describes the side: kind heat_flux.
+// Info describes the side: kind heat_flux, its mean and harmonics.
 func (sd HeatFlux) Info() results.SideForcing {
 	q := sd.Flux
-	return results.SideForcing{Kind: "heat_flux", Resistance_m2K_W: sd.Resistance, HeatFlux_W_m2: &q}
+	out := results.SideForcing{Kind: "heat_flux", Resistance_m2K_W: sd.Resistance, HeatFlux_W_m2: &q}
+	if f := sd.Varying; f != nil {
+		out.Harmonics = harmonicsInfo(f.Harmonics)
+	}
+	return out
 }
 
 // SurfaceResistance is Resistance.
 func (sd HeatFlux) SurfaceResistance() float64 { return sd.Resistance }
 
-func (sd HeatFlux) temperature() *Forcing      { return nil }
-func (sd HeatFlux) drive() *Forcing            { return nil }
-func (sd HeatFlux) steadyFlux() float64        { return sd.Flux }
-func (sd HeatFlux) varies() bool               { return false }
-func (sd HeatFlux) notes(name string) []string { return nil }
+func (sd HeatFlux) temperature() *Forcing { return nil }
+func (sd HeatFlux) drive() *Forcing       { return sd.Varying }
+func (sd HeatFlux) steadyFlux() float64   { return sd.Flux }
+func (sd HeatFlux) varies() bool          { return sd.Varying != nil && len(sd.Varying.Harmonics) > 0 }
+
+func (sd HeatFlux) notes(name string) []string {
+	if !sd.varies() {
+		return nil
+	}
+	return []string{fmt.Sprintf("the %s heat flux changes in time: the simulation follows it; the exact periodic analysis and the closed forms use its mean, %g W/m2", name, sd.Flux)}
+}
 
 // Adiabatic is a side that no heat crosses (a plane of symmetry, a
 // perfectly insulated face).

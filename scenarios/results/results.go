@@ -539,8 +539,8 @@ type ResistancePeriod struct {
 	Resistance_m2K_W float64 `json:"resistance_m2K_W"`
 }
 
-// HarmonicInfo is one harmonic: amplitude in K (irradiance: W/m2), peak
-// in hours after 1 January 00:00.
+// HarmonicInfo is one harmonic: amplitude in K (irradiance, heat flux:
+// W/m2), peak in hours after 1 January 00:00.
 type HarmonicInfo struct {
 	Period_h  float64 `json:"period_h"`
 	Amplitude float64 `json:"amplitude"`
