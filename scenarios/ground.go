@@ -254,7 +254,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 		if idx <= 0 {
 			return fc, source, "no complete winter of the record falls below 0 degC"
 		}
-		return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
+		return ground.FrostClimate{AirIndex: idx, NFactorFreezing: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
 	}
 	if _, ok := annualHarmonic(f); ok && f.Step == nil {
 		// Freezing indices are sums of daily mean temperatures (ISO 13793
@@ -287,7 +287,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 	if v := s.Analysis.Simulate; v != nil && v.Initial != nil {
 		initial = *v.Initial
 	}
-	return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
+	return ground.FrostClimate{AirIndex: idx, NFactorFreezing: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
 		results.IndexSource{Origin: results.FromSimulated}, ""
 }
 
@@ -342,13 +342,13 @@ func frostClosedForms(s *run, col solver.Column, r *results.Results, from, to fl
 		}
 	}
 	nf, _ := s.Outside.nFactors()
-	fr.FreezingNFactor = nf
+	fr.NFactorFreezing = nf
 	if d := s.Analysis.DesignFreezingIndex; d != nil {
 		if !ok {
 			fc = ground.FrostClimate{MeanAnnual: forcingMean(s.Outside.Temperature)}
 		}
 		fc.AirIndex = *d
-		fc.NFactor = nf
+		fc.NFactorFreezing = nf
 		fc.SurfaceIndex = nf * *d
 		if s.Analysis.DesignSeason > 0 {
 			fc.SeasonDays = s.Analysis.DesignSeason / climate.Day
@@ -714,7 +714,7 @@ func dayOfYear(d float64) string {
 // ISO 13786 periodic penetration depth of that layer; 0 when c has none.
 func surfaceDampingDepth(c solver.Column, period float64) float64 {
 	for _, l := range c.Layers {
-		if !l.IsResistance() {
+		if !l.Massless() {
 			return solver.LayerPenetrationDepth(l, period)
 		}
 	}

@@ -45,7 +45,7 @@ func (s *Scenario) plan() (*runPlan, error) {
 	p := &runPlan{col: s.column()}
 	if s.Kind == Ground {
 		p.col.InsideResistance = 0
-		if n := len(p.col.Layers); n > 0 && p.col.Layers[n-1].IsResistance() {
+		if n := len(p.col.Layers); n > 0 && p.col.Layers[n-1].Massless() {
 			return nil, &Error{File: s.File, Line: s.layerLine(n - 1), Key: fmt.Sprintf("layers[%d]", n),
 				Msg: "the deepest layer of a ground column continues downward and needs heat capacity: give it conductivity, density and specific_heat (or a soil), not only a resistance"}
 		}
@@ -55,7 +55,7 @@ func (s *Scenario) plan() (*runPlan, error) {
 	}
 	massless := true
 	for _, l := range p.col.Layers {
-		if !l.IsResistance() {
+		if !l.Massless() {
 			massless = false
 		}
 	}

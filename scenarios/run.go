@@ -94,7 +94,7 @@ func (s *Scenario) construction() layers.Construction {
 
 // column returns the solver column of the scenario.
 func (s *Scenario) column() solver.Column {
-	return s.construction().Column(s.Outside.Resistance, s.Inside.SurfaceResistance())
+	return s.construction().Column(s.Inside.SurfaceResistance(), s.Outside.Resistance)
 }
 
 func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {

@@ -120,7 +120,7 @@ type Simulate struct {
 	Start           float64  // s after 1 January 00:00 of year 1 (measured series: the first record)
 	Duration        float64  // s
 	Step            float64  // s
-	Sample          float64  // s, spacing of the recorded series; 0 = automatic
+	OutputStep      float64  // s, spacing of the recorded series (key output_step); 0 = automatic
 	Initial         *float64 // degC, uniform start; nil = the periodic (or spun-up) solution
 	Mesh            solver.MeshOptions
 	MaxSpinUpCycles int            // for non-linear (freezing) runs without an initial temperature

@@ -58,9 +58,9 @@ func simDefaults(s *Scenario) {
 		}
 		sim.Step = math.Min(sim.Step, sim.Duration/10)
 	}
-	if sim.Sample == 0 {
+	if sim.OutputStep == 0 {
 		n := math.Ceil(sim.Duration / sim.Step)
-		sim.Sample = sim.Step * math.Max(1, math.Ceil(n/maxSamples))
+		sim.OutputStep = sim.Step * math.Max(1, math.Ceil(n/maxSamples))
 	}
 	if sim.Mesh.ResolvePeriod == 0 {
 		sim.Mesh.ResolvePeriod = shortestPeriod(s)
@@ -232,15 +232,15 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		return nil, err
 	}
 	p := solver.Problem{
-		Column:      col,
-		Mesh:        mesh,
-		Outside:     s.Outside.Boundary(),
-		Inside:      s.Inside.Boundary(),
-		Start:       sim.Start,
-		Duration:    sim.Duration,
-		Step:        sim.Step,
-		Probes:      probes,
-		SampleEvery: sim.Sample,
+		Column:     col,
+		Mesh:       mesh,
+		Outside:    s.Outside.Boundary(),
+		Inside:     s.Inside.Boundary(),
+		Start:      sim.Start,
+		Duration:   sim.Duration,
+		Step:       sim.Step,
+		Probes:     probes,
+		OutputStep: sim.OutputStep,
 	}
 	spin := 0
 	spinConverged := true
@@ -292,7 +292,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		StartDay:                   sim.Start / climate.Day,
 		Duration_h:                 sim.Duration / 3600,
 		Step_h:                     sim.Step / 3600,
-		OutputStep_h:               sim.Sample / 3600,
+		OutputStep_h:               sim.OutputStep / 3600,
 		Cells:                      mesh.Cells(),
 		EnergyBalanceRelativeError: res.Energy.RelativeError,
 		SpinUpCycles:               spin,
@@ -494,7 +494,7 @@ func fitPhasor(t, v []float64, P float64, periods []float64, mid float64) (compl
 func minPenetrationDepth(s *Scenario, p float64) float64 {
 	d := math.Inf(1)
 	for _, l := range s.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			continue
 		}
 		d = math.Min(d, l.PenetrationDepth(p))

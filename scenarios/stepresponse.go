@@ -121,7 +121,7 @@ func stepMesh(s *Scenario, col solver.Column) (solver.Column, solver.Layer, *sol
 	c.HalfSpace = false
 	first := c.Layers[0]
 	for _, l := range c.Layers {
-		if !l.IsResistance() {
+		if !l.Massless() {
 			first = l
 			break
 		}

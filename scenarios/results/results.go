@@ -223,7 +223,7 @@ type Frost struct {
 	ActiveLayer_m *float64 `json:"active_layer_m,omitempty"`
 
 	SurfaceFreezingIndex_Cd *float64          `json:"surface_freezing_index_Cd"` // n-factor x air index
-	FreezingNFactor         float64           `json:"freezing_n_factor"`
+	NFactorFreezing         float64           `json:"freezing_n_factor"`
 	SeasonLength_d          *float64          `json:"season_length_d"`
 	MeanAnnualAir_C         *float64          `json:"mean_annual_air_C"`
 	DesignFreezingIndex_Cd  *float64          `json:"design_freezing_index_Cd,omitempty"`
