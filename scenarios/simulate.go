@@ -136,17 +136,23 @@ func isLinear(col solver.Column) bool {
 }
 
 // solverProbes converts the probe depths (as drawn, air layers counted) to
-// solver positions and checks that each lies in the column.
+// solver positions and checks that each lies in the column (every probe
+// outside is a problem of its own).
 func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 	c := s.construction()
 	total := c.Thickness()
 	var out []float64
+	var errs problems
 	for i, z := range s.Analysis.Probes {
 		if z > total*(1+1e-12) {
-			return nil, &Error{File: s.File, Line: s.Analysis.ProbeLines[i], Key: fmt.Sprintf("analysis.probes[%d]", i+1),
-				Msg: fmt.Sprintf("probe at %g m lies outside the column, which is %g m thick", z, total)}
+			errs.add(s, &Error{File: s.File, Line: s.Analysis.ProbeLines[i], Key: fmt.Sprintf("analysis.probes[%d]", i+1),
+				Msg: fmt.Sprintf("probe at %g m lies outside the column, which is %g m thick", z, total)})
+			continue
 		}
 		out = append(out, math.Min(c.SolverDepth(z), col.Thickness()))
+	}
+	if err := errs.err(); err != nil {
+		return nil, err
 	}
 	return out, nil
 }
