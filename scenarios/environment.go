@@ -43,13 +43,13 @@ func decodeEnvironment(d *decoder, o *object, at sideAt) Side {
 	sd := Environment{Resistance: at.r, ResistancePeriods: at.periods}
 	sd.NFactors = d.decodeNFactors(o)
 	sd.Temperature = d.decodeForcing(o, "temperature", forcingTemperature)
-	if at.outside && o.has("solar") {
+	if at.sunlit && o.has("solar") {
 		sd.Solar = d.decodeSolar(o, at.s)
 	}
 	if sd.Temperature == nil || !o.clean() {
 		return nil
 	}
-	if at.s.Kind == Ground && !at.outside && len(sd.Temperature.Harmonics) > 0 {
+	if at.bottom && len(sd.Temperature.Harmonics) > 0 {
 		o.failf("temperature", "the bottom temperature must be constant: give only a mean")
 		return nil
 	}

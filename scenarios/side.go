@@ -52,10 +52,18 @@ type Side interface {
 
 // sideAt is where a side is decoded: what its variant may depend on.
 type sideAt struct {
-	s       *Scenario
-	key     string  // the side's key: outside, inside, surface or bottom
-	outside bool    // the outside (ground: surface) face
-	r       float64 // the surface resistance given (or the default), m2 K/W
+	s   *Scenario
+	key string // the side's key: outside, inside, surface or bottom
+	// sunlit: the sun may shine on the side (a wall's outside); solar is
+	// refused elsewhere.
+	sunlit bool
+	// environment: the side must be an Environment (the outside of a
+	// wall, the ground surface).
+	environment bool
+	// bottom: the bottom of a ground column, whose temperature must be
+	// constant.
+	bottom bool
+	r      float64 // the surface resistance given (or the default), m2 K/W
 	// periods are the times of the year with another resistance; nil:
 	// constant.
 	periods []ResistancePeriod
@@ -200,10 +208,11 @@ func sideNotes(s *Scenario) []string {
 	return append(s.Outside.notes(names[0]), s.Inside.notes(names[1])...)
 }
 
-// decodeSide reads one side: its resistance, and exactly one of the
-// variants of sideVariants. A side that is not given takes its default:
-// 20 degC behind the ISO 6946 resistance inside a wall, the geothermal
-// flux below the ground. It returns nil after a mistake.
+// decodeSide reads one side of s under top's key: its resistance, and
+// exactly one of the variants of sideVariants. A side that is not given
+// takes its default: 20 degC behind the ISO 6946 resistance defaultR
+// inside a wall, the geothermal flux below the ground. It returns nil
+// after a mistake.
 func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR float64, outside bool) Side {
 	allowed := sideKeys
 	if s.Kind == Ground {
@@ -231,9 +240,16 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 	if o == nil {
 		return nil
 	}
-	at := sideAt{s: s, key: key, outside: outside, r: defaultR}
+	return d.decodeSideObject(o, sideAt{s: s, key: key, sunlit: outside && s.Kind == Wall, environment: outside,
+		bottom: !outside && s.Kind == Ground, r: defaultR})
+}
+
+// decodeSideObject reads a side from its mapping o (whose allowed keys
+// say which variants it may hold): the resistance (at.r when not given),
+// and exactly one variant. It returns nil after a mistake.
+func (d *decoder) decodeSideObject(o *object, at sideAt) Side {
 	d.decodeResistance(o, &at.r, &at.periods)
-	if o.has("solar") && !outside {
+	if o.has("solar") && !at.sunlit {
 		o.failf("solar", "the sun shines on the outside surface only")
 	}
 	var chosen []Side
@@ -254,8 +270,8 @@ func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR floa
 		o.missing(keys[0], "give "+orList(hints, "or"))
 	case len(chosen) > 1:
 		o.d.failf(o.node, o.path, "give only one of %s", orList(keys, "and"))
-	case outside && !isEnvironment(chosen[0]):
-		o.missing("temperature", "the "+key+" side is driven by a temperature")
+	case at.environment && !isEnvironment(chosen[0]):
+		o.missing("temperature", "the "+at.key+" side is driven by a temperature")
 	default:
 		return chosen[0]
 	}
