@@ -118,7 +118,7 @@ func groundFixture() *results.Results {
 			Probes: []results.Probe{{Depth_m: 0.5, Min_C: -3.1, Max_C: 15.2, Mean_C: 6.3}, {Depth_m: 2, Min_C: 2.9, Max_C: 10.1, Mean_C: 6.4}}},
 		Frost: &results.Frost{FreezingIndex_Cd: ptr(420), MaxFrostDepth_m: ptr(0.82), StefanDepth_m: ptr(1.21), ModifiedBerggrenDepth_m: ptr(1.02),
 			HeadlineWinter:          "winter 2",
-			SurfaceFreezingIndex_Cd: ptr(294), FreezingNFactor: 0.7, SeasonLength_d: ptr(120), MeanAnnualAir_C: ptr(6), IndexSource: results.IndexSource{Origin: results.FromForcing},
+			SurfaceFreezingIndex_Cd: ptr(294), NFactorFreezing: 0.7, SeasonLength_d: ptr(120), MeanAnnualAir_C: ptr(6), IndexSource: results.IndexSource{Origin: results.FromForcing},
 			BerggrenLambda: ptr(0.84), BerggrenAlpha: ptr(0.9), BerggrenMu: ptr(0.1),
 			Winters: []results.FrostWinter{
 				{Label: "winter 1", Start_d: 0, End_d: 181, AirFreezingIndex_Cd: 300, AirThawingIndex_Cd: 900, MaxFrostDepth_m: 0.71, MaxFrostDay: 40, MaxFrostDate: "year 1, 10 Feb",

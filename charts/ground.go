@@ -99,7 +99,7 @@ func frostCompareTable(r *results.Results) *block {
 	idx, from := indexUsed(f)
 	by := "no surface freezing index"
 	if idx != nil {
-		by = fmt.Sprintf("surface freezing index %s (freezing n-factor %s × %s)", cd(*idx), trimZeros(sig(f.FreezingNFactor, 3)), from)
+		by = fmt.Sprintf("surface freezing index %s (freezing n-factor %s × %s)", cd(*idx), trimZeros(sig(f.NFactorFreezing, 3)), from)
 	}
 	stefan := optText(f, "stefan_depth_m", f.StefanDepth_m, depth2)
 	berg := optText(f, "modified_berggren_depth_m", f.ModifiedBerggrenDepth_m, depth2)
@@ -155,7 +155,7 @@ func freezingIndexTable(r *results.Results) *block {
 		t.row(fmt.Sprintf("Air freezing index with a %s-year return period", fixed(rp.Years, 0)),
 			fmt.Sprintf("%s (%s fitted to %d complete winters: location %s, scale %s)", cd(rp.FreezingIndex_Cd), rp.Method, rp.Winters, cd(rp.Location_Cd), cd(rp.Scale_Cd)))
 	}
-	t.row("Freezing n-factor (surface / air freezing index)", trimZeros(sig(f.FreezingNFactor, 3)))
+	t.row("Freezing n-factor (surface / air freezing index)", trimZeros(sig(f.NFactorFreezing, 3)))
 	if f.SurfaceFreezingIndex_Cd != nil {
 		t.row("Surface freezing index (n × air)", cd(*f.SurfaceFreezingIndex_Cd))
 	}
@@ -407,7 +407,7 @@ func frostSummary(f *results.Frost, sim bool) string {
 	switch {
 	case f.StefanDepth_m != nil || f.ModifiedBerggrenDepth_m != nil:
 		s += fmt.Sprintf(" From a surface freezing index of %s (n-factor %s × %s), the Stefan estimate is %s and the modified Berggren estimate %s.",
-			cd(*idx), trimZeros(sig(f.FreezingNFactor, 3)), from,
+			cd(*idx), trimZeros(sig(f.NFactorFreezing, 3)), from,
 			optText(f, "stefan_depth_m", f.StefanDepth_m, func(v float64) string { return fixed(v, 2) + " m" }),
 			optText(f, "modified_berggren_depth_m", f.ModifiedBerggrenDepth_m, func(v float64) string { return fixed(v, 2) + " m" }))
 	default:

@@ -70,7 +70,7 @@ func inputsBlocks(r *results.Results) []*block {
 			t.row("Design air freezing index", cd(*d)+" (used by Stefan and modified Berggren)")
 		}
 		if r.Ground == nil {
-			t.row("Freezing n-factor", trimZeros(sig(f.FreezingNFactor, 3)))
+			t.row("Freezing n-factor", trimZeros(sig(f.NFactorFreezing, 3)))
 		}
 	}
 	if st := r.StepResponse; st != nil {

@@ -16,27 +16,27 @@ import (
 // an uncertainty propagation and a diffusivity fit to logged
 // temperatures.
 
-// quantity is how a study quantity (a key of results.Summary) is shown.
+// quantity is how a study quantity (a key of results.Summary) is shown:
+// the label and digits results.Quantities declares with the quantity.
 type quantity struct {
 	key, label string
 	format     func(float64) string
 }
 
-// quantities in display order; keys not listed here are shown by key.
-var quantities = []quantity{
-	{"u_value_W_m2K", "U-value (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
-	{"decrement_factor", "Decrement factor f", func(v float64) string { return sig(v, 3) }},
-	{"time_shift_h", "Time shift (h)", func(v float64) string { return fixed(v, 1) }},
-	{"time_shift_unwrapped_h", "Whole time shift (h)", func(v float64) string { return fixed(v, 1) }},
-	{"surface_factor", "Surface factor F", func(v float64) string { return sig(v, 3) }},
-	{"periodic_transmittance_W_m2K", "|Y₁₂| (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
-	{"inside_admittance_W_m2K", "|Y₁₁| inside (W/(m²·K))", func(v float64) string { return sig(v, 3) }},
-	{"inside_areal_heat_capacity_kJ_m2K", "κ₁ inside (kJ/(m²·K))", func(v float64) string { return sig(v, 3) }},
-	{"max_frost_depth_m", "Simulated max frost depth (m)", func(v float64) string { return fixed(v, 2) }},
-	{"stefan_depth_m", "Stefan depth (m)", func(v float64) string { return fixed(v, 2) }},
-	{"modified_berggren_depth_m", "Modified Berggren depth (m)", func(v float64) string { return fixed(v, 2) }},
-	{"freezing_index_Cd", "Air freezing index (°C·d)", func(v float64) string { return fixed(v, 0) }},
-}
+// quantities in display order (results.Quantities); keys not listed
+// there are shown by key.
+var quantities = func() []quantity {
+	var out []quantity
+	for _, q := range results.Quantities() {
+		d := q.Decimals
+		f := func(v float64) string { return sig(v, 3) }
+		if d >= 0 {
+			f = func(v float64) string { return fixed(v, d) }
+		}
+		out = append(out, quantity{q.Key, q.Label, f})
+	}
+	return out
+}()
 
 // nameUnit splits a label "Name (unit)" into a lower-case name for a
 // sentence and " unit" (empty when the label has no unit).

@@ -222,7 +222,7 @@ func TestGroundWaveDepths(t *testing.T) {
 	if lo, _ := w.Envelope(zf); math.Abs(lo) > 1e-12 {
 		t.Errorf("minimum at frost-free depth %g", lo)
 	}
-	if _, err := (GroundWave{Mean: -1, Amplitude: 5, Period: climate.Year, Diffusivity: 1e-6}).FrostFreeDepth(0); err == nil {
+	if _, err := (Wave{Mean: -1, Amplitude: 5, Period: climate.Year, Diffusivity: 1e-6}).FrostFreeDepth(0); err == nil {
 		t.Error("mean below freezing: want an error")
 	}
 	if _, err := w.DepthForAmplitude(0); err == nil {
@@ -236,7 +236,7 @@ func TestGroundWaveDepths(t *testing.T) {
 	}
 	// From a climate harmonic: the coldest time is half a period after the
 	// peak.
-	g, err := GroundWaveFromHarmonic(8, climate.Harmonic{Period: climate.Year, Amplitude: 10, Peak: 200 * climate.Day}, 0.19e-6)
+	g, err := WaveFromHarmonic(8, climate.Harmonic{Period: climate.Year, Amplitude: 10, Peak: 200 * climate.Day}, 0.19e-6)
 	if err != nil || math.Abs(g.Coldest-17.5*climate.Day) > 1e-6 {
 		t.Errorf("from harmonic: %+v %v", g, err)
 	}
@@ -250,7 +250,7 @@ func TestGroundWaveDepths(t *testing.T) {
 }
 
 func TestDiffusivityFromHarmonics(t *testing.T) {
-	// A GroundWave with a = 0.45e-6 m2/s (wet clay, Moene and van Dam 2014
+	// A Wave with a = 0.45e-6 m2/s (wet clay, Moene and van Dam 2014
 	// Table 2.2 [2nd-hand]) sampled daily for two years at 0.2 and 1.0 m; the
 	// annual harmonics fitted by climate.FitHarmonics give back a by both
 	// methods [derived: amplitude ratio exp(-dz/d), lag dz/d P/(2 pi)].

@@ -9,7 +9,7 @@ import (
 
 // SoilDiffusivity is the apparent thermal diffusivity of a soil read from
 // the temperature wave of one period at two depths, by the two classical
-// methods. For a homogeneous soil conducting heat (the GroundWave model)
+// methods. For a homogeneous soil conducting heat (the Wave model)
 // both give the same value; a large difference between them points to
 // layering, moisture changes, latent heat or a poor fit.
 type SoilDiffusivity struct {
@@ -25,7 +25,7 @@ type SoilDiffusivity struct {
 // max-min amplitudes and sampled peak times are much worse: by
 // 15 % and 34 % on realistic records [derived]). With omega = 2 pi / P and dz = z2 - z1 (Horton, Wierenga and
 // Nielsen 1983, Soil Sci. Soc. Am. J. 47:25, forms from memory; both follow
-// from the GroundWave solution [derived]):
+// from the Wave solution [derived]):
 //
 //	amplitude method: a = omega dz^2 / (2 ln^2(A1/A2))
 //	phase method:     a = omega dz^2 / (2 (phi2 - phi1)^2)

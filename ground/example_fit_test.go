@@ -18,7 +18,7 @@ import (
 func ExampleFitDiffusivity() {
 	const a = 0.45e-6 // m2/s, the value to recover
 	annual, _ := ground.Kusuda(9, 11, 20*climate.Day, a)
-	daily := ground.GroundWave{Amplitude: 4, Coldest: 3 * 3600, Period: climate.Day, Diffusivity: a}
+	daily := ground.Wave{Amplitude: 4, Coldest: 3 * 3600, Period: climate.Day, Diffusivity: a}
 	rng := rand.New(rand.NewPCG(2024, 1))
 	rec := ground.SensorRecord{Depths: []float64{0.05, 0.15, 0.30}, Temps: make([][]float64, 3)}
 	for k := range 21 * 24 {

@@ -472,7 +472,7 @@ func (res *FitResult) harmonic(rec SensorRecord, periods []float64) error {
 					return fmt.Errorf("diffusivity fit: sensors %d and %d, %s harmonic: %w", i+1, j+1, periodName(per), err)
 				}
 				// Unwrap the lag: in a homogeneous soil the phase lag in
-				// radians equals ln(A1/A2) (GroundWave); add the whole
+				// radians equals ln(A1/A2) (Wave); add the whole
 				// number of periods that brings it closest.
 				w := 2 * math.Pi / per
 				lnr := math.Log(d.Ratio)

@@ -14,8 +14,8 @@ import (
 // a mean of 9 degC, an annual swing of 11 K (coldest on day 20) and a
 // daily swing of 4 K (coldest at 03:00), over a homogeneous half-space of
 // diffusivity a (m2/s).
-func synthWaves(a float64) []GroundWave {
-	return []GroundWave{
+func synthWaves(a float64) []Wave {
+	return []Wave{
 		{Mean: 9, Amplitude: 11, Coldest: 20 * climate.Day, Period: climate.Year, Diffusivity: a},
 		{Mean: 0, Amplitude: 4, Coldest: 3 * 3600, Period: climate.Day, Diffusivity: a},
 	}
@@ -25,7 +25,7 @@ func synthWaves(a float64) []GroundWave {
 // the exact periodic temperature under synthWaves(a) read at the given
 // depths every hour for the given number of days, plus Gaussian noise of
 // standard deviation sigma (K) from a seeded generator. Each harmonic is
-// the closed form of Kusuda and Achenbach (1965) (GroundWave; form
+// the closed form of Kusuda and Achenbach (1965) (Wave; form
 // [memory], checked against the heat equation in
 // TestGroundWaveHeatEquation [derived]); the heat equation is linear, so
 // their sum is the exact periodic solution.
@@ -37,7 +37,7 @@ func synthRecord(a float64, depths []float64, days int, sigma float64, seed uint
 // add up) and for noise correlated from one hour to the next: an AR(1)
 // series e_k = phi e_(k-1) + sqrt(1 - phi^2) sigma xi_k of standard
 // deviation sigma (phi 0: white noise).
-func synthRecordOf(waves []GroundWave, depths []float64, days int, sigma, phi float64, seed uint64) SensorRecord {
+func synthRecordOf(waves []Wave, depths []float64, days int, sigma, phi float64, seed uint64) SensorRecord {
 	rng := rand.New(rand.NewPCG(seed, 1))
 	n := days * 24
 	rec := SensorRecord{Times: make([]float64, n), Depths: append([]float64(nil), depths...), Temps: make([][]float64, len(depths))}
@@ -171,7 +171,7 @@ func TestFitDiffusivitySynthetic(t *testing.T) {
 // TestFitDiffusivityWeather: SYNTHETIC record under irregular "weather"
 // made of 24 harmonics with periods from 2.3 to 45 days (random
 // amplitudes up to 2 K and phases, seeded) on top of the annual and daily
-// waves. Each harmonic is exact (GroundWave, Kusuda and
+// waves. Each harmonic is exact (Wave, Kusuda and
 // Achenbach 1965 form [memory]), so the sum is the exact response to that surface history. The
 // inversion, which needs no periodic forcing, must still land within 1 %;
 // the harmonic methods, fitting only the daily wave, are logged.
@@ -181,7 +181,7 @@ func TestFitDiffusivityWeather(t *testing.T) {
 	rng := rand.New(rand.NewPCG(77, 3))
 	for i := range 24 {
 		p := 2.3 * math.Pow(45/2.3, float64(i)/23) * climate.Day
-		waves = append(waves, GroundWave{Amplitude: 2 * rng.Float64(), Coldest: p * rng.Float64(), Period: p, Diffusivity: a})
+		waves = append(waves, Wave{Amplitude: 2 * rng.Float64(), Coldest: p * rng.Float64(), Period: p, Diffusivity: a})
 	}
 	rec := synthRecordOf(waves, []float64{0.05, 0.15, 0.35}, 90, 0.05, 0, 5)
 	r, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}})
@@ -270,7 +270,7 @@ func TestFitDiffusivityStdErr(t *testing.T) {
 }
 
 // TestFitDiffusivityPhaseUnwrap: between 0.05 and 0.9 m the daily wave in
-// a soil of 0.5e-6 m2/s lags by (0.85/d) P/(2 pi) = 1.16 days (GroundWave,
+// a soil of 0.5e-6 m2/s lags by (0.85/d) P/(2 pi) = 1.16 days (Wave,
 // lag z/d P/(2 pi) of the Kusuda and Achenbach form [derived]): the phase method must add one period.
 // SYNTHETIC noise-free record of the daily wave alone, harmonic methods
 // only.
@@ -278,7 +278,7 @@ func TestFitDiffusivityPhaseUnwrap(t *testing.T) {
 	const a = 0.5e-6
 	wave := synthWaves(a)[1]
 	wave.Mean = 9
-	rec := synthRecordOf([]GroundWave{wave}, []float64{0.05, 0.9}, 10, 0, 0, 1)
+	rec := synthRecordOf([]Wave{wave}, []float64{0.05, 0.9}, 10, 0, 0, 1)
 	r, err := FitDiffusivity(rec, FitOptions{Periods: []float64{climate.Day}, SkipInversion: true})
 	if err != nil {
 		t.Fatal(err)

@@ -217,10 +217,10 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 
 	last := len(in.Layers) - 1
 	for i, l := range in.Layers {
-		if i == last && (l.IsResistance() || latentHeat(l) == 0) {
+		if i == last && (l.Massless() || latentHeat(l) == 0) {
 			return BerggrenResult{}, fmt.Errorf("berggren: the frost reaches the deepest layer %d (%q), which has no latent heat, so the method puts no bound on the frost depth", i+1, l.Name)
 		}
-		if l.IsResistance() {
+		if l.Massless() {
 			sumR += l.Resistance
 			res.Needed = append(res.Needed, cum)
 			continue

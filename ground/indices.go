@@ -159,11 +159,11 @@ func SineIndices(mean, amplitude, periodDays float64) (freezing, thawing, season
 
 // FrostClimate is what the frost-depth closed forms need from a climate.
 type FrostClimate struct {
-	AirIndex     float64 // air freezing index, K day (cumulative-curve fall)
-	NFactor      float64 // freezing n-factor applied
-	SurfaceIndex float64 // NFactor x AirIndex, K day
-	SeasonDays   float64 // freezing season length, days (cumulative-curve span)
-	MeanAnnual   float64 // mean temperature of the record, degC
+	AirIndex        float64 // air freezing index, K day (cumulative-curve fall)
+	NFactorFreezing float64 // freezing n-factor applied
+	SurfaceIndex    float64 // NFactorFreezing x AirIndex, K day
+	SeasonDays      float64 // freezing season length, days (cumulative-curve span)
+	MeanAnnual      float64 // mean temperature of the record, degC
 }
 
 // PeriodicFrostClimate reads a FrostClimate from a periodic air
@@ -184,11 +184,11 @@ func PeriodicFrostClimate(p climate.Periodic, period, step, n float64) (FrostCli
 		return FrostClimate{}, err
 	}
 	return FrostClimate{
-		AirIndex:     s.Index,
-		NFactor:      n,
-		SurfaceIndex: n * s.Index,
-		SeasonDays:   s.Days,
-		MeanAnnual:   p.Mean,
+		AirIndex:        s.Index,
+		NFactorFreezing: n,
+		SurfaceIndex:    n * s.Index,
+		SeasonDays:      s.Days,
+		MeanAnnual:      p.Mean,
 	}, nil
 }
 
@@ -202,11 +202,11 @@ func FrostClimateFromWinter(w climate.Winter, n float64) (FrostClimate, error) {
 		return FrostClimate{}, fmt.Errorf("winter %s: freezing index %g is not a degree-day total >= 0", w.Label, w.FreezingIndex)
 	}
 	return FrostClimate{
-		AirIndex:     w.FreezingIndex,
-		NFactor:      n,
-		SurfaceIndex: n * w.FreezingIndex,
-		SeasonDays:   w.Days,
-		MeanAnnual:   w.MeanTemperature,
+		AirIndex:        w.FreezingIndex,
+		NFactorFreezing: n,
+		SurfaceIndex:    n * w.FreezingIndex,
+		SeasonDays:      w.Days,
+		MeanAnnual:      w.MeanTemperature,
 	}, nil
 }
 

@@ -193,7 +193,7 @@ func newInvModel(rec SensorRecord, o FitOptions, fits []climate.Periodic, ad flo
 // initial returns the starting profile for diffusivity a: the sensors
 // interpolated linearly at the first record time, and below the deepest
 // sensor (adiabatic bottom) its fitted mean and harmonics continued
-// downward as damped, lagging waves (GroundWave), with the part of its
+// downward as damped, lagging waves (Wave), with the part of its
 // first reading that the harmonics miss damped over the shortest
 // penetration depth.
 func (m *invModel) initial(a float64) func(x float64) float64 {
@@ -245,7 +245,7 @@ func (m *invModel) simulate(a float64) ([][]float64, error) {
 		Start:       t0,
 		Duration:    t1 - t0,
 		Step:        m.step,
-		SampleEvery: m.every,
+		OutputStep:  m.every,
 		Probes:      m.xs,
 	}
 	if m.bottom == BottomSensor {

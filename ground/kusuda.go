@@ -7,7 +7,7 @@ import (
 	"tempstack/climate"
 )
 
-// GroundWave is the periodic temperature of a homogeneous half-space whose
+// Wave is the periodic temperature of a homogeneous half-space whose
 // surface follows one cosine (Kusuda and Achenbach 1965, form from memory;
 // it is the exact periodic solution of the heat equation, checked in the
 // tests):
@@ -19,7 +19,7 @@ import (
 // Coldest the time of the coldest surface temperature (s), a the thermal
 // diffusivity (m2/s). The amplitude falls as exp(-z/d) and the extremes lag
 // by z/d Period/(2 pi). Latent heat and a geothermal gradient are ignored.
-type GroundWave struct {
+type Wave struct {
 	Mean        float64 // mean surface (and ground) temperature, degC
 	Amplitude   float64 // half the surface temperature range, K (>= 0)
 	Coldest     float64 // time of the coldest surface temperature, s
@@ -30,16 +30,16 @@ type GroundWave struct {
 // Kusuda returns the annual ground wave (Period = climate.Year) of a soil
 // with diffusivity a (m2/s) under a surface with the given mean (degC),
 // amplitude (K) and time of the coldest temperature (s from 1 January).
-func Kusuda(mean, amplitude, coldest, diffusivity float64) (GroundWave, error) {
-	w := GroundWave{Mean: mean, Amplitude: amplitude, Coldest: coldest, Period: climate.Year, Diffusivity: diffusivity}
+func Kusuda(mean, amplitude, coldest, diffusivity float64) (Wave, error) {
+	w := Wave{Mean: mean, Amplitude: amplitude, Coldest: coldest, Period: climate.Year, Diffusivity: diffusivity}
 	return w, w.Validate()
 }
 
-// GroundWaveFromHarmonic returns the ground wave under a surface mean
+// WaveFromHarmonic returns the ground wave under a surface mean
 // (degC) and one harmonic h of the surface temperature (its Peak is the
 // warmest time; the coldest is half a period later).
-func GroundWaveFromHarmonic(mean float64, h climate.Harmonic, diffusivity float64) (GroundWave, error) {
-	w := GroundWave{
+func WaveFromHarmonic(mean float64, h climate.Harmonic, diffusivity float64) (Wave, error) {
+	w := Wave{
 		Mean:        mean,
 		Amplitude:   h.Amplitude,
 		Coldest:     math.Mod(h.Peak+h.Period/2, h.Period),
@@ -50,7 +50,7 @@ func GroundWaveFromHarmonic(mean float64, h climate.Harmonic, diffusivity float6
 }
 
 // Validate reports the first impossible value of w.
-func (w GroundWave) Validate() error {
+func (w Wave) Validate() error {
 	switch {
 	case !finite(w.Mean) || !finite(w.Coldest):
 		return fmt.Errorf("ground wave: mean and time of the coldest temperature must be finite")
@@ -66,31 +66,31 @@ func (w GroundWave) Validate() error {
 
 // DampingDepth is d = sqrt(a P / pi), m: the depth at which the amplitude
 // has fallen to 1/e of the surface amplitude.
-func (w GroundWave) DampingDepth() float64 {
+func (w Wave) DampingDepth() float64 {
 	return math.Sqrt(w.Diffusivity * w.Period / math.Pi)
 }
 
 // Temperature returns T(z, t), degC, at depth z (m, >= 0) and time t (s).
-func (w GroundWave) Temperature(z, t float64) float64 {
+func (w Wave) Temperature(z, t float64) float64 {
 	d := w.DampingDepth()
 	return w.Mean - w.Amplitude*math.Exp(-z/d)*math.Cos(2*math.Pi*(t-w.Coldest)/w.Period-z/d)
 }
 
 // AmplitudeAt returns the temperature amplitude at depth z, K:
 // Amplitude exp(-z/d).
-func (w GroundWave) AmplitudeAt(z float64) float64 {
+func (w Wave) AmplitudeAt(z float64) float64 {
 	return w.Amplitude * math.Exp(-z/w.DampingDepth())
 }
 
 // LagAt returns how long the extremes at depth z trail those at the
 // surface, s: (z/d) Period / (2 pi). It can exceed one period.
-func (w GroundWave) LagAt(z float64) float64 {
+func (w Wave) LagAt(z float64) float64 {
 	return z / w.DampingDepth() * w.Period / (2 * math.Pi)
 }
 
 // Envelope returns the lowest and highest temperature reached at depth z
 // over a period, degC: Mean -+ Amplitude exp(-z/d).
-func (w GroundWave) Envelope(z float64) (min, max float64) {
+func (w Wave) Envelope(z float64) (min, max float64) {
 	a := w.AmplitudeAt(z)
 	return w.Mean - a, w.Mean + a
 }
@@ -98,7 +98,7 @@ func (w GroundWave) Envelope(z float64) (min, max float64) {
 // DepthForAmplitude returns the depth (m) below which the temperature
 // amplitude stays under threshold (K, > 0): z = d ln(Amplitude / threshold);
 // 0 when the surface amplitude is already at or under it.
-func (w GroundWave) DepthForAmplitude(threshold float64) (float64, error) {
+func (w Wave) DepthForAmplitude(threshold float64) (float64, error) {
 	if err := w.Validate(); err != nil {
 		return 0, err
 	}
@@ -117,7 +117,7 @@ func (w GroundWave) DepthForAmplitude(threshold float64) (float64, error) {
 // mean itself is at or below temp (the whole half-space then reaches it).
 // Latent heat, which slows frost, is ignored: for frost this is an
 // overestimate (common practice to treat it as a bound only).
-func (w GroundWave) FrostFreeDepth(temp float64) (float64, error) {
+func (w Wave) FrostFreeDepth(temp float64) (float64, error) {
 	if w.Mean <= temp {
 		return 0, fmt.Errorf("ground wave: mean %g degC is not above %g degC; every depth reaches it", w.Mean, temp)
 	}

@@ -163,7 +163,7 @@ func TestFrostClimateFromWinterNFactor(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if fc.AirIndex != 850 || math.Abs(fc.SurfaceIndex-595) > 1e-9 || fc.NFactor != 0.7 || fc.SeasonDays != 120 || fc.MeanAnnual != 3.5 {
+	if fc.AirIndex != 850 || math.Abs(fc.SurfaceIndex-595) > 1e-9 || fc.NFactorFreezing != 0.7 || fc.SeasonDays != 120 || fc.MeanAnnual != 3.5 {
 		t.Errorf("frost climate %+v: want surface index 0.7 x 850 = 595, 120 days, mean 3.5", fc)
 	}
 }

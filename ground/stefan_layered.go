@@ -45,7 +45,7 @@ func StefanLayered(layers []solver.Layer, surfaceIndex float64) (depth float64, 
 	F := surfaceIndex * secondsPerDay // K s
 	var rAbove, dAbove, cum float64   // m2K/W, m, K s
 	for i, l := range layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			rAbove += l.Resistance
 			needed = append(needed, cum/secondsPerDay)
 			continue

@@ -183,7 +183,7 @@ func NewLayer(key string, thickness float64) (Layer, error) {
 		return Layer{}, &UnknownMaterialError{Key: key, Suggestions: Suggest(key)}
 	}
 	l := m.Layer()
-	if !(m.IsResistance() && thickness == 0) {
+	if !(m.Massless() && thickness == 0) {
 		if err := l.SetThickness(thickness); err != nil {
 			return Layer{}, err
 		}
@@ -197,7 +197,7 @@ func NewLayer(key string, thickness float64) (Layer, error) {
 // thickness ResistanceThickness with the tabulated Resistance.
 func (m Material) Layer() Layer {
 	l := Layer{Name: m.Name, MaterialKey: m.Key, Source: m.Source, Family: m.Family}
-	if m.IsResistance() {
+	if m.Massless() {
 		l.Thickness, l.Resistance = m.ResistanceThickness, m.Resistance
 		return l
 	}
@@ -211,7 +211,7 @@ func (m Material) Layer() Layer {
 // returns that function's error for a thickness outside its table. An
 // explicit resistance should be assigned after SetThickness.
 func (l *Layer) SetThickness(d float64) error {
-	if m, ok := Lookup(l.MaterialKey); ok && m.IsResistance() && l.IsResistance() {
+	if m, ok := Lookup(l.MaterialKey); ok && m.Massless() && l.Massless() {
 		r, err := AirLayerResistance(d, m.HeatFlow)
 		if err != nil {
 			return fmt.Errorf("material %q: %w", m.Key, err)
@@ -222,8 +222,10 @@ func (l *Layer) SetThickness(d float64) error {
 	return nil
 }
 
-// IsResistance reports whether l is a resistance layer (stores no heat).
-func (l Layer) IsResistance() bool { return l.Resistance > 0 }
+// Massless reports whether l stores no heat: a resistance layer, whose
+// drawn Thickness is only geometry (the solver gets it with thickness 0,
+// where solver.Layer.Massless says the same).
+func (l Layer) Massless() bool { return l.Resistance > 0 }
 
 // HeatCapacity is the volumetric heat capacity rho*c, J/(m3 K); 0 for a
 // resistance layer.
@@ -236,7 +238,7 @@ func (l Layer) ArealHeatCapacity() float64 { return l.HeatCapacity() * l.Thickne
 // ThermalResistance is d/lambda for a massive layer, or Resistance for a
 // resistance layer, m2 K/W (ISO 6946, R = d/lambda).
 func (l Layer) ThermalResistance() float64 {
-	if l.IsResistance() {
+	if l.Massless() {
 		return l.Resistance
 	}
 	return l.Thickness / l.Conductivity
@@ -245,7 +247,7 @@ func (l Layer) ThermalResistance() float64 {
 // Diffusivity is the thermal diffusivity a = lambda/(rho c), m2/s; 0 for a
 // resistance layer.
 func (l Layer) Diffusivity() float64 {
-	if l.IsResistance() || l.HeatCapacity() == 0 {
+	if l.Massless() || l.HeatCapacity() == 0 {
 		return 0
 	}
 	return l.Conductivity / l.HeatCapacity()
@@ -259,7 +261,7 @@ func (l Layer) Diffusivity() float64 {
 // equal surface fluxes of the two erf solutions). It is 0
 // for a resistance layer.
 func (l Layer) Effusivity() float64 {
-	if l.IsResistance() {
+	if l.Massless() {
 		return 0
 	}
 	return math.Sqrt(l.Conductivity * l.HeatCapacity())
@@ -291,7 +293,7 @@ func (l Layer) Validate() error {
 	if bad(l.Thickness) || bad(l.Conductivity) || bad(l.Density) || bad(l.SpecificHeat) || bad(l.Resistance) {
 		return fmt.Errorf("layer %q: a property is not a finite number", name)
 	}
-	if l.IsResistance() {
+	if l.Massless() {
 		switch {
 		case l.Thickness < 0:
 			return fmt.Errorf("layer %q: thickness must not be negative, got %g m", name, l.Thickness)
@@ -325,7 +327,7 @@ func (l Layer) Solver() solver.Layer {
 	if name == "" {
 		name = l.MaterialKey
 	}
-	if l.IsResistance() {
+	if l.Massless() {
 		return solver.Layer{Name: name, Resistance: l.Resistance}
 	}
 	return solver.Layer{
@@ -411,10 +413,10 @@ func (c Construction) StandardUValue() float64 {
 }
 
 // Column returns the solver input for c: the layers outside first, the
-// outside surface resistance rse and the inside surface resistance rsi
-// (m2 K/W; 0 imposes the environment temperature on the surface). Note the
-// order of the arguments: outside first, like the layers.
-func (c Construction) Column(rse, rsi float64) solver.Column {
+// inside surface resistance rsi and the outside surface resistance rse
+// (m2 K/W; 0 imposes the environment temperature on the surface), in the
+// order of SurfaceResistances, UValue and TotalResistance.
+func (c Construction) Column(rsi, rse float64) solver.Column {
 	col := solver.Column{
 		Layers:            make([]solver.Layer, len(c.Layers)),
 		OutsideResistance: rse,
@@ -436,7 +438,7 @@ func (c Construction) SolverDepth(x float64) float64 {
 		if x <= drawn {
 			break
 		}
-		if l.IsResistance() {
+		if l.Massless() {
 			drawn += l.Thickness
 			continue
 		}

@@ -139,7 +139,7 @@ func TestAirLayerResistance(t *testing.T) {
 	}
 	// An air layer from the library at another thickness.
 	l, err := NewLayer("air-gap-floor", 0.075)
-	if err != nil || math.Abs(l.Resistance-0.215) > 1e-12 || !l.IsResistance() {
+	if err != nil || math.Abs(l.Resistance-0.215) > 1e-12 || !l.Massless() {
 		t.Errorf("NewLayer(air-gap-floor, 75 mm) = %+v, %v", l, err)
 	}
 	l, err = NewLayer("air-gap-wall", 0)
@@ -174,14 +174,14 @@ func TestConstructionWithAirLayer(t *testing.T) {
 	if d := c.Thickness(); math.Abs(d-0.165) > 1e-12 {
 		t.Errorf("Thickness = %g, want 0.165", d)
 	}
-	col := c.Column(0.04, 0.13)
+	col := c.Column(0.13, 0.04)
 	if err := col.Validate(); err != nil {
 		t.Fatalf("solver column: %v", err)
 	}
 	if col.OutsideResistance != 0.04 || col.InsideResistance != 0.13 {
 		t.Errorf("column surface resistances %g, %g", col.OutsideResistance, col.InsideResistance)
 	}
-	if !col.Layers[1].IsResistance() || col.Layers[1].Resistance != 0.18 || col.Layers[1].Thickness != 0 {
+	if !col.Layers[1].Massless() || col.Layers[1].Resistance != 0.18 || col.Layers[1].Thickness != 0 {
 		t.Errorf("air layer in the column: %+v", col.Layers[1])
 	}
 	if got := col.Layers[0].HeatCapacity; got != 1700*1000 {

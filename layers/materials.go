@@ -30,9 +30,10 @@ type Material struct {
 	HeatFlow            Orientation // air layers: direction of heat flow the Resistance is for
 }
 
-// IsResistance reports whether m is an air layer described by a thermal
-// resistance instead of conductivity and heat capacity.
-func (m Material) IsResistance() bool { return m.Resistance > 0 }
+// Massless reports whether m stores no heat: an air layer described by a
+// thermal resistance instead of conductivity and heat capacity (the same
+// meaning as Layer.Massless and solver.Layer.Massless).
+func (m Material) Massless() bool { return m.Resistance > 0 }
 
 // HeatCapacity is the volumetric heat capacity rho*c of m, J/(m3 K).
 func (m Material) HeatCapacity() float64 { return m.Density * m.SpecificHeat }
@@ -40,7 +41,7 @@ func (m Material) HeatCapacity() float64 { return m.Density * m.SpecificHeat }
 // Diffusivity is the thermal diffusivity lambda/(rho c) of m, m2/s; 0 for
 // an air layer.
 func (m Material) Diffusivity() float64 {
-	if m.IsResistance() || m.HeatCapacity() == 0 {
+	if m.Massless() || m.HeatCapacity() == 0 {
 		return 0
 	}
 	return m.Conductivity / m.HeatCapacity()

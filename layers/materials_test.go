@@ -34,7 +34,7 @@ func TestLibrary(t *testing.T) {
 		if secondHand.MatchString(m.Source) {
 			t.Errorf("%q: source %q says the value was quoted but tags it [read]", m.Key, m.Source)
 		}
-		if m.IsResistance() {
+		if m.Massless() {
 			if m.Family != FamilyAir || m.Conductivity != 0 || m.Density != 0 || m.SpecificHeat != 0 {
 				t.Errorf("%q: an air layer has only a resistance", m.Key)
 			}

@@ -69,7 +69,7 @@ func NewMix(name string, thickness float64, parts []MixPart) (Layer, error) {
 		if err := pl.Validate(); err != nil {
 			return Layer{}, fmt.Errorf("mixed layer %q, part %d: %w", name, i+1, err)
 		}
-		massive = massive || !pl.IsResistance()
+		massive = massive || !pl.Massless()
 		sum += p.Fraction
 		out[i] = MixPart{Layer: pl, Fraction: p.Fraction}
 	}

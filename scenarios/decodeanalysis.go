@@ -173,7 +173,7 @@ func (d *decoder) decodeSimulate(o *object, s *Scenario) {
 		sim.Start = start
 	}
 	so.positive("step", layers.Duration, &sim.Step)
-	so.positive("output_step", layers.Duration, &sim.Sample)
+	so.positive("output_step", layers.Duration, &sim.OutputStep)
 	if so.clean() && sim.Duration > 0 && sim.Step > sim.Duration {
 		so.failf("step", "the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))
 	}

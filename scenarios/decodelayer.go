@@ -399,8 +399,8 @@ func homogeniseMixes(s *Scenario) error {
 		return nil
 	}
 	rsi := 0.0
-	if s.Kind == Wall {
-		rsi = s.Inside.Resistance
+	if s.Kind == Wall && s.Inside != nil {
+		rsi = s.Inside.SurfaceResistance()
 	}
 	h, _, err := c.Homogenised(rsi, s.Outside.Resistance)
 	if err != nil {

@@ -9,7 +9,6 @@ import (
 	"tempstack/climate"
 	"tempstack/ground"
 	"tempstack/layers"
-	"tempstack/solver"
 )
 
 func (d *decoder) decodeSides(top *object, s *Scenario) {
@@ -25,90 +24,10 @@ func (d *decoder) decodeSides(top *object, s *Scenario) {
 		}
 	}
 	rsi, rse := layers.SurfaceResistances(s.Orientation)
-	s.Outside = d.decodeSide(top, outKey, s, rse, true)
+	if out, ok := d.decodeSide(top, outKey, s, rse, true).(Environment); ok {
+		s.Outside = out
+	}
 	s.Inside = d.decodeSide(top, inKey, s, rsi, false)
-}
-
-// decodeSide reads one side: its resistance, n-factors, and exactly one of
-// a temperature (with the sun on a wall's outside), a heat flux or an
-// adiabatic face. A side that is not given takes its default: 20 degC
-// behind the ISO 6946 resistance inside a wall, the geothermal flux below
-// the ground.
-func (d *decoder) decodeSide(top *object, key string, s *Scenario, defaultR float64, outside bool) Side {
-	side := Side{Resistance: defaultR, NFreezing: 1, NThawing: 1}
-	allowed := sideKeys
-	if s.Kind == Ground {
-		side.Resistance = 0
-		allowed = bottomKeys
-		if outside {
-			allowed = surfaceKeys
-		}
-	}
-	if !top.has(key) {
-		switch {
-		case outside:
-			top.missing(key, "the temperature on this side, e.g. temperature: {mean: 10, daily: {amplitude: 8, peak_hour: 15}}")
-		case s.Kind == Ground:
-			// Default bottom: the continental mean geothermal heat flux,
-			// 65 mW/m2 (Pollack, Hurter and Johnson 1993, Rev. Geophys.
-			// 31:267, abstract [read]).
-			side.Condition, side.HeatFlux = solver.PrescribedFlux, DefaultGeothermalFlux
-		default:
-			// Default inside: 20 degC air behind the ISO 6946 resistance.
-			side.Temperature = &Forcing{Periodic: climate.Periodic{Mean: 20}}
-		}
-		return side
-	}
-	o := top.child(key, allowed)
-	if o == nil {
-		return side
-	}
-	d.decodeResistance(o, &side)
-	d.decodeNFactors(o, &side)
-	if o.has("temperature") {
-		side.Temperature = d.decodeForcing(o, "temperature", forcingTemperature)
-	}
-	if o.has("solar") {
-		if outside {
-			d.decodeSolar(o, s, &side)
-		} else {
-			o.failf("solar", "the sun shines on the outside surface only")
-		}
-	}
-	given := 0
-	if o.has("temperature") {
-		given++
-	}
-	if o.quantity("heat_flux", layers.HeatFlux, &side.HeatFlux) {
-		side.Condition = solver.PrescribedFlux
-		given++
-	}
-	var adiabatic bool
-	if o.boolean("adiabatic", &adiabatic) && adiabatic {
-		side.Condition = solver.Adiabatic
-		given++
-	}
-	if o.clean() {
-		checkSideCondition(o, key, s, side, outside, given)
-	}
-	return side
-}
-
-// checkSideCondition says what is wrong with the condition of a side that
-// was read without a mistake.
-// given counts the conditions given (temperature, heat_flux, adiabatic:
-// true).
-func checkSideCondition(o *object, key string, s *Scenario, side Side, outside bool, n int) {
-	switch {
-	case n == 0:
-		o.missing("temperature", "give temperature, heat_flux or adiabatic: true")
-	case n > 1:
-		o.d.failf(o.node, o.path, "give only one of temperature, heat_flux and adiabatic")
-	case outside && side.Temperature == nil:
-		o.missing("temperature", "the "+key+" side is driven by a temperature")
-	case s.Kind == Ground && !outside && side.Temperature != nil && len(side.Temperature.Harmonics) > 0:
-		o.failf("temperature", "the bottom temperature must be constant: give only a mean")
-	}
 }
 
 // forcingKind says what a forcing block holds.
@@ -117,13 +36,17 @@ type forcingKind int
 const (
 	forcingTemperature forcingKind = iota // degC, amplitudes in K
 	forcingIrradiance                     // W/m2, amplitudes in W/m2
+	forcingHeatFlux                       // W/m2 into the column, amplitudes in W/m2
 )
 
 // kinds returns the quantity kinds of a forcing's values and amplitudes,
 // and the unit of a series of it.
 func (k forcingKind) kinds() (value, amplitude layers.Kind, unit string) {
-	if k == forcingIrradiance {
+	switch k {
+	case forcingIrradiance:
 		return layers.Irradiance, layers.Irradiance, "W/m2"
+	case forcingHeatFlux:
+		return layers.HeatFlux, layers.HeatFlux, "W/m2"
 	}
 	return layers.Temperature, layers.TemperatureDifference, "C"
 }
@@ -141,7 +64,11 @@ func (d *decoder) decodeForcing(parent *object, key string, kind forcingKind) *F
 		}
 		return f
 	}
-	o := d.object(parent.values[key], join(parent.path, key), forcingKeys)
+	table := forcingKeys
+	if kind == forcingHeatFlux {
+		table = fluxForcingKeys
+	}
+	o := d.object(parent.values[key], join(parent.path, key), table)
 	if o == nil {
 		return nil
 	}
@@ -285,32 +212,38 @@ func (d *decoder) harmonicBlock(o *object, key, peakKey string, period, unit flo
 }
 
 // decodeNFactors reads n_factor (a number, or {freezing, thawing}) and
-// cover (a surface preset of UFC 3-130-04 Table 4-1) of a ground surface.
-func (d *decoder) decodeNFactors(o *object, side *Side) {
+// cover (a surface preset of UFC 3-130-04 Table 4-1) of a ground surface;
+// nil when neither is given.
+func (d *decoder) decodeNFactors(o *object) *NFactors {
+	if !o.has("cover") && !o.has("n_factor") {
+		return nil
+	}
+	nf := &NFactors{Freezing: 1, Thawing: 1}
 	var c string
 	if o.choice("cover", surfaceCovers(), &c) {
 		n, _ := ground.NFactor(c)
-		side.Cover = c
-		side.NFreezing = n.Freezing
-		side.NThawing = 0 // decided later: given, or 1 with a warning
+		nf.Cover = c
+		nf.Freezing = n.Freezing
+		nf.Thawing = 0 // decided later: given, or 1 with a warning
 		if th, ok := n.Thawing(); ok {
-			side.NThawing = th
+			nf.Thawing = th
 		}
 	}
 	if o.has("n_factor") {
 		if o.values["n_factor"].Kind == yaml.ScalarNode {
 			var n float64
 			if o.positive("n_factor", layers.Fraction, &n) {
-				side.NFreezing, side.NThawing = n, n
+				nf.Freezing, nf.Thawing = n, n
 			}
 		} else if no := o.child("n_factor", nFactorKeys); no != nil {
-			no.positive("freezing", layers.Fraction, &side.NFreezing)
-			no.positive("thawing", layers.Fraction, &side.NThawing)
+			no.positive("freezing", layers.Fraction, &nf.Freezing)
+			no.positive("thawing", layers.Fraction, &nf.Thawing)
 		}
 	}
-	if side.NFreezing > 3 || side.NThawing > 3 {
+	if nf.Freezing > 3 || nf.Thawing > 3 {
 		o.failf("n_factor", "an n-factor above 3 is outside every published table; check the value")
 	}
+	return nf
 }
 
 // surfaceCovers lists the surface presets of ground.Surfaces by name.

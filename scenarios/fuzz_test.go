@@ -97,9 +97,9 @@ func checkScenario(t *testing.T, s *Scenario) {
 		t.Fatal("no outside temperature")
 	}
 	for _, sd := range []Side{s.Outside, s.Inside} {
-		finite("a surface resistance", sd.Resistance)
-		finite("a heat flux", sd.HeatFlux)
-		if f := sd.Temperature; f != nil {
+		finite("a surface resistance", sd.SurfaceResistance())
+		finite("a heat flux", sd.steadyFlux())
+		if f := sd.temperature(); f != nil {
 			finite("a mean temperature", f.Mean)
 			for _, h := range f.Harmonics {
 				finite("a harmonic", h.Period+h.Amplitude+h.Peak)

@@ -14,16 +14,23 @@ import (
 
 // hasNFactors reports whether the side turns air into surface temperature
 // with n-factors other than 1.
-func (sd Side) hasNFactors() bool {
-	return sd.Temperature != nil && (sd.NFreezing != 1 || sd.nThawing() != 1)
+func (sd Environment) hasNFactors() bool {
+	nf, nt := sd.nFactors()
+	return sd.Temperature != nil && (nf != 1 || nt != 1)
 }
 
-// nThawing is the thawing n-factor, 1 when the cover's table gives none.
-func (sd Side) nThawing() float64 {
-	if sd.NThawing == 0 {
-		return 1
+// nFactors are the freezing and thawing n-factors of the side: 1 and 1
+// without n-factors, a thawing n-factor of 1 when the cover's table gives
+// none.
+func (sd Environment) nFactors() (freezing, thawing float64) {
+	n := sd.NFactors
+	if n == nil {
+		return 1, 1
 	}
-	return sd.NThawing
+	if n.Thawing == 0 {
+		return n.Freezing, 1
+	}
+	return n.Freezing, n.Thawing
 }
 
 // nFactored is the surface temperature for air temperature t (degC):
@@ -64,10 +71,10 @@ func runGround(s *run, p *runPlan, progress Progress) (*results.Results, error) 
 		OutsideSurfaceResistance: s.Outside.Resistance,
 		TotalResistance_m2K_W:    c.ThermalResistance() + s.Outside.Resistance,
 	}
-	if s.Outside.Cover != "" && s.Outside.NThawing == 0 {
+	if n := s.Outside.NFactors; n != nil && n.Cover != "" && n.Thawing == 0 {
 		r.Warnings = append(r.Warnings, fmt.Sprintf(
 			"UFC 3-130-04 Table 4-1 gives no single thawing n-factor for cover %q; the thawing n-factor is taken as 1 (surface = air temperature above 0 degC): give n_factor: {thawing: ...} to change it",
-			s.Outside.Cover))
+			n.Cover))
 	}
 	if err := groundPeriodic(s, col, r); err != nil {
 		return nil, err
@@ -101,15 +108,15 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	hs.HalfSpace = true
 	f := s.surfaceForcing()
 	g := &results.GroundTemperature{SurfaceMean_C: f.Mean, ColumnDepth_m: col.Thickness()}
-	if s.Inside.Condition == solver.PrescribedFlux {
-		q := s.Inside.HeatFlux
+	if hf, ok := s.Inside.(HeatFlux); ok {
+		q := hf.Flux
 		g.GeothermalFlux_W_m2 = &q
 	}
 	if s.Outside.hasNFactors() {
-		g.NFactorFreezing, g.NFactorThawing = s.Outside.NFreezing, s.Outside.nThawing()
+		g.NFactorFreezing, g.NFactorThawing = s.Outside.nFactors()
 	}
 	probes := append([]float64(nil), s.Analysis.Probes...)
-	mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), probes)
+	mean, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.steadyFlux()), probes)
 	if err != nil {
 		return &Error{File: s.File, Err: err}
 	}
@@ -151,7 +158,7 @@ func groundPeriodic(s *run, col solver.Column, r *results.Results) error {
 	r.Ground = g
 	// Exact envelope against depth for the chart.
 	xs := profilePositions(nonHalf(col), 200)
-	meanX, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.HeatFlux), xs)
+	meanX, err := solver.SteadyWithBottomFlux(nonHalf(col), f.Mean, math.Max(0, s.Inside.steadyFlux()), xs)
 	if err != nil {
 		return &Error{File: s.File, Err: err}
 	}
@@ -209,7 +216,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 	if f == nil {
 		return fc, source, "the surface has no temperature"
 	}
-	nf := s.Outside.NFreezing
+	nf, _ := s.Outside.nFactors()
 	if m := f.Measured; m != nil {
 		ws, err := recordWinters(m)
 		if err != nil {
@@ -247,7 +254,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 		if idx <= 0 {
 			return fc, source, "no complete winter of the record falls below 0 degC"
 		}
-		return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
+		return ground.FrostClimate{AirIndex: idx, NFactorFreezing: nf, SurfaceIndex: nf * idx, SeasonDays: days, MeanAnnual: mean(v)}, source, ""
 	}
 	if _, ok := annualHarmonic(f); ok && f.Step == nil {
 		// Freezing indices are sums of daily mean temperatures (ISO 13793
@@ -280,7 +287,7 @@ func frostClimate(s *run, from, to float64) (fc ground.FrostClimate, source resu
 	if v := s.Analysis.Simulate; v != nil && v.Initial != nil {
 		initial = *v.Initial
 	}
-	return ground.FrostClimate{AirIndex: idx, NFactor: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
+	return ground.FrostClimate{AirIndex: idx, NFactorFreezing: nf, SurfaceIndex: nf * idx, SeasonDays: cold, MeanAnnual: initial},
 		results.IndexSource{Origin: results.FromSimulated}, ""
 }
 
@@ -334,14 +341,15 @@ func frostClosedForms(s *run, col solver.Column, r *results.Results, from, to fl
 			r.Warnings = append(r.Warnings, "the record has fewer than 3 complete winters: the closed forms use its coldest complete winter, which understates a design freezing index (the mean of the 3 coldest of 30 winters)")
 		}
 	}
-	fr.FreezingNFactor = s.Outside.NFreezing
+	nf, _ := s.Outside.nFactors()
+	fr.NFactorFreezing = nf
 	if d := s.Analysis.DesignFreezingIndex; d != nil {
 		if !ok {
 			fc = ground.FrostClimate{MeanAnnual: forcingMean(s.Outside.Temperature)}
 		}
 		fc.AirIndex = *d
-		fc.NFactor = s.Outside.NFreezing
-		fc.SurfaceIndex = s.Outside.NFreezing * *d
+		fc.NFactorFreezing = nf
+		fc.SurfaceIndex = nf * *d
 		if s.Analysis.DesignSeason > 0 {
 			fc.SeasonDays = s.Analysis.DesignSeason / climate.Day
 		}
@@ -416,181 +424,247 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 		return err
 	}
 	fr := r.Frost
-	dt := 0.0
-	if len(times) > 1 {
-		dt = times[1] - times[0]
+	anchor := winterAnchor(s.Scenario)
+	fr.WinterYearStart = anchor/climate.Day + 1
+	fr.WinterYearStartDate = dayOfYear(anchor / climate.Day)
+	wins, whole := winterWindows(s.Outside.Temperature, times, anchor)
+	fa := frostReader{s: s.Scenario, col: col, res: res, whole: whole}
+	fa.nFreezing, _ = s.Outside.nFactors()
+	if m := s.Outside.Temperature.Measured; m != nil {
+		fa.recordWinters, _ = recordWinters(m)
 	}
-	end := times[len(times)-1]
-	// Winter-year windows: from the warmest time of the forcing when the
-	// run starts there (a harmonic ground run does by default), else from
-	// 1 July, as the freezing-index tables count winters. A winter is
-	// complete when the forcing covers its whole winter year, by the rule
-	// the indices command uses (climate.WinterYearCovered; a record covers
-	// its last sample's step, climate.Series.Covered).
-	anchor := 181 * climate.Day
-	sim := s.Analysis.Simulate
+	for wi, w := range wins {
+		fr.Winters = append(fr.Winters, fa.winter(wi, w))
+	}
 	f := s.Outside.Temperature
-	if f.Measured == nil && f.Step == nil && sim.set["start"] == 0 {
+	markSettled(fr.Winters, r.Simulation == nil || r.Simulation.SpinUpConverged, f.Measured == nil && f.Step == nil)
+	frostHeadline(fr, r, col)
+	if f.Measured != nil && fr.IndexSource.Origin == results.FromRecord && fr.IndexSource.Coldest >= 3 {
+		r.Warnings = append(r.Warnings, "the headline Stefan and modified Berggren depths use the record's design freezing index (mean of the 3 coldest complete winters); each winter's own closed-form depths are in the winter table")
+	}
+	if fr.IndexSource.Origin == results.FromDesign {
+		r.Warnings = append(r.Warnings, "the Stefan and modified Berggren depths use the design freezing index; the simulated depth follows the surface temperature of the scenario")
+	}
+	return nil
+}
+
+// winterAnchor is the time of year (s after 1 January 00:00) at which the
+// winter years of a run start: the warmest time of the forcing when the run
+// starts there (a harmonic ground run does by default), else 1 July, as
+// the freezing-index tables count winters.
+func winterAnchor(s *Scenario) float64 {
+	anchor := 181 * climate.Day
+	f := s.Outside.Temperature
+	if f.Measured == nil && f.Step == nil && s.Analysis.Simulate.set["start"] == 0 {
 		if t, ok := warmestTime(f); ok {
 			anchor = t
 		}
 	}
-	fr.WinterYearStart = anchor/climate.Day + 1
-	fr.WinterYearStartDate = dayOfYear(anchor / climate.Day)
-	coverFrom, coverTo := times[0], end
+	return anchor
+}
+
+// winterWindow is one winter year of a run, cut to the simulated time.
+type winterWindow struct {
+	from, to float64 // s
+	complete bool    // the forcing covers the whole winter year
+}
+
+// winterWindows cuts the simulated times into winter years from anchor (s
+// after 1 January 00:00), keeping those of 30 days or more. A winter is
+// complete when the forcing covers its whole winter year, by the rule the
+// indices command uses (climate.WinterYearCovered; a record covers its
+// last sample's step, climate.Series.Covered). Without an annual cycle (a
+// step, a constant or only short periods) the whole run is the one cold
+// period, and whole is true.
+func winterWindows(f *Forcing, times []float64, anchor float64) (wins []winterWindow, whole bool) {
+	start, end := times[0], times[len(times)-1]
+	coverFrom, coverTo := start, end
 	if m := f.Measured; m != nil {
 		coverFrom, coverTo = m.Series.Covered()
 	}
-	type window struct {
-		from, to float64
-		complete bool
-	}
-	var wins []window
-	first := math.Floor((times[0]-anchor)/climate.Year) * climate.Year
+	first := math.Floor((start-anchor)/climate.Year) * climate.Year
 	for from := anchor + first; from < end; from += climate.Year {
 		to := from + climate.Year
-		if to <= times[0] {
+		if to <= start {
 			continue
 		}
-		w := window{math.Max(from, times[0]), math.Min(to, end), climate.WinterYearCovered(coverFrom, coverTo, from, to)}
+		w := winterWindow{math.Max(from, start), math.Min(to, end), climate.WinterYearCovered(coverFrom, coverTo, from, to)}
 		if w.to-w.from >= 30*climate.Day {
 			wins = append(wins, w)
 		}
 	}
-	whole := false
 	if _, annual := annualHarmonic(f); len(wins) == 0 || f.Step != nil || (f.Measured == nil && !annual) {
-		// No annual cycle (a step, a constant or only short periods):
-		// the whole run is the one cold period.
-		wins = []window{{times[0], end, true}}
-		whole = true
+		return []winterWindow{{start, end, true}}, true
 	}
-	// Air indices per winter: a record's own winters; for a forcing given
-	// as a function, each window's own, sampled hourly from its start over
-	// two years, so that the thawing season after the winter is whole too
-	// (a function forcing is defined beyond the run).
-	var winters []climate.Winter
-	if m := s.Outside.Temperature.Measured; m != nil {
-		winters, _ = recordWinters(m)
+	return wins, false
+}
+
+// frostReader reads each winter of a simulated ground run.
+type frostReader struct {
+	s             *Scenario
+	col           solver.Column
+	res           *solver.Result
+	whole         bool             // the one window is the whole run
+	nFreezing     float64          // the surface's freezing n-factor
+	recordWinters []climate.Winter // a record's own winters; nil for a forcing given as a function
+}
+
+// winter reads the winter window w (the i-th): the simulated frost and
+// thaw, the frozen days at each probe, the air indices and, for a record's
+// complete winter, its own closed-form depths.
+func (fa *frostReader) winter(i int, w winterWindow) results.FrostWinter {
+	fw := results.FrostWinter{Label: fmt.Sprintf("winter %d", i+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
+		Complete: w.complete}
+	if fa.whole {
+		fw.Label = "whole run"
 	}
-	windowIndices := func(w window) (climate.Winter, bool) {
-		if whole {
-			// No annual cycle: the degree-days of the whole run.
-			var cw climate.Winter
-			cw.FreezingIndex, cw.ThawingIndex, _ = degreeDays(f, w.from, w.to)
-			return cw, true
+	fa.simulatedFrost(&fw, w)
+	fw.MaxFrostDate = dayLabel(fw.MaxFrostDay)
+	fw.FrozenDays = fa.frozenDays(w)
+	fa.airIndices(&fw, w)
+	return fw
+}
+
+// simulatedFrost sets the deepest frost and thaw of the window, and
+// whether the ground stays frozen all year (the active layer).
+func (fa *frostReader) simulatedFrost(fw *results.FrostWinter, w winterWindow) {
+	res, times := fa.res, fa.res.Times
+	// Frost left over from the last winter (deep frost still thawing in
+	// July) belongs to that winter: a winter's frost counts from the first
+	// time the ground is free of frost in its window. Ground that never
+	// thaws (permafrost) counts throughout, and so does the frost of the
+	// window the run starts in (a partial winter keeps its true maximum).
+	thawed := w.from <= times[0] || minIn(res.FrostDepth, times, w.from, w.to) > 0
+	for k, t := range times {
+		if t < w.from || t >= w.to {
+			continue
 		}
-		ts, vs := sampleForcing(f, w.from, w.from+2*climate.Year)
-		// climate.Winters splits winter years at 1 July (day 181 of its
-		// axis): put the window's start there.
-		july := 181 * climate.Day
-		for k := range ts {
-			ts[k] += july - w.from
+		if res.FrostDepth[k] == 0 {
+			thawed = true
 		}
-		ws, err := climate.Winters(ts, vs, climate.WinterOptions{})
-		if err != nil {
-			return climate.Winter{}, false
+		if thawed && res.FrostDepth[k] > fw.MaxFrostDepth_m {
+			fw.MaxFrostDepth_m = res.FrostDepth[k]
+			fw.MaxFrostDay = t / climate.Day
 		}
-		for _, cw := range ws {
-			if cw.Start >= july && cw.Start < july+climate.Year {
-				return cw, true
+		fw.MaxThawDepth_m = math.Max(fw.MaxThawDepth_m, res.ThawDepth[k])
+	}
+	// Frost that outlasts the whole winter year: permafrost below an
+	// active layer.
+	fw.FrozenAllYear = fw.Complete && !fa.whole && minIn(res.FrostDepth, times, w.from, w.to) > 0
+	if fw.FrozenAllYear {
+		fw.ActiveLayer_m = fw.MaxThawDepth_m
+	}
+}
+
+// frozenDays counts the days of the window each probe spends at or below
+// the freezing point of its layer.
+func (fa *frostReader) frozenDays(w winterWindow) []results.ProbeDays {
+	times := fa.res.Times
+	dt := 0.0
+	if len(times) > 1 {
+		dt = times[1] - times[0]
+	}
+	var out []results.ProbeDays
+	for j, z := range fa.s.Analysis.Probes {
+		fz := 0.0
+		if l := fa.col.Layers[fa.col.LayerAt(fa.s.construction().SolverDepth(z))]; l.Freeze != nil {
+			fz = l.Freeze.Point
+		}
+		n := 0
+		for k, t := range times {
+			if k > 0 && t >= w.from && t < w.to && fa.res.Probe[j][k] <= fz {
+				n++
 			}
 		}
+		out = append(out, results.ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
+	}
+	return out
+}
+
+// airIndices sets the air freezing and thawing indices of the window: a
+// forcing given as a function gives its own; a record's winter whose
+// middle lies in the window gives its indices, its label and, when
+// complete, its own closed-form depths.
+func (fa *frostReader) airIndices(fw *results.FrostWinter, w winterWindow) {
+	f := fa.s.Outside.Temperature
+	if f.Measured == nil {
+		if cw, ok := windowIndices(f, w, fa.whole); ok {
+			fw.AirFreezingIndex_Cd = cw.FreezingIndex
+			fw.AirThawingIndex_Cd = cw.ThawingIndex
+		}
+	}
+	for _, cw := range fa.recordWinters {
+		if mid := (cw.Start + cw.End) / 2; mid < w.from || mid >= w.to {
+			continue
+		}
+		fw.AirFreezingIndex_Cd = cw.FreezingIndex
+		fw.AirThawingIndex_Cd = cw.ThawingIndex
+		if cw.Label != "" {
+			fw.Label = cw.Label
+			fw.Complete = cw.Complete // the record's winter, as `indices` calls it
+		}
+		if !cw.Complete || cw.FreezingIndex <= 0 {
+			continue
+		}
+		if fc, err := ground.FrostClimateFromWinter(cw, fa.nFreezing); err == nil {
+			if st, b, err := closedForms(fa.col, fc); err == nil {
+				fw.StefanDepth_m, fw.ModifiedBerggrenDepth_m = st, b.Depth
+			}
+		}
+	}
+}
+
+// windowIndices are the air indices of the window of a forcing given as a
+// function: without an annual cycle (whole) the degree-days of the whole
+// run; else the window's own winter, sampled hourly from its start over two
+// years, so that the thawing season after the winter is whole too (a
+// function forcing is defined beyond the run).
+func windowIndices(f *Forcing, w winterWindow, whole bool) (climate.Winter, bool) {
+	if whole {
+		var cw climate.Winter
+		cw.FreezingIndex, cw.ThawingIndex, _ = degreeDays(f, w.from, w.to)
+		return cw, true
+	}
+	ts, vs := sampleForcing(f, w.from, w.from+2*climate.Year)
+	// climate.Winters splits winter years at 1 July (day 181 of its axis):
+	// put the window's start there.
+	july := 181 * climate.Day
+	for k := range ts {
+		ts[k] += july - w.from
+	}
+	ws, err := climate.Winters(ts, vs, climate.WinterOptions{})
+	if err != nil {
 		return climate.Winter{}, false
 	}
-	freezePoint := func(z float64) float64 {
-		l := col.Layers[col.LayerAt(z)]
-		if l.Freeze != nil {
-			return l.Freeze.Point
+	for _, cw := range ws {
+		if cw.Start >= july && cw.Start < july+climate.Year {
+			return cw, true
 		}
-		return 0
 	}
-	for wi, w := range wins {
-		fw := results.FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
-			Complete: w.complete}
-		if whole {
-			fw.Label = "whole run"
-		}
-		// Frost left over from the last winter (deep frost still thawing
-		// in July) belongs to that winter: a winter's frost counts from the
-		// first time the ground is free of frost in its window. Ground that
-		// never thaws (permafrost) counts throughout, and so does the frost
-		// of the window the run starts in (a partial winter keeps its true
-		// maximum).
-		thawed := w.from <= times[0] || minIn(res.FrostDepth, times, w.from, w.to) > 0
-		for k, t := range times {
-			if t < w.from || t >= w.to {
-				continue
-			}
-			if res.FrostDepth[k] == 0 {
-				thawed = true
-			}
-			if thawed && res.FrostDepth[k] > fw.MaxFrostDepth_m {
-				fw.MaxFrostDepth_m = res.FrostDepth[k]
-				fw.MaxFrostDay = t / climate.Day
-			}
-			fw.MaxThawDepth_m = math.Max(fw.MaxThawDepth_m, res.ThawDepth[k])
-		}
-		// Frost that outlasts the whole winter year: permafrost below an
-		// active layer.
-		fw.FrozenAllYear = fw.Complete && !whole && minIn(res.FrostDepth, times, w.from, w.to) > 0
-		if fw.FrozenAllYear {
-			fw.ActiveLayer_m = fw.MaxThawDepth_m
-		}
-		fw.MaxFrostDate = dayLabel(fw.MaxFrostDay)
-		for j, z := range s.Analysis.Probes {
-			fz := freezePoint(s.construction().SolverDepth(z))
-			n := 0
-			for k, t := range times {
-				if k > 0 && t >= w.from && t < w.to && res.Probe[j][k] <= fz {
-					n++
-				}
-			}
-			fw.FrozenDays = append(fw.FrozenDays, results.ProbeDays{Depth_m: z, Days: float64(n) * dt / climate.Day})
-		}
-		if f.Measured == nil {
-			if cw, ok := windowIndices(w); ok {
-				fw.AirFreezingIndex_Cd = cw.FreezingIndex
-				fw.AirThawingIndex_Cd = cw.ThawingIndex
-			}
-		}
-		for _, cw := range winters {
-			mid := (cw.Start + cw.End) / 2
-			if mid >= w.from && mid < w.to {
-				fw.AirFreezingIndex_Cd = cw.FreezingIndex
-				fw.AirThawingIndex_Cd = cw.ThawingIndex
-				if s.Outside.Temperature.Measured != nil && cw.Label != "" {
-					fw.Label = cw.Label
-					fw.Complete = cw.Complete // the record's winter, as `indices` calls it
-				}
-				if s.Outside.Temperature.Measured != nil && cw.Complete && cw.FreezingIndex > 0 {
-					if fc, err := ground.FrostClimateFromWinter(cw, s.Outside.NFreezing); err == nil {
-						if st, b, err := closedForms(col, fc); err == nil {
-							fw.StefanDepth_m, fw.ModifiedBerggrenDepth_m = st, b.Depth
-						}
-					}
-				}
-			}
-		}
-		fr.Winters = append(fr.Winters, fw)
-	}
-	// Settled winters: all when the start had settled; otherwise, for a
-	// periodic forcing, a complete winter whose deepest frost repeats the
-	// complete winter before it within the spin-up's front tolerance.
-	settled := r.Simulation == nil || r.Simulation.SpinUpConverged
-	periodic := f.Measured == nil && f.Step == nil
-	for i := range fr.Winters {
-		w := &fr.Winters[i]
+	return climate.Winter{}, false
+}
+
+// markSettled marks the settled winters: all when the start had settled;
+// otherwise, for a periodic forcing, a complete winter whose deepest frost
+// repeats the complete winter before it within the spin-up's front
+// tolerance, and every winter after it.
+func markSettled(winters []results.FrostWinter, settled, periodic bool) {
+	for i := range winters {
+		w := &winters[i]
 		w.Settled = settled
-		if !settled && periodic && i > 0 && w.Complete && fr.Winters[i-1].Complete &&
-			math.Abs(w.MaxFrostDepth_m-fr.Winters[i-1].MaxFrostDepth_m) < spinUpFrontTolerance {
+		if !settled && periodic && i > 0 && w.Complete && winters[i-1].Complete &&
+			math.Abs(w.MaxFrostDepth_m-winters[i-1].MaxFrostDepth_m) < spinUpFrontTolerance {
 			w.Settled = true
 			settled = true
 		}
 	}
-	// The headline: the deepest frost of the complete, settled winters.
-	// Where the ground stays frozen all year (permafrost) the deepest ice
-	// is the permafrost base, not a seasonal frost depth: the headline is
-	// then the active layer (the deepest summer thaw).
+}
+
+// frostHeadline sets the headline: the deepest frost of the complete,
+// settled winters. Where the ground stays frozen all year (permafrost) the
+// deepest ice is the permafrost base, not a seasonal frost depth: the
+// headline is then the active layer (the deepest summer thaw).
+func frostHeadline(fr *results.Frost, r *results.Results, col solver.Column) {
 	permafrost := false
 	for _, w := range fr.Winters {
 		if !w.Complete || !w.Settled {
@@ -609,11 +683,12 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 			fr.HeadlineWinter = w.Label
 		}
 	}
-	if permafrost {
+	switch {
+	case permafrost:
 		fr.MaxFrostDepth_m = nil
 		fr.SetNotComputed("max_frost_depth_m", fmt.Sprintf("permafrost: the ground below the active layer (%.2f m) stays frozen all year, so the deepest ice is the permafrost base, not a seasonal frost depth", *fr.ActiveLayer_m))
 		r.Warnings = append(r.Warnings, fmt.Sprintf("permafrost: the ground stays frozen all year below an active layer of %.2f m; the headline is the active layer, and the permafrost base depends on the column depth and the deep heat flow", *fr.ActiveLayer_m))
-	} else if fr.MaxFrostDepth_m == nil {
+	case fr.MaxFrostDepth_m == nil:
 		why := "no complete winter year was simulated; simulate at least one whole year (analysis.simulate.duration)"
 		for _, w := range fr.Winters {
 			if w.Complete {
@@ -621,16 +696,9 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 			}
 		}
 		fr.SetNotComputed("max_frost_depth_m", why)
-	} else if *fr.MaxFrostDepth_m >= 0.95*col.Thickness() {
+	case *fr.MaxFrostDepth_m >= 0.95*col.Thickness():
 		r.Warnings = append(r.Warnings, fmt.Sprintf("frost reaches %.2f m, the bottom of the %.2f m column: the column is too shallow for this winter; make the last layer thicker", *fr.MaxFrostDepth_m, col.Thickness()))
 	}
-	if s.Outside.Temperature.Measured != nil && fr.IndexSource.Origin == results.FromRecord && fr.IndexSource.Coldest >= 3 {
-		r.Warnings = append(r.Warnings, "the headline Stefan and modified Berggren depths use the record's design freezing index (mean of the 3 coldest complete winters); each winter's own closed-form depths are in the winter table")
-	}
-	if fr.IndexSource.Origin == results.FromDesign {
-		r.Warnings = append(r.Warnings, "the Stefan and modified Berggren depths use the design freezing index; the simulated depth follows the surface temperature of the scenario")
-	}
-	return nil
 }
 
 func minIn(v, t []float64, from, to float64) float64 {
@@ -705,7 +773,7 @@ func dayOfYear(d float64) string {
 // ISO 13786 periodic penetration depth of that layer; 0 when c has none.
 func surfaceDampingDepth(c solver.Column, period float64) float64 {
 	for _, l := range c.Layers {
-		if !l.IsResistance() {
+		if !l.Massless() {
 			return solver.LayerPenetrationDepth(l, period)
 		}
 	}

@@ -84,6 +84,20 @@ func (t *keyTable) plus(name, doc string, u *keyTable) *keyTable {
 	return &keyTable{Name: name, Doc: doc, Keys: keys}
 }
 
+// only returns a table named name holding the keys of t that are listed,
+// in t's order.
+func (t *keyTable) only(name, doc string, keys ...string) *keyTable {
+	out := &keyTable{Name: name, Doc: doc}
+	for _, ks := range t.Keys {
+		for _, want := range keys {
+			if ks.Name == want {
+				out.Keys = append(out.Keys, ks)
+			}
+		}
+	}
+	return out
+}
+
 // Form constructors.
 var (
 	fText    = form{shape: shapeText}
@@ -107,8 +121,8 @@ func k(name, doc string, forms ...form) keySpec { return keySpec{Name: name, Doc
 // Quantity kinds of a forcing's values and amplitudes: a temperature
 // (degC, K) or an irradiance (W/m2).
 var (
-	forcingValue     = []layers.Kind{layers.Temperature, layers.Irradiance}
-	forcingAmplitude = []layers.Kind{layers.TemperatureDifference, layers.Irradiance}
+	forcingValue     = []layers.Kind{layers.Temperature, layers.Irradiance, layers.HeatFlux}
+	forcingAmplitude = []layers.Kind{layers.TemperatureDifference, layers.Irradiance, layers.HeatFlux}
 )
 
 // The key tables of the scenario file. The decoder uses them under these
@@ -233,6 +247,9 @@ var (
 			k("step", "temperature only: a sudden change", fObject(func() *keyTable { return stepKeys })),
 		},
 	}
+	// fluxForcingKeys is a heat flux that changes in time: a mean with
+	// harmonics (no step, no measured series).
+	fluxForcingKeys = tempKeys.only("fluxForcing", "A heat flux over time: a mean with harmonics.", "mean", "daily", "annual", "harmonics")
 	seriesKeys = &keyTable{
 		Name: "series", Doc: "A measured series in a CSV file.",
 		Keys: []keySpec{
@@ -422,7 +439,7 @@ var (
 var (
 	sideResistance  = k("resistance", "surface resistance; 0 imposes the temperature on the surface", fQty(layers.Resistance), fObject(func() *keyTable { return sideResistanceKeys }))
 	sideTemperature = k("temperature", "environment temperature: a constant, or a forcing", fQty(layers.Temperature), fObject(func() *keyTable { return forcingKeys }))
-	sideHeatFlux    = k("heat_flux", "into the column", fQty(layers.HeatFlux))
+	sideHeatFlux    = k("heat_flux", "into the column: a constant, or a mean with harmonics", fQty(layers.HeatFlux), fObject(func() *keyTable { return fluxForcingKeys }))
 	sideAdiabatic   = k("adiabatic", "no heat crosses the face", fBool)
 )
 

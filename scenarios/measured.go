@@ -15,7 +15,6 @@ import (
 	"tempstack/climate"
 	"tempstack/layers"
 	"tempstack/scenarios/results"
-	"tempstack/solver"
 )
 
 // Measured is a forcing read from a CSV time series.
@@ -206,10 +205,10 @@ type Solar struct {
 	AbsorptanceOf string   // the preset name, when one was used
 }
 
-func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) {
+func (d *decoder) decodeSolar(o *object, s *Scenario) *Solar {
 	so := o.child("solar", solarKeys)
 	if so == nil {
-		return
+		return nil
 	}
 	sol := &Solar{}
 	var txt string
@@ -241,12 +240,12 @@ func (d *decoder) decodeSolar(o *object, s *Scenario, side *Side) {
 		sol.SkyCorrection = climate.SkyCorrectionHorizontal
 	}
 	so.nonNegative("sky_correction", layers.TemperatureDifference, &sol.SkyCorrection)
-	side.Solar = sol
+	return sol
 }
 
 // env returns the environment temperature function of a side, degC at t
 // (s): the forcing, with sol-air and n-factors applied.
-func (sd Side) env() func(t float64) float64 {
+func (sd Environment) env() func(t float64) float64 {
 	f := sd.Temperature
 	if f == nil {
 		return nil
@@ -261,7 +260,7 @@ func (sd Side) env() func(t float64) float64 {
 		}
 	}
 	if sd.hasNFactors() {
-		nf, nt := sd.NFreezing, sd.nThawing()
+		nf, nt := sd.nFactors()
 		inner := base
 		base = func(t float64) float64 { return nFactored(inner(t), nf, nt) }
 	}
@@ -270,7 +269,7 @@ func (sd Side) env() func(t float64) float64 {
 
 // isPlainHarmonic reports whether the side's environment is exactly its
 // harmonic forcing (no series, sun, n-factors or step).
-func (sd Side) isPlainHarmonic() bool {
+func (sd Environment) isPlainHarmonic() bool {
 	f := sd.Temperature
 	return f != nil && f.Measured == nil && f.Step == nil && sd.Solar == nil && !sd.hasNFactors()
 }
@@ -420,7 +419,7 @@ func (s *Scenario) records() []results.RecordInfo {
 	if sol := s.Outside.Solar; sol != nil && sol.Irradiance.Measured != nil {
 		out = append(out, recordInfo("solar irradiance", sol.Irradiance))
 	}
-	if f := s.Inside.Temperature; f != nil && f.Measured != nil {
+	if f := s.Inside.temperature(); f != nil && f.Measured != nil {
 		out = append(out, recordInfo("inside temperature", f))
 	}
 	if fs := s.Analysis.Fit; fs != nil {
@@ -431,8 +430,8 @@ func (s *Scenario) records() []results.RecordInfo {
 
 // forcingInfo describes the sides of a scenario for the results.
 func (s *Scenario) forcingInfo() *results.ForcingInfo {
-	fi := &results.ForcingInfo{Outside: sideInfo(s.Outside)}
-	in := sideInfo(s.Inside)
+	fi := &results.ForcingInfo{Outside: s.Outside.Info()}
+	in := s.Inside.Info()
 	fi.Inside = &in
 	return fi
 }
@@ -441,40 +440,6 @@ func harmonicsInfo(hs []climate.Harmonic) []results.HarmonicInfo {
 	var out []results.HarmonicInfo
 	for _, h := range hs {
 		out = append(out, results.HarmonicInfo{Period_h: h.Period / 3600, Amplitude: h.Amplitude, Peak_h: h.Peak / 3600})
-	}
-	return out
-}
-
-func sideInfo(sd Side) results.SideForcing {
-	out := results.SideForcing{Resistance_m2K_W: sd.Resistance, ResistancePeriods: resistanceInfo(sd), Cover: sd.Cover}
-	if sd.hasNFactors() {
-		out.NFreezing, out.NThawing = sd.NFreezing, sd.nThawing()
-	}
-	switch f := sd.Temperature; {
-	case sd.Condition == solver.Adiabatic:
-		out.Kind = "adiabatic"
-	case sd.Condition == solver.PrescribedFlux:
-		q := sd.HeatFlux
-		out.Kind, out.HeatFlux_W_m2 = "heat_flux", &q
-	case f == nil:
-		out.Kind = "none"
-	case f.Measured != nil:
-		out.Kind, out.Record, out.Mean_C = "measured", f.Measured.File, f.Mean
-		out.Harmonics = harmonicsInfo(f.Harmonics)
-	case f.Step != nil:
-		out.Kind, out.Mean_C = "step", f.Step.From
-		out.Step = &results.StepInfo{From_C: f.Step.From, To_C: f.Step.To, At_h: f.Step.At / 3600}
-	default:
-		out.Kind, out.Mean_C = "harmonic", f.Mean
-		out.Harmonics = harmonicsInfo(f.Harmonics)
-	}
-	if sol := sd.Solar; sol != nil {
-		si := &results.SolarInfo{Absorptance: sol.Absorptance, AbsorptancePreset: sol.AbsorptanceOf, SkyCorrection_K: sol.SkyCorrection,
-			IrradianceMean_W_m2: sol.Irradiance.Mean, IrradianceHarmonics: harmonicsInfo(sol.Irradiance.Harmonics)}
-		if m := sol.Irradiance.Measured; m != nil {
-			si.IrradianceRecord = m.File
-		}
-		out.Solar = si
 	}
 	return out
 }

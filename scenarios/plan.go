@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"tempstack/fileerr"
 	"tempstack/ground"
 	"tempstack/solver"
 )
@@ -23,8 +24,8 @@ type runPlan struct {
 }
 
 // Check validates a decoded scenario as Run does before it solves
-// anything, and returns the first problem as an *Error with file, line and
-// key: the column, the simulation's time step and duration (against the
+// anything, and returns every problem it finds (up to 20; an *Error with
+// file, line and key for one, a fileerr.List for several): the column, the simulation's time step and duration (against the
 // record, a step change and the limit of 5e7 steps), the probe depths, the
 // mesh (its cell limit) of the simulation and of the step response, the
 // sensor record of a fit, and the same for every variant, sweep value and
@@ -33,19 +34,45 @@ type runPlan struct {
 // calls the same checks first, so a scenario that Check accepts does not
 // fail them in Run.
 func Check(s *Scenario) error {
-	if _, err := s.plan(); err != nil {
-		return err
-	}
-	return planStudy(s)
+	var errs problems
+	_, err := s.plan()
+	errs.add(s, err)
+	errs.add(s, planStudy(s, fileerr.All(err)...))
+	return errs.err()
 }
 
-// plan runs every check that Run needs before solving and says what runs.
-// It changes nothing in s (the decoder resolved the defaults).
+// problems collects the mistakes the plan finds, up to maxErrors.
+type problems fileerr.List
+
+// add adds the mistakes err holds (an error that holds no *Error is one
+// mistake of the file s).
+func (p *problems) add(s *Scenario, err error) {
+	if err == nil {
+		return
+	}
+	all := fileerr.All(err)
+	if all == nil {
+		all = []*Error{{File: s.File, Err: err}}
+	}
+	for _, e := range all {
+		if len(*p) < maxErrors {
+			*p = append(*p, e)
+		}
+	}
+}
+
+// err is nil without a mistake, the *Error of one, a fileerr.List of
+// several.
+func (p problems) err() error { return fileerr.List(p).Err() }
+
+// plan runs every check that Run needs before solving and says what runs,
+// and returns every problem it finds (a column that cannot be solved stops
+// it). It changes nothing in s (the decoder resolved the defaults).
 func (s *Scenario) plan() (*runPlan, error) {
 	p := &runPlan{col: s.column()}
 	if s.Kind == Ground {
 		p.col.InsideResistance = 0
-		if n := len(p.col.Layers); n > 0 && p.col.Layers[n-1].IsResistance() {
+		if n := len(p.col.Layers); n > 0 && p.col.Layers[n-1].Massless() {
 			return nil, &Error{File: s.File, Line: s.layerLine(n - 1), Key: fmt.Sprintf("layers[%d]", n),
 				Msg: "the deepest layer of a ground column continues downward and needs heat capacity: give it conductivity, density and specific_heat (or a soil), not only a resistance"}
 		}
@@ -55,10 +82,11 @@ func (s *Scenario) plan() (*runPlan, error) {
 	}
 	massless := true
 	for _, l := range p.col.Layers {
-		if !l.IsResistance() {
+		if !l.Massless() {
 			massless = false
 		}
 	}
+	var errs problems
 	if s.Analysis.Simulate != nil {
 		if massless {
 			// Nothing stores heat: the exact solution is the whole answer
@@ -66,25 +94,27 @@ func (s *Scenario) plan() (*runPlan, error) {
 			// to mesh.
 			p.skipped = "the construction has only resistance layers (no heat capacity): the exact periodic solution is the whole answer (U, decrement factor 1, no time shift), so the transient simulation is skipped"
 		} else {
-			if _, _, err := planSimulation(s, p.col); err != nil {
-				return nil, err
-			}
+			_, _, err := planSimulation(s, p.col)
+			errs.add(s, err)
 			p.simulate = true
 		}
 	}
 	if st := s.Analysis.StepResponse; st != nil {
 		if massless {
-			return nil, &Error{File: s.File, Line: st.Line, Key: "analysis.step_response",
-				Msg: "the construction has only resistance layers: a surface without heat capacity has no step response to compare with the half-space; remove step_response"}
-		}
-		if _, _, _, err := stepMesh(s, p.col); err != nil {
-			return nil, err
+			errs.add(s, &Error{File: s.File, Line: st.Line, Key: "analysis.step_response",
+				Msg: "the construction has only resistance layers: a surface without heat capacity has no step response to compare with the half-space; remove step_response"})
+		} else {
+			_, _, _, err := stepMesh(s, p.col)
+			errs.add(s, err)
 		}
 	}
 	if spec := s.Analysis.Fit; spec != nil {
 		if _, err := ground.RecordFromSeries(spec.Measured.Series, spec.Columns, spec.Depths); err != nil {
-			return nil, &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Err: err}
+			errs.add(s, &Error{File: s.File, Line: spec.Line, Key: "analysis.fit", Err: err})
 		}
+	}
+	if err := errs.err(); err != nil {
+		return nil, err
 	}
 	return p, nil
 }
@@ -99,51 +129,56 @@ func (s *Scenario) layerLine(i int) int {
 }
 
 // planSimulation checks the simulation settings (their defaults resolved
-// by the decoder) before anything is solved: the step against the duration, the duration
-// against a record, a step change inside the run, the number of steps, the
-// probe depths and the mesh. It returns the mesh and the probe positions
-// on the solver axis.
+// by the decoder) before anything is solved: the step against the
+// duration, the duration against a record, a step change inside the run,
+// the number of steps, the probe depths and the mesh. It returns the mesh
+// and the probe positions on the solver axis, or every problem it found.
 func planSimulation(s *Scenario, col solver.Column) (*solver.Mesh, []float64, error) {
 	sim := s.Analysis.Simulate
 	line := sim.Line
 	if line == 0 {
 		line = s.Analysis.Line
 	}
+	var errs problems
 	if sim.Step > sim.Duration {
-		return nil, nil, &Error{File: s.File, Line: line, Key: "analysis.simulate.step",
-			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))}
+		errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate.step",
+			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))})
 	}
 	if m := s.Outside.Temperature.Measured; m != nil {
 		if _, t1 := m.Span(); sim.Start+sim.Duration > t1+1 {
-			return nil, nil, &Error{File: s.File, Line: line, Key: "analysis.simulate.duration",
-				Msg: fmt.Sprintf("the series covers %s; the simulation cannot run for %s", fmtDuration(t1-sim.Start), fmtDuration(sim.Duration))}
+			errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate.duration",
+				Msg: fmt.Sprintf("the series covers %s; the simulation cannot run for %s", fmtDuration(t1-sim.Start), fmtDuration(sim.Duration))})
 		}
 	}
 	if st := s.Outside.Temperature.Step; st != nil && st.At >= sim.Start+sim.Duration {
-		return nil, nil, &Error{File: s.File, Line: s.Outside.Temperature.Line, Key: "step.at",
-			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", fmtDuration(st.At), fmtDuration(sim.Duration))}
+		errs.add(s, &Error{File: s.File, Line: s.Outside.Temperature.Line, Key: "step.at",
+			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", fmtDuration(st.At), fmtDuration(sim.Duration))})
 	}
 	if n := sim.Duration / sim.Step; n > maxSteps || math.IsNaN(n) {
-		return nil, nil, &Error{File: s.File, Line: line, Key: "analysis.simulate",
-			Msg: fmt.Sprintf("%.3g time steps is more than the limit of 5e7; use a longer step or a shorter duration", n)}
+		errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate",
+			Msg: fmt.Sprintf("%.3g time steps is more than the limit of 5e7; use a longer step or a shorter duration", n)})
 	}
 	probes, err := s.solverProbes(col)
-	if err != nil {
-		return nil, nil, err
-	}
+	errs.add(s, err)
 	mo := sim.Mesh // a copy: the scenario stays as decoded
 	mo.MaxCells = maxCells
 	mesh, err := solver.NewMesh(col, mo)
 	if err != nil {
-		return nil, nil, &Error{File: s.File, Line: line, Key: "analysis.simulate.mesh", Msg: meshMessage(err)}
+		errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate.mesh", Msg: meshMessage(err)})
+	}
+	if err := errs.err(); err != nil {
+		return nil, nil, err
 	}
 	return mesh, probes, nil
 }
 
 // planStudy checks the cases of a study that Run must solve without
 // failing: every variant, every sweep value and both ends of a target
-// range, each decoded and planned.
-func planStudy(s *Scenario) error {
+// range, each decoded and planned. It returns the problems of every case
+// that fails, each pointed at the case, except those of the base scenario
+// (known: a case that inherits a mistake of the base does not report it
+// again).
+func planStudy(s *Scenario, known ...*Error) error {
 	st := s.Study
 	if st == nil {
 		return nil
@@ -168,21 +203,38 @@ func planStudy(s *Scenario) error {
 	if tg := st.Target; tg != nil {
 		cases = append(cases, at("target", tg.Parameter, tg.Line, joinNumber(tg.From, tg.Unit)), at("target", tg.Parameter, tg.Line, joinNumber(tg.To, tg.Unit)))
 	}
+	var errs problems
 	for _, c := range cases {
 		cs, err := decodeCase(s, c.c)
 		if err != nil {
-			return err
+			errs.add(s, err)
+			continue
 		}
-		if _, err := cs.plan(); err != nil {
-			if e, ok := err.(*Error); ok {
-				// Point at the study case, which makes the problem.
-				e2 := *e
-				e2.Line = c.line
-				e2.Msg = fmt.Sprintf("%s (in the %s)", e.Msg, c.what)
-				return &e2
+		_, err = cs.plan()
+		for _, e := range fileerr.All(err) {
+			if isKnown(e, known) {
+				continue
 			}
-			return err
+			// Point at the study case, which makes the problem.
+			e2 := *e
+			e2.Line = c.line
+			e2.Msg = fmt.Sprintf("%s (in the %s)", e.Msg, c.what)
+			errs.add(s, &e2)
+		}
+		if err != nil && fileerr.All(err) == nil {
+			errs.add(s, err)
 		}
 	}
-	return nil
+	return errs.err()
+}
+
+// isKnown reports whether known holds the mistake e (same key and
+// message).
+func isKnown(e *Error, known []*Error) bool {
+	for _, k := range known {
+		if k.Key == e.Key && k.Msg == e.Msg {
+			return true
+		}
+	}
+	return false
 }

@@ -173,7 +173,7 @@ func TestPlausibilityRealisticFilesQuiet(t *testing.T) {
 	}
 	for _, m := range layers.Materials() {
 		l := m.Layer()
-		if m.IsResistance() {
+		if m.Massless() {
 			continue
 		}
 		block := fmt.Sprintf("  - name: %s\n    family: %s\n    thickness: 0.2\n    conductivity: %g\n    density: %g\n    specific_heat: %g\n", m.Key, m.Family, l.Conductivity, l.Density, l.SpecificHeat)

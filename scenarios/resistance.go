@@ -32,19 +32,19 @@ func (p ResistancePeriod) contains(y float64) bool {
 // decodeResistance reads the resistance of a side: a number (m2 K/W), or
 // {value, periods: [{from_day, to_day, value}, ...]} for a resistance that
 // changes with the time of year.
-func (d *decoder) decodeResistance(o *object, side *Side) {
+func (d *decoder) decodeResistance(o *object, value *float64, periods *[]ResistancePeriod) {
 	if !o.has("resistance") {
 		return
 	}
 	if o.values["resistance"].Kind == yaml.ScalarNode {
-		o.nonNegative("resistance", layers.Resistance, &side.Resistance)
+		o.nonNegative("resistance", layers.Resistance, value)
 		return
 	}
 	ro := o.child("resistance", sideResistanceKeys)
 	if ro == nil {
 		return
 	}
-	if !ro.nonNegative("value", layers.Resistance, &side.Resistance) && !ro.has("value") {
+	if !ro.nonNegative("value", layers.Resistance, value) && !ro.has("value") {
 		ro.missing("value", "the resistance outside the periods, m2 K/W")
 	}
 	items, ok := ro.list("periods")
@@ -69,13 +69,13 @@ func (d *decoder) decodeResistance(o *object, side *Side) {
 			po.failf("to_day", "the period is empty (to_day equals from_day)")
 			continue
 		}
-		for _, q := range side.ResistancePeriods {
+		for _, q := range *periods {
 			if overlaps(p, q) {
 				po.failf("from_day", "the period overlaps the one on line %d", q.Line)
 				break
 			}
 		}
-		side.ResistancePeriods = append(side.ResistancePeriods, p)
+		*periods = append(*periods, p)
 	}
 }
 
@@ -103,7 +103,7 @@ func overlaps(a, b ResistancePeriod) bool { return a.contains(b.From) || b.conta
 
 // resistanceAt is the surface resistance of the side at time t (s), nil
 // when it does not vary.
-func (sd Side) resistanceAt() func(t float64) float64 {
+func (sd Environment) resistanceAt() func(t float64) float64 {
 	if len(sd.ResistancePeriods) == 0 {
 		return nil
 	}
@@ -124,7 +124,7 @@ func (sd Side) resistanceAt() func(t float64) float64 {
 
 // resistanceVaries reports whether the resistance of a side changes in the
 // course of a year.
-func (sd Side) resistanceVaries() bool {
+func (sd Environment) resistanceVaries() bool {
 	for _, p := range sd.ResistancePeriods {
 		if p.Value != sd.Resistance {
 			return true
@@ -134,7 +134,7 @@ func (sd Side) resistanceVaries() bool {
 }
 
 // resistanceInfo is the periods of a side for results.json.
-func resistanceInfo(sd Side) []results.ResistancePeriod {
+func resistanceInfo(sd Environment) []results.ResistancePeriod {
 	var out []results.ResistancePeriod
 	for _, p := range sd.ResistancePeriods {
 		out = append(out, results.ResistancePeriod{FromDay: p.From/climate.Day + 1, ToDay: p.To/climate.Day + 1, Resistance_m2K_W: p.Value})
@@ -142,17 +142,8 @@ func resistanceInfo(sd Side) []results.ResistancePeriod {
 	return out
 }
 
-// resistanceWarnings says what a resistance that varies in time changes:
-// only the simulation follows it.
-func resistanceWarnings(s *Scenario) []string {
-	var out []string
-	for _, sd := range []struct {
-		name string
-		side Side
-	}{{map[Kind]string{Wall: "outside", Ground: "surface"}[s.Kind], s.Outside}, {map[Kind]string{Wall: "inside", Ground: "bottom"}[s.Kind], s.Inside}} {
-		if sd.side.resistanceVaries() {
-			out = append(out, fmt.Sprintf("the %s resistance changes in the course of the year: the simulation follows it; the exact periodic analysis and the closed forms use its value outside the periods, %g m2 K/W", sd.name, sd.side.Resistance))
-		}
-	}
-	return out
+// resistanceNote says what a resistance that varies in time changes on
+// the side called name: only the simulation follows it.
+func resistanceNote(name string, usual float64) string {
+	return fmt.Sprintf("the %s resistance changes in the course of the year: the simulation follows it; the exact periodic analysis and the closed forms use its value outside the periods, %g m2 K/W", name, usual)
 }

@@ -68,14 +68,14 @@ func TestResistanceConstantAsPeriods(t *testing.T) {
 }
 
 func TestResistancePeriodsOfYear(t *testing.T) {
-	sd := Side{Resistance: 0.04, ResistancePeriods: []ResistancePeriod{{From: 334 * 86400, To: 74 * 86400, Value: 0.8}}}
+	sd := Environment{Resistance: 0.04, ResistancePeriods: []ResistancePeriod{{From: 334 * 86400, To: 74 * 86400, Value: 0.8}}}
 	at := sd.resistanceAt()
 	for _, c := range []struct{ day, want float64 }{{0, 0.8}, {73.9, 0.8}, {74, 0.04}, {200, 0.04}, {334, 0.8}, {365 + 10, 0.8}, {365 + 100, 0.04}, {-1, 0.8}} {
 		if got := at(c.day * 86400); got != c.want {
 			t.Errorf("day %g: %g, want %g", c.day, got, c.want)
 		}
 	}
-	if (Side{Resistance: 1}).resistanceAt() != nil {
+	if (Environment{Resistance: 1}).resistanceAt() != nil {
 		t.Error("a constant resistance varies")
 	}
 	p := func(from, to float64) ResistancePeriod { return ResistancePeriod{From: from, To: to} }

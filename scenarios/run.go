@@ -68,7 +68,7 @@ func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, err
 		return nil, err
 	}
 	r.SimulationSkipped = p.skipped
-	r.Warnings = append(r.Warnings, resistanceWarnings(s.Scenario)...)
+	r.Warnings = append(r.Warnings, sideNotes(s.Scenario)...)
 	r.Warnings = append(WarningTexts(Warnings(s.Scenario)), r.Warnings...)
 	r.TitleBlock = s.TitleBlock
 	r.Cautions = results.CautionsWith(r, recordWarnings(s.Scenario, r))
@@ -95,7 +95,7 @@ func (s *Scenario) construction() layers.Construction {
 
 // column returns the solver column of the scenario.
 func (s *Scenario) column() solver.Column {
-	return s.construction().Column(s.Outside.Resistance, s.Inside.Resistance)
+	return s.construction().Column(s.Inside.SurfaceResistance(), s.Outside.Resistance)
 }
 
 func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
@@ -107,7 +107,7 @@ func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 		ScenarioFile: s.File,
 		Orientation:  s.Orientation.String(),
 	}
-	rsi, rse := s.Inside.Resistance, s.Outside.Resistance
+	rsi, rse := s.Inside.SurfaceResistance(), s.Outside.Resistance
 	r.Steady = results.Steady{
 		UValue_W_m2K:             c.UValue(rsi, rse),
 		ThermalResistance_m2K_W:  c.ThermalResistance(),
@@ -293,7 +293,7 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	P := s.Analysis.Periods[0]
 	out := s.surfaceForcing()
 	tOutMean := meanOf(out, 0)
-	tInMean := meanOf(s.Inside.Temperature, 20)
+	tInMean := meanOf(s.Inside.temperature(), 20)
 	L := col.Thickness()
 
 	// Mean (steady) state.
@@ -304,7 +304,7 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	}
 
 	// One cycle of the first analysis period.
-	zo, zi := phasorAt(out, P), phasorAt(s.Inside.Temperature, P)
+	zo, zi := phasorAt(out, P), phasorAt(s.Inside.temperature(), P)
 	if s.surface != nil { // the forcing was fitted
 		why := "the sol-air temperature (the irradiance counts as zero when its harmonics go negative at night)"
 		if s.Outside.Temperature.Measured != nil {
@@ -341,7 +341,7 @@ func wallSeries(s *run, col solver.Column, r *results.Results) error {
 	if err != nil {
 		return &Error{File: s.File, Err: err}
 	}
-	hs := forcingHarmonics(out, s.Inside.Temperature)
+	hs := forcingHarmonics(out, s.Inside.temperature())
 	amps := make([][]complex128, len(hs.periods))
 	for i, p := range hs.periods {
 		amps[i], _, err = solver.Harmonic(col, p, hs.outside[i], hs.inside[i], xs)

@@ -41,8 +41,8 @@ type Scenario struct {
 	Layers      []layers.Layer     // outside (ground: surface) first
 	LayerLines  []int              // line of each layer in the file, for messages
 
-	Outside Side // wall: outside; ground: the surface
-	Inside  Side // wall: inside; ground: the bottom
+	Outside Environment // wall: outside; ground: the surface
+	Inside  Side        // wall: inside; ground: the bottom
 
 	Analysis Analysis
 
@@ -53,42 +53,6 @@ type Scenario struct {
 	fsys  fs.FS        // where the file's series are read
 	cache *seriesCache // records read, shared with the study's cases
 
-}
-
-// Side is the boundary on one face of the column.
-type Side struct {
-	// Condition is what holds at the face, one of the solver's boundary
-	// kinds, one to one: solver.Environment (the environment Temperature
-	// behind Resistance, which may vary by ResistancePeriods),
-	// solver.PrescribedFlux (HeatFlux) or solver.Adiabatic (nothing
-	// crosses). Side.boundary maps it onto the solver's boundary.
-	Condition solver.BoundaryKind
-
-	// Resistance is the surface resistance in m2 K/W between the surface and
-	// the environment temperature; 0 imposes the temperature on the surface.
-	// With ResistancePeriods it is the value outside the periods.
-	Resistance float64
-	// ResistancePeriods are the times of each year when the resistance is
-	// another (a snow cover in winter); nil: Resistance all year.
-	ResistancePeriods []ResistancePeriod
-	// Temperature is the environment temperature (degC) behind the
-	// resistance. Nil on a side with a heat flux or adiabatic condition.
-	Temperature *Forcing
-	// HeatFlux is the heat flux in W/m2 entering the column through a
-	// PrescribedFlux face (ground bottom: the geothermal flux, positive
-	// upward into the column).
-	HeatFlux float64
-
-	// NFreezing and NThawing are the n-factors of a ground surface: the
-	// surface temperature is NFreezing x the air temperature below 0 degC
-	// and NThawing x it above (1 and 1: the air temperature is the surface
-	// temperature). Cover names the surface preset they came from.
-	NFreezing, NThawing float64
-	Cover               string
-
-	// Solar makes a wall's outside environment the sol-air temperature;
-	// nil: the air temperature.
-	Solar *Solar
 }
 
 // DefaultGeothermalFlux is the heat flux entering a ground column from
@@ -156,7 +120,7 @@ type Simulate struct {
 	Start           float64  // s after 1 January 00:00 of year 1 (measured series: the first record)
 	Duration        float64  // s
 	Step            float64  // s
-	Sample          float64  // s, spacing of the recorded series; 0 = automatic
+	OutputStep      float64  // s, spacing of the recorded series (key output_step); 0 = automatic
 	Initial         *float64 // degC, uniform start; nil = the periodic (or spun-up) solution
 	Mesh            solver.MeshOptions
 	MaxSpinUpCycles int            // for non-linear (freezing) runs without an initial temperature

@@ -111,15 +111,19 @@ func keySchema(ks keySpec) map[string]any {
 // unitDoc says in what unit a bare number of the kinds is read.
 func unitDoc(kinds []layers.Kind) string {
 	var parts []string
-	for _, kd := range kinds {
+	for i, kd := range kinds {
+		lead := ""
+		if i > 0 {
+			lead = "for " + article(kd.String()) + ": "
+		}
 		u := layers.DefaultUnit(kd)
 		if u == "" {
-			parts = append(parts, "a bare number is a fraction (0.15), or write it in %")
+			parts = append(parts, lead+"a bare number is a fraction (0.15), or write it in %")
 			continue
 		}
-		parts = append(parts, fmt.Sprintf("a bare number is in %s; or a string with its unit (%s)", u, strings.Join(layers.Units(kd), ", ")))
+		parts = append(parts, fmt.Sprintf("%sa bare number is in %s; or a string with its unit (%s)", lead, u, strings.Join(layers.Units(kd), ", ")))
 	}
-	return strings.Join(parts, "; for an irradiance: ")
+	return strings.Join(parts, "; ")
 }
 
 // formSchema is the schema of one form of a value.
@@ -145,4 +149,12 @@ func formSchema(f form) map[string]any {
 		return map[string]any{"type": "object"}
 	}
 	return map[string]any{}
+}
+
+// article puts "a" or "an" before a noun by its first letter.
+func article(noun string) string {
+	if noun != "" && strings.ContainsRune("aeiou", rune(noun[0])) {
+		return "an " + noun
+	}
+	return "a " + noun
 }

@@ -58,9 +58,9 @@ func simDefaults(s *Scenario) {
 		}
 		sim.Step = math.Min(sim.Step, sim.Duration/10)
 	}
-	if sim.Sample == 0 {
+	if sim.OutputStep == 0 {
 		n := math.Ceil(sim.Duration / sim.Step)
-		sim.Sample = sim.Step * math.Max(1, math.Ceil(n/maxSamples))
+		sim.OutputStep = sim.Step * math.Max(1, math.Ceil(n/maxSamples))
 	}
 	if sim.Mesh.ResolvePeriod == 0 {
 		sim.Mesh.ResolvePeriod = shortestPeriod(s)
@@ -92,7 +92,7 @@ func shortestPeriod(s *Scenario) float64 {
 	for _, q := range s.Analysis.Periods {
 		p = math.Min(p, q)
 	}
-	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.Temperature} {
+	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.drive()} {
 		if f == nil {
 			continue
 		}
@@ -125,18 +125,6 @@ func warmestTime(f *Forcing) (float64, bool) {
 	return tb, true
 }
 
-// boundary turns a scenario side into a solver boundary.
-func boundary(sd Side) solver.Boundary {
-	switch sd.Condition {
-	case solver.Adiabatic:
-		return solver.Boundary{Kind: solver.Adiabatic}
-	case solver.PrescribedFlux:
-		q := sd.HeatFlux
-		return solver.Boundary{Kind: solver.PrescribedFlux, Flux: func(float64) float64 { return q }}
-	}
-	return solver.Boundary{Kind: solver.Environment, Resistance: sd.Resistance, Temperature: sd.env(), ResistanceAt: sd.resistanceAt()}
-}
-
 // isLinear reports whether no layer of the column has latent heat.
 func isLinear(col solver.Column) bool {
 	for _, l := range col.Layers {
@@ -148,17 +136,23 @@ func isLinear(col solver.Column) bool {
 }
 
 // solverProbes converts the probe depths (as drawn, air layers counted) to
-// solver positions and checks that each lies in the column.
+// solver positions and checks that each lies in the column (every probe
+// outside is a problem of its own).
 func (s *Scenario) solverProbes(col solver.Column) ([]float64, error) {
 	c := s.construction()
 	total := c.Thickness()
 	var out []float64
+	var errs problems
 	for i, z := range s.Analysis.Probes {
 		if z > total*(1+1e-12) {
-			return nil, &Error{File: s.File, Line: s.Analysis.ProbeLines[i], Key: fmt.Sprintf("analysis.probes[%d]", i+1),
-				Msg: fmt.Sprintf("probe at %g m lies outside the column, which is %g m thick", z, total)}
+			errs.add(s, &Error{File: s.File, Line: s.Analysis.ProbeLines[i], Key: fmt.Sprintf("analysis.probes[%d]", i+1),
+				Msg: fmt.Sprintf("probe at %g m lies outside the column, which is %g m thick", z, total)})
+			continue
 		}
 		out = append(out, math.Min(c.SolverDepth(z), col.Thickness()))
+	}
+	if err := errs.err(); err != nil {
+		return nil, err
 	}
 	return out, nil
 }
@@ -183,23 +177,19 @@ func initialState(s *run, col solver.Column, mesh *solver.Mesh, t0 float64) ([]f
 	out := s.surfaceForcing()
 	var T []float64
 	var err error
-	if s.Inside.Temperature != nil {
-		T, _, err = solver.Steady(c, forcingMean(out), forcingMean(s.Inside.Temperature), xs)
+	if s.Inside.temperature() != nil {
+		T, _, err = solver.Steady(c, forcingMean(out), forcingMean(s.Inside.temperature()), xs)
 	} else {
-		q := 0.0
-		if s.Inside.Condition == solver.PrescribedFlux {
-			q = s.Inside.HeatFlux
-		}
-		T, err = solver.SteadyWithBottomFlux(c, forcingMean(out), q, xs)
+		T, err = solver.SteadyWithBottomFlux(c, forcingMean(out), s.Inside.steadyFlux(), xs)
 	}
 	if err != nil {
 		return nil, err
 	}
 	meanT := append([]float64(nil), T...)
-	hs := forcingHarmonics(out, s.Inside.Temperature)
+	hs := forcingHarmonics(out, s.Inside.temperature())
 	for i, p := range hs.periods {
 		var amp []complex128
-		if s.Inside.Temperature != nil {
+		if s.Inside.temperature() != nil {
 			amp, _, err = solver.Harmonic(c, p, hs.outside[i], hs.inside[i], xs)
 		} else {
 			amp, _, err = solver.HarmonicInsulated(c, p, hs.outside[i], xs)
@@ -248,15 +238,15 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		return nil, err
 	}
 	p := solver.Problem{
-		Column:      col,
-		Mesh:        mesh,
-		Outside:     boundary(s.Outside),
-		Inside:      boundary(s.Inside),
-		Start:       sim.Start,
-		Duration:    sim.Duration,
-		Step:        sim.Step,
-		Probes:      probes,
-		SampleEvery: sim.Sample,
+		Column:     col,
+		Mesh:       mesh,
+		Outside:    s.Outside.Boundary(),
+		Inside:     s.Inside.Boundary(),
+		Start:      sim.Start,
+		Duration:   sim.Duration,
+		Step:       sim.Step,
+		Probes:     probes,
+		OutputStep: sim.OutputStep,
 	}
 	spin := 0
 	spinConverged := true
@@ -270,7 +260,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		if err != nil {
 			return nil, &Error{File: s.File, Msg: "initial state", Err: err}
 		}
-		varies := s.Outside.resistanceVaries() || s.Inside.resistanceVaries()
+		varies := s.Outside.varies() || s.Inside.varies()
 		if (!isLinear(col) || s.surfaceInexact || varies) && s.Outside.Temperature.Step == nil {
 			// Latent heat makes the problem non-linear: the linear periodic
 			// solution is only a first guess. Repeat the longest forcing
@@ -308,7 +298,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		StartDay:                   sim.Start / climate.Day,
 		Duration_h:                 sim.Duration / 3600,
 		Step_h:                     sim.Step / 3600,
-		OutputStep_h:               sim.Sample / 3600,
+		OutputStep_h:               sim.OutputStep / 3600,
 		Cells:                      mesh.Cells(),
 		EnergyBalanceRelativeError: res.Energy.RelativeError,
 		SpinUpCycles:               spin,
@@ -346,7 +336,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 			ser.Simulation.Stamp = append(ser.Simulation.Stamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
 		}
 		ser.Simulation.OutsideAir_C = append(ser.Simulation.OutsideAir_C, envAt(s.Outside, t))
-		if s.Inside.Temperature != nil {
+		if s.Inside.temperature() != nil {
 			ser.Simulation.InsideAir_C = append(ser.Simulation.InsideAir_C, envAt(s.Inside, t))
 		}
 		_ = k
@@ -365,11 +355,13 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	return res, nil
 }
 
+// envAt is the environment temperature of a side at t (s), degC (with the
+// sun and n-factors), NaN when the side has none.
 func envAt(sd Side, t float64) float64 {
-	if sd.Temperature == nil {
+	if sd.temperature() == nil {
 		return math.NaN()
 	}
-	return sd.env()(t)
+	return sd.Boundary().Temperature(t)
 }
 
 func uniform(n int, v float64) []float64 {
@@ -382,7 +374,7 @@ func uniform(n int, v float64) []float64 {
 
 func longestForcingPeriod(s *Scenario) float64 {
 	var p float64
-	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.Temperature} {
+	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.drive()} {
 		if f == nil || f.Step != nil {
 			continue
 		}
@@ -426,15 +418,15 @@ func checkFinite(res *solver.Result) error {
 // complex amplitudes of inside flux and outside temperature at period P
 // (ISO 13786 definitions, with the inside temperature constant).
 func periodicChecks(s *Scenario, r *results.Results, res *solver.Result) {
-	if s.Kind != Wall || s.Inside.Temperature == nil || r.Simulation == nil ||
-		!s.Outside.isPlainHarmonic() || s.Inside.Temperature.Measured != nil {
+	if s.Kind != Wall || s.Inside.temperature() == nil || r.Simulation == nil ||
+		!s.Outside.isPlainHarmonic() || s.Inside.temperature().Measured != nil {
 		return
 	}
-	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.Temperature)
+	hs := forcingHarmonics(s.Outside.Temperature, s.Inside.temperature())
 	end := res.Times[len(res.Times)-1]
 	for i, P := range s.Analysis.Periods {
 		ze := phasorAt(s.Outside.Temperature, P)
-		if ze == 0 || phasorAt(s.Inside.Temperature, P) != 0 || P > end-res.Times[0]+1e-9 {
+		if ze == 0 || phasorAt(s.Inside.temperature(), P) != 0 || P > end-res.Times[0]+1e-9 {
 			continue
 		}
 		var ts, qs []float64
@@ -508,7 +500,7 @@ func fitPhasor(t, v []float64, P float64, periods []float64, mid float64) (compl
 func minPenetrationDepth(s *Scenario, p float64) float64 {
 	d := math.Inf(1)
 	for _, l := range s.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			continue
 		}
 		d = math.Min(d, l.PenetrationDepth(p))
@@ -532,8 +524,8 @@ const spinUpFrontTolerance = 1e-3
 // when the bottom condition is constant. It returns an error only for a
 // failed simulation.
 func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
-	constInside := s.Inside.Temperature == nil ||
-		(len(s.Inside.Temperature.Harmonics) == 0 && s.Inside.Temperature.Measured == nil && s.Inside.Temperature.Step == nil)
+	f := s.Inside.drive()
+	constInside := f == nil || (len(f.Harmonics) == 0 && f.Measured == nil && f.Step == nil)
 	o := solver.SettleOptions{
 		Period: period, MaxCycles: max, Tolerance: spinUpTolerance, FrontTolerance: spinUpFrontTolerance,
 		ConstantInside: constInside,

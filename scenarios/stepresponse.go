@@ -25,12 +25,12 @@ func stepResponse(s *run, col solver.Column, r *results.Results) error {
 	a := first.Diffusivity()
 	b := math.Sqrt(first.Conductivity * first.HeatCapacity)
 	change := st.Change
-	far := s.Inside
+	var far Side = s.Inside
 	if fromInside {
 		far = s.Outside
 	}
-	farB := solver.Boundary{Kind: solver.Environment, Resistance: far.Resistance, Temperature: func(float64) float64 { return 0 }}
-	if s.Kind == Ground || far.Condition == solver.Adiabatic {
+	farB := solver.Boundary{Kind: solver.Environment, Resistance: far.SurfaceResistance(), Temperature: func(float64) float64 { return 0 }}
+	if s.Kind == Ground || far.Boundary().Kind == solver.Adiabatic {
 		farB = solver.Boundary{Kind: solver.Adiabatic}
 	}
 	// The flux after a sudden step falls like 1/sqrt(t) over many decades
@@ -121,7 +121,7 @@ func stepMesh(s *Scenario, col solver.Column) (solver.Column, solver.Layer, *sol
 	c.HalfSpace = false
 	first := c.Layers[0]
 	for _, l := range c.Layers {
-		if !l.IsResistance() {
+		if !l.Massless() {
 			first = l
 			break
 		}
@@ -154,18 +154,14 @@ func surfaceMean(s *run, col solver.Column, inside bool) (float64, error) {
 		x = c.Thickness()
 	}
 	out := forcingMean(s.surfaceForcing())
-	if s.Inside.Temperature != nil {
-		T, _, err := solver.Steady(c, out, forcingMean(s.Inside.Temperature), []float64{x})
+	if s.Inside.temperature() != nil {
+		T, _, err := solver.Steady(c, out, forcingMean(s.Inside.temperature()), []float64{x})
 		if err != nil {
 			return 0, err
 		}
 		return T[0], nil
 	}
-	q := 0.0
-	if s.Inside.Condition == solver.PrescribedFlux {
-		q = s.Inside.HeatFlux
-	}
-	T, err := solver.SteadyWithBottomFlux(c, out, q, []float64{x})
+	T, err := solver.SteadyWithBottomFlux(c, out, s.Inside.steadyFlux(), []float64{x})
 	if err != nil {
 		return 0, err
 	}

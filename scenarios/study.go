@@ -82,56 +82,6 @@ type VarySpec struct {
 	Unit      string
 }
 
-// studyQuantity is a figure a study can compare, seek and spread: its
-// name (the key in results.json, with its unit), the kind of scenario that
-// has it, and the function that reads it from Results (false: not
-// computed in this run).
-type studyQuantity struct {
-	name string
-	kind Kind
-	read func(r *results.Results) (float64, bool)
-}
-
-// quantities are the figures of a study, one table for both kinds.
-var quantities = []studyQuantity{
-	{"u_value_W_m2K", Wall, func(r *results.Results) (float64, bool) { return r.Steady.UValue_W_m2K, r.Kind == results.Wall }},
-	{"decrement_factor", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.DecrementFactor })
-	}},
-	// time_shift_h is the same as periodic[].time_shift_h, in [0, period);
-	// the whole lag (the one a target should seek) is time_shift_unwrapped_h.
-	{"time_shift_h", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShift_h })
-	}},
-	{"time_shift_unwrapped_h", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.TimeShiftUnwrapped_h })
-	}},
-	{"surface_factor", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.SurfaceFactor })
-	}},
-	{"periodic_transmittance_W_m2K", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.PeriodicTransmittance_W_m2K })
-	}},
-	{"inside_admittance_W_m2K", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.InsideAdmittance_W_m2K })
-	}},
-	{"inside_areal_heat_capacity_kJ_m2K", Wall, func(r *results.Results) (float64, bool) {
-		return first(r, func(p results.PeriodicResult) float64 { return p.InsideArealHeatCapacity_kJ_m2K })
-	}},
-	{"max_frost_depth_m", Ground, func(r *results.Results) (float64, bool) {
-		return frostQ(r, func(f *results.Frost) *float64 { return f.MaxFrostDepth_m }, r.Simulation != nil)
-	}},
-	{"stefan_depth_m", Ground, func(r *results.Results) (float64, bool) {
-		return frostQ(r, func(f *results.Frost) *float64 { return f.StefanDepth_m }, true)
-	}},
-	{"modified_berggren_depth_m", Ground, func(r *results.Results) (float64, bool) {
-		return frostQ(r, func(f *results.Frost) *float64 { return f.ModifiedBerggrenDepth_m }, true)
-	}},
-	{"freezing_index_Cd", Ground, func(r *results.Results) (float64, bool) {
-		return frostQ(r, func(f *results.Frost) *float64 { return f.FreezingIndex_Cd }, true)
-	}},
-}
-
 // readQuantity reads the quantity called name from r; false when it is
 // not a quantity or was not computed.
 func readQuantity(name string, r *results.Results) (float64, bool) {
@@ -139,41 +89,19 @@ func readQuantity(name string, r *results.Results) (float64, bool) {
 	if !ok {
 		return math.NaN(), false
 	}
-	return q.read(r)
+	return q.Read(r)
 }
 
-// quantityOf returns the quantity called name.
-func quantityOf(name string) (studyQuantity, bool) {
-	for _, q := range quantities {
-		if q.name == name {
-			return q, true
-		}
-	}
-	return studyQuantity{}, false
-}
-
-func first(r *results.Results, f func(results.PeriodicResult) float64) (float64, bool) {
-	if len(r.Periodic) == 0 {
-		return math.NaN(), false
-	}
-	return f(r.Periodic[0]), true
-}
-
-// frostQ reads a frost quantity; a value that was not computed is not
-// defined (NaN, false).
-func frostQ(r *results.Results, f func(*results.Frost) *float64, ok bool) (float64, bool) {
-	if r.Frost == nil || !ok || f(r.Frost) == nil {
-		return math.NaN(), false
-	}
-	return *f(r.Frost), true
-}
+// quantityOf returns the study quantity called name (one row of
+// results.Quantities: key, kind, words, label, unit and how to read it).
+func quantityOf(name string) (results.QuantityInfo, bool) { return results.LookupQuantity(name) }
 
 // quantityNames lists the quantities a scenario kind has, sorted.
 func quantityNames(k Kind) []string {
 	var out []string
-	for _, q := range quantities {
-		if q.kind == k {
-			out = append(out, q.name)
+	for _, q := range results.Quantities() {
+		if q.Kind == k {
+			out = append(out, q.Key)
 		}
 	}
 	sort.Strings(out)
@@ -182,9 +110,9 @@ func quantityNames(k Kind) []string {
 
 func summarize(r *results.Results) results.Summary {
 	s := results.Summary{}
-	for _, q := range quantities {
-		if v, ok := q.read(r); ok {
-			s[q.name] = v
+	for _, q := range results.Quantities() {
+		if v, ok := q.Read(r); ok {
+			s[q.Key] = v
 		}
 	}
 	return s

@@ -322,15 +322,15 @@ sweep:
 // wall's results (it is absent there, not 0).
 func TestQuantityKinds(t *testing.T) {
 	wall, grnd := quantityNames(Wall), quantityNames(Ground)
-	if len(wall)+len(grnd) != len(quantities) || len(wall) == 0 || len(grnd) == 0 {
-		t.Fatalf("wall %v and ground %v do not split the %d quantities", wall, grnd, len(quantities))
+	if len(wall)+len(grnd) != len(results.Quantities()) || len(wall) == 0 || len(grnd) == 0 {
+		t.Fatalf("wall %v and ground %v do not split the %d quantities", wall, grnd, len(results.Quantities()))
 	}
 	for _, name := range grnd {
 		q, ok := quantityOf(name)
-		if !ok || q.kind != Ground {
-			t.Errorf("%s: kind %v", name, q.kind)
+		if !ok || q.Kind != Ground {
+			t.Errorf("%s: kind %v", name, q.Kind)
 		}
-		if v, ok := q.read(&results.Results{Kind: results.Wall}); ok {
+		if v, ok := q.Read(&results.Results{Kind: results.Wall}); ok {
 			t.Errorf("%s reads %g from a wall's results", name, v)
 		}
 	}

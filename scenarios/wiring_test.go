@@ -188,8 +188,8 @@ surface:
 	if math.Abs(*f.SeasonLength_d-season) > 1.5 {
 		t.Errorf("design season %.1f d, mean of the 3 coldest winters' seasons %.1f d", *f.SeasonLength_d, season)
 	}
-	if math.Abs(*f.SurfaceFreezingIndex_Cd-0.6**f.FreezingIndex_Cd) > 1e-9 || f.FreezingNFactor != 0.6 {
-		t.Errorf("surface index %.2f with n-factor %g, want 0.6 x %.2f", *f.SurfaceFreezingIndex_Cd, f.FreezingNFactor, *f.FreezingIndex_Cd)
+	if math.Abs(*f.SurfaceFreezingIndex_Cd-0.6**f.FreezingIndex_Cd) > 1e-9 || f.NFactorFreezing != 0.6 {
+		t.Errorf("surface index %.2f with n-factor %g, want 0.6 x %.2f", *f.SurfaceFreezingIndex_Cd, f.NFactorFreezing, *f.FreezingIndex_Cd)
 	}
 }
 

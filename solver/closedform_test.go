@@ -272,7 +272,7 @@ func TestSimulatePlaneWallCooling(t *testing.T) {
 		Outside:     Boundary{Kind: Environment, Resistance: R, Temperature: fvtConst(0)},
 		Inside:      Boundary{Kind: Adiabatic},
 		InitialFunc: func(float64) float64 { return 1 },
-		Duration:    tEnd, Step: tEnd / 200, SampleEvery: tEnd / 5,
+		Duration:    tEnd, Step: tEnd / 200, OutputStep: tEnd / 5,
 		Probes: []float64{0, L},
 	})
 	if err != nil {

@@ -34,8 +34,9 @@ type Layer struct {
 	Freeze       *Freezing // nil: no phase change
 }
 
-// IsResistance reports whether l is a massless resistance layer.
-func (l Layer) IsResistance() bool { return l.Thickness == 0 && l.Resistance > 0 }
+// Massless reports whether l stores no heat: a resistance layer, which
+// the solver represents with Thickness 0 and Resistance > 0.
+func (l Layer) Massless() bool { return l.Thickness == 0 && l.Resistance > 0 }
 
 // Diffusivity is the thermal diffusivity lambda/(rho c) of an unfrozen layer, m2/s.
 func (l Layer) Diffusivity() float64 { return l.Conductivity / l.HeatCapacity }
@@ -43,7 +44,7 @@ func (l Layer) Diffusivity() float64 { return l.Conductivity / l.HeatCapacity }
 // ThermalResistance is d/lambda for a massive layer, or Resistance for a
 // massless one, m2 K/W.
 func (l Layer) ThermalResistance() float64 {
-	if l.IsResistance() {
+	if l.Massless() {
 		return l.Resistance
 	}
 	return l.Thickness / l.Conductivity
@@ -55,7 +56,7 @@ func (l Layer) Validate() error {
 	if bad(l.Thickness) || bad(l.Conductivity) || bad(l.HeatCapacity) || bad(l.Resistance) {
 		return fmt.Errorf("layer %q: a property is not a finite number", l.Name)
 	}
-	if l.IsResistance() {
+	if l.Massless() {
 		if l.Conductivity != 0 || l.HeatCapacity != 0 || l.Freeze != nil {
 			return fmt.Errorf("layer %q: a massless resistance layer cannot have conductivity, heat capacity or freezing", l.Name)
 		}
@@ -118,7 +119,7 @@ func (c Column) Validate() error {
 			return err
 		}
 	}
-	if c.HalfSpace && c.Layers[len(c.Layers)-1].IsResistance() {
+	if c.HalfSpace && c.Layers[len(c.Layers)-1].Massless() {
 		return errors.New("solver: a half-space column must end in a massive layer")
 	}
 	if c.OutsideResistance < 0 || c.InsideResistance < 0 ||
@@ -154,7 +155,7 @@ func (c Column) Interfaces() []float64 {
 func (c Column) LayerAt(x float64) int {
 	var top float64
 	for i, l := range c.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			continue
 		}
 		if x < top+l.Thickness {
@@ -163,7 +164,7 @@ func (c Column) LayerAt(x float64) int {
 		top += l.Thickness
 	}
 	for i := len(c.Layers) - 1; i >= 0; i-- {
-		if !c.Layers[i].IsResistance() {
+		if !c.Layers[i].Massless() {
 			return i
 		}
 	}

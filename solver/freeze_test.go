@@ -36,7 +36,7 @@ func TestSimulateNeumannFrontLunardini(t *testing.T) {
 			Outside:     Boundary{Kind: Environment, Temperature: fvtConst(p.Surface)},
 			Inside:      Boundary{Kind: Adiabatic},
 			InitialFunc: func(float64) float64 { return p.Initial },
-			Duration:    60 * 86400, Step: 3600, SampleEvery: 86400,
+			Duration:    60 * 86400, Step: 3600, OutputStep: 86400,
 			Probes: probes,
 		})
 		if err != nil {
@@ -105,7 +105,7 @@ func TestSimulateOnePhaseStefan(t *testing.T) {
 			Outside:     Boundary{Kind: Environment, Temperature: fvtConst(-1)},
 			Inside:      Boundary{Kind: Adiabatic},
 			InitialFunc: func(float64) float64 { return 0 },
-			Duration:    tEnd, Step: 600, SampleEvery: tEnd / 4,
+			Duration:    tEnd, Step: 600, OutputStep: tEnd / 4,
 		})
 		if err != nil {
 			t.Fatal(err)
@@ -147,7 +147,7 @@ func TestEnergyBalanceFreezing(t *testing.T) {
 			Outside:     Boundary{Kind: Environment, Resistance: 0.05, Temperature: air},
 			Inside:      Boundary{Kind: PrescribedFlux, Flux: fvtConst(0.065)},
 			InitialFunc: func(x float64) float64 { return 6 + 0.02*x },
-			Duration:    365 * 86400, Step: 3 * 3600, SampleEvery: 86400,
+			Duration:    365 * 86400, Step: 3 * 3600, OutputStep: 86400,
 			Scheme: s,
 		})
 		if err != nil {
@@ -249,7 +249,7 @@ func TestSimulateNarrowFreezingRangeApproachesNeumann(t *testing.T) {
 		Outside:     Boundary{Kind: Environment, Temperature: fvtConst(p.Surface)},
 		Inside:      Boundary{Kind: Adiabatic},
 		InitialFunc: func(float64) float64 { return p.Initial },
-		Duration:    60 * 86400, Step: 3600, SampleEvery: 10 * 86400,
+		Duration:    60 * 86400, Step: 3600, OutputStep: 10 * 86400,
 	})
 	if err != nil {
 		t.Fatal(err)
@@ -280,7 +280,7 @@ func TestSpinUpFreezingGround(t *testing.T) {
 		Outside:     Boundary{Kind: Environment, Resistance: 0.05, Temperature: func(t float64) float64 { return 2 - 12*math.Cos(2*math.Pi*t/year) }},
 		Inside:      Boundary{Kind: Adiabatic},
 		InitialFunc: func(float64) float64 { return 2 },
-		Step:        86400, SampleEvery: 86400,
+		Step:        86400, OutputStep: 86400,
 	}
 	init, cycles, err := SpinUpEnthalpy(p, year, 1e-3, 60)
 	if err != nil {

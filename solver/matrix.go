@@ -122,7 +122,7 @@ func ResistanceMatrix(r float64) Matrix { return Matrix{{1, complex(-r, 0)}, {0,
 // (ISO 13786, clause 3.1.13 / Annex A). It is 0 for a massless layer and
 // for a non-positive period.
 func LayerPenetrationDepth(l Layer, period float64) float64 {
-	if l.IsResistance() || period <= 0 || l.HeatCapacity <= 0 {
+	if l.Massless() || period <= 0 || l.HeatCapacity <= 0 {
 		return 0
 	}
 	return math.Sqrt(l.Conductivity * period / (math.Pi * l.HeatCapacity))
@@ -155,7 +155,7 @@ func LayerMatrix(l Layer, period float64) Matrix {
 //
 // (exact identities for z = (1+i) xi).
 func LayerMatrixScaled(l Layer, period float64) ScaledMatrix {
-	if l.IsResistance() {
+	if l.Massless() {
 		return ScaledMatrix{M: ResistanceMatrix(l.Resistance)}
 	}
 	delta := LayerPenetrationDepth(l, period)

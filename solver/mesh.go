@@ -148,7 +148,7 @@ func NewMesh(c Column, o MeshOptions) (*Mesh, error) {
 	m := &Mesh{Faces: []float64{0}, FaceResistance: []float64{0}}
 	top := 0.0
 	for li, l := range c.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			m.FaceResistance[len(m.FaceResistance)-1] += l.Resistance
 			continue
 		}

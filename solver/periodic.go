@@ -140,7 +140,7 @@ func tmWallElements(c Column) []tmElement {
 		els = append(els, tmElement{r: c.OutsideResistance})
 	}
 	for _, l := range c.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			els = append(els, tmElement{r: l.Resistance})
 		} else {
 			els = append(els, tmElement{layer: l})

@@ -18,7 +18,7 @@ import (
 // and [[1, -R], [0, 1]] for a surface or other massless resistance R. It
 // shares no code with matrix.go (plain complex128 arithmetic, no scaling).
 func isoMatrix(l Layer, period float64) [2][2]complex128 {
-	if l.IsResistance() {
+	if l.Massless() {
 		return [2][2]complex128{{1, complex(-l.Resistance, 0)}, {0, 1}}
 	}
 	delta := math.Sqrt(l.Conductivity * period / (math.Pi * l.HeatCapacity))

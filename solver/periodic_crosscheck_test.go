@@ -29,7 +29,7 @@ func tmFVPeriodic(c Column, period float64, n, refine int, te, ti complex128) (x
 	capa = []float64{0}
 	pos := 0.0
 	for _, l := range c.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			g = append(g, 1/l.Resistance)
 			capa = append(capa, 0)
 			x = append(x, pos)

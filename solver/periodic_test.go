@@ -370,7 +370,7 @@ func TestUnwrapRandomWalls(t *testing.T) {
 		if rng.IntN(2) == 0 {
 			c.OutsideResistance, c.InsideResistance = 0.04, 0.13
 		}
-		if c.Validate() != nil || c.Layers[0].IsResistance() && c.OutsideResistance == 0 && len(c.Layers) == 1 {
+		if c.Validate() != nil || c.Layers[0].Massless() && c.OutsideResistance == 0 && len(c.Layers) == 1 {
 			continue
 		}
 		period := []float64{3600, tmDay, 7 * tmDay}[rng.IntN(3)]

@@ -71,7 +71,7 @@ func tmBuildChain(c Column, period float64, cuts []float64, insulated bool) *tmC
 	}
 	for i := 0; i < n; i++ {
 		l := c.Layers[i]
-		if l.IsResistance() {
+		if l.Massless() {
 			add(tmElement{r: l.Resistance}, ifs[i+1])
 			continue
 		}
@@ -319,7 +319,7 @@ func tmResistanceTo(c Column, x float64) float64 {
 	r := c.OutsideResistance
 	top := 0.0
 	for i, l := range c.Layers {
-		if l.IsResistance() {
+		if l.Massless() {
 			if top <= x {
 				r += l.Resistance
 			}

@@ -53,7 +53,7 @@ func TestHarmonicSurfaceRelations(t *testing.T) {
 			// at x = 0 the resistance from the outside environment includes
 			// them, and at x = L only Rsi lies between surface and room.
 			rOut := c.OutsideResistance
-			if l := c.Layers[0]; l.IsResistance() {
+			if l := c.Layers[0]; l.Massless() {
 				rOut += l.Resistance
 			}
 			rIn := c.InsideResistance

@@ -25,10 +25,10 @@ type SettleOptions struct {
 	// ConstantInside tells Settle that the inside boundary does not vary
 	// in time, which allows the deep reset (see Settle).
 	ConstantInside bool
-	// Sample is the spacing of the samples from which each cycle's frost
+	// OutputStep is the spacing of the samples from which each cycle's frost
 	// depth and temperature range are read, s; 0 means Period/365 (a day
 	// of a year), rounded to whole steps.
-	Sample float64
+	OutputStep float64
 	// Progress, when not nil, is called after each cycle with the number
 	// of cycles run.
 	Progress func(cycle int)
@@ -94,12 +94,12 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 	p.Duration = o.Period
 	p.Probes = nil
 	p.Progress = nil
-	p.SampleEvery = o.Sample
-	if p.SampleEvery <= 0 {
-		p.SampleEvery = o.Period / 365
+	p.OutputStep = o.OutputStep
+	if p.OutputStep <= 0 {
+		p.OutputStep = o.Period / 365
 	}
 	if p.Step > 0 {
-		p.SampleEvery = math.Max(p.Step, math.Round(p.SampleEvery/p.Step)*p.Step)
+		p.OutputStep = math.Max(p.Step, math.Round(p.OutputStep/p.Step)*p.Step)
 	}
 	r, err := newFvRun(&p, true)
 	if err != nil {

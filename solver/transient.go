@@ -120,10 +120,10 @@ type Problem struct {
 	// Probes are positions (m, 0 to the column thickness) whose
 	// temperature is recorded at every sample.
 	Probes []float64
-	// SampleEvery is the spacing of the recorded samples, s: a whole
+	// OutputStep is the spacing of the recorded samples, s: a whole
 	// multiple of Step (rounded to the nearest). 0 means every step. The
 	// end of the run is always sampled.
-	SampleEvery float64
+	OutputStep float64
 
 	Scheme TimeScheme
 
@@ -271,7 +271,7 @@ func fvSpinUp(p Problem, period, tol float64, maxCycles int) (*fvRun, int, float
 	}
 	p.Duration = period
 	p.Probes = nil
-	p.SampleEvery = period
+	p.OutputStep = period
 	p.Progress = nil
 	r, err := newFvRun(&p, false)
 	if err != nil {

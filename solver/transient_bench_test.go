@@ -30,7 +30,7 @@ func fvtBenchProblem(freeze bool) Problem {
 		}},
 		Inside:      Boundary{Kind: PrescribedFlux, Flux: func(float64) float64 { return 0.065 }},
 		InitialFunc: func(x float64) float64 { return 6 + 0.02*x },
-		Duration:    10 * year, Step: 3600, SampleEvery: 86400,
+		Duration:    10 * year, Step: 3600, OutputStep: 86400,
 		Probes: []float64{0.5, 1, 2},
 	}
 }
@@ -110,7 +110,7 @@ func TestSimulateAllocationsIndependentOfSteps(t *testing.T) {
 		count := func(steps int) float64 {
 			q := p
 			q.Duration = float64(steps) * q.Step
-			q.SampleEvery = q.Duration
+			q.OutputStep = q.Duration
 			return testing.AllocsPerRun(3, func() {
 				if _, err := Simulate(q); err != nil {
 					t.Fatal(err)

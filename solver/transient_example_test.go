@@ -20,7 +20,7 @@ func ExampleSimulate() {
 		InitialFunc: func(x float64) float64 { return 20 },
 		Duration:    60 * 86400,
 		Step:        3600,
-		SampleEvery: 30 * 86400,
+		OutputStep:  30 * 86400,
 		Probes:      []float64{0.5},
 	})
 	if err != nil {

@@ -92,7 +92,7 @@ func goldenCases() []goldenCase {
 			Outside:     Boundary{Kind: Environment, Resistance: 0.05, Temperature: out},
 			Inside:      Boundary{Kind: PrescribedFlux, Flux: func(float64) float64 { return 0.065 }},
 			InitialFunc: func(x float64) float64 { return 5 + 0.02*x },
-			Duration:    1.5 * year, Step: step, SampleEvery: 2 * day,
+			Duration:    1.5 * year, Step: step, OutputStep: 2 * day,
 			Probes: []float64{0.3, 1, 1.9}, Scheme: scheme,
 		}}
 	}
@@ -137,7 +137,7 @@ func goldenCases() []goldenCase {
 		Outside:     Boundary{Kind: Environment, Resistance: 0, Temperature: func(float64) float64 { return 6 }},
 		Inside:      Boundary{Kind: Environment, Resistance: 0.17, Temperature: func(t float64) float64 { return -25 + 3*math.Sin(2*math.Pi*t/(7*day)) }},
 		InitialFunc: func(float64) float64 { return 6 },
-		Duration:    1 * year, Step: 2 * 3600, SampleEvery: 2 * day,
+		Duration:    1 * year, Step: 2 * 3600, OutputStep: 2 * day,
 		Probes: []float64{3.5, 4.5, 5}, Scheme: TRBDF2,
 	}}
 	cs = append(cs, fc)

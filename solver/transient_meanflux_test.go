@@ -20,7 +20,7 @@ func TestMeanFluxAddsUpToTheEnergyBalance(t *testing.T) {
 			Outside:     Boundary{Kind: Environment, Temperature: func(t float64) float64 { return -8 + 10*math.Sin(2*math.Pi*t/86400) }},
 			Inside:      Boundary{Kind: Environment, Resistance: 0.13, Temperature: func(float64) float64 { return 5 }},
 			InitialFunc: func(float64) float64 { return 3 },
-			Duration:    20 * 86400, Step: 1800, SampleEvery: 7200,
+			Duration:    20 * 86400, Step: 1800, OutputStep: 7200,
 		})
 		if err != nil {
 			t.Fatal(err)

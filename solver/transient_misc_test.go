@@ -23,7 +23,7 @@ func TestSimulateThawDepthNeumann(t *testing.T) {
 		Outside:     Boundary{Kind: Environment, Temperature: fvtConst(p.Surface)},
 		Inside:      Boundary{Kind: Adiabatic},
 		InitialFunc: func(float64) float64 { return p.Initial },
-		Duration:    30 * 86400, Step: 3600, SampleEvery: 10 * 86400,
+		Duration:    30 * 86400, Step: 3600, OutputStep: 10 * 86400,
 	})
 	if err != nil {
 		t.Fatal(err)
@@ -165,7 +165,7 @@ func TestSimulateErrors(t *testing.T) {
 		"initial NaN":       func(p *Problem) { p.InitialFunc = func(float64) float64 { return math.NaN() } },
 		"zero step":         func(p *Problem) { p.Step = 0 },
 		"negative duration": func(p *Problem) { p.Duration = -1 },
-		"sample spacing":    func(p *Problem) { p.SampleEvery = 90 },
+		"sample spacing":    func(p *Problem) { p.OutputStep = 90 },
 		"probe outside":     func(p *Problem) { p.Probes = []float64{0.2} },
 		"no temperature":    func(p *Problem) { p.Outside.Temperature = nil },
 		"no flux":           func(p *Problem) { p.Inside = Boundary{Kind: PrescribedFlux} },

@@ -67,7 +67,7 @@ func TestObservedOrderSpace(t *testing.T) {
 			Outside:     Boundary{Kind: Environment, Temperature: fvtConst(0)},
 			Inside:      Boundary{Kind: Environment, Temperature: fvtConst(0)},
 			InitialFunc: ex.phi,
-			Duration:    tEnd, Step: tEnd / 4000, SampleEvery: tEnd,
+			Duration:    tEnd, Step: tEnd / 4000, OutputStep: tEnd,
 		})
 		if err != nil {
 			t.Fatal(err)

@@ -23,7 +23,7 @@ func TestSimulateErfStepIncroperaExample56(t *testing.T) {
 		Outside:  Boundary{Kind: Environment, Temperature: fvtConst(-15)},
 		Inside:   Boundary{Kind: Adiabatic},
 		Initial:  fvtFill(col, 20),
-		Duration: 60 * 86400, Step: 3600, SampleEvery: 86400,
+		Duration: 60 * 86400, Step: 3600, OutputStep: 86400,
 		Probes: probes,
 	})
 	if err != nil {
@@ -92,7 +92,7 @@ func TestSimulateFluxAndConvectiveSteps(t *testing.T) {
 	} {
 		res, err := Simulate(Problem{
 			Column: col, Outside: c.out, Inside: Boundary{Kind: Adiabatic},
-			Initial: fvtFill(col, 5), Duration: 10 * 86400, Step: 1800, SampleEvery: 86400, Probes: probes,
+			Initial: fvtFill(col, 5), Duration: 10 * 86400, Step: 1800, OutputStep: 86400, Probes: probes,
 		})
 		if err != nil {
 			t.Fatal(err)

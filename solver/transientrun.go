@@ -245,13 +245,13 @@ func (r *fvRun) setSteps() error {
 	r.nSteps = max(int(steps), 1)
 	r.dtLast = p.Duration - float64(r.nSteps-1)*p.Step
 	r.every = 1
-	if p.SampleEvery != 0 {
-		if !finite(p.SampleEvery) || p.SampleEvery < 0 {
+	if p.OutputStep != 0 {
+		if !finite(p.OutputStep) || p.OutputStep < 0 {
 			return errors.New("solver: sample spacing must be finite and positive")
 		}
-		k := math.Round(p.SampleEvery / p.Step)
-		if k < 1 || math.Abs(k*p.Step-p.SampleEvery) > 1e-6*p.Step {
-			return fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.SampleEvery, p.Step)
+		k := math.Round(p.OutputStep / p.Step)
+		if k < 1 || math.Abs(k*p.Step-p.OutputStep) > 1e-6*p.Step {
+			return fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.OutputStep, p.Step)
 		}
 		r.every = int(math.Min(k, 1e9))
 	}
@@ -407,7 +407,7 @@ func fvCheckMesh(c Column, m *Mesh) error {
 		if !(m.Faces[i+1] > m.Faces[i]) {
 			return fmt.Errorf("solver: mesh faces not increasing at cell %d", i)
 		}
-		if li := m.Layer[i]; li < 0 || li >= len(c.Layers) || c.Layers[li].IsResistance() {
+		if li := m.Layer[i]; li < 0 || li >= len(c.Layers) || c.Layers[li].Massless() {
 			return fmt.Errorf("solver: mesh cell %d refers to a layer the column does not have", i)
 		}
 	}

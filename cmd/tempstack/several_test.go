@@ -9,12 +9,22 @@ import (
 	"testing"
 )
 
-// TestCheckReportsEveryMistake runs check on a file with several
-// independent mistakes: every one is reported on its own line with its
-// file:line, in the order of the file's "# expect:" headers, and nothing
-// else.
+// TestCheckReportsEveryMistake runs check on each file of
+// testdata/several, which holds several independent mistakes (found by the
+// decoder, or by the plan before solving): every one is reported on its
+// own line with its file:line, in the order of the file's "# expect:"
+// headers, and nothing else.
 func TestCheckReportsEveryMistake(t *testing.T) {
-	path := filepath.Join("..", "..", "testdata", "several", "five-mistakes.yaml")
+	paths, err := filepath.Glob(filepath.Join("..", "..", "testdata", "several", "*.yaml"))
+	if err != nil || len(paths) < 2 {
+		t.Fatalf("%d files (%v)", len(paths), err)
+	}
+	for _, path := range paths {
+		t.Run(filepath.Base(path), func(t *testing.T) { checkEveryMistake(t, path) })
+	}
+}
+
+func checkEveryMistake(t *testing.T, path string) {
 	data, err := os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)

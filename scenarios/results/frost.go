@@ -87,7 +87,7 @@ func (s *IndexSource) UnmarshalText(b []byte) error {
 // Surface Index to Air Index" [2nd-hand], as in package ground).
 func (f *Frost) SurfaceIndexUsed() *float64 {
 	if f.IndexSource.Origin == FromDesign && f.DesignFreezingIndex_Cd != nil {
-		v := f.FreezingNFactor * *f.DesignFreezingIndex_Cd
+		v := f.NFactorFreezing * *f.DesignFreezingIndex_Cd
 		return &v
 	}
 	return f.SurfaceFreezingIndex_Cd

@@ -256,7 +256,7 @@ type Frost struct {
 	ActiveLayer_m *float64 `json:"active_layer_m,omitempty"`
 
 	SurfaceFreezingIndex_Cd *float64          `json:"surface_freezing_index_Cd"` // n-factor x air index
-	FreezingNFactor         float64           `json:"freezing_n_factor"`
+	NFactorFreezing         float64           `json:"freezing_n_factor"`
 	SeasonLength_d          *float64          `json:"season_length_d"`
 	MeanAnnualAir_C         *float64          `json:"mean_annual_air_C"`
 	DesignFreezingIndex_Cd  *float64          `json:"design_freezing_index_Cd,omitempty"`
@@ -557,8 +557,8 @@ type SideForcing struct {
 	HeatFlux_W_m2     *float64           `json:"heat_flux_W_m2,omitempty"` // entering the column
 	Record            string             `json:"record,omitempty"`         // file of a measured series
 	Cover             string             `json:"cover,omitempty"`
-	NFreezing         float64            `json:"n_factor_freezing,omitempty"`
-	NThawing          float64            `json:"n_factor_thawing,omitempty"`
+	NFactorFreezing   float64            `json:"n_factor_freezing,omitempty"`
+	NFactorThawing    float64            `json:"n_factor_thawing,omitempty"`
 	Solar             *SolarInfo         `json:"solar,omitempty"`
 }
 
@@ -572,8 +572,8 @@ type ResistancePeriod struct {
 	Resistance_m2K_W float64 `json:"resistance_m2K_W"`
 }
 
-// HarmonicInfo is one harmonic: amplitude in K (irradiance: W/m2), peak
-// in hours after 1 January 00:00.
+// HarmonicInfo is one harmonic: amplitude in K (irradiance, heat flux:
+// W/m2), peak in hours after 1 January 00:00.
 type HarmonicInfo struct {
 	Period_h  float64 `json:"period_h"`
 	Amplitude float64 `json:"amplitude"`

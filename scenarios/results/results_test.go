@@ -50,7 +50,7 @@ func TestIndexSourceText(t *testing.T) {
 // Table 4-1 [2nd-hand]); otherwise the forcing's surface index.
 func TestSurfaceIndexUsed(t *testing.T) {
 	d, s := 1000.0, 400.0
-	f := &Frost{FreezingNFactor: 0.6, DesignFreezingIndex_Cd: &d, SurfaceFreezingIndex_Cd: &s, IndexSource: IndexSource{Origin: FromDesign}}
+	f := &Frost{NFactorFreezing: 0.6, DesignFreezingIndex_Cd: &d, SurfaceFreezingIndex_Cd: &s, IndexSource: IndexSource{Origin: FromDesign}}
 	if got := f.SurfaceIndexUsed(); got == nil || *got != 600 {
 		t.Errorf("design: %v, want 600", got)
 	}
