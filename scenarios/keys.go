@@ -250,7 +250,7 @@ var (
 	// fluxForcingKeys is a heat flux that changes in time: a mean with
 	// harmonics (no step, no measured series).
 	fluxForcingKeys = tempKeys.only("fluxForcing", "A heat flux over time: a mean with harmonics.", "mean", "daily", "annual", "harmonics")
-	seriesKeys = &keyTable{
+	seriesKeys      = &keyTable{
 		Name: "series", Doc: "A measured series in a CSV file.",
 		Keys: []keySpec{
 			k("file", "CSV file, relative to the scenario file", fText),
