@@ -199,7 +199,9 @@ func TestRoomEnergyBalanceVarying(t *testing.T) {
 			}
 			return 1200 * 50 * 0.5 / 3600
 		}
-		p.Back[0] = func(tt float64) float64 { return f.outdoor.at(tt) + math.Max(0, 14*math.Cos(2*math.Pi*(tt-16*3600)/rtDay)) }
+		p.Back[0] = func(tt float64) float64 {
+			return f.outdoor.at(tt) + math.Max(0, 14*math.Cos(2*math.Pi*(tt-16*3600)/rtDay))
+		}
 		res, err := RoomSimulate(p)
 		if err != nil {
 			t.Fatal(err)
