@@ -50,7 +50,7 @@ func cleanOSError(err error) string {
 }
 
 var (
-	topKeys      = []string{"title", "description", "project", "client", "prepared_by", "revision", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
+	topKeys      = []string{"title", "description", "project", "client", "prepared_by", "revision", "kind", "orientation", "layers", "outside", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty", "room", "elements", "windows", "thresholds"}
 	layerKeys    = []string{"material", "name", "thickness", "conductivity", "density", "specific_heat", "resistance", "conductivity_frozen", "specific_heat_frozen", "latent_heat", "freezing_point", "freezing_range", "soil", "family"}
 	soilKeys     = []string{"texture", "dry_density", "water_content", "model", "quartz", "solids_density", "solids_specific_heat", "freezing_point", "freezing_range"}
 	sideKeys     = []string{"resistance", "temperature", "heat_flux", "adiabatic", "solar"}
@@ -119,6 +119,10 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*S
 		// Every other key depends on the kind.
 		return nil, d.err()
 	}
+	if s.Kind == Room {
+		return d.decodeRoomDoc(top, s, root, fsys, cache)
+	}
+	rejectRoomKeys(top, s)
 	d.decodeOrientation(top, s)
 	layersClean := d.decodeLayers(top, s)
 	d.decodeSides(top, s)
@@ -146,10 +150,10 @@ func (d *decoder) decodeHeader(top *object, s *Scenario) {
 	top.str("description", &s.Description)
 	decodeTitleBlock(top, s)
 	var kind string
-	if top.choice("kind", []string{string(Wall), string(Ground)}, &kind) {
+	if top.choice("kind", []string{string(Wall), string(Ground), string(Room)}, &kind) {
 		s.Kind = Kind(kind)
 	} else if !top.has("kind") {
-		top.missing("kind", "wall or ground")
+		top.missing("kind", "wall, ground or room")
 	}
 }
 

@@ -33,6 +33,10 @@ type runPlan struct {
 // calls the same checks first, so a scenario that Check accepts does not
 // fail them in Run.
 func Check(s *Scenario) error {
+	if s.Kind == Room {
+		_, err := s.roomPlan()
+		return err
+	}
 	if _, err := s.plan(); err != nil {
 		return err
 	}
