@@ -495,10 +495,9 @@ func runRoom(ctx context.Context, sc *Scenario) (*results.Results, error) {
 	roomSeries(rm, p, x, xb, sim, simb)
 	r.Room = rm
 	r.Forcing = &results.ForcingInfo{Outside: sideInfo(sc.Outside)} // the outdoor air; each element's sun is in room.elements
-	r.Cautions = []string{
+	r.Cautions = append(results.CautionsWith(r, nil),
 		"One air node: the room is taken as well mixed; radiant exchange between surfaces is lumped into the inside surface resistances (ISO 6946), and the sun through the windows is delivered to the air.",
-		"Comfort criteria are set by local guidance; hours above a threshold here are a comparison between designs, not a compliance check.",
-	}
+		"Comfort criteria are set by local guidance; hours above a threshold here are a comparison between designs, not a compliance check.")
 	return r, nil
 }
 

@@ -468,7 +468,7 @@ func newCommand() *cli.Command {
 	return &cli.Command{
 		Name:      "new",
 		Usage:     "write a commented starter scenario file",
-		ArgsUsage: "wall|ground",
+		ArgsUsage: "wall|ground|room",
 		Flags: []cli.Flag{
 			&cli.StringFlag{Name: "out", Aliases: []string{"o"}, Usage: "write to `FILE` (default: KIND.yaml; - for standard output)"},
 			&cli.BoolFlag{Name: "force", Usage: "overwrite an existing file"},
@@ -477,11 +477,11 @@ func newCommand() *cli.Command {
 		Action: func(c *cli.Context) error {
 			kind := c.Args().First()
 			if c.NArg() != 1 {
-				return userErr("new needs one kind: wall or ground")
+				return userErr("new needs one kind: wall, ground or room")
 			}
 			data, ok := scenarios.Starter(kind)
 			if !ok {
-				return userErr("unknown kind %q; use wall or ground", kind)
+				return userErr("unknown kind %q; use wall, ground or room", kind)
 			}
 			out := c.String("out")
 			if out == "" {
