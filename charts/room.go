@@ -51,7 +51,22 @@ func buildRoom(p *page, r *results.Results) ([]*chartSpec, error) {
 	if t := roomPathTable(rm); t != nil {
 		heat.Blocks = append(heat.Blocks, block{Table: t})
 	}
-	for _, s := range []section{els, temp, heat} {
+
+	study := section{ID: "study", Heading: "Options and studies"}
+	add := func(b ...*block) {
+		for _, x := range b {
+			if x != nil {
+				study.Blocks = append(study.Blocks, *x)
+			}
+		}
+	}
+	if f := variantsFigure(r); f != nil {
+		add(&block{Figure: f})
+	}
+	add(variantsTable(r), sweepTable(r))
+	add(targetBlock(r)...)
+	add(uncertaintyTables(r)...)
+	for _, s := range []section{els, temp, study, heat} {
 		if len(s.Blocks) > 0 {
 			p.Sections = append(p.Sections, s)
 		}

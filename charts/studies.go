@@ -36,6 +36,11 @@ var quantities = []quantity{
 	{"stefan_depth_m", "Stefan depth (m)", func(v float64) string { return fixed(v, 2) }},
 	{"modified_berggren_depth_m", "Modified Berggren depth (m)", func(v float64) string { return fixed(v, 2) }},
 	{"freezing_index_Cd", "Air freezing index (°C·d)", func(v float64) string { return fixed(v, 0) }},
+	{"operative_max_C", "Peak operative temperature (°C)", func(v float64) string { return fixed(v, 2) }},
+	{"air_max_C", "Peak room air temperature (°C)", func(v float64) string { return fixed(v, 2) }},
+	{"exact_air_max_C", "Exact peak air temperature (°C)", func(v float64) string { return fixed(v, 2) }},
+	{"hours_above_h", "Hours a day above the first threshold (h)", func(v float64) string { return fixed(v, 1) }},
+	{"mass_peak_reduction_K", "Peak lowered by the mass (K)", func(v float64) string { return fixed(v, 2) }},
 }
 
 // nameUnit splits a label "Name (unit)" into a lower-case name for a

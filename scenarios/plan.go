@@ -33,10 +33,6 @@ type runPlan struct {
 // calls the same checks first, so a scenario that Check accepts does not
 // fail them in Run.
 func Check(s *Scenario) error {
-	if s.Kind == Room {
-		_, err := s.roomPlan()
-		return err
-	}
 	if _, err := s.plan(); err != nil {
 		return err
 	}
@@ -46,6 +42,10 @@ func Check(s *Scenario) error {
 // plan runs every check that Run needs before solving and says what runs.
 // It changes nothing in s (the decoder resolved the defaults).
 func (s *Scenario) plan() (*runPlan, error) {
+	if s.Kind == Room {
+		_, err := s.roomPlan() // roomrun.go
+		return &runPlan{}, err
+	}
 	p := &runPlan{col: s.column()}
 	if s.Kind == Ground {
 		p.col.InsideResistance = 0

@@ -103,7 +103,7 @@ var (
 	windowKeys      = []string{"name", "area", "u_value", "g_value", "irradiance"}
 	roomOutsideKeys = []string{"temperature"}
 	// wallOnlyKeys are top keys of the wall and ground kinds that a room does not take.
-	wallOnlyKeys = []string{"orientation", "layers", "inside", "surface", "bottom", "analysis", "variants", "sweep", "target", "uncertainty"}
+	wallOnlyKeys = []string{"orientation", "layers", "inside", "surface", "bottom", "analysis"}
 )
 
 // DefaultThresholds are the temperatures (degC) whose hours above a room
@@ -128,8 +128,6 @@ func (d *decoder) decodeRoom(top *object, s *Scenario) {
 			switch k {
 			case "layers", "orientation":
 				msg += "; each element has its own (elements[i].layers, elements[i].orientation)"
-			case "variants", "sweep", "target", "uncertainty":
-				msg += " in this version"
 			}
 			top.failf(k, "%s", msg)
 		}

@@ -3,6 +3,7 @@ package scenarios
 import (
 	"context"
 	"math"
+	"strconv"
 	"strings"
 	"testing"
 	"testing/fstest"
@@ -182,5 +183,50 @@ func TestRoomDecodeErrors(t *testing.T) {
 `, "    construction: nowhere.yaml\n", 1)
 	if _, err := DecodeFS("room.yaml", []byte(src), fstest.MapFS{}); err == nil || !strings.Contains(err.Error(), "cannot read") {
 		t.Errorf("missing construction file: got %v", err)
+	}
+}
+
+// A target on a room quantity: the night ventilation rate found keeps the
+// peak operative temperature at the goal, and a rate one tolerance step
+// lower does not (the peak falls as the night ventilation rises).
+func TestRoomTargetNightVentilation(t *testing.T) {
+	src := strings.Replace(roomYAML, "  ventilation: 0.8", "  ventilation: {day: 0.8, night: 1, night_from: 22, night_to: 7}", 1) + `target:
+  parameter: room.ventilation.night
+  from: 1
+  to: 12
+  quantity: operative_max_C
+  at_most: 31
+  tolerance: 0.01
+`
+	s, err := DecodeFS("room.yaml", []byte(src), fstest.MapFS{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Run(context.Background(), s, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tg := r.Target
+	if tg == nil || !tg.Met {
+		t.Fatalf("target not met: %+v", tg)
+	}
+	peakAt := func(v float64) float64 {
+		t.Helper()
+		src := strings.Replace(roomYAML, "  ventilation: 0.8", "  ventilation: {day: 0.8, night: "+strconv.FormatFloat(v, 'g', -1, 64)+", night_from: 22, night_to: 7}", 1)
+		s, err := DecodeFS("room.yaml", []byte(src), fstest.MapFS{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		r, err := Run(context.Background(), s, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r.Room.Simulation.OperativeMax_C
+	}
+	if p := peakAt(tg.Value); p > 31+1e-9 {
+		t.Errorf("at the found %g air changes the peak is %.4f degC, above 31", tg.Value, p)
+	}
+	if p := peakAt(tg.Value - 0.05); !(p > 31) {
+		t.Errorf("at %g air changes the peak is %.4f degC: the goal was already met", tg.Value-0.05, p)
 	}
 }

@@ -19,6 +19,7 @@ import (
 // decodeRoomDoc finishes the decoding of a room scenario.
 func (d *decoder) decodeRoomDoc(top *object, s *Scenario, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*Scenario, error) {
 	d.decodeRoom(top, s)
+	d.decodeStudy(top, s)
 	if err := d.err(); err != nil {
 		return nil, err
 	}
@@ -26,7 +27,27 @@ func (d *decoder) decodeRoomDoc(top *object, s *Scenario, root *yaml.Node, fsys 
 	if _, err := s.roomPlan(); err != nil {
 		return nil, err
 	}
+	if err := checkStudy(s); err != nil {
+		return nil, err
+	}
 	return s, nil
+}
+
+// runRoomStudy runs a room scenario and its study, if any.
+func runRoomStudy(s *run) (*results.Results, error) {
+	if err := planStudy(s.Scenario); err != nil {
+		return nil, err
+	}
+	r, err := runRoom(s.ctx, s.Scenario)
+	if err != nil {
+		return nil, err
+	}
+	if s.Study != nil {
+		if err := runStudy(s, r); err != nil {
+			return nil, err
+		}
+	}
+	return r, nil
 }
 
 // roomPlan is what a room run solves: the room with its elements' mass
@@ -113,6 +134,15 @@ func (s *Scenario) roomPlan() (*roomPlan, error) {
 	}
 	if err := p.room.Validate(); err != nil {
 		return nil, &Error{File: s.File, Key: "elements", Err: err}
+	}
+	hold := hMean
+	for _, e := range p.room.Elements {
+		if e.Back == solver.BackOutside {
+			hold += e.Area * e.U()
+		}
+	}
+	if !(hold > 0) {
+		return nil, &Error{File: s.File, Line: rs.Line, Key: "room", Msg: "nothing joins the room to the outdoors, so its mean temperature is not defined: give ventilation, a window or an element backed by the outside"}
 	}
 	p.period = climate.Day
 	for _, h := range periods {

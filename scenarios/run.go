@@ -49,7 +49,7 @@ func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, err
 	s := &run{Scenario: sc, ctx: ctx, opts: opts}
 	progress := opts.Progress
 	if s.Kind == Room {
-		return runRoom(ctx, sc)
+		return runRoomStudy(s)
 	}
 	if s.Kind != Wall && s.Kind != Ground {
 		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}

@@ -130,6 +130,46 @@ var quantities = []studyQuantity{
 	{"freezing_index_Cd", Ground, func(r *results.Results) (float64, bool) {
 		return frostQ(r, func(f *results.Frost) *float64 { return f.FreezingIndex_Cd }, true)
 	}},
+	// Room quantities (roomrun.go): the simulated last cycle, the exact
+	// periodic peak, the hours above the first threshold and what the
+	// elements' mass takes off the peak.
+	{"operative_max_C", Room, func(r *results.Results) (float64, bool) {
+		return roomQ(r, func(rm *results.RoomResult) *float64 { return &rm.Simulation.OperativeMax_C })
+	}},
+	{"air_max_C", Room, func(r *results.Results) (float64, bool) {
+		return roomQ(r, func(rm *results.RoomResult) *float64 { return &rm.Simulation.AirMax_C })
+	}},
+	{"exact_air_max_C", Room, func(r *results.Results) (float64, bool) {
+		return roomQ(r, func(rm *results.RoomResult) *float64 { return &rm.Periodic.AirMax_C })
+	}},
+	{"hours_above_h", Room, func(r *results.Results) (float64, bool) {
+		return roomQ(r, func(rm *results.RoomResult) *float64 {
+			if len(rm.Simulation.HoursAbove) == 0 {
+				return nil
+			}
+			return &rm.Simulation.HoursAbove[0].Hours
+		})
+	}},
+	{"mass_peak_reduction_K", Room, func(r *results.Results) (float64, bool) {
+		return roomQ(r, func(rm *results.RoomResult) *float64 {
+			if rm.MassRemoved == nil {
+				return nil
+			}
+			return rm.MassRemoved.PeakReduction_K
+		})
+	}},
+}
+
+// roomQ reads a room quantity; not computed without a room simulation.
+func roomQ(r *results.Results, f func(*results.RoomResult) *float64) (float64, bool) {
+	if r.Room == nil || r.Room.Simulation == nil {
+		return math.NaN(), false
+	}
+	v := f(r.Room)
+	if v == nil {
+		return math.NaN(), false
+	}
+	return *v, true
 }
 
 // readQuantity reads the quantity called name from r; false when it is

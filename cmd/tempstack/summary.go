@@ -170,6 +170,9 @@ func headlineKeys(r *results.Results) []string {
 	if r.Kind == results.Ground {
 		keys = []string{"max_frost_depth_m", "stefan_depth_m", "modified_berggren_depth_m"}
 	}
+	if r.Kind == results.Room {
+		keys = []string{"operative_max_C", "hours_above_h", "mass_peak_reduction_K"}
+	}
 	if t := r.Target; t != nil && !contains(keys, t.Quantity) {
 		keys = append(keys, t.Quantity)
 	}

@@ -26,6 +26,11 @@ var quantityInfo = map[string]QuantityInfo{
 	"stefan_depth_m":                    {"Stefan depth", "m", 2},
 	"modified_berggren_depth_m":         {"modified Berggren depth", "m", 2},
 	"freezing_index_Cd":                 {"air freezing index", "degC day", 0},
+	"operative_max_C":                   {"peak operative temperature", "degC", 2},
+	"air_max_C":                         {"peak room air temperature", "degC", 2},
+	"exact_air_max_C":                   {"exact periodic peak air temperature", "degC", 2},
+	"hours_above_h":                     {"hours a day above the first threshold", "h", 1},
+	"mass_peak_reduction_K":             {"peak lowered by the mass", "K", 2},
 }
 
 // Quantity returns how the study quantity key is named and printed. An
