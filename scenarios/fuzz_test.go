@@ -72,15 +72,29 @@ func checkScenario(t *testing.T, s *Scenario) {
 	if s == nil {
 		t.Fatal("nil scenario without error")
 	}
-	if len(s.Layers) == 0 {
-		t.Fatal("scenario without layers")
-	}
 	finite := func(what string, v float64) {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			t.Fatalf("%s is %g after decoding", what, v)
 		}
 	}
-	for i, l := range s.Layers {
+	all := s.Layers
+	if rs := s.Room; s.Kind == Room {
+		// A room: its elements carry the layers.
+		if rs == nil || len(rs.Elements) == 0 {
+			t.Fatal("room without elements")
+		}
+		finite("the volume", rs.Volume)
+		for _, e := range rs.Elements {
+			if len(e.Layers) == 0 {
+				t.Fatalf("element %s without layers", e.Name)
+			}
+			finite("an element's area", e.Area)
+			all = append(all, e.Layers...)
+		}
+	} else if len(s.Layers) == 0 {
+		t.Fatal("scenario without layers")
+	}
+	for i, l := range all {
 		for _, v := range []float64{l.Thickness, l.Conductivity, l.Density, l.SpecificHeat, l.Resistance} {
 			finite("a value of layer "+l.Name, v)
 		}
@@ -161,6 +175,10 @@ func FuzzRun(f *testing.F) {
 		}
 		s.Analysis.Simulate = nil
 		s.Analysis.StepResponse = nil
+		if s.Room != nil {
+			// A room always simulates: keep it short (no warm-up, hourly steps).
+			s.Room.WarmUp, s.Room.Step = 0, 3600
+		}
 		type outcome struct {
 			r   *results.Results
 			err error
