@@ -456,3 +456,27 @@ func BenchmarkRoomSimulate(b *testing.B) {
 	b.ReportMetric(float64(cells), "cells")
 	b.ReportMetric(b.Elapsed().Seconds()*1e3/float64(b.N), "ms/run")
 }
+
+// The admittance of an adiabatic-backed element with asymmetric layers,
+// -(Z21/Z22) seen from the room, equals the heat flux into the element
+// that HarmonicInsulated (the profile sweep, a separate implementation of
+// the ISO 13786 chain) gives for the column reversed and forced from the
+// room side with a unit air temperature amplitude. [derived]
+func TestRoomAdiabaticAdmittanceAsymmetric(t *testing.T) {
+	col := Column{Layers: []Layer{rtInsul, rtConcrete, rtPlaster}, OutsideResistance: 0.13, InsideResistance: 0.13}
+	room := Room{Conductance: 10, Elements: []RoomElement{{Name: "slab on insulation", Area: 1, Column: col, Back: BackAdiabatic}}}
+	for _, per := range []float64{rtDay, rtDay / 3, 7 * rtDay} {
+		h, err := RoomHarmonic(room, per, RoomForcing{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		rc := Column{OutsideResistance: col.InsideResistance, Layers: []Layer{rtPlaster, rtConcrete, rtInsul}}
+		_, q, err := HarmonicInsulated(rc, per, 1, []float64{0})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if d := cmplx.Abs(h.Admittance[0] - q[0]); d > 1e-9*cmplx.Abs(q[0]) {
+			t.Errorf("period %g h: admittance %v, reversed-column flux %v W/(m2 K)", per/3600, h.Admittance[0], q[0])
+		}
+	}
+}
