@@ -380,6 +380,10 @@ func checkCommand() *cli.Command {
 			if err := scenarios.Check(s); err != nil {
 				return asUserError(err)
 			}
+			if s.Room != nil {
+				fmt.Fprintf(c.App.Writer, "%s: ok: %s scenario %q, %d elements, %d windows\n", s.File, s.Kind, s.Title, len(s.Room.Elements), len(s.Room.Windows))
+				return nil
+			}
 			fmt.Fprintf(c.App.Writer, "%s: ok: %s scenario %q, %d layers\n", s.File, s.Kind, s.Title, len(s.Layers))
 			return nil
 		},
