@@ -159,8 +159,8 @@ func (d *decoder) decodeRoom(top *object, s *Scenario) {
 		}
 		d.decodeVentilation(ro, rs)
 		d.decodeGains(ro, rs)
-		if ro.positive("step", layers.Duration, &rs.Step) && (rs.Step > 3600 || 3600/rs.Step != float64(int(3600/rs.Step+0.5))) {
-			ro.failf("step", "the time step must divide one hour (e.g. 15 min, 30 min, 1 h)")
+		if ro.positive("step", layers.Duration, &rs.Step) && (rs.Step > 3600 || rs.Step < 60 || 3600/rs.Step != float64(int(3600/rs.Step+0.5))) {
+			ro.failf("step", "the time step must be at least a minute and divide one hour (e.g. 15 min, 30 min, 1 h)")
 		}
 		ro.nonNegative("warm_up", layers.Duration, &rs.WarmUp)
 		if rs.WarmUp > 400*climate.Day {
