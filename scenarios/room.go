@@ -28,8 +28,12 @@ type RoomSpec struct {
 	Windows     []Window
 	Thresholds  []float64 // degC, for the hours above
 	Step        float64   // s, time step of the simulation
-	WarmUp      float64   // s simulated before the reported cycle
-	Line        int       // line of the room key
+	WarmUp      float64   // s simulated before the reported cycle, when not WarmUpAuto
+	// WarmUpAuto (the default, warm_up: auto) repeats the cycle from the
+	// exact periodic state until it repeats itself within
+	// RoomSettleTolerance before the reported cycle.
+	WarmUpAuto bool
+	Line       int // line of the room key
 }
 
 // Ventilation is the outdoor air supply of a room, in air changes per
@@ -132,7 +136,7 @@ func (d *decoder) decodeRoom(top *object, s *Scenario) {
 			top.failf(k, "%s", msg)
 		}
 	}
-	rs := &RoomSpec{Thresholds: append([]float64(nil), DefaultThresholds...), Step: 900, WarmUp: 7 * climate.Day,
+	rs := &RoomSpec{Thresholds: append([]float64(nil), DefaultThresholds...), Step: 900, WarmUpAuto: true,
 		Ventilation: Ventilation{Day: 0.5}}
 	s.Room = rs
 	// outside: the outdoor air
@@ -162,9 +166,13 @@ func (d *decoder) decodeRoom(top *object, s *Scenario) {
 		if ro.positive("step", layers.Duration, &rs.Step) && (rs.Step > 3600 || rs.Step < 60 || 3600/rs.Step != float64(int(3600/rs.Step+0.5))) {
 			ro.failf("step", "the time step must be at least a minute and divide one hour (e.g. 15 min, 30 min, 1 h)")
 		}
-		ro.nonNegative("warm_up", layers.Duration, &rs.WarmUp)
-		if rs.WarmUp > 400*climate.Day {
-			ro.failf("warm_up", "a warm-up of more than 400 days is not needed")
+		if w, ok := ro.values["warm_up"]; !ok || w.Kind != yaml.ScalarNode || w.Value != "auto" {
+			if ro.nonNegative("warm_up", layers.Duration, &rs.WarmUp) {
+				rs.WarmUpAuto = false
+			}
+			if rs.WarmUp > 400*climate.Day {
+				ro.failf("warm_up", "a warm-up of more than 400 days is not needed")
+			}
 		}
 	}
 	d.decodeRoomElements(top, rs)

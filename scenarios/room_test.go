@@ -283,3 +283,23 @@ func TestHoursAboveSinusoid(t *testing.T) {
 		t.Errorf("below the trough: %g s, want the whole day", got)
 	}
 }
+
+// warm_up: auto settles a heavy room with night ventilation to the cycle a
+// long fixed warm-up reaches (60 days): the same simulation, repeated.
+func TestRoomWarmUpAuto(t *testing.T) {
+	src := strings.Replace(roomYAML, "  ventilation: 0.8", "  ventilation: {day: 0.8, night: 5, night_from: 22, night_to: 7}", 1)
+	auto := runRoomYAML(t, src, nil)
+	long := runRoomYAML(t, strings.Replace(src, "  volume: 60", "  volume: 60\n  warm_up: 60 d", 1), nil)
+	short := runRoomYAML(t, strings.Replace(src, "  volume: 60", "  volume: 60\n  warm_up: 0", 1), nil)
+	if d := math.Abs(auto.simMax - long.simMax); d > 0.01 {
+		t.Errorf("auto warm-up peak %.4f, 60 days %.4f degC", auto.simMax, long.simMax)
+	}
+	if d := math.Abs(auto.simMin - long.simMin); d > 0.01 {
+		t.Errorf("auto warm-up minimum %.4f, 60 days %.4f degC", auto.simMin, long.simMin)
+	}
+	rm := auto.r.(*results.Results).Room
+	if !rm.Simulation.Settled || rm.Simulation.SettleCycles < 2 {
+		t.Errorf("settled %v after %d cycles", rm.Simulation.Settled, rm.Simulation.SettleCycles)
+	}
+	t.Logf("peak: auto %.4f (%d cycles), 60 d %.4f, no warm-up %.4f degC", auto.simMax, rm.Simulation.SettleCycles, long.simMax, short.simMax)
+}

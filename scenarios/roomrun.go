@@ -329,6 +329,10 @@ func (p *roomPlan) cellsAt(r solver.Room, meshes []*solver.Mesh, x *roomExact, t
 	return out, air, nil
 }
 
+// RoomSettleTolerance is the largest change (K) of the air or any cell
+// over one cycle at which a room counts as settled (warm_up: auto).
+const RoomSettleTolerance = 0.002
+
 // roomSim is a simulation of a room and what is read from its last cycle.
 type roomSim struct {
 	res       *solver.RoomResult
@@ -342,15 +346,54 @@ func (p *roomPlan) simulate(ctx context.Context, s *Scenario, r solver.Room, mes
 		return nil, err
 	}
 	rs := s.Room
-	start := -rs.WarmUp
+	warm := rs.WarmUp
+	if rs.WarmUpAuto {
+		warm = 0
+	}
+	start := -warm
 	init, air, err := p.cellsAt(r, meshes, x, start)
 	if err != nil {
 		return nil, err
 	}
-	res, err := solver.RoomSimulate(solver.RoomProblem{
+	prob := solver.RoomProblem{
 		Room: r, Meshes: meshes, Outdoor: p.outdoor, Back: p.back, Gains: p.gains, Conductance: p.cond,
-		InitialAir: air, Initial: init, Start: start, Duration: rs.WarmUp + p.period, Step: rs.Step, SampleEvery: rs.Step,
-	})
+		InitialAir: air, Initial: init, Start: start, Duration: warm + p.period, Step: rs.Step, SampleEvery: rs.Step,
+	}
+	cycles, settled, change := 0, !rs.WarmUpAuto, 0.0
+	if rs.WarmUpAuto {
+		// Settle: repeat the cycle from the exact periodic state until the
+		// air and every cell repeat within RoomSettleTolerance. The exact
+		// state is the periodic answer of the linear room; night
+		// ventilation and the clipped sun move it, by up to tenths of a
+		// kelvin in a heavy room, over a week or more.
+		maxCycles := int(math.Max(1, math.Min(200, math.Floor(3*climate.Year/p.period))))
+		cyc := prob
+		cyc.SampleEvery = p.period
+		for cycles < maxCycles {
+			if err := ctx.Err(); err != nil {
+				return nil, err
+			}
+			res, err := solver.RoomSimulate(cyc)
+			if err != nil {
+				return nil, err
+			}
+			cycles++
+			change = math.Abs(res.FinalAir - cyc.InitialAir)
+			for k := range res.Final {
+				for i, v := range res.Final[k] {
+					change = math.Max(change, math.Abs(v-cyc.Initial[k][i]))
+				}
+			}
+			cyc.Initial, cyc.InitialAir = res.Final, res.FinalAir
+			if change < RoomSettleTolerance {
+				settled = true
+				break
+			}
+		}
+		prob.Initial, prob.InitialAir = cyc.Initial, cyc.InitialAir
+		warm = float64(cycles) * p.period
+	}
+	res, err := solver.RoomSimulate(prob)
 	if err != nil {
 		return nil, err
 	}
@@ -385,8 +428,17 @@ func (p *roomPlan) simulate(ctx context.Context, s *Scenario, r solver.Room, mes
 		sm.HoursAbove = append(sm.HoursAbove, results.HoursAbove{Threshold_C: th, Hours: hoursAbove(res.Times[first:], sim.operative[first:], th) / 3600 / days})
 	}
 	sm.HoursAboveBasis = "operative temperature"
+	last := len(res.Times) - 1
+	sm.CycleChange_K = math.Abs(res.Air[last] - res.Air[first])
+	for e := range r.Elements {
+		sm.CycleChange_K = math.Max(sm.CycleChange_K, math.Abs(res.Surface[e][last]-res.Surface[e][first]))
+	}
 	sm.EnergyBalanceRelativeError = res.Energy.RelativeError
-	sm.Step_h, sm.WarmUp_h, sm.Cycle_h = rs.Step/3600, rs.WarmUp/3600, p.period/3600
+	sm.Step_h, sm.WarmUp_h, sm.Cycle_h = rs.Step/3600, warm/3600, p.period/3600
+	sm.SettleCycles, sm.Settled = cycles, settled
+	if rs.WarmUpAuto {
+		sm.SettleChange_K = &change
+	}
 	for _, m := range meshes {
 		if m != nil {
 			sm.Cells += m.Cells()
@@ -520,6 +572,12 @@ func runRoom(ctx context.Context, sc *Scenario) (*results.Results, error) {
 		mr.HoursSaved = append(mr.HoursSaved, results.HoursAbove{Threshold_C: h.Threshold_C, Hours: simb.summary.HoursAbove[i].Hours - h.Hours})
 	}
 	mr.Statement = massStatement(sim.summary, simb.summary, dp)
+	if c := sim.summary.CycleChange_K; c > 0.05 {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("the simulated cycle does not yet repeat: the room changes by %.2f K from its start to its end; lengthen room.warm_up (or leave it to auto)", c))
+	}
+	if !sim.summary.Settled {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("the room did not settle within %d cycles (last change %.3f K); the reported cycle may still drift", sim.summary.SettleCycles, *sim.summary.SettleChange_K))
+	}
 	rm.MassRemoved = mr
 	rm.Notes = append(rm.Notes, "Comfort criteria (which temperature, which thresholds, how many hours) are set by local guidance; the thresholds here are inputs, not a verdict.")
 	roomSeries(rm, p, x, xb, sim, simb)

@@ -108,10 +108,22 @@ type RoomSimulation struct {
 	HoursAboveBasis            string       `json:"hours_above_basis"` // operative temperature
 	EnergyBalanceRelativeError float64      `json:"energy_balance_relative_error"`
 	Step_h                     float64      `json:"step_h"`
-	WarmUp_h                   float64      `json:"warm_up_h"`
-	Cycle_h                    float64      `json:"cycle_h"`
-	Cells                      int          `json:"cells"`
-	Paths                      []RoomPath   `json:"paths"`
+	WarmUp_h                   float64      `json:"warm_up_h"` // simulated before the reported cycle
+	// SettleCycles are the cycles repeated before the reported one
+	// (warm_up: auto) until the room repeated itself within
+	// SettleTolerance; SettleChange_K is the change of the last of them
+	// (null for a fixed warm-up); Settled is false when the cycles ran out
+	// first (true for a fixed warm-up: nothing was sought).
+	SettleCycles   int      `json:"settle_cycles"`
+	SettleChange_K *float64 `json:"settle_change_K"`
+	Settled        bool     `json:"settled"`
+	Cycle_h        float64  `json:"cycle_h"`
+	Cells          int      `json:"cells"`
+	// CycleChange_K is the largest change of the air or an inside surface
+	// temperature between the start and the end of the reported cycle: 0
+	// when the cycle repeats (the warm-up was long enough).
+	CycleChange_K float64    `json:"cycle_change_K"`
+	Paths         []RoomPath `json:"paths"`
 }
 
 // RoomMassRemoved compares the room with the same room without the heat
