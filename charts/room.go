@@ -120,7 +120,7 @@ func roomFigure(rm *results.RoomResult) *figure {
 	const rowH, left, barMax = 30.0, 250.0, 380.0
 	h := rowH*float64(len(bars)) + 20
 	var b strings.Builder
-	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %d %s" width="100%%" role="img" aria-label="Elements of the room by area">`, svgWidth, fixed(h, 0))
+	fmt.Fprintf(&b, `<svg class="xsec" viewBox="0 0 %d %s" role="img" aria-label="Elements of the room by area">`, svgWidth, fixed(h, 0))
 	for i, x := range bars {
 		y := 10 + rowH*float64(i)
 		fill, ink := "#D6EBF8", "#0072B2" // outside
@@ -137,10 +137,10 @@ func roomFigure(rm *results.RoomResult) *figure {
 		if r := []rune(name); len(r) > 32 {
 			name = string(r[:31]) + "…"
 		}
-		fmt.Fprintf(&b, `<text x="%s" y="%s" font-size="12" text-anchor="end">%s</text>`, fixed(left-8, 0), fixed(y+15, 1), html.EscapeString(name))
+		fmt.Fprintf(&b, `<text x="%s" y="%s" text-anchor="end">%s</text>`, fixed(left-8, 0), fixed(y+15, 1), html.EscapeString(name))
 		fmt.Fprintf(&b, `<rect x="%s" y="%s" width="%s" height="%s" fill="%s" stroke="%s"><title>%s</title></rect>`,
 			fixed(left, 0), fixed(y+2, 1), fixed(w, 1), fixed(rowH-8, 1), fill, ink, html.EscapeString(x.name+": "+x.kind))
-		fmt.Fprintf(&b, `<text x="%s" y="%s" font-size="12">%s m² · %s</text>`, fixed(left+w+6, 1), fixed(y+15, 1), fixed(x.area, 1), html.EscapeString(x.kind))
+		fmt.Fprintf(&b, `<text x="%s" y="%s">%s m² · %s</text>`, fixed(left+w+6, 1), fixed(y+15, 1), fixed(x.area, 1), html.EscapeString(x.kind))
 	}
 	b.WriteString(`</svg>`)
 	return &figure{
