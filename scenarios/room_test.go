@@ -303,3 +303,24 @@ func TestRoomWarmUpAuto(t *testing.T) {
 	}
 	t.Logf("peak: auto %.4f (%d cycles), 60 d %.4f, no warm-up %.4f degC", auto.simMax, rm.Simulation.SettleCycles, long.simMax, short.simMax)
 }
+
+// The sun through a window is clipped at night: the mean solar gain is
+// g A times the mean of max(0, m + a cos), which for |m| < a is
+// (m arccos(-m/a) + sqrt(a^2 - m^2)) / pi. [derived]
+func TestRoomWindowSunClipped(t *testing.T) {
+	src := strings.Replace(roomYAML, "irradiance: {mean: 100, daily: {amplitude: 100, peak_hour: 14}}", "irradiance: {mean: 80, daily: {amplitude: 200, peak_hour: 14}}", 1)
+	if src == roomYAML {
+		t.Fatal("replacement failed")
+	}
+	x := runRoomYAML(t, src, nil)
+	m, a := 80.0, 200.0
+	clipped := (m*math.Acos(-m/a) + math.Sqrt(a*a-m*m)) / math.Pi
+	want := 150 + 0.5*4*clipped
+	rm := x.r.(*results.Results).Room
+	if math.Abs(rm.GainsMean_W-want) > 1e-3*want {
+		t.Errorf("mean gains %.3f W, by hand %.3f W (internal 150 W + g A mean(max(0, I)))", rm.GainsMean_W, want)
+	}
+	if math.Abs(rm.Windows[0].SolarMean_W-0.5*4*clipped) > 1e-3*want {
+		t.Errorf("window solar mean %.3f W, by hand %.3f W", rm.Windows[0].SolarMean_W, 0.5*4*clipped)
+	}
+}
