@@ -46,7 +46,7 @@ windows:
   - {name: window, area: 4, u_value: 1.2, g_value: 0.5, irradiance: {mean: 100, daily: {amplitude: 100, peak_hour: 14}}}
 `
 
-func runRoomYAML(t *testing.T, src string, fsys fstest.MapFS) *roomResultT {
+func runRoomYAML(t *testing.T, src string, fsys fstest.MapFS) *roomOutcome {
 	t.Helper()
 	s, err := DecodeFS("room.yaml", []byte(src), fsys)
 	if err != nil {
@@ -59,13 +59,16 @@ func runRoomYAML(t *testing.T, src string, fsys fstest.MapFS) *roomResultT {
 	if r.Room == nil {
 		t.Fatal("no room result")
 	}
-	return &roomResultT{r.Room.Periodic.AirMax_C, r.Room.Periodic.AirMin_C, r.Room.Simulation.AirMax_C, r.Room.Simulation.AirMin_C,
+	return &roomOutcome{r.Room.Periodic.AirMax_C, r.Room.Periodic.AirMin_C, r.Room.Simulation.AirMax_C, r.Room.Simulation.AirMin_C,
 		r.Room.Simulation.EnergyBalanceRelativeError, r.Room.Periodic.AirMean_C, *r.Room.MassRemoved.PeakReduction_K, r}
 }
 
-type roomResultT struct {
+// roomOutcome is what the room tests read from a run: air extremes of the
+// exact solution and of the simulation (degC), the energy balance, the
+// exact mean (degC), what the mass takes off the peak (K) and the results.
+type roomOutcome struct {
 	exMax, exMin, simMax, simMin, energy, mean, peakCut float64
-	r                                                   any
+	r                                                   *results.Results
 }
 
 // A room scenario under harmonic forcing: the coupled simulation's last
@@ -117,7 +120,7 @@ windows:
 	// averaged with the air.
 	wallSurf := want - 0.13*u*(want-10)
 	op := (want + (20*wallSurf+16*want)/36) / 2
-	rm := x.r.(*results.Results).Room
+	rm := x.r.Room
 	for name, v := range map[string]float64{"exact": rm.Periodic.OperativeMax_C, "simulated": rm.Simulation.OperativeMax_C} {
 		if math.Abs(v-op) > 1e-6 {
 			t.Errorf("%s operative %.9f degC, by hand %.9f", name, v, op)
@@ -297,7 +300,7 @@ func TestRoomWarmUpAuto(t *testing.T) {
 	if d := math.Abs(auto.simMin - long.simMin); d > 0.01 {
 		t.Errorf("auto warm-up minimum %.4f, 60 days %.4f degC", auto.simMin, long.simMin)
 	}
-	rm := auto.r.(*results.Results).Room
+	rm := auto.r.Room
 	if !rm.Simulation.Settled || rm.Simulation.SettleCycles < 2 {
 		t.Errorf("settled %v after %d cycles", rm.Simulation.Settled, rm.Simulation.SettleCycles)
 	}
@@ -316,7 +319,7 @@ func TestRoomWindowSunClipped(t *testing.T) {
 	m, a := 80.0, 200.0
 	clipped := (m*math.Acos(-m/a) + math.Sqrt(a*a-m*m)) / math.Pi
 	want := 150 + 0.5*4*clipped
-	rm := x.r.(*results.Results).Room
+	rm := x.r.Room
 	if math.Abs(rm.GainsMean_W-want) > 1e-3*want {
 		t.Errorf("mean gains %.3f W, by hand %.3f W (internal 150 W + g A mean(max(0, I)))", rm.GainsMean_W, want)
 	}
