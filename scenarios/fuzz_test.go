@@ -177,7 +177,7 @@ func FuzzRun(f *testing.F) {
 		s.Analysis.StepResponse = nil
 		if s.Room != nil {
 			// A room always simulates: keep it short (no warm-up, hourly steps).
-			s.Room.WarmUp, s.Room.Step = 0, 3600
+			s.Room.WarmUp, s.Room.WarmUpAuto, s.Room.Step = 0, false, 3600
 		}
 		type outcome struct {
 			r   *results.Results
