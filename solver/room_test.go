@@ -397,7 +397,19 @@ func TestRoomAdiabaticSlabHand(t *testing.T) {
 	if cmplx.Abs(h.Air-wantAir) > 1e-9 {
 		t.Errorf("air amplitude %v K, hand calculation %v K", h.Air, wantAir)
 	}
-	t.Logf("slab 0.2 m concrete: |Y| = %.3f W/(m2 K), air swing %.3f K of outdoor %.1f K", cmplx.Abs(y), cmplx.Abs(wantAir), amp)
+	// Worked by hand (4-5 digits) [derived]: a = 1e-6 m2/s, delta =
+	// sqrt(a P/pi) = 0.16583 m, xi = 1.2060; tanh((1+i) xi) = (sinh 2xi +
+	// i sin 2xi)/(cosh 2xi + cos 2xi) = (5.5331 + 0.6672i)/4.8779 =
+	// 1.1343 + 0.1368i; lambda k = 12.060 (1+i); Ys = 12.030 + 15.330i;
+	// Y = Ys/(1 + 0.13 Ys) = 5.822 + 1.454i, |Y| = 6.001 W/(m2 K);
+	// omega C = 5.236 W/K, A Y = 145.55 + 36.34i, so
+	// |theta_i| = 40 x 5 / |185.55 + 41.58i| = 200/190.15 = 1.0518 K.
+	if d := math.Abs(cmplx.Abs(h.Admittance[0])/area - 6.001); d > 0.002 {
+		t.Errorf("|Y| = %.4f W/(m2 K), by hand 6.001", cmplx.Abs(h.Admittance[0])/area)
+	}
+	if d := math.Abs(cmplx.Abs(h.Air) - 1.0518); d > 0.0005 {
+		t.Errorf("air swing %.4f K, by hand 1.0518 K", cmplx.Abs(h.Air))
+	}
 }
 
 // Bad rooms are refused with an error, not a panic.
