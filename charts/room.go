@@ -7,13 +7,15 @@ import (
 	"strings"
 
 	ec "github.com/go-echarts/go-echarts/v2/charts"
+	"github.com/go-echarts/go-echarts/v2/opts"
 
 	"tempstack/scenarios/results"
 )
 
 // Chart ids of the room report.
 const (
-	idRoomDay = "chart-room-day"
+	idRoomDay     = "chart-room-day"
+	idRoomSurface = "chart-room-surface"
 )
 
 // buildRoom assembles the report of a room run (kind: room): the
@@ -44,6 +46,14 @@ func buildRoom(p *page, r *results.Results) ([]*chartSpec, error) {
 	if c != nil {
 		specs = append(specs, c)
 		temp.Blocks = append(temp.Blocks, block{Chart: c})
+	}
+	cs, err := roomSurfaceChart(rm)
+	if err != nil {
+		return nil, err
+	}
+	if cs != nil {
+		specs = append(specs, cs)
+		temp.Blocks = append(temp.Blocks, block{Chart: cs})
 	}
 	temp.Blocks = append(temp.Blocks, block{Table: roomPeakTable(rm)}, block{Table: roomHoursTable(rm)})
 
@@ -270,8 +280,22 @@ func roomDayChart(rm *results.RoomResult) (*chartSpec, error) {
 	}
 	ct := scaled(s.CycleTime_h, f)
 	thinned := false
+	var marks []ec.SeriesOpts
+	if len(rm.Thresholds_C) > 0 {
+		var items []opts.MarkLineNameYAxisItem
+		for _, th := range rm.Thresholds_C {
+			if v := num(th); v != nil {
+				items = append(items, opts.MarkLineNameYAxisItem{Name: "threshold " + fixed(th, 1) + " °C", YAxis: v})
+			}
+		}
+		marks = append(marks, ec.WithMarkLineNameYAxisItemOpts(items...), ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
+			Symbol:    []string{"none", "none"},
+			LineStyle: &opts.LineStyle{Color: colGrey, Width: 1, Type: "dashed"},
+			Label:     &opts.Label{Show: opts.Bool(true), Formatter: "{b}", Position: "insideEndTop", Color: colGrey, FontSize: 11},
+		}))
+	}
 	for _, l := range []line{
-		{name: "Outdoor air", x: ct, y: s.CycleOutdoor_C, color: colVermilion, width: 1.5},
+		{name: "Outdoor air", x: ct, y: s.CycleOutdoor_C, color: colVermilion, width: 1.5, opts: marks},
 		{name: "Room air, exact", x: ct, y: s.CycleAir_C, color: colSky, dash: "dashed"},
 		{name: "Room air, simulated", x: st, y: sa, color: colBlue},
 		{name: "Operative, exact", x: ct, y: s.CycleOperative_C, color: colOrange, dash: "dashed"},
@@ -284,8 +308,48 @@ func roomDayChart(rm *results.RoomResult) (*chartSpec, error) {
 		l.xUnit, l.yUnit = xu, uDegC
 		thinned = addLine(c, l) || thinned
 	}
-	caption := "Room temperatures over one cycle: the exact periodic solution (dashed; it takes the ventilation's daily mean) and the last cycle of the coupled simulation (solid), with the operative temperature of the same room without the elements' heat capacity (dotted)."
+	caption := "Room temperatures over one cycle: the exact periodic solution (dashed; it takes the ventilation's daily mean) and the last cycle of the coupled simulation (solid), with the operative temperature of the same room without the elements' heat capacity (dotted). Grey dashed lines: the thresholds."
 	return finish(c, idRoomDay, caption, thinned)
+}
+
+// roomSurfaceChart draws the simulated inside surface temperature of each
+// element over the last cycle, with the room air.
+func roomSurfaceChart(rm *results.RoomResult) (*chartSpec, error) {
+	s := rm.Series
+	if len(s.Time_h) == 0 || len(s.Surface_C) == 0 {
+		return nil, nil
+	}
+	span := rm.Periodic.Period_h
+	f, xu, xl := timeAxis(span)
+	c := newChart(idRoomSurface, "Inside surface temperatures, simulated ("+periodLabel(span)+" cycle)", "tipX", 56)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time in the cycle ("+xl+")", " "+xl, 0, num(span*f), false)),
+		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
+	)
+	var idx []int
+	var st []float64
+	for j, t := range s.Time_h {
+		if t >= s.CycleStart_h-1e-9 {
+			idx = append(idx, j)
+			st = append(st, (t-s.CycleStart_h)*f)
+		}
+	}
+	pick := func(v []float64) []float64 {
+		out := make([]float64, len(idx))
+		for i, j := range idx {
+			out[i] = v[j]
+		}
+		return out
+	}
+	colours := []string{colBlue, colOrange, colGreen, colPurple, colSky, colVermilion, colYellow}
+	thinned := addLine(c, line{name: "Room air", x: st, y: pick(s.Air_C), color: colBlack, width: 1.5, dash: "dashed", xUnit: xu, yUnit: uDegC})
+	for k, e := range rm.Elements {
+		if k >= len(s.Surface_C) {
+			break
+		}
+		thinned = addLine(c, line{name: e.Name, x: st, y: pick(s.Surface_C[k]), color: colours[k%len(colours)], xUnit: xu, yUnit: uDegC}) || thinned
+	}
+	return finish(c, idRoomSurface, "Inside surface temperature of each element (the wall side of its inside surface resistance) over the last simulated cycle, with the room air (dashed). A warm surface radiates to the occupants: the operative temperature averages these by area with the air.", thinned)
 }
 
 // roomMethods lists the methods of a room run.
