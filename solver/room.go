@@ -151,8 +151,8 @@ type RoomResponse struct {
 //
 // with the ISO 13786 transfer matrix Z of each element from its back
 // environment to the room air (Z = Z_se Z_layers Z_si, side 1 the room),
-// Y11 = -Z11/Z12 and Y12 = -1/Z12 in that standard's notation of
-// clause 7 (our Matrix states sides a and b); an adiabatic back (q_a = 0
+// Y11 = -Z11/Z12 and Y12 = -1/Z12 (ISO 13786, clause 7; in the terms of
+// Matrix, side b is the room and side a the back); an adiabatic back (q_a = 0
 // in [theta_a, q_a] = Z [theta_i, q_i]) leaves q_i = -(Z21/Z22) theta_i
 // flowing from the air into the element [derived]. For the mean,
 // Y11 = Y12 = U and an adiabatic element carries no heat. The inside

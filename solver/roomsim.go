@@ -369,9 +369,14 @@ func (rr *roomRun) solveStage(th, ra, da float64) float64 {
 	return ta
 }
 
-// elementRHS sets el.rhs = capc*(a t + b tn) + th * (net conduction of
-// the state t at the start, times expl) + th gOut tb at cell 0, for the
-// explicit part with air temperature ta0 and sources s0 when expl.
+// explicitRHS sets the right-hand side of the trapezoidal stage of a
+// massive element, per unit area (J/m2):
+//
+//	rhs = capc T^n + th f(T^n) + th gOut tb1 e_0
+//
+// with f the net inflow of each cell at the start of the step (conduction,
+// the back environment at tb0, the air at ta0) and tb1 the back
+// environment at the end of the stage (its implicit part).
 func (el *roomEl) explicitRHS(th, ta0, tb0, tb1 float64) {
 	n, t := el.n, el.t
 	fl := el.gOut * (tb0 - t[0])
