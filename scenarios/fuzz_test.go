@@ -91,6 +91,9 @@ func checkScenario(t *testing.T, s *Scenario) {
 			finite("an element's area", e.Area)
 			all = append(all, e.Layers...)
 		}
+		if rs.Outdoor == nil {
+			t.Fatal("room without an outdoor temperature")
+		}
 	} else if len(s.Layers) == 0 {
 		t.Fatal("scenario without layers")
 	}
@@ -107,7 +110,7 @@ func checkScenario(t *testing.T, s *Scenario) {
 			t.Fatalf("layer %d has a negative thickness or resistance", i+1)
 		}
 	}
-	if s.Outside.Temperature == nil {
+	if s.Outside.Temperature == nil && s.Kind != Room {
 		t.Fatal("no outside temperature")
 	}
 	for _, sd := range []Side{s.Outside, s.Inside} {

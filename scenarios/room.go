@@ -21,6 +21,7 @@ const AirHeatCapacity = 1200.0
 // RoomSpec is a room scenario (kind: room): one air node, its layered
 // elements, windows, ventilation and gains, in SI units.
 type RoomSpec struct {
+	Outdoor     *Forcing         // outdoor air temperature, degC: a mean and harmonics
 	Volume      float64          // m3
 	Ventilation Ventilation      // air changes
 	Gains       climate.Periodic // W delivered to the air: mean and harmonics
@@ -144,16 +145,15 @@ func (d *decoder) decodeRoom(top *object, s *Scenario) {
 		top.missing("outside", "the outdoor air, e.g. temperature: {mean: 22, daily: {amplitude: 7, peak_hour: 15}}")
 	} else if o := top.child("outside", roomOutsideKeys); o != nil {
 		if o.has("temperature") {
-			s.Outside.Temperature = d.decodeForcing(o, "temperature", forcingTemperature)
-			if f := s.Outside.Temperature; f != nil && (f.Measured != nil || f.Step != nil) {
+			rs.Outdoor = d.decodeForcing(o, "temperature", forcingTemperature)
+			if f := rs.Outdoor; f != nil && (f.Measured != nil || f.Step != nil) {
 				o.failf("temperature", "a room takes a mean and harmonics (daily, annual, harmonics) in this version")
-				s.Outside.Temperature = nil
+				rs.Outdoor = nil
 			}
 		} else {
 			o.missing("temperature", "the outdoor air temperature")
 		}
 	}
-	s.Outside.Condition = solver.Environment
 	if !top.has("room") {
 		top.missing("room", "volume, ventilation and gains of the room")
 	} else if ro := top.child("room", roomKeys); ro != nil {

@@ -68,7 +68,7 @@ type roomPlan struct {
 // roomPlan checks the room and builds its plan.
 func (s *Scenario) roomPlan() (*roomPlan, error) {
 	rs := s.Room
-	if rs == nil || s.Outside.Temperature == nil {
+	if rs == nil || rs.Outdoor == nil {
 		return nil, &Error{File: s.File, Key: "room", Msg: "the room or its outdoor temperature is missing"}
 	}
 	p := &roomPlan{}
@@ -82,7 +82,7 @@ func (s *Scenario) roomPlan() (*roomPlan, error) {
 	hMean := AirHeatCapacity*vol*vent.mean()/3600 + p.windowsUA
 	p.room = solver.Room{AirCapacity: ca, Conductance: hMean}
 	p.bare = p.room
-	outdoor := s.Outside.Temperature
+	outdoor := rs.Outdoor
 	p.outdoor = outdoor.At
 	periods := append([]climate.Harmonic(nil), outdoor.Harmonics...)
 	periods = append(periods, rs.Gains.Harmonics...)
@@ -105,8 +105,7 @@ func (s *Scenario) roomPlan() (*roomPlan, error) {
 		p.bare.Elements = append(p.bare.Elements, bare)
 		var env func(float64) float64
 		if e.Back == solver.BackOutside {
-			side := Side{Condition: solver.Environment, Temperature: outdoor, Resistance: rse, Solar: e.Solar}
-			env = side.env()
+			env = solAirOf(outdoor.At, e.Solar, rse)
 			if e.Solar != nil && e.Solar.Irradiance != nil {
 				periods = append(periods, e.Solar.Irradiance.Harmonics...)
 			}
@@ -180,6 +179,21 @@ func (s *Scenario) roomPlan() (*roomPlan, error) {
 		}
 	}
 	return p, nil
+}
+
+// solAirOf returns the environment temperature behind an element's back
+// face, degC at t (s): the air, or with sol the sol-air temperature
+// Ta + a I / he - sky correction, I clipped at 0, he = 1/rse (as the wall
+// kind's outside; climate.SolAir).
+func solAirOf(air func(float64) float64, sol *Solar, rse float64) func(float64) float64 {
+	if sol == nil || sol.Irradiance == nil {
+		return air
+	}
+	he := 1 / math.Max(rse, 1e-3)
+	irr := sol.Irradiance
+	return func(t float64) float64 {
+		return climate.SolAir(air(t), math.Max(0, irr.At(t)), sol.Absorptance, he, sol.SkyCorrection)
+	}
 }
 
 // roomExact is the exact periodic solution of a room.
@@ -582,7 +596,8 @@ func runRoom(ctx context.Context, sc *Scenario) (*results.Results, error) {
 	rm.Notes = append(rm.Notes, "Comfort criteria (which temperature, which thresholds, how many hours) are set by local guidance; the thresholds here are inputs, not a verdict.")
 	roomSeries(rm, p, x, xb, sim, simb)
 	r.Room = rm
-	r.Forcing = &results.ForcingInfo{Outside: sideInfo(sc.Outside)} // the outdoor air; each element's sun is in room.elements
+	// The outdoor air; each element's sun is in room.elements.
+	r.Forcing = &results.ForcingInfo{Outside: results.SideForcing{Kind: "harmonic", Mean_C: rs.Outdoor.Mean, Harmonics: harmonicsInfo(rs.Outdoor.Harmonics)}}
 	r.Cautions = append(results.CautionsWith(r, nil),
 		"One air node: the room is taken as well mixed; radiant exchange between surfaces is lumped into the inside surface resistances (ISO 6946), and the sun through the windows is delivered to the air.",
 		"Comfort criteria are set by local guidance; hours above a threshold here are a comparison between designs, not a compliance check.")
