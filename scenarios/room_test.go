@@ -327,3 +327,27 @@ func TestRoomWindowSunClipped(t *testing.T) {
 		t.Errorf("window solar mean %.3f W, by hand %.3f W", rm.Windows[0].SolarMean_W, 0.5*4*clipped)
 	}
 }
+
+// Constant sun on a wall: its back environment is the sol-air temperature
+// To + a I Rse (vertical: no sky correction; ASHRAE sol-air [memory]),
+// and the air is the steady balance (Phi + H To + A U Tsa)/(H + A U) by
+// hand. [derived]
+func TestRoomSolAirSteadyByHand(t *testing.T) {
+	src := `title: sunny steady room
+kind: room
+room: {volume: 40, ventilation: 0.5, gains: 300}
+outside:
+  temperature: 10
+elements:
+  - {name: wall, area: 20, layers: [{material: clay-brick, thickness: 0.2}], solar: {absorptance: 0.5, irradiance: 200}}
+`
+	x := runRoomYAML(t, src, nil)
+	brick, _ := layers.Lookup("clay-brick")
+	u := 1 / (0.13 + 0.2/brick.Conductivity + 0.04)
+	h := 1200 * 40 * 0.5 / 3600
+	tsa := 10 + 0.5*200*0.04
+	want := (300 + h*10 + 20*u*tsa) / (h + 20*u)
+	if math.Abs(x.mean-want) > 1e-6 || math.Abs(x.simMax-want) > 1e-6 {
+		t.Errorf("air: exact %.9f, simulated %.9f degC, by hand %.9f", x.mean, x.simMax, want)
+	}
+}
