@@ -206,6 +206,9 @@ func roomPeakTable(rm *results.RoomResult) *table {
 			t.row("Without the mass, simulated", fixed(s.AirMax_C, 2), fixed(s.AirMin_C, 2), fixed(s.OperativeMax_C, 2), fixed(s.OperativeMin_C, 2))
 		}
 	}
+	if s := rm.Simulation; s != nil && s.ExactCheck_K != nil {
+		t.Notes = append(t.Notes, fmt.Sprintf("Cross-check: simulated with the ventilation at its daily mean, as the exact method takes it, the room air departs from the exact periodic solution by at most %s K over the cycle.", sig(*s.ExactCheck_K, 2)))
+	}
 	t.Notes = append(t.Notes, "Operative temperature: "+rm.OperativeTemperature+".",
 		"Without the mass: every element keeps its U value but holds no heat; the air keeps its own heat capacity.")
 	if len(rm.Notes) > 0 {

@@ -301,6 +301,9 @@ func TestRoomWarmUpAuto(t *testing.T) {
 		t.Errorf("auto warm-up minimum %.4f, 60 days %.4f degC", auto.simMin, long.simMin)
 	}
 	rm := auto.r.Room
+	if c := rm.Simulation.ExactCheck_K; c == nil || !(*c < 0.01) {
+		t.Errorf("linear cross-check against the exact solution: %v K", c)
+	}
 	if !rm.Simulation.Settled || rm.Simulation.SettleCycles < 2 {
 		t.Errorf("settled %v after %d cycles", rm.Simulation.Settled, rm.Simulation.SettleCycles)
 	}

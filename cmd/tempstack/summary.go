@@ -261,6 +261,9 @@ func printRoom(w io.Writer, rm *results.RoomResult) {
 	if s := rm.Simulation; s != nil {
 		fmt.Fprintf(w, "  simulated (last cycle, %g h steps, %d cells): air %.1f to %.1f degC, operative %.1f to %.1f degC; energy balance error %.1e\n",
 			s.Step_h, s.Cells, s.AirMin_C, s.AirMax_C, s.OperativeMin_C, s.OperativeMax_C, s.EnergyBalanceRelativeError)
+		if c := s.ExactCheck_K; c != nil {
+			fmt.Fprintf(w, "  cross-check: with the ventilation at its mean the simulated air is within %.3f K of the exact solution\n", *c)
+		}
 		var parts []string
 		for _, h := range s.HoursAbove {
 			parts = append(parts, fmt.Sprintf("%g degC %.1f h", h.Threshold_C, h.Hours))

@@ -107,8 +107,13 @@ type RoomSimulation struct {
 	HoursAbove                 []HoursAbove `json:"hours_above"`
 	HoursAboveBasis            string       `json:"hours_above_basis"` // operative temperature
 	EnergyBalanceRelativeError float64      `json:"energy_balance_relative_error"`
-	Step_h                     float64      `json:"step_h"`
-	WarmUp_h                   float64      `json:"warm_up_h"` // simulated before the reported cycle
+	// ExactCheck_K is the largest difference between the exact periodic
+	// air temperature and the simulated one over the cycle, the room
+	// simulated as the exact method sees it (the ventilation at its daily
+	// mean): the numerical error of the simulation, for a settled cycle.
+	ExactCheck_K *float64 `json:"exact_check_K"`
+	Step_h       float64  `json:"step_h"`
+	WarmUp_h     float64  `json:"warm_up_h"` // simulated before the reported cycle
 	// SettleCycles are the cycles repeated before the reported one
 	// (warm_up: auto) until the room repeated itself within
 	// SettleTolerance; SettleChange_K is the change of the last of them
