@@ -150,6 +150,13 @@ func build(r *results.Results, o Options) (*page, []*chartSpec, error) {
 	if strings.TrimSpace(p.Title) == "" {
 		p.Title = "Untitled scenario"
 	}
+	if r.Kind == results.Room {
+		specs, err := buildRoom(p, r)
+		if err != nil {
+			return nil, nil, err
+		}
+		return p, specs, nil
+	}
 	ground := r.Kind == results.Ground
 	p.KindLabel = "building component"
 	if ground {

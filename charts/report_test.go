@@ -496,7 +496,7 @@ func TestEscaping(t *testing.T) {
 				g.Layers[i].Name, g.Layers[i].Source = s, s
 			}
 			return g
-		}()} {
+		}(), hostileRoom(s)} {
 			html := render(t, r, Options{GeneratedAt: s, ToolVersion: s})
 			// The markup (script bodies blanked) has only our own three
 			// scripts and no other live tag; the first two script bodies
@@ -784,6 +784,83 @@ func TestGroundWithoutSimulation(t *testing.T) {
 	for _, want := range []string{"exact periodic solution)", "Modified Berggren (closed form)", "licensed geotechnical engineer"} {
 		if !strings.Contains(html, want) {
 			t.Errorf("report lacks %q", want)
+		}
+	}
+}
+
+// hostileRoom is a room result with s in every user string.
+func hostileRoom(s string) *results.Results {
+	r := roomFixture()
+	r.Title, r.ScenarioFile, r.Warnings = s, s, []string{s}
+	rm := r.Room
+	rm.Notes = []string{s}
+	rm.OperativeTemperature = s
+	rm.MassRemoved.Statement = s
+	for i := range rm.Elements {
+		e := &rm.Elements[i]
+		e.Name, e.Construction, e.Orientation, e.Back = s, s, s, s
+	}
+	for i := range rm.Windows {
+		rm.Windows[i].Name = s
+	}
+	for i := range rm.Simulation.Paths {
+		rm.Simulation.Paths[i].Name = s
+	}
+	return r
+}
+
+// roomFixture is a small room result with its series (invented numbers).
+func roomFixture() *results.Results {
+	share := 0.25
+	to, from := 1.5, 1.2
+	red := 3.1
+	sim := &results.RoomSimulation{AirMax_C: 27.5, AirMin_C: 23.1, OperativeMax_C: 27.0, OperativeMin_C: 23.6,
+		HoursAbove: []results.HoursAbove{{Threshold_C: 25, Hours: 9.5}, {Threshold_C: 26, Hours: 5}}, HoursAboveBasis: "operative temperature",
+		EnergyBalanceRelativeError: 3e-14, Step_h: 0.25, Cycle_h: 24, Cells: 60,
+		Paths: []results.RoomPath{{Name: "ventilation", ToAir_kWh_day: 0.1, FromAir_kWh_day: 4}, {Name: "wall", ToAir_kWh_day: 1.5, FromAir_kWh_day: 1.2}}}
+	bare := *sim
+	bare.OperativeMax_C, bare.HoursAbove = 30.1, []results.HoursAbove{{Threshold_C: 25, Hours: 11}, {Threshold_C: 26, Hours: 9}}
+	rm := &results.RoomResult{Volume_m3: 50, AirHeatCapacity_kJ_K: 60, VentilationDay_ach: 1, MeanConductance_W_K: 30,
+		OperativeTemperature: "mean of air and surfaces", Thresholds_C: []float64{25, 26},
+		Elements: []results.RoomElement{
+			{Name: "wall", Area_m2: 10, Orientation: "wall", Back: "outside", Sunlit: true, UValue_W_m2K: 0.3, ArealHeatCapacity_kJ_m2K: 400, InsideAdmittance_W_m2K: 4,
+				HeatToAir_kWh_day: &to, HeatFromAir_kWh_day: &from, ShareOfHeatToAir: &share},
+			{Name: "slab", Area_m2: 20, Orientation: "floor", Back: "adiabatic", Construction: "slab.yaml", UValue_W_m2K: 2, ArealHeatCapacity_kJ_m2K: 300, InsideAdmittance_W_m2K: 5},
+		},
+		Windows:    []results.RoomWindow{{Name: "window", Area_m2: 2, UValue_W_m2K: 1.2, GValue: 0.5, SolarMean_W: 80}},
+		Periodic:   results.RoomPeriodic{Period_h: 24, Harmonics: 3, AirMean_C: 25, AirMax_C: 27.4, AirMin_C: 23.2, OperativeMean_C: 25, OperativeMax_C: 27, OperativeMin_C: 23.5},
+		Simulation: sim,
+		MassRemoved: &results.RoomMassRemoved{Periodic: results.RoomPeriodic{Period_h: 24, AirMax_C: 30, AirMin_C: 20}, Simulation: &bare,
+			PeakReduction_K: &red, AirPeakReduction_K: &red, Statement: "The mass takes 3.1 K off."},
+	}
+	for j := 0; j <= 24; j++ {
+		h := float64(j)
+		c := math.Cos(2 * math.Pi * (h - 15) / 24)
+		s := &rm.Series
+		s.CycleTime_h = append(s.CycleTime_h, h)
+		s.CycleOutdoor_C = append(s.CycleOutdoor_C, 21+7*c)
+		s.CycleAir_C = append(s.CycleAir_C, 25+2*c)
+		s.CycleOperative_C = append(s.CycleOperative_C, 25+1.5*c)
+		s.CycleAirNoMass_C = append(s.CycleAirNoMass_C, 25+5*c)
+		s.CycleOperativeNoMass_C = append(s.CycleOperativeNoMass_C, 25+5*c)
+		s.Time_h = append(s.Time_h, h)
+		s.Outdoor_C = append(s.Outdoor_C, 21+7*c)
+		s.Air_C = append(s.Air_C, 25+2*c)
+		s.Operative_C = append(s.Operative_C, 25+1.5*c)
+		s.AirNoMass_C = append(s.AirNoMass_C, 25+5*c)
+		s.OperativeNoMass_C = append(s.OperativeNoMass_C, 25+5*c)
+	}
+	return &results.Results{Title: "room", Kind: results.Room, Room: rm, Cautions: []string{"a caution"}}
+}
+
+// TestRoomReport: a room's report has its sections, the elements drawing,
+// the day chart and the local-guidance note.
+func TestRoomReport(t *testing.T) {
+	html := render(t, roomFixture(), Options{})
+	for _, want := range []string{`id="room"`, `id="temperature"`, `id="heat"`, idRoomDay, "Elements of the room by area",
+		"set by local guidance", "Operative temperature: mean of air and surfaces", "The mass takes 3.1 K off.", "Hours a day above each threshold"} {
+		if !strings.Contains(html, want) {
+			t.Errorf("room report lacks %q", want)
 		}
 	}
 }

@@ -106,6 +106,10 @@ func decodeDoc(file string, root *yaml.Node, fsys fs.FS, cache *seriesCache) (*S
 		// Every other key depends on the kind.
 		return nil, d.err()
 	}
+	if s.Kind == Room {
+		return d.decodeRoomDoc(top, s, root, fsys, cache)
+	}
+	rejectRoomKeys(top, s)
 	d.decodeOrientation(top, s)
 	layersClean := d.decodeLayers(top, s)
 	d.decodeSides(top, s)
@@ -139,7 +143,7 @@ func (d *decoder) decodeHeader(top *object, s *Scenario) {
 	if top.choice("kind", kindWords(), &kind) {
 		s.Kind = Kind(kind)
 	} else if !top.has("kind") {
-		top.missing("kind", "wall or ground")
+		top.missing("kind", "wall, ground or room")
 	}
 }
 

@@ -43,6 +43,12 @@ func TestExamplesDecodeAndRun(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%s: %v", ex.Name, err)
 		}
+		if r.Kind == Room {
+			if r.Room == nil || r.Room.Simulation == nil || r.Room.Simulation.EnergyBalanceRelativeError > 1e-9 {
+				t.Errorf("%s: room simulation missing or energy balance off", ex.Name)
+			}
+			continue
+		}
 		if r.Simulation == nil || r.Simulation.EnergyBalanceRelativeError > 1e-8 {
 			t.Errorf("%s: simulation missing or energy balance off: %+v", ex.Name, r.Simulation)
 		}

@@ -72,15 +72,32 @@ func checkScenario(t *testing.T, s *Scenario) {
 	if s == nil {
 		t.Fatal("nil scenario without error")
 	}
-	if len(s.Layers) == 0 {
-		t.Fatal("scenario without layers")
-	}
 	finite := func(what string, v float64) {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			t.Fatalf("%s is %g after decoding", what, v)
 		}
 	}
-	for i, l := range s.Layers {
+	all := s.Layers
+	if rs := s.Room; s.Kind == Room {
+		// A room: its elements carry the layers.
+		if rs == nil || len(rs.Elements) == 0 {
+			t.Fatal("room without elements")
+		}
+		finite("the volume", rs.Volume)
+		for _, e := range rs.Elements {
+			if len(e.Layers) == 0 {
+				t.Fatalf("element %s without layers", e.Name)
+			}
+			finite("an element's area", e.Area)
+			all = append(all, e.Layers...)
+		}
+		if rs.Outdoor == nil {
+			t.Fatal("room without an outdoor temperature")
+		}
+	} else if len(s.Layers) == 0 {
+		t.Fatal("scenario without layers")
+	}
+	for i, l := range all {
 		for _, v := range []float64{l.Thickness, l.Conductivity, l.Density, l.SpecificHeat, l.Resistance} {
 			finite("a value of layer "+l.Name, v)
 		}
@@ -93,10 +110,14 @@ func checkScenario(t *testing.T, s *Scenario) {
 			t.Fatalf("layer %d has a negative thickness or resistance", i+1)
 		}
 	}
-	if s.Outside.Temperature == nil {
+	if s.Outside.Temperature == nil && s.Kind != Room {
 		t.Fatal("no outside temperature")
 	}
-	for _, sd := range []Side{s.Outside, s.Inside} {
+	sides := []Side{s.Outside, s.Inside}
+	if s.Kind == Room {
+		sides = nil // a room's outdoor air is RoomSpec.Outdoor
+	}
+	for _, sd := range sides {
 		finite("a surface resistance", sd.SurfaceResistance())
 		finite("a heat flux", sd.steadyFlux())
 		if f := sd.temperature(); f != nil {
@@ -161,6 +182,10 @@ func FuzzRun(f *testing.F) {
 		}
 		s.Analysis.Simulate = nil
 		s.Analysis.StepResponse = nil
+		if s.Room != nil {
+			// A room always simulates: keep it short (no warm-up, hourly steps).
+			s.Room.WarmUp, s.Room.WarmUpAuto, s.Room.Step = 0, false, 3600
+		}
 		type outcome struct {
 			r   *results.Results
 			err error

@@ -129,9 +129,9 @@ var (
 // names (d.object, o.child).
 var (
 	topKeys = &keyTable{
-		Name: "scenario", Doc: "A tempstack scenario: a layered wall, roof or floor, or a ground column, and its climate.",
-		Required: []string{"title", "kind", "layers"},
-		Keys: []keySpec{
+		Name: "scenario", Doc: "A tempstack scenario: a layered wall, roof or floor, a ground column, or a room of layered elements, and its climate.",
+		Required: []string{"title", "kind"},
+		Keys: append([]keySpec{
 			k("title", "a one-line name for the report", fText),
 			k("description", "a paragraph shown under the title", fText),
 			k("project", "title block: project", fText),
@@ -141,7 +141,7 @@ var (
 			k("kind", "what the file describes", fChoice(kindWords)),
 			k("orientation", "wall kind: heat-flow direction for the ISO 6946 surface resistances", fWords("wall", "roof", "floor")),
 			k("layers", "wall: outside first; ground: surface first", fList(fObject(func() *keyTable { return layerKeys }))),
-			k("outside", "wall kind: the outside side", fObject(func() *keyTable { return sideKeys })),
+			k("outside", "wall kind: the outside side; room kind: the outdoor air", fObject(func() *keyTable { return sideKeys }), fObject(func() *keyTable { return roomOutsideKeys })),
 			k("inside", "wall kind: the inside side (default 20 degC behind Rsi)", fObject(func() *keyTable { return sideKeys })),
 			k("surface", "ground kind: the ground surface", fObject(func() *keyTable { return surfaceKeys })),
 			k("bottom", "ground kind: the bottom of the column (default the geothermal flux 0.065 W/m2)", fObject(func() *keyTable { return bottomKeys })),
@@ -150,7 +150,78 @@ var (
 			k("sweep", "design study: one parameter over a range", fObject(func() *keyTable { return sweepKeys })),
 			k("target", "design study: the parameter value that meets a goal", fObject(func() *keyTable { return targetKeys })),
 			k("uncertainty", "design study: Monte Carlo over uncertain parameters", fObject(func() *keyTable { return uncertaintyKeys })),
+		}, roomTopKeys.Keys...),
+	}
+	// roomTopKeys are the top keys of kind: room only.
+	roomTopKeys = &keyTable{
+		Name: "roomTop", Doc: "The top keys of a room scenario.",
+		Keys: []keySpec{
+			k("room", "room kind: the air volume, ventilation and gains", fObject(func() *keyTable { return roomKeys })),
+			k("elements", "room kind: the walls, roof, floor and partitions", fList(fObject(func() *keyTable { return roomElementKeys }))),
+			k("windows", "room kind: massless glazing, U A and transmitted sun", fList(fObject(func() *keyTable { return windowKeys }))),
+			k("thresholds", "room kind: temperatures whose hours above are counted (default 25, 26, 28 degC)", fList(fQty(layers.Temperature))),
 		},
+	}
+	roomKeys = &keyTable{
+		Name: "room", Doc: "The room air node.",
+		Keys: []keySpec{
+			k("volume", "air volume, m3", fNumber),
+			k("ventilation", "air changes per hour, or a day and night rate", fNumber, fObject(func() *keyTable { return ventilationKeys })),
+			k("gains", "heat gains to the air, W: a constant, or a mean with a daily swing", fNumber, fObject(func() *keyTable { return gainsKeys })),
+			k("step", "time step of the simulation (divides one hour; default 15 min)", fQty(layers.Duration)),
+			k("warm_up", "auto (repeat the cycle until it repeats) or a duration", fWords("auto"), fQty(layers.Duration)),
+		},
+	}
+	ventilationKeys = &keyTable{
+		Name: "ventilation", Doc: "Air changes per hour by day and at night.",
+		Keys: []keySpec{
+			k("day", "air changes per hour by day", fNumber),
+			k("night", "air changes per hour at night", fNumber),
+			k("night_from", "hour the night rate starts, 0 to 24 (default 22)", fNumber),
+			k("night_to", "hour the night rate ends, 0 to 24 (default 7)", fNumber),
+		},
+	}
+	gainsKeys = &keyTable{
+		Name: "gains", Doc: "Heat gains to the room air, W.",
+		Keys: []keySpec{
+			k("mean", "mean gains, W", fNumber),
+			k("daily", "the daily swing", fObject(func() *keyTable { return gainsDailyKeys })),
+		},
+	}
+	gainsDailyKeys = &keyTable{
+		Name: "gainsDaily", Doc: "The daily swing of the gains.",
+		Keys: []keySpec{
+			k("amplitude", "half the peak-to-peak swing, W", fNumber),
+			k("peak_hour", "0 to 24", fNumber),
+		},
+	}
+	roomElementKeys = &keyTable{
+		Name: "element", Doc: "One layered element of a room: wall, roof, floor or partition.",
+		Required: []string{"area"},
+		Keys: []keySpec{
+			k("name", "label", fText),
+			k("area", "m2", fNumber),
+			k("orientation", "heat-flow direction for the surface resistances (ISO 6946)", fWords(orientationWords...)),
+			k("layers", "back (outside) first", fList(fObject(func() *keyTable { return layerKeys }))),
+			k("construction", "a wall scenario file whose layers this element takes", fText),
+			k("back", "what lies behind: outside (default) or adiabatic", fWords(backWords...)),
+			k("solar", "sun on the back face (back: outside)", fObject(func() *keyTable { return solarKeys })),
+		},
+	}
+	windowKeys = &keyTable{
+		Name: "window", Doc: "A massless window: U A to the outdoor air, g A I of sun to the room air.",
+		Required: []string{"area", "u_value"},
+		Keys: []keySpec{
+			k("name", "label", fText),
+			k("area", "m2", fNumber),
+			k("u_value", "", fQty(layers.HeatTransferCoefficient)),
+			k("g_value", "total solar energy transmittance, 0 to 1", fQty(layers.Fraction)),
+			k("irradiance", "solar irradiance on the window", fQty(layers.Irradiance), fObject(func() *keyTable { return forcingKeys })),
+		},
+	}
+	roomOutsideKeys = &keyTable{
+		Name: "roomOutside", Doc: "The outdoor air of a room.",
+		Keys: []keySpec{sideTemperature},
 	}
 	layerKeys = &keyTable{
 		Name: "layer", Doc: "One layer: a library material, a soil, properties given inline, a resistance, or a mix.",
@@ -444,7 +515,13 @@ var (
 )
 
 // kindWords lists the scenario kinds.
-func kindWords() []string { return []string{string(Wall), string(Ground)} }
+// orientationWords and backWords are the choices of a room element.
+var (
+	orientationWords = []string{"wall", "roof", "floor"}
+	backWords        = []string{"outside", "adiabatic"}
+)
+
+func kindWords() []string { return []string{string(Wall), string(Ground), string(Room)} }
 
 // allQuantityNames lists the study quantities of every kind.
 func allQuantityNames() []string {

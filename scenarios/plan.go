@@ -69,6 +69,10 @@ func (p problems) err() error { return fileerr.List(p).Err() }
 // and returns every problem it finds (a column that cannot be solved stops
 // it). It changes nothing in s (the decoder resolved the defaults).
 func (s *Scenario) plan() (*runPlan, error) {
+	if s.Kind == Room {
+		_, err := s.roomPlan() // roomrun.go
+		return &runPlan{}, err
+	}
 	p := &runPlan{col: s.column()}
 	if s.Kind == Ground {
 		p.col.InsideResistance = 0

@@ -48,6 +48,9 @@ type run struct {
 func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, error) {
 	s := &run{Scenario: sc, ctx: ctx, opts: opts}
 	progress := opts.Progress
+	if s.Kind == Room {
+		return runRoomStudy(s)
+	}
 	if s.Kind != Wall && s.Kind != Ground {
 		return nil, &Error{File: s.File, Key: "kind", Msg: fmt.Sprintf("kind %q is not supported by this version", s.Kind)}
 	}

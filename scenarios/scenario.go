@@ -28,6 +28,7 @@ type Kind = results.Kind
 const (
 	Wall   = results.Wall   // a wall, roof or floor between outside and inside air
 	Ground = results.Ground // a soil or rock column below a ground surface
+	Room   = results.Room   // one room: air node, layered elements, windows (room.go)
 )
 
 // Scenario is a decoded, validated scenario file in SI units.
@@ -45,6 +46,9 @@ type Scenario struct {
 	Inside  Side        // wall: inside; ground: the bottom
 
 	Analysis Analysis
+
+	// Room is the room of kind: room; nil for other kinds.
+	Room *RoomSpec
 
 	// Study holds variants, a sweep, a target or uncertainty; nil: none.
 	Study *StudySpec

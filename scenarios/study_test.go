@@ -318,12 +318,18 @@ sweep:
 }
 
 // TestQuantityKinds: every study quantity declares one kind; the names of
-// the two kinds split the table, and a frost quantity reads nothing from a
+// the three kinds split the table, and a frost quantity reads nothing from a
 // wall's results (it is absent there, not 0).
 func TestQuantityKinds(t *testing.T) {
-	wall, grnd := quantityNames(Wall), quantityNames(Ground)
-	if len(wall)+len(grnd) != len(results.Quantities()) || len(wall) == 0 || len(grnd) == 0 {
-		t.Fatalf("wall %v and ground %v do not split the %d quantities", wall, grnd, len(results.Quantities()))
+	wall, grnd, room := quantityNames(Wall), quantityNames(Ground), quantityNames(Room)
+	if len(wall)+len(grnd)+len(room) != len(results.Quantities()) || len(wall) == 0 || len(grnd) == 0 || len(room) == 0 {
+		t.Fatalf("wall %v, ground %v and room %v do not split the %d quantities", wall, grnd, room, len(results.Quantities()))
+	}
+	for _, name := range room {
+		q, _ := quantityOf(name)
+		if v, ok := q.Read(&results.Results{Kind: results.Wall}); ok {
+			t.Errorf("%s reads %g from a wall's results", name, v)
+		}
 	}
 	for _, name := range grnd {
 		q, ok := quantityOf(name)

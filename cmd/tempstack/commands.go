@@ -384,6 +384,10 @@ func checkCommand() *cli.Command {
 			for _, w := range scenarios.Warnings(s) {
 				fmt.Fprintf(c.App.ErrWriter, "tempstack: warning: %s\n", w)
 			}
+			if s.Room != nil {
+				fmt.Fprintf(c.App.Writer, "%s: ok: %s scenario %q, %d elements, %d windows\n", s.File, s.Kind, s.Title, len(s.Room.Elements), len(s.Room.Windows))
+				return nil
+			}
 			fmt.Fprintf(c.App.Writer, "%s: ok: %s scenario %q, %d layers\n", s.File, s.Kind, s.Title, len(s.Layers))
 			return nil
 		},
@@ -472,7 +476,7 @@ func newCommand() *cli.Command {
 	return &cli.Command{
 		Name:      "new",
 		Usage:     "write a commented starter scenario file",
-		ArgsUsage: "wall|ground",
+		ArgsUsage: "wall|ground|room",
 		Flags: []cli.Flag{
 			&cli.StringFlag{Name: "out", Aliases: []string{"o"}, Usage: "write to `FILE` (default: KIND.yaml; - for standard output)"},
 			&cli.BoolFlag{Name: "force", Usage: "overwrite an existing file"},
@@ -481,11 +485,11 @@ func newCommand() *cli.Command {
 		Action: func(c *cli.Context) error {
 			kind := c.Args().First()
 			if c.NArg() != 1 {
-				return userErr("new needs one kind: wall or ground")
+				return userErr("new needs one kind: wall, ground or room")
 			}
 			data, ok := scenarios.Starter(kind)
 			if !ok {
-				return userErr("unknown kind %q; use wall or ground", kind)
+				return userErr("unknown kind %q; use wall, ground or room", kind)
 			}
 			out := c.String("out")
 			if out == "" {

@@ -134,7 +134,7 @@ func TestRunFileThenFlag(t *testing.T) {
 }
 
 func TestStartersAndExamplesAreValid(t *testing.T) {
-	for _, kind := range []string{"wall", "ground"} {
+	for _, kind := range []string{"wall", "ground", "room"} {
 		code, out, stderr := runCLI(t, "new", kind, "--out", "-")
 		if code != 0 || !strings.Contains(out, "kind: "+kind) {
 			t.Fatalf("new %s: exit %d %s", kind, code, stderr)

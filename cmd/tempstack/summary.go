@@ -33,6 +33,7 @@ func printSummary(w io.Writer, r *results.Results) {
 		fmt.Fprintf(w, "  period %g h: decrement factor %.3f, time shift %.1f h, periodic transmittance %.3f W/(m2 K), admittance inside %.2f W/(m2 K)\n",
 			p.Period_h, p.DecrementFactor, p.TimeShift_h, p.PeriodicTransmittance_W_m2K, p.InsideAdmittance_W_m2K)
 	}
+	printRoom(w, r.Room)
 	if s := r.Simulation; s != nil {
 		fmt.Fprintf(w, "  simulated %g h in steps of %g h on %d cells; energy balance error %.1e\n",
 			s.Duration_h, s.Step_h, s.Cells, s.EnergyBalanceRelativeError)
@@ -174,6 +175,9 @@ func headlineKeys(r *results.Results) []string {
 	if r.Kind == results.Ground {
 		keys = []string{"max_frost_depth_m", "stefan_depth_m", "modified_berggren_depth_m"}
 	}
+	if r.Kind == results.Room {
+		keys = []string{"operative_max_C", "hours_above_h", "mass_peak_reduction_K"}
+	}
 	if t := r.Target; t != nil && !contains(keys, t.Quantity) {
 		keys = append(keys, t.Quantity)
 	}
@@ -249,4 +253,29 @@ func words(label, path string) string {
 		return label
 	}
 	return path
+}
+
+// printRoom prints the headline of a room run; nothing for other kinds.
+func printRoom(w io.Writer, rm *results.RoomResult) {
+	if rm == nil {
+		return
+	}
+	p := rm.Periodic
+	fmt.Fprintf(w, "  exact periodic (%g h cycle): air %.1f to %.1f degC (mean %.1f), operative %.1f to %.1f degC\n",
+		p.Period_h, p.AirMin_C, p.AirMax_C, p.AirMean_C, p.OperativeMin_C, p.OperativeMax_C)
+	if s := rm.Simulation; s != nil {
+		fmt.Fprintf(w, "  simulated (last cycle, %g h steps, %d cells): air %.1f to %.1f degC, operative %.1f to %.1f degC; energy balance error %.1e\n",
+			s.Step_h, s.Cells, s.AirMin_C, s.AirMax_C, s.OperativeMin_C, s.OperativeMax_C, s.EnergyBalanceRelativeError)
+		if c := s.ExactCheck_K; c != nil {
+			fmt.Fprintf(w, "  cross-check: with the ventilation at its mean the simulated air is within %.3f K of the exact solution\n", *c)
+		}
+		var parts []string
+		for _, h := range s.HoursAbove {
+			parts = append(parts, fmt.Sprintf("%g degC %.1f h", h.Threshold_C, h.Hours))
+		}
+		fmt.Fprintf(w, "  hours a day above (operative): %s (comfort criteria are set by local guidance)\n", strings.Join(parts, ", "))
+	}
+	if m := rm.MassRemoved; m != nil && m.Statement != "" {
+		fmt.Fprintf(w, "  %s\n", m.Statement)
+	}
 }

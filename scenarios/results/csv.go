@@ -58,7 +58,7 @@ func CSVFiles(r *Results) []CSVFile {
 		out = append(out, table("cycle.csv", []string{"time_h", "outside_air_C", "outside_surface_C", "inside_surface_C", "inside_air_C", "inside_heat_flux_W_m2"},
 			columns(s.Cycle.Time_h, s.Cycle.OutsideAir_C, s.Cycle.OutsideSurface_C, s.Cycle.InsideSurface_C, s.Cycle.InsideAir_C, s.Cycle.InsideFlux_W_m2)))
 	}
-	return out
+	return append(out, roomCSV(r)...)
 }
 
 // columns turns equal-length column slices into rows.

@@ -64,6 +64,43 @@ var quantities = []QuantityInfo{
 		func(r *Results) (float64, bool) {
 			return frostValue(r, func(f *Frost) *float64 { return f.FreezingIndex_Cd }, true)
 		}},
+	// Room quantities: the simulated last cycle, the exact periodic peak,
+	// the hours above the first threshold and what the elements' mass
+	// takes off the peak.
+	{"operative_max_C", Room, "peak operative temperature", "Peak operative temperature (°C)", "degC", 2,
+		roomValue(func(rm *RoomResult) *float64 { return &rm.Simulation.OperativeMax_C })},
+	{"air_max_C", Room, "peak room air temperature", "Peak room air temperature (°C)", "degC", 2,
+		roomValue(func(rm *RoomResult) *float64 { return &rm.Simulation.AirMax_C })},
+	{"exact_air_max_C", Room, "exact periodic peak air temperature", "Exact peak air temperature (°C)", "degC", 2,
+		roomValue(func(rm *RoomResult) *float64 { return &rm.Periodic.AirMax_C })},
+	{"hours_above_h", Room, "hours a day above the first threshold", "Hours a day above the first threshold (h)", "h", 1,
+		roomValue(func(rm *RoomResult) *float64 {
+			if len(rm.Simulation.HoursAbove) == 0 {
+				return nil
+			}
+			return &rm.Simulation.HoursAbove[0].Hours
+		})},
+	{"mass_peak_reduction_K", Room, "peak lowered by the mass", "Peak lowered by the mass (K)", "K", 2,
+		roomValue(func(rm *RoomResult) *float64 {
+			if rm.MassRemoved == nil {
+				return nil
+			}
+			return rm.MassRemoved.PeakReduction_K
+		})},
+}
+
+// roomValue reads a room quantity; not computed without a room simulation.
+func roomValue(f func(*RoomResult) *float64) func(*Results) (float64, bool) {
+	return func(r *Results) (float64, bool) {
+		if r.Room == nil || r.Room.Simulation == nil {
+			return math.NaN(), false
+		}
+		v := f(r.Room)
+		if v == nil {
+			return math.NaN(), false
+		}
+		return *v, true
+	}
 }
 
 // firstPeriodic reads a quantity of the first analysis period.

@@ -11,7 +11,7 @@ import (
 func TestQuantitiesDeclaredOnce(t *testing.T) {
 	seen := map[string]bool{}
 	for _, q := range Quantities() {
-		if q.Key == "" || q.Words == "" || q.Label == "" || q.Read == nil || (q.Kind != Wall && q.Kind != Ground) {
+		if q.Key == "" || q.Words == "" || q.Label == "" || q.Read == nil || (q.Kind != Wall && q.Kind != Ground && q.Kind != Room) {
 			t.Errorf("%q: incomplete row %+v", q.Key, q)
 		}
 		if seen[q.Key] {
@@ -19,7 +19,7 @@ func TestQuantitiesDeclaredOnce(t *testing.T) {
 		}
 		seen[q.Key] = true
 		bare := QuantityInfo{Key: q.Key}
-		for _, s := range []struct{ suffix, unit string }{{"_W_m2K", "W/(m2 K)"}, {"_kJ_m2K", "kJ/(m2 K)"}, {"_Cd", "degC day"}, {"_m", "m"}, {"_h", "h"}} {
+		for _, s := range []struct{ suffix, unit string }{{"_W_m2K", "W/(m2 K)"}, {"_kJ_m2K", "kJ/(m2 K)"}, {"_Cd", "degC day"}, {"_m", "m"}, {"_h", "h"}, {"_C", "degC"}, {"_K", "K"}} {
 			if strings.HasSuffix(q.Key, s.suffix) {
 				bare.Unit = s.unit
 				break
@@ -40,6 +40,7 @@ func TestQuantitiesDeclaredOnce(t *testing.T) {
 	}
 }
 
+// other returns a kind that is not k.
 func other(k Kind) Kind {
 	if k == Wall {
 		return Ground

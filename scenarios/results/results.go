@@ -7,6 +7,7 @@ type Kind string
 const (
 	Wall   Kind = "wall"   // a wall, roof or floor between outside and inside air
 	Ground Kind = "ground" // a soil or rock column below a ground surface
+	Room   Kind = "room"   // one room's air node and its layered elements
 )
 
 // Results is everything one run of a scenario produces. It is defined once
@@ -25,7 +26,7 @@ type Results struct {
 	Orientation  string  `json:"orientation,omitempty"`   // wall kind: wall | roof | floor
 	Layers       []Layer `json:"layers"`
 
-	Steady   Steady           `json:"steady"`
+	Steady   Steady           `json:"steady,omitzero"` // absent for a room
 	Periodic []PeriodicResult `json:"periodic"`
 
 	// Simulation is the transient simulation; nil (null in results.json)
@@ -37,6 +38,9 @@ type Results struct {
 	// Frost and Ground are filled for ground columns; nil otherwise.
 	Frost  *Frost             `json:"frost,omitempty"`
 	Ground *GroundTemperature `json:"ground,omitempty"`
+
+	// Room is the room kind's result (room.go); nil for other kinds.
+	Room *RoomResult `json:"room,omitempty"`
 
 	// StepResponse is filled when analysis.step_response asks for it.
 	StepResponse *StepResult `json:"step_response,omitempty"`
