@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"html"
 	"html/template"
+	"strconv"
 	"strings"
 
 	ec "github.com/go-echarts/go-echarts/v2/charts"
@@ -94,8 +95,12 @@ func roomSummary(rm *results.RoomResult) []string {
 			degC(s.AirMin_C), degC(s.AirMax_C), degC(s.OperativeMin_C), degC(s.OperativeMax_C)))
 	}
 	pe := rm.Periodic
-	out = append(out, fmt.Sprintf("The exact periodic solution (ISO 13786 matrices of every element, one air node) gives a mean air temperature of %s, from %s to %s.",
-		degC(pe.AirMean_C), degC(pe.AirMin_C), degC(pe.AirMax_C)))
+	mean := ""
+	if rm.VentilationNight_ach != nil {
+		mean = " with the ventilation at its daily mean (the exact method is linear and periodic; the night rate is in the simulation only)"
+	}
+	out = append(out, fmt.Sprintf("The exact periodic solution (ISO 13786 matrices of every element, one air node)%s gives a mean air temperature of %s, from %s to %s.",
+		mean, degC(pe.AirMean_C), degC(pe.AirMin_C), degC(pe.AirMax_C)))
 	if m := rm.MassRemoved; m != nil && m.Statement != "" {
 		out = append(out, strings.ReplaceAll(m.Statement, "degC", "°C"))
 	}
@@ -285,11 +290,22 @@ func roomDayChart(rm *results.RoomResult) (*chartSpec, error) {
 	thinned := false
 	var marks []ec.SeriesOpts
 	if len(rm.Thresholds_C) > 0 {
+		// One label for all the lines, on the highest: thresholds a degree
+		// apart would print over each other.
 		var items []opts.MarkLineNameYAxisItem
+		var words []string
+		top, topValue := 0, 0.0
 		for _, th := range rm.Thresholds_C {
 			if v := num(th); v != nil {
-				items = append(items, opts.MarkLineNameYAxisItem{Name: "threshold " + fixed(th, 1) + " °C", YAxis: v})
+				if len(items) == 0 || th > topValue {
+					top, topValue = len(items), th
+				}
+				items = append(items, opts.MarkLineNameYAxisItem{YAxis: v})
+				words = append(words, strconv.FormatFloat(th, 'f', -1, 64))
 			}
+		}
+		if len(items) > 0 {
+			items[top].Name = "thresholds " + strings.Join(words, ", ") + " °C"
 		}
 		marks = append(marks, ec.WithMarkLineNameYAxisItemOpts(items...), ec.WithMarkLineStyleOpts(opts.MarkLineStyle{
 			Symbol:    []string{"none", "none"},

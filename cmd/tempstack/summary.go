@@ -261,8 +261,12 @@ func printRoom(w io.Writer, rm *results.RoomResult) {
 		return
 	}
 	p := rm.Periodic
-	fmt.Fprintf(w, "  exact periodic (%g h cycle): air %.1f to %.1f degC (mean %.1f), operative %.1f to %.1f degC\n",
-		p.Period_h, p.AirMin_C, p.AirMax_C, p.AirMean_C, p.OperativeMin_C, p.OperativeMax_C)
+	mean := ""
+	if rm.VentilationNight_ach != nil {
+		mean = ", ventilation at its daily mean"
+	}
+	fmt.Fprintf(w, "  exact periodic (%g h cycle%s): air %.1f to %.1f degC (mean %.1f), operative %.1f to %.1f degC\n",
+		p.Period_h, mean, p.AirMin_C, p.AirMax_C, p.AirMean_C, p.OperativeMin_C, p.OperativeMax_C)
 	if s := rm.Simulation; s != nil {
 		fmt.Fprintf(w, "  simulated (last cycle, %g h steps, %d cells): air %.1f to %.1f degC, operative %.1f to %.1f degC; energy balance error %.1e\n",
 			s.Step_h, s.Cells, s.AirMin_C, s.AirMax_C, s.OperativeMin_C, s.OperativeMax_C, s.EnergyBalanceRelativeError)
