@@ -105,7 +105,9 @@ func (s *Scenario) roomPlan() (*roomPlan, error) {
 		p.bare.Elements = append(p.bare.Elements, bare)
 		var env func(float64) float64
 		if e.Back == solver.BackOutside {
-			env = solAirOf(outdoor.At, e.Solar, rse)
+			// The back's environment is the wall kind's outside: the
+			// outdoor air, or its sol-air temperature in the sun.
+			env = Environment{Temperature: outdoor, Resistance: rse, Solar: e.Solar}.env()
 			if e.Solar != nil && e.Solar.Irradiance != nil {
 				periods = append(periods, e.Solar.Irradiance.Harmonics...)
 			}
@@ -179,21 +181,6 @@ func (s *Scenario) roomPlan() (*roomPlan, error) {
 		}
 	}
 	return p, nil
-}
-
-// solAirOf returns the environment temperature behind an element's back
-// face, degC at t (s): the air, or with sol the sol-air temperature
-// Ta + a I / he - sky correction, I clipped at 0, he = 1/rse (as the wall
-// kind's outside; climate.SolAir).
-func solAirOf(air func(float64) float64, sol *Solar, rse float64) func(float64) float64 {
-	if sol == nil || sol.Irradiance == nil {
-		return air
-	}
-	he := 1 / math.Max(rse, 1e-3)
-	irr := sol.Irradiance
-	return func(t float64) float64 {
-		return climate.SolAir(air(t), math.Max(0, irr.At(t)), sol.Absorptance, he, sol.SkyCorrection)
-	}
 }
 
 // roomExact is the exact periodic solution of a room.
