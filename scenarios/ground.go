@@ -77,8 +77,6 @@ func runGround(s *run, p *runPlan, progress Progress) (*results.Results, error) 
 		if err != nil {
 			return nil, err
 		}
-		r.Series.Simulation.FrostDepth_m = res.FrostDepth
-		r.Series.Simulation.ThawDepth_m = res.ThawDepth
 		if err := frostAnalysis(s, col, r, res); err != nil {
 			return nil, err
 		}

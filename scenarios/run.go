@@ -3,6 +3,7 @@ package scenarios
 import (
 	"context"
 	"fmt"
+	"io"
 	"math"
 	"math/cmplx"
 	"sort"
@@ -20,6 +21,17 @@ type Options struct {
 	Workers int
 	// Progress, when not nil, is told how far a long simulation has come.
 	Progress Progress
+	// Series, when not nil, receives series.csv (the simulated time
+	// series; see results.CSVFiles) while the simulation runs, one row per
+	// sample, so that a run of any length needs no memory per sample for
+	// it; Results.SeriesStreamed then says it was written, and
+	// Results.Series.Simulation keeps for the charts every sample up to
+	// 32,768 samples and, beyond that, every k-th sample and the last (k
+	// the smallest whole number that keeps it within 32,768). Only the
+	// base run writes it, not the cases of a study; nothing is written
+	// when the scenario has no simulation. Without Series every sample
+	// stays in memory.
+	Series io.Writer
 }
 
 // run is one run of a scenario: the scenario, which the run only reads,

@@ -297,8 +297,13 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	if progress != nil {
 		p.Progress = func(f float64) { progress("simulation", f) }
 	}
+	rec := newSeriesRecorder(s, r)
+	p.Observe = rec.observe
 	res, err := solver.Simulate(p)
 	if err != nil {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
+	}
+	if err := rec.finish(res); err != nil {
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
 	}
 	if err := checkFinite(res); err != nil {
@@ -335,31 +340,9 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	r.Simulation = out
 
 	ser := &r.Series
-	var origin time.Time
 	if m := s.Outside.Temperature.Measured; m != nil {
-		origin = m.Series.Start
-		out.Start = origin.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
+		out.Start = m.Series.Start.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
 	}
-	for k, t := range res.Times {
-		ser.Simulation.Time_h = append(ser.Simulation.Time_h, t/3600)
-		if !origin.IsZero() {
-			ser.Simulation.Stamp = append(ser.Simulation.Stamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
-		}
-		ser.Simulation.OutsideAir_C = append(ser.Simulation.OutsideAir_C, envAt(s.Outside, t))
-		if s.Inside.Temperature != nil {
-			ser.Simulation.InsideAir_C = append(ser.Simulation.InsideAir_C, envAt(s.Inside, t))
-		}
-		_ = k
-	}
-	ser.Simulation.OutsideSurface_C = res.SurfaceOutside
-	ser.Simulation.InsideSurface_C = res.SurfaceInside
-	// Charts and CSV show the flux averaged over each output interval (the
-	// heat that went through, as in the energy balance): an instantaneous
-	// flux into a freezing surface cell spikes between samples.
-	ser.Simulation.OutsideFlux_W_m2 = res.MeanFluxOutside
-	ser.Simulation.InsideFlux_W_m2 = res.MeanFluxInside
-	ser.Simulation.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
-	ser.Simulation.Probes_C = res.Probe
 	ser.SimProfile.Position_m = res.Mesh.Centers
 	ser.SimProfile.Min_C, ser.SimProfile.Mean_C, ser.SimProfile.Max_C = res.Min, res.Mean, res.Max
 	return res, nil
