@@ -495,13 +495,6 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 		}
 		return climate.Winter{}, false
 	}
-	freezePoint := func(z float64) float64 {
-		l := col.Layers[col.LayerAt(z)]
-		if l.Freeze != nil {
-			return l.Freeze.Point
-		}
-		return 0
-	}
 	for wi, w := range wins {
 		fw := results.FrostWinter{Label: fmt.Sprintf("winter %d", wi+1), Start_d: w.from / climate.Day, End_d: w.to / climate.Day,
 			Complete: w.complete}
@@ -536,10 +529,9 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 		}
 		fw.MaxFrostDate = dayLabel(fw.MaxFrostDay)
 		for j, z := range s.Analysis.Probes {
-			fz := freezePoint(s.construction().SolverDepth(z))
 			n := 0
 			for k, t := range times {
-				if k > 0 && t >= w.from && t < w.to && res.Probe[j][k] <= fz {
+				if k > 0 && t >= w.from && t < w.to && s.probeFrozen[j].has(k) {
 					n++
 				}
 			}

@@ -27,7 +27,7 @@ type Options struct {
 	// it; Results.SeriesStreamed then says it was written, and
 	// Results.Series.Simulation keeps for the charts every sample up to
 	// 32,768 samples and, beyond that, every k-th sample and the last (k
-	// the smallest whole number that keeps it within 32,768). Only the
+	// the smallest whole number that keeps it within 8,192). Only the
 	// base run writes it, not the cases of a study; nothing is written
 	// when the scenario has no simulation. Without Series every sample
 	// stays in memory.
@@ -46,6 +46,7 @@ type run struct {
 	surfaceInexact bool     // the fit leaves a residual: the periodic start is only a guess
 	waveDepth      float64  // ground: deepest depth a periodic swing of 0.1 K reaches, m
 	returnPeriod   *results.ReturnPeriodIndex
+	probeFrozen    []sampleFlags // per probe: the simulation's samples at or below the freezing point there
 }
 
 // Run solves a decoded scenario: the steady and exact periodic analyses

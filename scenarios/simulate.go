@@ -297,13 +297,14 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	if progress != nil {
 		p.Progress = func(f float64) { progress("simulation", f) }
 	}
-	rec := newSeriesRecorder(s, r)
+	rec := newSeriesRecorder(s, col, r)
 	p.Observe = rec.observe
 	res, err := solver.Simulate(p)
 	if err != nil {
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
 	}
-	if err := rec.finish(res); err != nil {
+	probeStats, err := rec.finish(res)
+	if err != nil {
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
 	}
 	if err := checkFinite(res); err != nil {
@@ -324,19 +325,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		HeatInOutside_J_m2:         res.Energy.InflowOutside,
 		HeatInInside_J_m2:          res.Energy.InflowInside,
 	}
-	for j, z := range s.Analysis.Probes {
-		pr := results.Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
-		var sum float64
-		for k, v := range res.Probe[j] {
-			pr.Min_C = math.Min(pr.Min_C, v)
-			pr.Max_C = math.Max(pr.Max_C, v)
-			if k > 0 {
-				sum += v
-			}
-		}
-		pr.Mean_C = sum / float64(max(1, len(res.Probe[j])-1))
-		out.Probes = append(out.Probes, pr)
-	}
+	out.Probes = probeStats
 	r.Simulation = out
 
 	ser := &r.Series
@@ -346,13 +335,6 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	ser.SimProfile.Position_m = res.Mesh.Centers
 	ser.SimProfile.Min_C, ser.SimProfile.Mean_C, ser.SimProfile.Max_C = res.Min, res.Mean, res.Max
 	return res, nil
-}
-
-func envAt(sd Side, t float64) float64 {
-	if sd.Temperature == nil {
-		return math.NaN()
-	}
-	return sd.env()(t)
 }
 
 func uniform(n int, v float64) []float64 {

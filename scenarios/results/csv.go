@@ -137,9 +137,9 @@ func seriesCSV(r *Results) CSVFile {
 				row[j] = c[k]
 			}
 		}
-		stamp := ""
+		var stamp []byte
 		if stamps {
-			stamp = s.Stamp[k]
+			stamp = []byte(s.Stamp[k])
 		}
 		w.Row(stamp, row)
 	}
@@ -215,7 +215,7 @@ func NewSeriesWriter(w io.Writer, l SeriesLayout) *SeriesWriter {
 // Row writes one sample: the time stamp (used only when the layout has
 // one) and the values in the order of the header; NaN and Inf are written
 // as empty cells, numbers with 10 significant digits.
-func (sw *SeriesWriter) Row(stamp string, values []float64) {
+func (sw *SeriesWriter) Row(stamp []byte, values []float64) {
 	if sw.stamp {
 		sw.buf = append(sw.buf, stamp...)
 		sw.buf = append(sw.buf, ',')
