@@ -32,6 +32,10 @@ type Options struct {
 	// when the scenario has no simulation. Without Series every sample
 	// stays in memory.
 	Series io.Writer
+
+	// settled shares settled starts with the cases of a study (set by
+	// Run; see settleCache).
+	settled *settleCache
 }
 
 // run is one run of a scenario: the scenario, which the run only reads,
@@ -59,6 +63,9 @@ type run struct {
 // cancelled, Run stops at the next case of a study or before the next
 // simulation and returns ctx.Err().
 func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, error) {
+	if opts.settled == nil {
+		opts.settled = newSettleCache()
+	}
 	s := &run{Scenario: sc, ctx: ctx, opts: opts}
 	progress := opts.Progress
 	if s.Kind != Wall && s.Kind != Ground {

@@ -280,7 +280,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 				if progress != nil {
 					progress("spin-up", 0)
 				}
-				settled, err = spinUp(s.Scenario, p, period, sim.MaxSpinUpCycles, progress)
+				settled, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
 				if err != nil {
 					return nil, &Error{File: s.File, Msg: "spin-up", Err: err}
 				}
@@ -495,8 +495,10 @@ const spinUpFrontTolerance = 1e-3
 // spinUpTolerance in every cell and spinUpFrontTolerance in the frost
 // depth), the quiet deep ground set to its steady profile between cycles
 // when the bottom condition is constant. It returns an error only for a
-// failed simulation.
-func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
+// failed simulation. A state an earlier simulation of the same run (the
+// base scenario or another case of its study) settled to from the same
+// inputs is taken as it is (settleCache).
+func spinUp(s *run, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
 	constInside := s.Inside.Temperature == nil ||
 		(len(s.Inside.Temperature.Harmonics) == 0 && s.Inside.Temperature.Measured == nil && s.Inside.Temperature.Step == nil)
 	o := solver.SettleOptions{
@@ -506,7 +508,7 @@ func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Pro
 	if progress != nil {
 		o.Progress = func(c int) { progress("spin-up", float64(c)/float64(max)) }
 	}
-	return solver.Settle(p, o)
+	return s.opts.settled.settle(p, o)
 }
 
 // fmtMM formats a length in metres as millimetres for a message.

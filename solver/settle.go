@@ -94,6 +94,7 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 	p.Duration = o.Period
 	p.Probes = nil
 	p.Progress = nil
+	p.Observe = nil
 	p.SampleEvery = o.Sample
 	if p.SampleEvery <= 0 {
 		p.SampleEvery = o.Period / 365
