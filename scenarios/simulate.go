@@ -486,6 +486,16 @@ func minPenetrationDepth(s *Scenario, p float64) float64 {
 // periodic.
 const spinUpTolerance = 0.02
 
+// The coarse first cycles of a spin-up (solver.SettleOptions.CoarseStep)
+// step by the largest whole multiple of the simulation's step that is
+// neither above coarseSpinUpStep nor above the period over
+// coarseSpinUpSteps, when that is at least two steps: 6 h for an annual
+// cycle; a daily cycle has none.
+const (
+	coarseSpinUpStep  = 6 * 3600.0
+	coarseSpinUpSteps = 1460
+)
+
 // spinUpFrontTolerance is the largest change (m) of a cycle's deepest
 // frost from the cycle before that counts as settled.
 const spinUpFrontTolerance = 1e-3
@@ -504,6 +514,9 @@ func spinUp(s *run, p solver.Problem, period float64, max int, progress Progress
 	o := solver.SettleOptions{
 		Period: period, MaxCycles: max, Tolerance: spinUpTolerance, FrontTolerance: spinUpFrontTolerance,
 		ConstantInside: constInside,
+	}
+	if k := math.Floor(math.Min(coarseSpinUpStep, period/coarseSpinUpSteps) / p.Step); k >= 2 {
+		o.CoarseStep = k * p.Step
 	}
 	if progress != nil {
 		o.Progress = func(c int) { progress("spin-up", float64(c)/float64(max)) }

@@ -21,7 +21,7 @@ import (
 // each boundary's kind and resistance with its environment temperature,
 // flux and varying resistance evaluated at every time at which a cycle
 // can evaluate them (the start, and each step's midpoint, TR-BDF2 stage
-// and end; settleTimes). It names no scenario key, so it cannot drift
+// and end; settleTimes), for the coarse step too. It names no scenario key, so it cannot drift
 // from what the solver reads: a new input reaches the key only through
 // these numbers (a new field of Problem, Column, Layer, Freezing or
 // Boundary that Settle reads must be added here; TestSettleKeySeesEveryInput
@@ -67,6 +67,7 @@ func SettleKey(p Problem, o SettleOptions) (string, error) {
 	num(o.FrontTolerance)
 	flag(o.ConstantInside)
 	num(o.Sample)
+	num(o.CoarseStep)
 	// Timing and scheme.
 	num(p.Start)
 	num(p.Step)
@@ -118,7 +119,7 @@ func SettleKey(p Problem, o SettleOptions) (string, error) {
 		integer(0)
 	}
 	// Boundaries, at every time a cycle evaluates them.
-	times := settleTimes(p.Start, o.Period, p.Step)
+	times := keyTimes(p, o)
 	for _, b := range []Boundary{p.Outside, p.Inside} {
 		integer(int(b.Kind))
 		num(b.Resistance)
@@ -134,6 +135,17 @@ func SettleKey(p Problem, o SettleOptions) (string, error) {
 		}
 	}
 	return hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// keyTimes lists the times at which SettleKey evaluates the boundaries:
+// those of a cycle with the problem's step and, with a coarse phase, with
+// the coarse step.
+func keyTimes(p Problem, o SettleOptions) []float64 {
+	times := settleTimes(p.Start, o.Period, p.Step)
+	if o.CoarseStep > p.Step && !math.IsInf(o.CoarseStep, 0) {
+		times = append(times, settleTimes(p.Start, o.Period, o.CoarseStep)...)
+	}
+	return times
 }
 
 // settleTimes lists every time at which one cycle of Settle (a run of
