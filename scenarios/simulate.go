@@ -345,6 +345,29 @@ func uniform(n int, v float64) []float64 {
 	return out
 }
 
+// coarseStep is the step of the coarse first cycles of a spin-up of the
+// given period for a simulation of the given step (see coarseSpinUpStep);
+// 0 for none.
+func coarseStep(s *Scenario, step, period float64) float64 {
+	limit := math.Min(coarseSpinUpStep, period/coarseSpinUpSteps)
+	for _, sd := range []Side{s.Outside, s.Inside} {
+		f := sd.Temperature
+		if f == nil || f.Step != nil {
+			continue
+		}
+		if f.Measured != nil || sd.Solar != nil {
+			limit = math.Min(limit, climate.Day/4)
+		}
+		for _, h := range f.Harmonics {
+			limit = math.Min(limit, h.Period/4)
+		}
+	}
+	if k := math.Floor(limit / step); k >= 2 {
+		return k * step
+	}
+	return 0
+}
+
 func longestForcingPeriod(s *Scenario) float64 {
 	var p float64
 	for _, f := range []*Forcing{s.Outside.Temperature, s.Inside.Temperature} {
@@ -488,9 +511,10 @@ const spinUpTolerance = 0.02
 
 // The coarse first cycles of a spin-up (solver.SettleOptions.CoarseStep)
 // step by the largest whole multiple of the simulation's step that is
-// neither above coarseSpinUpStep nor above the period over
-// coarseSpinUpSteps, when that is at least two steps: 6 h for an annual
-// cycle; a daily cycle has none.
+// neither above coarseSpinUpStep, nor above the settled period over
+// coarseSpinUpSteps, nor above a quarter of the shortest period of the
+// forcing (a day for a record or the sun), when that is at least two
+// steps: 6 h for an annual cycle with a daily one; a daily cycle has none.
 const (
 	coarseSpinUpStep  = 6 * 3600.0
 	coarseSpinUpSteps = 1460
@@ -515,9 +539,7 @@ func spinUp(s *run, p solver.Problem, period float64, max int, progress Progress
 		Period: period, MaxCycles: max, Tolerance: spinUpTolerance, FrontTolerance: spinUpFrontTolerance,
 		ConstantInside: constInside,
 	}
-	if k := math.Floor(math.Min(coarseSpinUpStep, period/coarseSpinUpSteps) / p.Step); k >= 2 {
-		o.CoarseStep = k * p.Step
-	}
+	o.CoarseStep = coarseStep(s.Scenario, p.Step, period)
 	if progress != nil {
 		o.Progress = func(c int) { progress("spin-up", float64(c)/float64(max)) }
 	}
