@@ -84,8 +84,6 @@ func runGround(s *run, p *runPlan, progress Progress) (*results.Results, error) 
 		if err != nil {
 			return nil, err
 		}
-		r.Series.Simulation.FrostDepth_m = res.FrostDepth
-		r.Series.Simulation.ThawDepth_m = res.ThawDepth
 		if err := frostAnalysis(s, col, r, res); err != nil {
 			return nil, err
 		}
@@ -428,7 +426,7 @@ func frostAnalysis(s *run, col solver.Column, r *results.Results, res *solver.Re
 	fr.WinterYearStart = anchor/climate.Day + 1
 	fr.WinterYearStartDate = dayOfYear(anchor / climate.Day)
 	wins, whole := winterWindows(s.Outside.Temperature, times, anchor)
-	fa := frostReader{s: s.Scenario, col: col, res: res, whole: whole}
+	fa := frostReader{s: s.Scenario, col: col, res: res, whole: whole, probeFrozen: s.probeFrozen}
 	fa.nFreezing, _ = s.Outside.nFactors()
 	if m := s.Outside.Temperature.Measured; m != nil {
 		fa.recordWinters, _ = recordWinters(m)
@@ -502,6 +500,7 @@ func winterWindows(f *Forcing, times []float64, anchor float64) (wins []winterWi
 // frostReader reads each winter of a simulated ground run.
 type frostReader struct {
 	s             *Scenario
+	probeFrozen   []sampleFlags // per probe: the samples at or below the freezing point there (the recorder's)
 	col           solver.Column
 	res           *solver.Result
 	whole         bool             // the one window is the whole run
@@ -566,13 +565,9 @@ func (fa *frostReader) frozenDays(w winterWindow) []results.ProbeDays {
 	}
 	var out []results.ProbeDays
 	for j, z := range fa.s.Analysis.Probes {
-		fz := 0.0
-		if l := fa.col.Layers[fa.col.LayerAt(fa.s.construction().SolverDepth(z))]; l.Freeze != nil {
-			fz = l.Freeze.Point
-		}
 		n := 0
 		for k, t := range times {
-			if k > 0 && t >= w.from && t < w.to && fa.res.Probe[j][k] <= fz {
+			if k > 0 && t >= w.from && t < w.to && fa.probeFrozen[j].has(k) {
 				n++
 			}
 		}

@@ -3,6 +3,7 @@ package scenarios
 import (
 	"context"
 	"fmt"
+	"io"
 	"math"
 	"math/cmplx"
 	"sort"
@@ -20,6 +21,21 @@ type Options struct {
 	Workers int
 	// Progress, when not nil, is told how far a long simulation has come.
 	Progress Progress
+	// Series, when not nil, receives series.csv (the simulated time
+	// series; see results.CSVFiles) while the simulation runs, one row per
+	// sample, so that a run of any length needs no memory per sample for
+	// it; Results.SeriesStreamed then says it was written, and
+	// Results.Series.Simulation keeps for the charts every sample up to
+	// 32,768 samples and, beyond that, every k-th sample and the last (k
+	// the smallest whole number that keeps it within 8,192). Only the
+	// base run writes it, not the cases of a study; nothing is written
+	// when the scenario has no simulation. Without Series every sample
+	// stays in memory.
+	Series io.Writer
+
+	// settled shares settled starts with the cases of a study (set by
+	// Run; see settleCache).
+	settled *settleCache
 }
 
 // run is one run of a scenario: the scenario, which the run only reads,
@@ -34,6 +50,7 @@ type run struct {
 	surfaceInexact bool     // the fit leaves a residual: the periodic start is only a guess
 	waveDepth      float64  // ground: deepest depth a periodic swing of 0.1 K reaches, m
 	returnPeriod   *results.ReturnPeriodIndex
+	probeFrozen    []sampleFlags // per probe: the simulation's samples at or below the freezing point there
 }
 
 // Run solves a decoded scenario: the steady and exact periodic analyses
@@ -46,6 +63,9 @@ type run struct {
 // cancelled, Run stops at the next case of a study or before the next
 // simulation and returns ctx.Err().
 func Run(ctx context.Context, sc *Scenario, opts Options) (*results.Results, error) {
+	if opts.settled == nil {
+		opts.settled = newSettleCache()
+	}
 	s := &run{Scenario: sc, ctx: ctx, opts: opts}
 	progress := opts.Progress
 	if s.Kind == Room {

@@ -270,7 +270,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 				if progress != nil {
 					progress("spin-up", 0)
 				}
-				settled, err = spinUp(s.Scenario, p, period, sim.MaxSpinUpCycles, progress)
+				settled, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
 				if err != nil {
 					return nil, &Error{File: s.File, Msg: "spin-up", Err: err}
 				}
@@ -287,7 +287,13 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	if progress != nil {
 		p.Progress = func(f float64) { progress("simulation", f) }
 	}
+	rec := newSeriesRecorder(s, col, r)
+	p.Observe = rec.observe
 	res, err := solver.Simulate(p)
+	if err != nil {
+		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
+	}
+	probeStats, err := rec.finish(res)
 	if err != nil {
 		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
 	}
@@ -309,59 +315,16 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		HeatInOutside_J_m2:         res.Energy.InflowOutside,
 		HeatInInside_J_m2:          res.Energy.InflowInside,
 	}
-	for j, z := range s.Analysis.Probes {
-		pr := results.Probe{Depth_m: z, Min_C: math.Inf(1), Max_C: math.Inf(-1)}
-		var sum float64
-		for k, v := range res.Probe[j] {
-			pr.Min_C = math.Min(pr.Min_C, v)
-			pr.Max_C = math.Max(pr.Max_C, v)
-			if k > 0 {
-				sum += v
-			}
-		}
-		pr.Mean_C = sum / float64(max(1, len(res.Probe[j])-1))
-		out.Probes = append(out.Probes, pr)
-	}
+	out.Probes = probeStats
 	r.Simulation = out
 
 	ser := &r.Series
-	var origin time.Time
 	if m := s.Outside.Temperature.Measured; m != nil {
-		origin = m.Series.Start
-		out.Start = origin.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
+		out.Start = m.Series.Start.Add(time.Duration(math.Round(sim.Start)) * time.Second).Format(time.RFC3339)
 	}
-	for k, t := range res.Times {
-		ser.Simulation.Time_h = append(ser.Simulation.Time_h, t/3600)
-		if !origin.IsZero() {
-			ser.Simulation.Stamp = append(ser.Simulation.Stamp, origin.Add(time.Duration(math.Round(t))*time.Second).Format(time.RFC3339))
-		}
-		ser.Simulation.OutsideAir_C = append(ser.Simulation.OutsideAir_C, envAt(s.Outside, t))
-		if s.Inside.temperature() != nil {
-			ser.Simulation.InsideAir_C = append(ser.Simulation.InsideAir_C, envAt(s.Inside, t))
-		}
-		_ = k
-	}
-	ser.Simulation.OutsideSurface_C = res.SurfaceOutside
-	ser.Simulation.InsideSurface_C = res.SurfaceInside
-	// Charts and CSV show the flux averaged over each output interval (the
-	// heat that went through, as in the energy balance): an instantaneous
-	// flux into a freezing surface cell spikes between samples.
-	ser.Simulation.OutsideFlux_W_m2 = res.MeanFluxOutside
-	ser.Simulation.InsideFlux_W_m2 = res.MeanFluxInside
-	ser.Simulation.ProbeDepth_m = append([]float64(nil), s.Analysis.Probes...)
-	ser.Simulation.Probes_C = res.Probe
 	ser.SimProfile.Position_m = res.Mesh.Centers
 	ser.SimProfile.Min_C, ser.SimProfile.Mean_C, ser.SimProfile.Max_C = res.Min, res.Mean, res.Max
 	return res, nil
-}
-
-// envAt is the environment temperature of a side at t (s), degC (with the
-// sun and n-factors), NaN when the side has none.
-func envAt(sd Side, t float64) float64 {
-	if sd.temperature() == nil {
-		return math.NaN()
-	}
-	return sd.Boundary().Temperature(t)
 }
 
 func uniform(n int, v float64) []float64 {
@@ -370,6 +333,29 @@ func uniform(n int, v float64) []float64 {
 		out[i] = v
 	}
 	return out
+}
+
+// coarseStep is the step of the coarse first cycles of a spin-up of the
+// given period for a simulation of the given step (see coarseSpinUpStep);
+// 0 for none.
+func coarseStep(s *Scenario, step, period float64) float64 {
+	limit := math.Min(coarseSpinUpStep, period/coarseSpinUpSteps)
+	for _, sd := range []Side{s.Outside, s.Inside} {
+		f := sd.drive()
+		if f == nil || f.Step != nil {
+			continue
+		}
+		if env, ok := sd.(Environment); f.Measured != nil || (ok && env.Solar != nil) {
+			limit = math.Min(limit, climate.Day/4)
+		}
+		for _, h := range f.Harmonics {
+			limit = math.Min(limit, h.Period/4)
+		}
+	}
+	if k := math.Floor(limit / step); k >= 2 {
+		return k * step
+	}
+	return 0
 }
 
 func longestForcingPeriod(s *Scenario) float64 {
@@ -513,6 +499,17 @@ func minPenetrationDepth(s *Scenario, p float64) float64 {
 // periodic.
 const spinUpTolerance = 0.02
 
+// The coarse first cycles of a spin-up (solver.SettleOptions.CoarseStep)
+// step by the largest whole multiple of the simulation's step that is
+// neither above coarseSpinUpStep, nor above the settled period over
+// coarseSpinUpSteps, nor above a quarter of the shortest period of the
+// forcing (a day for a record or the sun), when that is at least two
+// steps: 6 h for an annual cycle with a daily one; a daily cycle has none.
+const (
+	coarseSpinUpStep  = 6 * 3600.0
+	coarseSpinUpSteps = 1460
+)
+
 // spinUpFrontTolerance is the largest change (m) of a cycle's deepest
 // frost from the cycle before that counts as settled.
 const spinUpFrontTolerance = 1e-3
@@ -522,18 +519,21 @@ const spinUpFrontTolerance = 1e-3
 // spinUpTolerance in every cell and spinUpFrontTolerance in the frost
 // depth), the quiet deep ground set to its steady profile between cycles
 // when the bottom condition is constant. It returns an error only for a
-// failed simulation.
-func spinUp(s *Scenario, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
+// failed simulation. A state an earlier simulation of the same run (the
+// base scenario or another case of its study) settled to from the same
+// inputs is taken as it is (settleCache).
+func spinUp(s *run, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
 	f := s.Inside.drive()
 	constInside := f == nil || (len(f.Harmonics) == 0 && f.Measured == nil && f.Step == nil)
 	o := solver.SettleOptions{
 		Period: period, MaxCycles: max, Tolerance: spinUpTolerance, FrontTolerance: spinUpFrontTolerance,
 		ConstantInside: constInside,
 	}
+	o.CoarseStep = coarseStep(s.Scenario, p.Step, period)
 	if progress != nil {
 		o.Progress = func(c int) { progress("spin-up", float64(c)/float64(max)) }
 	}
-	return solver.Settle(p, o)
+	return s.opts.settled.settle(p, o)
 }
 
 // fmtMM formats a length in metres as millimetres for a message.

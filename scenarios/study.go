@@ -398,7 +398,7 @@ func runCase(s *run, c studyCase) (*results.Results, error) {
 	if err != nil {
 		return nil, err
 	}
-	return Run(s.ctx, cs, Options{})
+	return Run(s.ctx, cs, Options{settled: s.opts.settled})
 }
 
 // decodeCase decodes the base file with the replacements.

@@ -29,8 +29,14 @@ type SettleOptions struct {
 	// depth and temperature range are read, s; 0 means Period/365 (a day
 	// of a year), rounded to whole steps.
 	OutputStep float64
+	// CoarseStep, when larger than the problem's Step, is the time step
+	// of a first, cheap phase: cycles of the problem with this step,
+	// settled by the same rules, whose state starts the cycles with the
+	// problem's own step (the fixed point is that of the problem's step;
+	// the coarse cycles only bring the slow deep state near it). 0: none.
+	CoarseStep float64
 	// Progress, when not nil, is called after each cycle with the number
-	// of cycles run.
+	// of cycles run (counted again from 1 after the coarse phase).
 	Progress func(cycle int)
 }
 
@@ -57,6 +63,9 @@ type Settled struct {
 	// DeepResets counts the cycles after which the quiet deep part of the
 	// column was set to its steady profile.
 	DeepResets int
+	// CoarseCycles is the number of cycles of the coarse phase
+	// (SettleOptions.CoarseStep), run before the Cycles above.
+	CoarseCycles int
 }
 
 // Settle runs cycles of p.Period from p's initial state until the state
@@ -94,6 +103,21 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 	p.Duration = o.Period
 	p.Probes = nil
 	p.Progress = nil
+	p.Observe = nil
+	coarse := 0
+	if o.CoarseStep > p.Step && p.Step > 0 && !math.IsInf(o.CoarseStep, 0) {
+		// Coarse cycles first; the cycles below start from their state
+		// and, comparing fronts only between cycles of the fine step,
+		// run at least twice.
+		q, qo := p, o
+		q.Step, qo.CoarseStep = o.CoarseStep, 0
+		st, err := Settle(q, qo)
+		if err != nil {
+			return nil, err
+		}
+		p.InitialEnthalpy, p.Initial, p.InitialFunc = st.Enthalpy, nil, nil
+		coarse = st.Cycles
+	}
 	p.OutputStep = o.OutputStep
 	if p.OutputStep <= 0 {
 		p.OutputStep = o.Period / 365
@@ -112,7 +136,7 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 			ceq[i] = math.Min(r.phases[k].cf, r.phases[k].cu) + r.phases[k].lat
 		}
 	}
-	out := &Settled{FrontChange: math.Inf(1)}
+	out := &Settled{FrontChange: math.Inf(1), CoarseCycles: coarse}
 	prevH := make([]float64, r.n)
 	prevT := make([]float64, r.n)
 	for c := 1; c <= o.MaxCycles; c++ {

@@ -131,12 +131,37 @@ type Problem struct {
 	// run (0 to 1) about a hundred times.
 	Progress func(frac float64)
 
+	// Observe, when not nil, is called by Simulate at every sample (the
+	// start, every OutputStep and the end) with the values of that
+	// sample, in time order, and the Result then holds no per-sample
+	// series: Times, Probe, SurfaceOutside, SurfaceInside, FluxOutside,
+	// FluxInside, MeanFluxOutside, MeanFluxInside, FrostDepth and
+	// ThawDepth are nil (Min, Max and Mean are still filled). A long run
+	// thus needs no memory per sample; the caller keeps what it needs.
+	// The Sample and its Probe slice are reused from call to call.
+	Observe func(*Sample)
+
 	// SpinUpDepth, when positive, limits the convergence test of SpinUp
 	// and SpinUpEnthalpy to the cells whose centre lies at most this deep
 	// (m): the periodic wave settles there long before the deep mean
 	// temperature of a ground column does, which takes decades and does not
 	// change what happens above.
 	SpinUpDepth float64
+}
+
+// Sample is the state of a simulation at one sample time, as Result
+// records it per sample (units and signs as the Result fields of the
+// same names).
+type Sample struct {
+	Index, Count int     // this sample's index (0 = the start) and the number of samples of the run
+	Time         float64 // s
+
+	Probe []float64 // degC at Problem.Probes
+
+	SurfaceOutside, SurfaceInside   float64 // degC
+	FluxOutside, FluxInside         float64 // W/m2 in +x, instantaneous
+	MeanFluxOutside, MeanFluxInside float64 // W/m2 in +x, mean over the interval ending here
+	FrostDepth, ThawDepth           float64 // m
 }
 
 // Result is the outcome of Simulate.

@@ -2,7 +2,8 @@ package solver
 
 import "math"
 
-// allocResult prepares the result series of a run.
+// allocResult prepares the result series of a run (only the per-cell
+// range and mean when Problem.Observe takes the samples).
 func (r *fvRun) allocResult() {
 	ns := r.nSteps/r.every + 1 // the initial state and every sample step
 	if r.nSteps%r.every != 0 {
@@ -10,24 +11,27 @@ func (r *fvRun) allocResult() {
 	}
 	p := r.p
 	res := &Result{
-		Mesh:            r.m,
-		Times:           make([]float64, ns),
-		Probes:          append([]float64(nil), p.Probes...),
-		Probe:           make([][]float64, len(p.Probes)),
-		SurfaceOutside:  make([]float64, ns),
-		SurfaceInside:   make([]float64, ns),
-		FluxOutside:     make([]float64, ns),
-		FluxInside:      make([]float64, ns),
-		MeanFluxOutside: make([]float64, ns),
-		MeanFluxInside:  make([]float64, ns),
-		Min:             make([]float64, r.n),
-		Max:             make([]float64, r.n),
-		Mean:            make([]float64, r.n),
-		FrostDepth:      make([]float64, ns),
-		ThawDepth:       make([]float64, ns),
+		Mesh:   r.m,
+		Probes: append([]float64(nil), p.Probes...),
+		Min:    make([]float64, r.n),
+		Max:    make([]float64, r.n),
+		Mean:   make([]float64, r.n),
 	}
-	for j := range res.Probe {
-		res.Probe[j] = make([]float64, ns)
+	r.smp = Sample{Count: ns, Probe: make([]float64, len(p.Probes))}
+	if p.Observe == nil {
+		res.Times = make([]float64, ns)
+		res.Probe = make([][]float64, len(p.Probes))
+		res.SurfaceOutside = make([]float64, ns)
+		res.SurfaceInside = make([]float64, ns)
+		res.FluxOutside = make([]float64, ns)
+		res.FluxInside = make([]float64, ns)
+		res.MeanFluxOutside = make([]float64, ns)
+		res.MeanFluxInside = make([]float64, ns)
+		res.FrostDepth = make([]float64, ns)
+		res.ThawDepth = make([]float64, ns)
+		for j := range res.Probe {
+			res.Probe[j] = make([]float64, ns)
+		}
 	}
 	for i := range res.Min {
 		res.Min[i] = math.Inf(1)
@@ -55,30 +59,29 @@ func (r *fvRun) surfaces() (qo, qi, tso, tsi float64) {
 	return qo, qi, tso, tsi
 }
 
-// sample records sample k at time t.
+// sample records sample k at time t, or hands it to Problem.Observe.
 func (r *fvRun) sample(k int, t float64) {
 	res := r.res
 	n := r.n
 	T := r.T
 	qo, qi, tso, tsi := r.surfaces()
-	res.Times[k] = t
-	res.SurfaceOutside[k] = tso
-	res.SurfaceInside[k] = tsi
-	res.FluxOutside[k] = qo
-	res.FluxInside[k] = -qi
+	s := &r.smp
+	s.Index, s.Time = k, t
+	s.SurfaceOutside, s.SurfaceInside = tso, tsi
+	s.FluxOutside, s.FluxInside = qo, -qi
 	// Interval means from the heat the time scheme let in (the same sums as
 	// the energy balance); the first sample has no interval and takes the
 	// instantaneous value.
 	eo, ei := r.eOut.value(), r.eIn.value()
 	if k == 0 || t <= r.lastT {
-		res.MeanFluxOutside[k], res.MeanFluxInside[k] = qo, -qi
+		s.MeanFluxOutside, s.MeanFluxInside = qo, -qi
 	} else {
-		res.MeanFluxOutside[k] = (eo - r.lastOut) / (t - r.lastT)
-		res.MeanFluxInside[k] = -(ei - r.lastIn) / (t - r.lastT)
+		s.MeanFluxOutside = (eo - r.lastOut) / (t - r.lastT)
+		s.MeanFluxInside = -(ei - r.lastIn) / (t - r.lastT)
 	}
 	r.lastT, r.lastOut, r.lastIn = t, eo, ei
 	for j, x := range res.Probes {
-		res.Probe[j][k] = r.probe(x, qo, qi, tso, tsi)
+		s.Probe[j] = r.probe(x, qo, qi, tso, tsi)
 	}
 	mn, mx, mean := res.Min[:n], res.Max[:n], res.Mean[:n]
 	for i, v := range T[:n] {
@@ -92,7 +95,19 @@ func (r *fvRun) sample(k int, t float64) {
 			mean[i] += v
 		}
 	}
-	res.FrostDepth[k], res.ThawDepth[k] = r.frost(tso)
+	s.FrostDepth, s.ThawDepth = r.frost(tso)
+	if r.p.Observe != nil {
+		r.p.Observe(s)
+		return
+	}
+	res.Times[k] = t
+	res.SurfaceOutside[k], res.SurfaceInside[k] = tso, tsi
+	res.FluxOutside[k], res.FluxInside[k] = s.FluxOutside, s.FluxInside
+	res.MeanFluxOutside[k], res.MeanFluxInside[k] = s.MeanFluxOutside, s.MeanFluxInside
+	for j := range res.Probe {
+		res.Probe[j][k] = s.Probe[j]
+	}
+	res.FrostDepth[k], res.ThawDepth[k] = s.FrostDepth, s.ThawDepth
 }
 
 // probe interpolates the temperature at x by the quadratic through the

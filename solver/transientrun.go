@@ -91,6 +91,7 @@ type fvRun struct {
 	fvWork
 
 	res *Result // the series being recorded, nil when not recording
+	smp Sample  // the sample being taken (handed to Problem.Observe)
 }
 
 // fvConfig is what a run is set up with and does not change while it

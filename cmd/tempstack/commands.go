@@ -113,7 +113,14 @@ func runCommand() *cli.Command {
 			if signalsWatched != nil {
 				signalsWatched()
 			}
-			res, err := scenarios.Run(ctx, s, scenarios.Options{Progress: progressFor(c.App.ErrWriter), Workers: c.Int("workers")})
+			// series.csv is written while the simulation runs, into a
+			// temporary file that is renamed with the other outputs.
+			series, err := newStreamed(filepath.Join(dir, "series.csv"))
+			if err != nil {
+				return err
+			}
+			defer series.discard()
+			res, err := scenarios.Run(ctx, s, scenarios.Options{Progress: progressFor(c.App.ErrWriter), Workers: c.Int("workers"), Series: series.f})
 			if errors.Is(err, context.Canceled) {
 				return cli.Exit("interrupted: the run was stopped and nothing was written", 130)
 			}
@@ -124,7 +131,7 @@ func runCommand() *cli.Command {
 			if c.Bool("date") {
 				opt.GeneratedAt = time.Now().Format("2 January 2006")
 			}
-			written, err := writeOutputs(dir, res, opt)
+			written, err := writeOutputs(dir, res, opt, series)
 			if err != nil {
 				return err
 			}
@@ -241,20 +248,62 @@ func leftovers(dir string, written []string) []string {
 	return out
 }
 
+// streamed is an output file written while the run goes on (series.csv):
+// a temporary file beside its final path, renamed by writeOutputs with
+// the other outputs, or removed by discard.
+type streamed struct {
+	path string   // the final path
+	f    *os.File // the temporary file, nil once renamed or removed
+}
+
+// newStreamed creates the temporary file of path (".BASE.RANDOM.tmp").
+func newStreamed(path string) (*streamed, error) {
+	f, err := createTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
+	if err != nil {
+		return nil, userErr("cannot write in %s: %v", filepath.Dir(path), cleanPathError(err))
+	}
+	return &streamed{path: path, f: f}, nil
+}
+
+// stage syncs and closes the temporary file and returns its name.
+func (s *streamed) stage() (string, error) {
+	name := s.f.Name()
+	serr := s.f.Sync()
+	cerr := s.f.Close()
+	s.f = nil
+	if err := errors.Join(serr, cerr, os.Chmod(name, 0o644)); err != nil {
+		os.Remove(name)
+		return "", userErr("cannot write %s: %v", s.path, err)
+	}
+	return name, nil
+}
+
+// discard removes the temporary file unless it was staged.
+func (s *streamed) discard() {
+	if s != nil && s.f != nil {
+		s.f.Close()
+		os.Remove(s.f.Name())
+		s.f = nil
+	}
+}
+
 // writeOutputs writes every output file of a run into dir. Every file is
-// first built in memory, then written in full to a temporary file in dir
-// (".NAME.RANDOM.tmp") and synced; only when all of them are on disk are
-// they renamed over the final names. A failure before that point removes
-// the temporary files and leaves every earlier file in dir untouched; a
-// process killed before it leaves the earlier files intact too (at worst
-// with a hidden temporary file beside them, never a half-written output).
-func writeOutputs(dir string, res *results.Results, opt charts.Options) ([]string, error) {
+// first built in memory (or, series.csv, written while the run went on,
+// into the temporary file of series), then written in full to a temporary
+// file in dir (".NAME.RANDOM.tmp") and synced; only when all of them are
+// on disk are they renamed over the final names. A failure before that
+// point removes the temporary files and leaves every earlier file in dir
+// untouched; a process killed before it leaves the earlier files intact
+// too (at worst with a hidden temporary file beside them, never a
+// half-written output).
+func writeOutputs(dir string, res *results.Results, opt charts.Options, series ...*streamed) ([]string, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, userErr("cannot create output folder %s: %v", dir, cleanPathError(err))
 	}
 	type file struct {
-		name string
-		data []byte
+		name     string
+		data     []byte
+		streamed *streamed // written while the run went on
 	}
 	var files []file
 	if at := results.NonFinite(res); at != "" {
@@ -271,9 +320,20 @@ func writeOutputs(dir string, res *results.Results, opt charts.Options) ([]strin
 	if err := charts.Write(&html, res, opt); err != nil {
 		return nil, fmt.Errorf("building report.html: %w", err)
 	}
-	files = append(files, file{"results.json", js.Bytes()}, file{"report.html", html.Bytes()})
+	files = append(files, file{name: "results.json", data: js.Bytes()}, file{name: "report.html", data: html.Bytes()})
 	for _, extra := range results.CSVFiles(res) {
-		files = append(files, file{extra.Name, extra.Data})
+		f := file{name: extra.Name, data: extra.Data}
+		if extra.Streamed {
+			for _, st := range series {
+				if st != nil && st.f != nil && filepath.Base(st.path) == extra.Name {
+					f.streamed = st
+				}
+			}
+			if f.streamed == nil {
+				return nil, fmt.Errorf("internal error: %s was streamed to no file", extra.Name)
+			}
+		}
+		files = append(files, f)
 	}
 	for _, f := range files {
 		// A folder in the way would fail the renames half-way: refuse first.
@@ -289,7 +349,13 @@ func writeOutputs(dir string, res *results.Results, opt charts.Options) ([]strin
 		}
 	}
 	for _, f := range files {
-		tmp, err := writeTemp(filepath.Join(dir, f.name), f.data)
+		var tmp string
+		var err error
+		if f.streamed != nil {
+			tmp, err = f.streamed.stage()
+		} else {
+			tmp, err = writeTemp(filepath.Join(dir, f.name), f.data)
+		}
 		if err != nil {
 			cleanup()
 			return nil, err

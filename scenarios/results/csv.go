@@ -1,17 +1,22 @@
 package results
 
 import (
+	"bufio"
 	"bytes"
 	"encoding/csv"
+	"io"
 	"math"
 	"strconv"
 )
 
 // CSVFile is one CSV output of a run: UTF-8, comma separated, dot decimal,
-// a header row whose names carry the units.
+// a header row whose names carry the units. A file the run already wrote
+// while it ran (series.csv, see Results.SeriesStreamed) has Streamed set
+// and no Data.
 type CSVFile struct {
-	Name string
-	Data []byte
+	Name     string
+	Data     []byte
+	Streamed bool
 }
 
 // CSVFiles returns the CSV outputs of a run, in a fixed order:
@@ -47,7 +52,9 @@ func CSVFiles(r *Results) []CSVFile {
 		out = append(out, table("profile.csv", []string{"position_m", "min_C", "mean_C", "max_C"},
 			columns(s.Profile.Position_m, s.Profile.Min_C, s.Profile.Mean_C, s.Profile.Max_C)))
 	}
-	if len(s.Simulation.Time_h) > 0 {
+	if r.SeriesStreamed {
+		out = append(out, CSVFile{Name: "series.csv", Streamed: true})
+	} else if len(s.Simulation.Time_h) > 0 {
 		out = append(out, seriesCSV(r))
 	}
 	if len(s.Step.Time_s) > 0 {
@@ -101,54 +108,141 @@ func table(name string, header []string, rows [][]float64) CSVFile {
 	return CSVFile{Name: name, Data: b.Bytes()}
 }
 
-// seriesCSV is the simulated time series. Heat fluxes are positive in the
-// +x direction (from outside to inside; downward in the ground).
+// seriesCSV is the simulated time series, from the samples kept in
+// memory, in the same bytes as a SeriesWriter writes while the simulation
+// runs.
 func seriesCSV(r *Results) CSVFile {
-	s := &r.Series
+	s := &r.Series.Simulation
+	stamps := len(s.Stamp) == len(s.Time_h) && len(s.Stamp) > 0
+	var b bytes.Buffer
+	w := NewSeriesWriter(&b, SeriesLayout{Kind: r.Kind, ProbeDepth_m: s.ProbeDepth_m,
+		InsideEnvironment: len(s.InsideAir_C) > 0, Frost: len(s.FrostDepth_m) > 0, Stamp: stamps})
+	cols := [][]float64{s.Time_h, s.OutsideAir_C, s.OutsideSurface_C}
+	for j := range s.ProbeDepth_m {
+		cols = append(cols, s.Probes_C[j])
+	}
+	cols = append(cols, s.InsideSurface_C)
+	if len(s.InsideAir_C) > 0 {
+		cols = append(cols, s.InsideAir_C)
+	}
+	cols = append(cols, s.OutsideFlux_W_m2, s.InsideFlux_W_m2)
+	if len(s.FrostDepth_m) > 0 {
+		cols = append(cols, s.FrostDepth_m, s.ThawDepth_m)
+	}
+	row := make([]float64, len(cols))
+	for k := range s.Time_h {
+		for j, c := range cols {
+			row[j] = math.NaN() // a short column: empty cells
+			if k < len(c) {
+				row[j] = c[k]
+			}
+		}
+		var stamp []byte
+		if stamps {
+			stamp = []byte(s.Stamp[k])
+		}
+		w.Row(stamp, row)
+	}
+	w.Flush()
+	return CSVFile{Name: "series.csv", Data: b.Bytes()}
+}
+
+// SeriesLayout says which columns series.csv has: time_h, the outside
+// (surface) environment and surface temperatures, a temperature per probe,
+// the inside (bottom) surface temperature, the inside (bottom) environment
+// when there is one, the heat fluxes at both surfaces (positive in +x,
+// from outside to inside; downward in the ground) and, with Frost, frost
+// and thaw depth; with Stamp a first column "time" holds each sample's
+// ISO 8601 time.
+type SeriesLayout struct {
+	Kind              Kind
+	ProbeDepth_m      []float64
+	InsideEnvironment bool
+	Frost             bool
+	Stamp             bool
+}
+
+// Header returns the column names after the optional time stamp.
+func (l SeriesLayout) Header() []string {
 	out, in := "outside", "inside"
 	envName, surfName, inSurf := "outside_environment_C", "outside_surface_C", "inside_surface_C"
-	if r.Kind == Ground {
+	if l.Kind == Ground {
 		out, in = "surface", "bottom"
 		envName, surfName, inSurf = "surface_forcing_C", "ground_surface_C", "bottom_C"
 	}
 	header := []string{"time_h", envName, surfName}
-	cols := [][]float64{s.Simulation.Time_h, s.Simulation.OutsideAir_C, s.Simulation.OutsideSurface_C}
-	for j, z := range s.Simulation.ProbeDepth_m {
+	for _, z := range l.ProbeDepth_m {
 		header = append(header, "probe_"+strconv.FormatFloat(z, 'g', 6, 64)+"m_C")
-		cols = append(cols, s.Simulation.Probes_C[j])
 	}
 	header = append(header, inSurf)
-	cols = append(cols, s.Simulation.InsideSurface_C)
-	if len(s.Simulation.InsideAir_C) > 0 {
+	if l.InsideEnvironment {
 		header = append(header, in+"_environment_C")
-		cols = append(cols, s.Simulation.InsideAir_C)
 	}
 	header = append(header, out+"_heat_flux_W_m2", in+"_heat_flux_W_m2")
-	cols = append(cols, s.Simulation.OutsideFlux_W_m2, s.Simulation.InsideFlux_W_m2)
-	if len(s.Simulation.FrostDepth_m) > 0 {
+	if l.Frost {
 		header = append(header, "frost_depth_m", "thaw_depth_m")
-		cols = append(cols, s.Simulation.FrostDepth_m, s.Simulation.ThawDepth_m)
 	}
-	f := table("series.csv", header, columns(cols...))
-	if len(s.Simulation.Stamp) == len(s.Simulation.Time_h) && len(s.Simulation.Stamp) > 0 {
-		f.Data = prependColumn(f.Data, "time", s.Simulation.Stamp)
-	}
-	return f
+	return header
 }
 
-// prependColumn adds a text column in front of a rendered CSV table.
-func prependColumn(data []byte, name string, values []string) []byte {
-	lines := bytes.Split(bytes.TrimRight(data, "\n"), []byte("\n"))
-	var b bytes.Buffer
-	for i, l := range lines {
-		if i == 0 {
-			b.WriteString(name)
-		} else if i-1 < len(values) {
-			b.WriteString(values[i-1])
-		}
-		b.WriteByte(',')
-		b.Write(l)
-		b.WriteByte('\n')
+// SeriesWriter writes series.csv one sample at a time, so a simulation of
+// any length can write it as it runs with no memory per sample. It
+// buffers; Flush writes out the rest and returns the first write error.
+type SeriesWriter struct {
+	w     *bufio.Writer
+	stamp bool
+	buf   []byte
+	err   error
+}
+
+// NewSeriesWriter writes the header row of the layout to w and returns the
+// writer of the rows.
+func NewSeriesWriter(w io.Writer, l SeriesLayout) *SeriesWriter {
+	sw := &SeriesWriter{w: bufio.NewWriterSize(w, 64<<10), stamp: l.Stamp}
+	if l.Stamp {
+		sw.buf = append(sw.buf, "time,"...)
 	}
-	return b.Bytes()
+	for j, h := range l.Header() {
+		if j > 0 {
+			sw.buf = append(sw.buf, ',')
+		}
+		sw.buf = append(sw.buf, h...)
+	}
+	sw.line()
+	return sw
+}
+
+// Row writes one sample: the time stamp (used only when the layout has
+// one) and the values in the order of the header; NaN and Inf are written
+// as empty cells, numbers with 10 significant digits.
+func (sw *SeriesWriter) Row(stamp []byte, values []float64) {
+	if sw.stamp {
+		sw.buf = append(sw.buf, stamp...)
+		sw.buf = append(sw.buf, ',')
+	}
+	for j, v := range values {
+		if j > 0 {
+			sw.buf = append(sw.buf, ',')
+		}
+		if !math.IsNaN(v) && !math.IsInf(v, 0) {
+			sw.buf = strconv.AppendFloat(sw.buf, v, 'g', 10, 64)
+		}
+	}
+	sw.line()
+}
+
+func (sw *SeriesWriter) line() {
+	sw.buf = append(sw.buf, '\n')
+	if sw.err == nil {
+		_, sw.err = sw.w.Write(sw.buf)
+	}
+	sw.buf = sw.buf[:0]
+}
+
+// Flush writes what is buffered and returns the first error of any write.
+func (sw *SeriesWriter) Flush() error {
+	if sw.err == nil {
+		sw.err = sw.w.Flush()
+	}
+	return sw.err
 }

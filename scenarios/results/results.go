@@ -69,6 +69,11 @@ type Results struct {
 
 	// Series holds the chart data; large, so it is kept out of results.json.
 	Series Series `json:"-"`
+	// SeriesStreamed says that series.csv went to scenarios.Options.Series
+	// while the simulation ran (CSVFiles then lists it without data) and
+	// that Series.Simulation holds the samples thinned for the charts
+	// (see scenarios.Options.Series).
+	SeriesStreamed bool `json:"-"`
 }
 
 // Layer describes one layer as it was used in the run, outside (or surface)
