@@ -15,56 +15,91 @@ import (
 func inputsTable(r *results.Results) *block { return inputsBlocks(r)[0] }
 
 // inputsBlocks is the inputs table followed, when a measured series had
-// gaps, by the table of the gaps bridged.
+// gaps, by the table of the gaps bridged. The rows come in a fixed order:
+// surfaces, forcing, measured records, frost, analysis, simulation.
 func inputsBlocks(r *results.Results) []*block {
-	var gaps *block
 	ground := r.Kind == results.Ground
 	t := newTable("Assumptions and inputs of this run", []string{"Input", "Value"}, "text", "text")
-	res := func(v float64) string {
-		if v == 0 {
-			return "0 (surface temperature prescribed)"
-		}
-		return trimZeros(sig(v, 3)) + " m²·K/W"
+	surfaceRows(t, r, ground)
+	if ground {
+		groundForcingRows(t, r)
+	} else {
+		wallForcingRows(t, r)
 	}
+	gaps := recordRows(t, r)
+	frostInputRows(t, r)
+	periodsRow(t, r, ground)
+	probeRow(t, r, ground)
+	simulationRows(t, r.Simulation)
+	t.Notes = append(t.Notes, "Material properties and their sources are in the layer table; the methods are listed at the end of the report.")
+	return []*block{{Table: t}, gaps}
+}
+
+// resistanceText is a surface resistance in m²·K/W; zero means the
+// surface temperature is prescribed.
+func resistanceText(v float64) string {
+	if v == 0 {
+		return "0 (surface temperature prescribed)"
+	}
+	return trimZeros(sig(v, 3)) + " m²·K/W"
+}
+
+// surfaceRows are the surface resistances (one for a ground column, the
+// outside and inside ones with the component for a wall).
+func surfaceRows(t *table, r *results.Results, ground bool) {
 	s := r.Steady
 	if ground {
-		t.row("Surface resistance", res(s.OutsideSurfaceResistance))
-	} else {
-		if r.Orientation != "" {
-			t.row("Component", r.Orientation)
-		}
-		t.row("Outside surface resistance Rse", res(s.OutsideSurfaceResistance))
-		t.row("Inside surface resistance Rsi", res(s.InsideSurfaceResistance))
+		t.row("Surface resistance", resistanceText(s.OutsideSurfaceResistance))
+		return
 	}
+	if r.Orientation != "" {
+		t.row("Component", r.Orientation)
+	}
+	t.row("Outside surface resistance Rse", resistanceText(s.OutsideSurfaceResistance))
+	t.row("Inside surface resistance Rsi", resistanceText(s.InsideSurfaceResistance))
+}
 
-	// Forcing, as far as the results carry it.
-	if g := r.Ground; ground && g != nil {
-		if f := r.Frost; f != nil {
-			if f.MeanAnnualAir_C != nil && f.IndexSource.Origin != results.FromSimulated {
-				t.row("Mean annual air temperature", degC(*f.MeanAnnualAir_C))
-			}
-		}
-		if g.NFactorFreezing > 0 || g.NFactorThawing > 0 {
-			t.row("n-factors of the surface cover, freezing and thawing (surface / air)", trimZeros(sig(g.NFactorFreezing, 3))+" and "+trimZeros(sig(g.NFactorThawing, 3)))
-		}
-		t.row("Ground surface temperature", fmt.Sprintf("mean %s, annual swing ±%s K (n-factors applied)", degC(g.SurfaceMean_C), fixed(g.SurfaceAnnualAmplitude_K, 1)))
-		if g.GeothermalFlux_W_m2 != nil {
-			t.row("Bottom of the column", "geothermal heat flux "+trimZeros(sig(*g.GeothermalFlux_W_m2*1000, 3))+" mW/m² upward")
-		} else {
-			t.row("Bottom of the column", "fixed temperature")
-		}
-		t.row("Depth of the column", fixed(g.ColumnDepth_m, 2)+" m")
-	} else if !ground {
-		c := r.Series
-		if len(c.Cycle.OutsideAir_C) > 0 && len(r.Periodic) > 0 {
-			t.row("Outside environment temperature over the "+periodLabel(r.Periodic[0].Period_h)+" cycle",
-				rangeText(c.Cycle.Time_h, c.Cycle.OutsideAir_C))
-		}
-		if len(c.Cycle.InsideAir_C) > 0 {
-			t.row("Inside environment temperature over the same cycle", rangeText(c.Cycle.Time_h, c.Cycle.InsideAir_C))
+// groundForcingRows are the forcing of a ground column as far as the
+// results carry it: air and surface temperatures, n-factors, the bottom
+// boundary and the depth.
+func groundForcingRows(t *table, r *results.Results) {
+	g := r.Ground
+	if g == nil {
+		return
+	}
+	if f := r.Frost; f != nil {
+		if f.MeanAnnualAir_C != nil && f.IndexSource.Origin != results.FromSimulated {
+			t.row("Mean annual air temperature", degC(*f.MeanAnnualAir_C))
 		}
 	}
-	gaps = recordRows(t, r)
+	if g.NFactorFreezing > 0 || g.NFactorThawing > 0 {
+		t.row("n-factors of the surface cover, freezing and thawing (surface / air)", trimZeros(sig(g.NFactorFreezing, 3))+" and "+trimZeros(sig(g.NFactorThawing, 3)))
+	}
+	t.row("Ground surface temperature", fmt.Sprintf("mean %s, annual swing ±%s K (n-factors applied)", degC(g.SurfaceMean_C), fixed(g.SurfaceAnnualAmplitude_K, 1)))
+	if g.GeothermalFlux_W_m2 != nil {
+		t.row("Bottom of the column", "geothermal heat flux "+trimZeros(sig(*g.GeothermalFlux_W_m2*1000, 3))+" mW/m² upward")
+	} else {
+		t.row("Bottom of the column", "fixed temperature")
+	}
+	t.row("Depth of the column", fixed(g.ColumnDepth_m, 2)+" m")
+}
+
+// wallForcingRows are the ranges of the outside and inside environment
+// temperatures over the first periodic cycle.
+func wallForcingRows(t *table, r *results.Results) {
+	c := r.Series
+	if len(c.Cycle.OutsideAir_C) > 0 && len(r.Periodic) > 0 {
+		t.row("Outside environment temperature over the "+periodLabel(r.Periodic[0].Period_h)+" cycle",
+			rangeText(c.Cycle.Time_h, c.Cycle.OutsideAir_C))
+	}
+	if len(c.Cycle.InsideAir_C) > 0 {
+		t.row("Inside environment temperature over the same cycle", rangeText(c.Cycle.Time_h, c.Cycle.InsideAir_C))
+	}
+}
+
+// frostInputRows are the design freezing index, the wall's freezing
+// n-factor and the step-response setting.
+func frostInputRows(t *table, r *results.Results) {
 	if f := r.Frost; f != nil {
 		if d := f.DesignFreezingIndex_Cd; d != nil {
 			t.row("Design air freezing index", cd(*d)+" (used by Stefan and modified Berggren)")
@@ -76,8 +111,11 @@ func inputsBlocks(r *results.Results) []*block {
 	if st := r.StepResponse; st != nil {
 		t.row("Surface heat uptake after a step", fmt.Sprintf("the %s surface temperature steps by %s K, followed for %s", st.Side, fixed(st.Change_K, 1), seconds(st.Duration_s)))
 	}
+}
 
-	// Analysis.
+// periodsRow lists the periods of the exact periodic analysis: the
+// ground's when a ground column has them, else the wall's.
+func periodsRow(t *table, r *results.Results, ground bool) {
 	var periods []string
 	if ground && r.Ground != nil {
 		for _, p := range r.Ground.Periodic {
@@ -92,44 +130,60 @@ func inputsBlocks(r *results.Results) []*block {
 	if len(periods) > 0 {
 		t.row("Periods of the exact periodic analysis", strings.Join(periods, ", "))
 	}
-	if z := probeDepths(r); len(z) > 0 {
-		var ps []string
-		for _, v := range z {
-			if ground {
-				ps = append(ps, fixed(v, 2)+" m")
-			} else {
-				ps = append(ps, trimZeros(sig(v*1000, 3))+" mm")
-			}
-		}
-		what := "Probe positions from the outside surface"
+}
+
+// probeRow lists the probe positions: depths in m for a ground column,
+// positions in mm from the outside surface for a wall.
+func probeRow(t *table, r *results.Results, ground bool) {
+	z := probeDepths(r)
+	if len(z) == 0 {
+		return
+	}
+	var ps []string
+	for _, v := range z {
 		if ground {
-			what = "Probe depths below the surface"
-		}
-		t.row(what, strings.Join(ps, ", "))
-	}
-	if sim := r.Simulation; sim != nil {
-		t.row("Simulated duration", hours(sim.Duration_h))
-		t.row("Time step", trimZeros(sig(sim.Step_h, 3))+" h")
-		if sim.OutputStep_h > 0 {
-			t.row("Output interval", trimZeros(sig(sim.OutputStep_h, 3))+" h")
-		}
-		t.row("Finite-volume cells", fmt.Sprint(sim.Cells))
-		if sim.SpinUpCycles > 0 {
-			v := fmt.Sprintf("%d cycles; the last changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2))
-			if sim.SpinUpTolerance_K > 0 {
-				if sim.SpinUpConverged {
-					v += fmt.Sprintf(" (converged: within %s K)", sig(sim.SpinUpTolerance_K, 2))
-				} else {
-					v += fmt.Sprintf(" (NOT converged: the target is %s K; the first simulated cycle carries some start-up error)", sig(sim.SpinUpTolerance_K, 2))
-				}
-			}
-			t.row("Spin-up before recording", v)
+			ps = append(ps, fixed(v, 2)+" m")
 		} else {
-			t.row("Spin-up before recording", "none")
+			ps = append(ps, trimZeros(sig(v*1000, 3))+" mm")
 		}
 	}
-	t.Notes = append(t.Notes, "Material properties and their sources are in the layer table; the methods are listed at the end of the report.")
-	return []*block{{Table: t}, gaps}
+	what := "Probe positions from the outside surface"
+	if ground {
+		what = "Probe depths below the surface"
+	}
+	t.row(what, strings.Join(ps, ", "))
+}
+
+// simulationRows are the settings of the simulation, if one ran:
+// duration, step, output interval, cells and spin-up.
+func simulationRows(t *table, sim *results.Simulation) {
+	if sim == nil {
+		return
+	}
+	t.row("Simulated duration", hours(sim.Duration_h))
+	t.row("Time step", trimZeros(sig(sim.Step_h, 3))+" h")
+	if sim.OutputStep_h > 0 {
+		t.row("Output interval", trimZeros(sig(sim.OutputStep_h, 3))+" h")
+	}
+	t.row("Finite-volume cells", fmt.Sprint(sim.Cells))
+	t.row("Spin-up before recording", spinUpText(sim))
+}
+
+// spinUpText says how many cycles were run before recording and whether
+// the last one met the tolerance.
+func spinUpText(sim *results.Simulation) string {
+	if sim.SpinUpCycles <= 0 {
+		return "none"
+	}
+	v := fmt.Sprintf("%d cycles; the last changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2))
+	if sim.SpinUpTolerance_K > 0 {
+		if sim.SpinUpConverged {
+			v += fmt.Sprintf(" (converged: within %s K)", sig(sim.SpinUpTolerance_K, 2))
+		} else {
+			v += fmt.Sprintf(" (NOT converged: the target is %s K; the first simulated cycle carries some start-up error)", sig(sim.SpinUpTolerance_K, 2))
+		}
+	}
+	return v
 }
 
 // rangeText describes the range of a temperature series v sampled at

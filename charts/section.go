@@ -263,66 +263,14 @@ func interestDepth(r *results.Results) float64 {
 // half-space at the bottom is drawn down to 1.5 times the depth of
 // interest (at least 1 m below the last boundary).
 func groundLayout(ls []results.Layer, length, interest float64) ([]span, depthScale) {
-	n := len(ls)
-	sp := make([]span, n)
-	bounds := []float64{0}
-	for i, l := range ls {
-		t := l.Thickness_m
-		if !(t > 0) || !finite(t) {
-			if i == n-1 && n > 1 {
-				sp[i].halfSpace = true
-				last := bounds[len(bounds)-1]
-				t = math.Max(1.5*interest, last+1) - last
-			} else {
-				t = 0
-			}
-		}
-		bounds = append(bounds, bounds[len(bounds)-1]+t)
-	}
-	end := bounds[n]
+	sp := make([]span, len(ls))
+	bounds := groundBounds(ls, sp, interest)
 	cut := 0.0
-	if interest > 0 && end > 1.6*interest {
+	if end := bounds[len(ls)]; interest > 0 && end > 1.6*interest {
 		cut = interest
 	}
-	// Intervals between knots: the boundaries, and the cut.
-	var knots []float64
-	for _, z := range bounds {
-		if cut > 0 && z > cut && (len(knots) == 0 || knots[len(knots)-1] < cut) {
-			knots = append(knots, cut)
-		}
-		if len(knots) == 0 || z > knots[len(knots)-1] || z == 0 {
-			knots = append(knots, z)
-		}
-	}
-	// Lay the intervals above and below the cut out separately.
-	upLen, downLen := length, 0.0
-	if cut > 0 {
-		upLen, downLen = 0.78*length, 0.22*length
-	}
-	var up, down []results.Layer
-	for i := 1; i < len(knots); i++ {
-		iv := results.Layer{Thickness_m: knots[i] - knots[i-1]}
-		if cut > 0 && knots[i] > cut {
-			down = append(down, iv)
-		} else {
-			up = append(up, iv)
-		}
-	}
-	px := []float64{0}
-	wide := make([]bool, 0, len(knots))
-	for _, part := range []struct {
-		ivs []results.Layer
-		len float64
-	}{{up, upLen}, {down, downLen}} {
-		if len(part.ivs) == 0 {
-			continue
-		}
-		base := px[len(px)-1]
-		for _, s := range layout(part.ivs, part.len) {
-			px = append(px, base+s.at+s.size)
-			wide = append(wide, s.widened)
-		}
-	}
+	knots := depthKnots(bounds, cut)
+	px, wide := knotPixels(knots, cut, length)
 	scale := depthScale{z: knots, px: px, cut: cut}
 	for i := range ls {
 		a, b := scale.at(bounds[i]), scale.at(bounds[i+1])
@@ -337,6 +285,84 @@ func groundLayout(ls []results.Layer, length, interest float64) ([]span, depthSc
 		}
 	}
 	return sp, scale
+}
+
+// groundBounds returns the depths in m of the boundaries of the layers
+// ls, from 0 at the surface (len(ls)+1 values). A last layer without a
+// finite positive thickness below other layers is a half-space: it is
+// marked in sp and drawn down to 1.5 times the depth of interest, at
+// least 1 m below the boundary above it. Any other such layer is drawn
+// with no thickness.
+func groundBounds(ls []results.Layer, sp []span, interest float64) []float64 {
+	n := len(ls)
+	bounds := []float64{0}
+	for i, l := range ls {
+		t := l.Thickness_m
+		if !(t > 0) || !finite(t) {
+			if i == n-1 && n > 1 {
+				sp[i].halfSpace = true
+				last := bounds[len(bounds)-1]
+				t = math.Max(1.5*interest, last+1) - last
+			} else {
+				t = 0
+			}
+		}
+		bounds = append(bounds, bounds[len(bounds)-1]+t)
+	}
+	return bounds
+}
+
+// depthKnots are the depths in m between which the drawing is laid out:
+// the layer boundaries bounds, without repeats of a depth below the
+// surface, and the cut (when positive) between the boundaries around it.
+func depthKnots(bounds []float64, cut float64) []float64 {
+	var knots []float64
+	for _, z := range bounds {
+		if cut > 0 && z > cut && (len(knots) == 0 || knots[len(knots)-1] < cut) {
+			knots = append(knots, cut)
+		}
+		if len(knots) == 0 || z > knots[len(knots)-1] || z == 0 {
+			knots = append(knots, z)
+		}
+	}
+	return knots
+}
+
+// knotPixels places the knots along length px: the intervals above the
+// cut take 78 % of the length and those below it 22 % when there is a
+// cut (cut > 0), else the intervals share the whole length; each part is
+// laid out by layout. It returns the position of each knot and whether
+// each interval was widened.
+func knotPixels(knots []float64, cut, length float64) (px []float64, wide []bool) {
+	upLen, downLen := length, 0.0
+	if cut > 0 {
+		upLen, downLen = 0.78*length, 0.22*length
+	}
+	var up, down []results.Layer
+	for i := 1; i < len(knots); i++ {
+		iv := results.Layer{Thickness_m: knots[i] - knots[i-1]}
+		if cut > 0 && knots[i] > cut {
+			down = append(down, iv)
+		} else {
+			up = append(up, iv)
+		}
+	}
+	px = []float64{0}
+	wide = make([]bool, 0, len(knots))
+	for _, part := range []struct {
+		ivs []results.Layer
+		len float64
+	}{{up, upLen}, {down, downLen}} {
+		if len(part.ivs) == 0 {
+			continue
+		}
+		base := px[len(px)-1]
+		for _, s := range layout(part.ivs, part.len) {
+			px = append(px, base+s.at+s.size)
+			wide = append(wide, s.widened)
+		}
+	}
+	return px, wide
 }
 
 // svgWriter collects SVG markup. idp prefixes the ids of its hatching

@@ -275,7 +275,7 @@ func targetBlock(r *results.Results) []*block {
 			numberUnit(exact(tr.Tolerance), tr.Unit), tr.Evaluations)
 	} else {
 		text = fmt.Sprintf("Target not met between %s and %s: the closest, %s at %s, gives %s = %s%s (goal: %s %s%s). %d runs.",
-			numberUnit(trimZeros(sig(tr.From, 4)), tr.Unit), numberUnit(trimZeros(sig(tr.To, 4)), tr.Unit), label, numberUnit(trimZeros(sig(tr.Value, 4)), tr.Unit), name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, tr.Evaluations)
+			numberUnit(trimZeros(sig(tr.From, 4)), tr.Unit), numberUnit(trimZeros(sig(tr.To, 4)), tr.Unit), label, numberUnit(exact(results.RoundToTolerance(tr.Value, tr.Tolerance)), tr.Unit), name, q.format(tr.Achieved), unit, rel, q.format(tr.Goal), unit, tr.Evaluations)
 	}
 	out := []*block{{Text: []string{text}}}
 	if len(tr.Scan) > 0 {

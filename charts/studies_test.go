@@ -67,6 +67,13 @@ func TestStudySections(t *testing.T) {
 	if !strings.Contains(render(t, r, Options{}), "Target not met between 100 mm and 300 mm: the closest, thickness of layer 3 (concrete) at 142.5 mm") {
 		t.Error("unmet target not reported")
 	}
+	// The closest value of an unmet target is printed on the tolerance's
+	// grid (99.87 mm on a 0.2 mm grid is 99.8 mm, rounded by hand), the
+	// quantity with its own digits (one decimal for a time shift).
+	r.Target.Value, r.Target.Tolerance, r.Target.Achieved = 99.87, 0.2, 6.0834
+	if want := "the closest, thickness of layer 3 (concrete) at 99.8 mm, gives time shift = 6.1 h (goal: at least 10.0 h)."; !strings.Contains(render(t, r, Options{}), want) {
+		t.Errorf("unmet target: report lacks %q", want)
+	}
 	spread := tableRows(t, page, "Spread of the results")
 	if got := rowOf(t, spread, "U-value"); strings.Join(got[1:], "|") != "199|0.305|0.021|0.270|0.304|0.340|0.250|0.370" {
 		t.Errorf("spread row %q", got)

@@ -191,29 +191,8 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 	vs := in.SurfaceIndex / in.SeasonDays
 	alpha := in.MeanAnnual / vs
 	res := BerggrenResult{Alpha: alpha, SurfaceSpeed: vs}
-
-	// Running sums over the layers already frozen through.
-	var sumR, sumD, sumC, sumL, cum float64
-	// needed returns the index to freeze x metres of layer l below the
-	// frozen layers, with its coefficient.
-	needed := func(l solver.Layer, x float64) (dF, lambda, mu, xi float64, err error) {
-		k := meanConductivity(l)
-		c := meanHeatCapacity(l)
-		lat := latentHeat(l)
-		if lat == 0 {
-			return 0, 1, math.Inf(1), 0, nil
-		}
-		d := sumD + x
-		cAvg := (sumC + c*x) / d
-		lAvg := (sumL + lat*x) / d
-		mu = cAvg * vs / lAvg
-		lambda, xi, err = BerggrenCoefficient(alpha, mu)
-		if err != nil {
-			return 0, 0, 0, 0, err
-		}
-		dF = lat * x * (sumR + x/(2*k)) / (secondsPerDay * lambda * lambda)
-		return dF, lambda, mu, xi, nil
-	}
+	fz := berggrenFront{vs: vs, alpha: alpha}
+	cum := 0.0 // index that freezes through the layers passed, K day
 
 	last := len(in.Layers) - 1
 	for i, l := range in.Layers {
@@ -221,113 +200,186 @@ func ModifiedBerggren(in BerggrenInput) (BerggrenResult, error) {
 			return BerggrenResult{}, fmt.Errorf("berggren: the frost reaches the deepest layer %d (%q), which has no latent heat, so the method puts no bound on the frost depth", i+1, l.Name)
 		}
 		if l.Massless() {
-			sumR += l.Resistance
+			fz.sumR += l.Resistance
 			res.Needed = append(res.Needed, cum)
 			continue
 		}
 		if i < last && latentHeat(l) == 0 {
 			// Freezes at once: adds its resistance and heat capacity.
 			res.Needed = append(res.Needed, cum)
-			sumR += l.Thickness / meanConductivity(l)
-			sumD += l.Thickness
-			sumC += meanHeatCapacity(l) * l.Thickness
+			fz.pass(l)
 			continue
 		}
 		if i < last {
-			dF, lambda, mu, xi, err := needed(l, l.Thickness)
+			dF, lambda, mu, xi, err := fz.needed(l, l.Thickness)
 			if err != nil {
 				return BerggrenResult{}, err
 			}
 			if cum+dF <= in.SurfaceIndex {
 				cum += dF
 				res.Needed = append(res.Needed, cum)
-				sumR += l.Thickness / meanConductivity(l)
-				sumD += l.Thickness
-				sumC += meanHeatCapacity(l) * l.Thickness
-				sumL += latentHeat(l) * l.Thickness
+				fz.pass(l)
 				if cum == in.SurfaceIndex {
-					res.Depth, res.Lambda, res.Mu, res.Xi, res.Layer = sumD, lambda, mu, xi, i
+					res.Depth, res.Lambda, res.Mu, res.Xi, res.Layer = fz.sumD, lambda, mu, xi, i
 					return res, nil
 				}
 				continue
 			}
 		}
 		// The frost line is in layer i: find x with cum + dF(x) = F_s.
-		rest := in.SurfaceIndex - cum
-		maxX := l.Thickness
-		if i == last {
-			maxX = math.Inf(1)
-		}
-		// Fixed point: for a given lambda, dF(x) = rest is a quadratic in
-		// x, x^2/(2k) + R x = rest 86400 lambda^2 / L, solved in its
-		// cancellation-free form; then lambda is updated for the new depth.
-		// lambda varies slowly with x (only through the weighted means), so
-		// this converges in a few steps; exactly one for a single layer.
-		k := meanConductivity(l)
-		x, ok := math.NaN(), false
-		_, lambda, _, _, err := needed(l, math.Min(maxX, math.Max(l.Thickness, 1e-3)))
+		x, err := fz.depthIn(l, in.SurfaceIndex-cum, i == last)
 		if err != nil {
 			return BerggrenResult{}, err
 		}
-		for n := 0; n < fixedPointSteps; n++ {
-			q := rest * secondsPerDay * lambda * lambda / latentHeat(l)
-			xn := 2 * q / (sumR + math.Sqrt(sumR*sumR+2*q/k))
-			if !(xn > 0 && xn <= maxX) {
-				break
-			}
-			_, lambda, _, _, err = needed(l, xn)
-			if err != nil {
-				return BerggrenResult{}, err
-			}
-			if math.Abs(xn-x) <= 1e-13*xn {
-				x, ok = xn, true
-				break
-			}
-			x = xn
-		}
-		if !ok {
-			// Fallback: bisection on dF(x) = rest. dF grows without bound,
-			// so in the last layer double hi until it brackets.
-			hi := l.Thickness
-			if i == last {
-				for n := 0; ; n++ {
-					dF, _, _, _, err := needed(l, hi)
-					if err != nil {
-						return BerggrenResult{}, err
-					}
-					if dF >= rest {
-						break
-					}
-					if n > 200 {
-						return BerggrenResult{}, errors.New("berggren: frost depth does not converge")
-					}
-					hi *= 2
-				}
-			}
-			lo := 0.0
-			for n := 0; n < 200 && hi-lo > 1e-13*hi; n++ {
-				mid := 0.5 * (lo + hi)
-				dF, _, _, _, err := needed(l, mid)
-				if err != nil {
-					return BerggrenResult{}, err
-				}
-				if dF < rest {
-					lo = mid
-				} else {
-					hi = mid
-				}
-			}
-			x = 0.5 * (lo + hi)
-		}
-		dF, lambda, mu, xi, err := needed(l, x)
+		dF, lambda, mu, xi, err := fz.needed(l, x)
 		if err != nil {
 			return BerggrenResult{}, err
 		}
 		res.Needed = append(res.Needed, cum+dF)
-		res.Depth, res.Lambda, res.Mu, res.Xi, res.Layer = sumD+x, lambda, mu, xi, i
+		res.Depth, res.Lambda, res.Mu, res.Xi, res.Layer = fz.sumD+x, lambda, mu, xi, i
 		return res, nil
 	}
 	return BerggrenResult{}, errors.New("berggren: internal error: frost line not placed")
+}
+
+// berggrenFront is the state of ModifiedBerggren's walk down the layers:
+// the surface speed and thermal ratio, and running sums over the layers
+// the frost has already passed.
+type berggrenFront struct {
+	vs    float64 // surface speed F_s / t, K
+	alpha float64 // thermal ratio v0 / vs
+	sumR  float64 // resistance of the layers passed, m2 K/W
+	sumD  float64 // their thickness, m
+	sumC  float64 // their heat capacity per area, J/(m2 K)
+	sumL  float64 // their latent heat per area, J/m2
+}
+
+// pass adds a massive layer l, frozen through, to the running sums: its
+// resistance d/k (k the mean conductivity), thickness, heat capacity and
+// latent heat (zero for pavement or insulation).
+func (fz *berggrenFront) pass(l solver.Layer) {
+	fz.sumR += l.Thickness / meanConductivity(l)
+	fz.sumD += l.Thickness
+	fz.sumC += meanHeatCapacity(l) * l.Thickness
+	if lat := latentHeat(l); lat != 0 {
+		fz.sumL += lat * l.Thickness
+	}
+}
+
+// needed returns the index dF (K day) to freeze x metres of layer l below
+// the layers passed, with its coefficient lambda, the fusion parameter mu
+// of the weighted means down to x and the Neumann root xi:
+//
+//	dF = L x (R_passed + x/(2k)) / (86400 lambda^2)
+//
+// A layer without latent heat needs no index (dF = 0, lambda = 1, mu
+// infinite).
+func (fz *berggrenFront) needed(l solver.Layer, x float64) (dF, lambda, mu, xi float64, err error) {
+	k := meanConductivity(l)
+	c := meanHeatCapacity(l)
+	lat := latentHeat(l)
+	if lat == 0 {
+		return 0, 1, math.Inf(1), 0, nil
+	}
+	vs, sumR := fz.vs, fz.sumR
+	d := fz.sumD + x
+	cAvg := (fz.sumC + c*x) / d
+	lAvg := (fz.sumL + lat*x) / d
+	mu = cAvg * vs / lAvg
+	lambda, xi, err = BerggrenCoefficient(fz.alpha, mu)
+	if err != nil {
+		return 0, 0, 0, 0, err
+	}
+	dF = lat * x * (sumR + x/(2*k)) / (secondsPerDay * lambda * lambda)
+	return dF, lambda, mu, xi, nil
+}
+
+// depthIn returns the frozen part x (m) of layer l that needs the index
+// rest (K day) left when the frost reaches its top; the deepest layer
+// (last) continues without end. It tries the fixed point first and falls
+// back to bisection.
+func (fz *berggrenFront) depthIn(l solver.Layer, rest float64, last bool) (float64, error) {
+	maxX := l.Thickness
+	if last {
+		maxX = math.Inf(1)
+	}
+	x, ok, err := fz.fixedPointDepth(l, rest, maxX)
+	if err != nil || ok {
+		return x, err
+	}
+	return fz.bisectDepth(l, rest, last)
+}
+
+// fixedPointDepth solves dF(x) = rest for 0 < x <= maxX by fixed-point
+// iteration: for a given lambda, dF(x) = rest is a quadratic in x,
+//
+//	x^2/(2k) + R x = rest 86400 lambda^2 / L,
+//
+// solved in its cancellation-free form; then lambda is updated for the
+// new depth. lambda varies slowly with x (only through the weighted
+// means), so this converges in a few steps; exactly one for a single
+// layer. ok is false when an iterate leaves (0, maxX] or the steps run
+// out.
+func (fz *berggrenFront) fixedPointDepth(l solver.Layer, rest, maxX float64) (x float64, ok bool, err error) {
+	sumR := fz.sumR
+	k := meanConductivity(l)
+	x = math.NaN()
+	_, lambda, _, _, err := fz.needed(l, math.Min(maxX, math.Max(l.Thickness, 1e-3)))
+	if err != nil {
+		return 0, false, err
+	}
+	for n := 0; n < fixedPointSteps; n++ {
+		q := rest * secondsPerDay * lambda * lambda / latentHeat(l)
+		xn := 2 * q / (sumR + math.Sqrt(sumR*sumR+2*q/k))
+		if !(xn > 0 && xn <= maxX) {
+			break
+		}
+		_, lambda, _, _, err = fz.needed(l, xn)
+		if err != nil {
+			return 0, false, err
+		}
+		if math.Abs(xn-x) <= 1e-13*xn {
+			return xn, true, nil
+		}
+		x = xn
+	}
+	return x, false, nil
+}
+
+// bisectDepth solves dF(x) = rest by bisection, the fallback of
+// fixedPointDepth. dF grows without bound, so in the last layer the upper
+// end is doubled until it brackets.
+func (fz *berggrenFront) bisectDepth(l solver.Layer, rest float64, last bool) (float64, error) {
+	hi := l.Thickness
+	if last {
+		for n := 0; ; n++ {
+			dF, _, _, _, err := fz.needed(l, hi)
+			if err != nil {
+				return 0, err
+			}
+			if dF >= rest {
+				break
+			}
+			if n > 200 {
+				return 0, errors.New("berggren: frost depth does not converge")
+			}
+			hi *= 2
+		}
+	}
+	lo := 0.0
+	for n := 0; n < 200 && hi-lo > 1e-13*hi; n++ {
+		mid := 0.5 * (lo + hi)
+		dF, _, _, _, err := fz.needed(l, mid)
+		if err != nil {
+			return 0, err
+		}
+		if dF < rest {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return 0.5 * (lo + hi), nil
 }
 
 // fixedPointSteps bounds the fixed-point iteration of ModifiedBerggren

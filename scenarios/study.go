@@ -8,7 +8,6 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"sort"
-	"strconv"
 	"strings"
 	"sync"
 	"tempstack/fileerr"
@@ -665,9 +664,9 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 		res.Met = false
 		res.Value, res.Achieved = xs[best], vs[best]
 		res.Margin = margin(tg, vs[best])
-		res.Message = fmt.Sprintf("no value of %s from %s to %s meets %s %s %g; the closest is %s at %s (%s %.4g)",
+		res.Message = fmt.Sprintf("no value of %s from %s to %s meets %s %s %g; the closest is %s: %s = %s",
 			tg.Parameter, joinNumber(tg.From, tg.Unit), joinNumber(tg.To, tg.Unit), tg.Quantity, goalWord(tg), tg.Goal,
-			tg.Quantity, joinNumber(xs[best], tg.Unit), "value", vs[best])
+			joinNumber(results.RoundToTolerance(xs[best], tg.Tolerance), tg.Unit), tg.Quantity, results.Quantity(tg.Quantity).Format(vs[best]))
 		return res, nil
 	}
 	res.Met = true
@@ -678,7 +677,7 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 	}
 	if prev >= 0 && prev < n {
 		var err error
-		ok, okV, err = bisectOnGrid(xs[prev], ok, okV, targetStep(tg.Tolerance), tg.Largest, eval, meets, &res.Evaluations)
+		ok, okV, err = bisectOnGrid(xs[prev], ok, okV, results.TargetStep(tg.Tolerance), tg.Largest, eval, meets, &res.Evaluations)
 		if err != nil {
 			return nil, err
 		}
@@ -692,30 +691,9 @@ func seekTarget(s *run, tg *TargetSpec, workers int) (*results.TargetResult, err
 	if prev < 0 || prev >= n {
 		edge = " (the end of the searched range already meets it)"
 	}
-	res.Message = fmt.Sprintf("%s %s meets %s %s %g: %s = %.4g, margin %.3g%s",
-		word, joinNumber(res.Value, tg.Unit), tg.Quantity, goalWord(tg), tg.Goal, tg.Quantity, okV, res.Margin, edge)
+	res.Message = fmt.Sprintf("%s %s meets %s %s %g: %s = %s, margin %.3g%s",
+		word, joinNumber(res.Value, tg.Unit), tg.Quantity, goalWord(tg), tg.Goal, tg.Quantity, results.Quantity(tg.Quantity).Format(okV), res.Margin, edge)
 	return res, nil
-}
-
-// targetStep returns the grid a target value is given on: the largest
-// 1, 2 or 5 times a power of ten not above the tolerance, so the value
-// is printed with the digits its tolerance justifies.
-func targetStep(tol float64) float64 {
-	p := math.Pow(10, math.Floor(math.Log10(tol)))
-	for _, m := range []float64{5, 2, 1} {
-		if m*p <= tol*(1+1e-12) {
-			return m * p
-		}
-	}
-	return p
-}
-
-// onGrid returns k*step written with the decimals of step, so that 199.2
-// is 199.2 and not 199.20000000000002.
-func onGrid(k, step float64) float64 {
-	dec := max(0, int(-math.Floor(math.Log10(step)+1e-9)))
-	v, _ := strconv.ParseFloat(strconv.FormatFloat(k*step, 'f', dec, 64), 64)
-	return v
 }
 
 // bisectOnGrid narrows the bracket between bad (fails the goal) and ok
@@ -737,10 +715,10 @@ func bisectOnGrid(bad, ok, okV, step float64, largest bool, eval func(float64) (
 		// hi itself or the first grid point beyond it.
 		k1, k2 := math.Floor(lo/step+1e-9)+1, math.Ceil(hi/step-1e-9)
 		if k1 >= k2 {
-			if sg*onGrid(sg*k2, step) == hi {
+			if sg*results.OnGrid(sg*k2, step) == hi {
 				return sg * hi, okV, nil
 			}
-			x := onGrid(sg*k2, step)
+			x := results.OnGrid(sg*k2, step)
 			v, err := eval(x)
 			if err != nil {
 				return 0, 0, err
@@ -752,7 +730,7 @@ func bisectOnGrid(bad, ok, okV, step float64, largest bool, eval func(float64) (
 			return sg * hi, okV, nil
 		}
 		m := math.Floor((k1 + k2 - 1) / 2)
-		x := onGrid(sg*m, step)
+		x := results.OnGrid(sg*m, step)
 		v, err := eval(x)
 		if err != nil {
 			return 0, 0, err

@@ -88,6 +88,42 @@ target:
 	}
 }
 
+// TestTargetNotMetMessage: a target the range cannot meet reports the
+// closest scan point rounded to the tolerance's grid (0.2 mm here: 99.87
+// mm prints as 99.8 mm) and the quantity with its own digits (one decimal
+// for a time shift), while results.json keeps the scan point itself.
+func TestTargetNotMetMessage(t *testing.T) {
+	r := mustRun(t, studyWall+`
+target:
+  parameter: layers[3].thickness
+  from: 20.37 mm
+  to: 99.87 mm
+  quantity: time_shift_unwrapped_h
+  at_least: 30
+  tolerance: 0.2
+`)
+	tg := r.Target
+	if tg == nil || tg.Met {
+		t.Fatalf("a whole time shift of 30 h should be out of reach: %+v", tg)
+	}
+	onScan := false
+	for _, p := range tg.Scan {
+		onScan = onScan || (p.Value == tg.Value && p.Quantity == tg.Achieved)
+	}
+	if !onScan {
+		t.Errorf("closest value %v (quantity %v) is not a scan point: %+v", tg.Value, tg.Achieved, tg.Scan)
+	}
+	// Rounded by hand to the 0.2 mm grid, written with one decimal.
+	closest := strconv.FormatFloat(math.Round(tg.Value/0.2)*0.2, 'f', 1, 64)
+	want := "; the closest is " + closest + " mm: time_shift_unwrapped_h = " + strconv.FormatFloat(tg.Achieved, 'f', 1, 64)
+	if !strings.HasSuffix(tg.Message, want) {
+		t.Errorf("message %q does not end in %q", tg.Message, want)
+	}
+	if tg.Value == 99.87 && !strings.Contains(tg.Message, "closest is 99.8 mm") {
+		t.Errorf("message %q: want the closest as 99.8 mm", tg.Message)
+	}
+}
+
 // TestSweepDeterministicAndParallel: the same sweep with 1 and 2 workers
 // gives identical results, and each point equals the plain scenario with
 // that value.
@@ -437,6 +473,10 @@ target:
 		}
 		if want := strconv.FormatFloat(tg.Value, 'f', -1, 64) + " mm"; !strings.Contains(tg.Message, want) {
 			t.Errorf("%+v: message %q does not give the value as %q", c, tg.Message, want)
+		}
+		// The quantity with its own digits (one decimal for a time shift).
+		if want := "time_shift_unwrapped_h = " + strconv.FormatFloat(tg.Achieved, 'f', 1, 64) + ", margin"; !strings.Contains(tg.Message, want) {
+			t.Errorf("%+v: message %q does not give the quantity as %q", c, tg.Message, want)
 		}
 	}
 }

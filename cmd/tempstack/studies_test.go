@@ -59,3 +59,58 @@ func TestRunPrintsStudies(t *testing.T) {
 		}
 	}
 }
+
+// TestRunPrintsTargetNotMet: a target out of reach prints the closest
+// value rounded to the tolerance's grid (99.87 mm on a 0.2 mm grid is
+// 99.8 mm, rounded by hand) and the quantity with its own digits (one
+// decimal for a time shift), on the terminal as in results.json.
+func TestRunPrintsTargetNotMet(t *testing.T) {
+	dir := t.TempDir()
+	file := filepath.Join(dir, "reach.yaml")
+	src := `title: out of reach
+kind: wall
+layers:
+  - {material: cement-render, thickness: 15 mm}
+  - {material: eps, thickness: 100 mm}
+  - {material: concrete, thickness: 180 mm}
+  - {material: gypsum-plaster, thickness: 13 mm}
+outside:
+  temperature: {mean: 20, daily: {amplitude: 10, peak_hour: 15}}
+analysis:
+  simulate: false
+target:
+  parameter: layers[3].thickness
+  from: 20.37 mm
+  to: 99.87 mm
+  quantity: time_shift_unwrapped_h
+  at_least: 30
+  tolerance: 0.2
+`
+	if err := os.WriteFile(file, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "out")
+	code, stdout, stderr := runCLI(t, "run", "--out", out, file)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, stderr)
+	}
+	data, err := os.ReadFile(filepath.Join(out, "results.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var r results.Results
+	if err := json.Unmarshal(data, &r); err != nil {
+		t.Fatal(err)
+	}
+	tg := r.Target
+	if tg == nil || tg.Met || tg.Value != 99.87 {
+		t.Fatalf("want the goal out of reach with the closest at the top of the range: %+v", tg)
+	}
+	achieved := strconv.FormatFloat(tg.Achieved, 'f', 1, 64) + " h"
+	if want := "; the closest, 99.8 mm, gives " + achieved + " ("; !strings.Contains(stdout, want) {
+		t.Errorf("terminal lacks %q:\n%s", want, stdout)
+	}
+	if want := "the closest is 99.8 mm: time_shift_unwrapped_h = " + strings.TrimSuffix(achieved, " h"); !strings.HasSuffix(tg.Message, want) {
+		t.Errorf("results.json message %q does not end in %q", tg.Message, want)
+	}
+}

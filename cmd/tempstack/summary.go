@@ -148,7 +148,7 @@ func printStudies(w io.Writer, r *results.Results) {
 			fmt.Fprintf(w, "  target not met: no %s from %s to %s gives %s %s %s; the closest, %s, gives %s (%d runs)\n",
 				label, joinUnit(strconv.FormatFloat(t.From, 'g', 6, 64), t.Unit), joinUnit(strconv.FormatFloat(t.To, 'g', 6, 64), t.Unit),
 				q.Words, rel, joinUnit(strconv.FormatFloat(t.Goal, 'g', -1, 64), q.Unit),
-				joinUnit(strconv.FormatFloat(t.Value, 'g', 6, 64), t.Unit), joinUnit(formatQuantity(t.Quantity, t.Achieved), q.Unit), t.Evaluations)
+				joinUnit(strconv.FormatFloat(results.RoundToTolerance(t.Value, t.Tolerance), 'f', -1, 64), t.Unit), joinUnit(formatQuantity(t.Quantity, t.Achieved), q.Unit), t.Evaluations)
 		}
 	}
 	if u := r.Uncertainty; u != nil && len(u.Quantities) > 0 {
@@ -211,25 +211,11 @@ func quantityCells(s results.Summary, keys []string) string {
 }
 
 // formatQuantity writes v with the digits results.Quantity gives its key.
-func formatQuantity(key string, v float64) string {
-	if d := results.Quantity(key).Decimals; d >= 0 {
-		return strconv.FormatFloat(v, 'f', d, 64)
-	}
-	return sig3(v)
-}
+func formatQuantity(key string, v float64) string { return results.Quantity(key).Format(v) }
 
 // sig3 writes v with three significant digits in fixed notation (0.260,
 // 75.9, 1230).
-func sig3(v float64) string {
-	if v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
-		return strconv.FormatFloat(v, 'f', -1, 64)
-	}
-	d := 2 - int(math.Floor(math.Log10(math.Abs(v))))
-	if d < 0 {
-		return strconv.FormatFloat(math.Round(v/math.Pow(10, float64(-d)))*math.Pow(10, float64(-d)), 'f', 0, 64)
-	}
-	return strconv.FormatFloat(v, 'f', d, 64)
-}
+func sig3(v float64) string { return results.Sig3(v) }
 
 // withUnit is "name (unit)", or the name alone for a ratio.
 func withUnit(name, unit string) string {

@@ -437,11 +437,11 @@ type TargetResult struct {
 	From           float64       `json:"from"`
 	To             float64       `json:"to"`
 	Met            bool          `json:"met"`
-	Tolerance      float64       `json:"tolerance"` // in Unit; Value is a multiple of the largest 1-2-5 step not above it
-	Value          float64       `json:"value"`     // the parameter value found (or the closest when not met)
+	Tolerance      float64       `json:"tolerance"` // in Unit; a met Value is a multiple of TargetStep(Tolerance)
+	Value          float64       `json:"value"`     // the parameter value found, or the closest scan point when not met (printed rounded by RoundToTolerance)
 	Achieved       float64       `json:"achieved"`  // the quantity there
 	Margin         float64       `json:"margin"`    // on the good side of the goal when positive
-	Message        string        `json:"message"`
+	Message        string        `json:"message"`   // the outcome in one sentence, the quantity with its QuantityInfo.Format digits
 	Evaluations    int           `json:"evaluations"`
 	Scan           []TargetPoint `json:"scan"`
 }
