@@ -28,17 +28,28 @@ const maxFileSize = 4 << 20
 func Load(path string) (*Scenario, error) {
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, &Error{File: path, Msg: cleanOSError(err)}
+		return nil, &Error{File: path, Err: osCause(err)}
 	}
 	defer f.Close()
 	data, err := io.ReadAll(io.LimitReader(f, maxFileSize+1))
 	if err != nil {
-		return nil, &Error{File: path, Msg: cleanOSError(err)}
+		return nil, &Error{File: path, Err: osCause(err)}
 	}
 	if len(data) > maxFileSize {
 		return nil, &Error{File: path, Msg: fmt.Sprintf("file is larger than %d MiB; is it a scenario file?", maxFileSize>>20)}
 	}
 	return Decode(path, data)
+}
+
+// osCause is the cause of a failed file operation without the path the
+// message already names (the *os.PathError's own error, which
+// errors.Is still matches against fs.ErrNotExist).
+func osCause(err error) error {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
 }
 
 func cleanOSError(err error) string {

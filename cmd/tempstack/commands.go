@@ -55,6 +55,10 @@ func load(c *cli.Context) (*scenarios.Scenario, error) {
 	}
 	s, err := scenarios.Load(file)
 	if err != nil {
+		// A demo's name given as a file: say how to run the demo.
+		if _, ok := scenarios.LookupExample(file); ok && errors.Is(err, fs.ErrNotExist) {
+			return nil, userErr("%s: no such file; to solve the embedded demo of that name, use --example %s", file, file)
+		}
 		return nil, userError{err}
 	}
 	return s, nil

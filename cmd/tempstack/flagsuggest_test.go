@@ -31,3 +31,20 @@ func TestUnknownFlagSuggests(t *testing.T) {
 		}
 	}
 }
+
+// TestDemoNameAsFile: a demo's name given where a file goes (`run
+// timber-frame`) says how to run the demo; any other missing file keeps
+// the system's words.
+func TestDemoNameAsFile(t *testing.T) {
+	t.Chdir(t.TempDir())
+	tests := []struct{ file, want string }{
+		{"timber-frame", "timber-frame: no such file; to solve the embedded demo of that name, use --example timber-frame"},
+		{"no-such-wall.yaml", "no-such-wall.yaml: no such file or directory"},
+	}
+	for _, tc := range tests {
+		code, _, stderr := runCLI(t, "check", tc.file)
+		if code != 1 || !strings.Contains(stderr, tc.want) || strings.Count(stderr, "\n") != 1 {
+			t.Errorf("check %s: exit %d, stderr %q; want exit 1 and one line with %q", tc.file, code, stderr, tc.want)
+		}
+	}
+}
