@@ -109,12 +109,15 @@ func (r *fvRun) beginStage(th float64, rhs *fvRHS) {
 		// around the cells in their freezing range.
 		r.regOK = true
 	}
-	clear(r.nclip)
+	// Only the phase cells are stopped on kinks, and sideUp reads only
+	// them and their neighbours.
+	lo, hi := r.pwLo, r.pwHi+1
+	clear(r.nclip[lo:hi])
 	// The side on which an isothermal cell freezes first is decided from
 	// the temperatures at the start of the stage (sideUp); a partly
 	// frozen cell whose side changed gets new resistances. The other cells
 	// take their side when they become partly frozen.
-	copy(r.tStart, r.T)
+	copy(r.tStart[lo:hi], r.T[lo:hi])
 	r.tStartOK = true
 	if th != r.nlTh {
 		r.nlTh = th
