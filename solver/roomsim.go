@@ -452,7 +452,7 @@ type roomRecorder struct {
 
 // newRoomRecorder returns a recorder for ne elements, steps steps and a
 // sample every every steps, from the start time t0 (s).
-func newRoomRecorder(ne, steps, every int, t0 float64) *roomRecorder {
+func newRoomRecorder(ne, steps, every int, t0 float64) roomRecorder {
 	nSamples := (steps+every-1)/every + 1
 	if steps%every == 0 {
 		nSamples = steps/every + 1
@@ -462,7 +462,7 @@ func newRoomRecorder(ne, steps, every int, t0 float64) *roomRecorder {
 		Surface: make([][]float64, ne), Flow: make([][]float64, ne), MeanFlow: make([][]float64, ne),
 		MeanOutdoor: make([]float64, 0, nSamples), MeanGains: make([]float64, 0, nSamples),
 	}
-	return &roomRecorder{res: res, accEl: make([]fvKahan, ne), lastT: t0}
+	return roomRecorder{res: res, accEl: make([]fvKahan, ne), lastT: t0}
 }
 
 // sample records the state of rr at time t (s) with the conductance h
@@ -544,10 +544,10 @@ type roomStepWork struct {
 	f0, fm, f1 roomFlows
 }
 
-func newRoomStepWork(ne int) *roomStepWork {
+func newRoomStepWork(ne int) roomStepWork {
 	newSrc := func() roomSources { return roomSources{tb: make([]float64, ne)} }
 	newFlows := func() roomFlows { return roomFlows{el: make([]float64, ne)} }
-	return &roomStepWork{s0: newSrc(), sm: newSrc(), s1: newSrc(), f0: newFlows(), fm: newFlows(), f1: newFlows()}
+	return roomStepWork{s0: newSrc(), sm: newSrc(), s1: newSrc(), f0: newFlows(), fm: newFlows(), f1: newFlows()}
 }
 
 func (rr *roomRun) run() (*RoomResult, error) {
@@ -557,8 +557,8 @@ func (rr *roomRun) run() (*RoomResult, error) {
 	if err != nil {
 		return nil, err
 	}
-	rec := newRoomRecorder(ne, steps, every, p.Start)
-	w := newRoomStepWork(ne)
+	recV, wV := newRoomRecorder(ne, steps, every, p.Start), newRoomStepWork(ne)
+	rec, w := &recV, &wV
 
 	// State at the start, for the heat stored.
 	ta0 := rr.ta
