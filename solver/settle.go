@@ -263,31 +263,67 @@ func (r *fvRun) deepReset(res *Result) bool {
 	if n < 3 {
 		return false
 	}
-	linear := func(i int) bool {
-		k := r.pidx[i]
-		if k < 0 {
-			return true
-		}
-		ph := &r.phases[k]
-		return res.Min[i] > ph.tp || res.Max[i] < ph.tl
+	ib := r.deepAnchor(res)
+	if ib >= n-1 {
+		return false
 	}
+	f, ok := r.steadyFlux(res, ib)
+	if !ok {
+		return false
+	}
+	newH := r.steadyEnthalpies(res, ib, f)
+	for j := ib + 1; j < n; j++ {
+		if math.IsNaN(newH[j]) || math.IsInf(newH[j], 0) {
+			return false
+		}
+	}
+	for j := ib + 1; j < n; j++ {
+		r.H[j] = newH[j]
+		r.updateCell(j)
+	}
+	r.updateConductances()
+	r.nlTh, r.nlDirty, r.regOK = math.NaN(), n-1, false
+	return true
+}
+
+// stayedLinear reports whether cell i stayed frozen or unfrozen all
+// through the cycle whose per-cell range res holds.
+func (r *fvRun) stayedLinear(res *Result, i int) bool {
+	k := r.pidx[i]
+	if k < 0 {
+		return true
+	}
+	ph := &r.phases[k]
+	return res.Min[i] > ph.tp || res.Max[i] < ph.tl
+}
+
+// deepAnchor returns the anchor of the deep reset: the shallowest cell of
+// the deepest run of cells that stayed in one phase (a lone quiet front
+// under such a cell may lie in the run), or n-1 or more when there is
+// none to reset below it.
+func (r *fvRun) deepAnchor(res *Result) int {
+	n := r.n
 	ok := func(i int) bool {
-		if linear(i) {
+		if r.stayedLinear(res, i) {
 			return true
 		}
-		return r.isoMushy(i) && res.Max[i]-res.Min[i] < deepQuiet && i > 0 && linear(i-1)
+		return r.isoMushy(i) && res.Max[i]-res.Min[i] < deepQuiet && i > 0 && r.stayedLinear(res, i-1)
 	}
 	ib := n
 	for ib > 0 && ok(ib-1) {
 		ib--
 	}
-	for ib < n-1 && !linear(ib) {
+	for ib < n-1 && !r.stayedLinear(res, ib) {
 		ib++
 	}
-	if ib >= n-1 {
-		return false
-	}
-	// The mean flux in +x the inside boundary carries in steady state.
+	return ib
+}
+
+// steadyFlux returns the mean flux in +x (W/m2) the inside boundary
+// carries in steady state below the anchor ib, and false when it is not
+// known (or not finite).
+func (r *fvRun) steadyFlux(res *Result, ib int) (float64, bool) {
+	n := r.n
 	t0 := r.p.Start
 	var f float64
 	switch r.in.kind {
@@ -303,11 +339,19 @@ func (r *fvRun) deepReset(res *Result) bool {
 		}
 		f = (res.Mean[ib] - v) / rr
 	default:
-		return false
+		return 0, false
 	}
 	if math.IsNaN(f) || math.IsInf(f, 0) {
-		return false
+		return 0, false
 	}
+	return f, true
+}
+
+// steadyEnthalpies marches the steady profile carrying the flux f from
+// the cycle mean of the anchor ib down the column and returns the new
+// enthalpy (J/m3) of each cell below ib (entries up to ib are unused).
+func (r *fvRun) steadyEnthalpies(res *Result, ib int, f float64) []float64 {
+	n := r.n
 	newH := make([]float64, n)
 	T := res.Mean[ib]
 	T, _ = r.walk(ib, T, r.h[ib]/2, f)
@@ -316,42 +360,37 @@ func (r *fvRun) deepReset(res *Result) bool {
 		steady, frozenUp := r.walk(j, T, r.h[j]/2, f)
 		down, frozenDown := r.walk(j, steady, r.h[j]/2, f)
 		T = down
-		k := r.pidx[j]
-		if k < 0 {
-			newH[j] = r.cvol[j] * (r.T[j] + steady - res.Mean[j])
-			continue
-		}
-		ph := &r.phases[k]
-		ice := (frozenUp + frozenDown) / r.h[j]
-		switch {
-		case ph.isoTerm && ice > 1e-9 && ice < 1-1e-9:
-			newH[j] = (1 - ice) * ph.lat
-		case linear(j):
-			t := r.T[j] + steady - res.Mean[j]
-			// Keep the cell on the side of the freezing point the steady
-			// profile puts it.
-			if steady >= ph.tp {
-				t = math.Max(t, ph.tp)
-			} else {
-				t = math.Min(t, math.Nextafter(ph.tl, math.Inf(-1)))
-			}
-			newH[j] = ph.enthalpy(t)
-		default:
-			newH[j] = ph.enthalpy(steady)
-		}
+		newH[j] = r.steadyEnthalpy(res, j, steady, (frozenUp+frozenDown)/r.h[j])
 	}
-	for j := ib + 1; j < n; j++ {
-		if math.IsNaN(newH[j]) || math.IsInf(newH[j], 0) {
-			return false
+	return newH
+}
+
+// steadyEnthalpy returns the enthalpy (J/m3) of cell j whose centre lies
+// at the steady temperature steady (degC), ice the fraction of the cell
+// below an isothermal freezing point: the cell keeps its periodic part
+// and gets the steady mean.
+func (r *fvRun) steadyEnthalpy(res *Result, j int, steady, ice float64) float64 {
+	k := r.pidx[j]
+	if k < 0 {
+		return r.cvol[j] * (r.T[j] + steady - res.Mean[j])
+	}
+	ph := &r.phases[k]
+	switch {
+	case ph.isoTerm && ice > 1e-9 && ice < 1-1e-9:
+		return (1 - ice) * ph.lat
+	case r.stayedLinear(res, j):
+		t := r.T[j] + steady - res.Mean[j]
+		// Keep the cell on the side of the freezing point the steady
+		// profile puts it.
+		if steady >= ph.tp {
+			t = math.Max(t, ph.tp)
+		} else {
+			t = math.Min(t, math.Nextafter(ph.tl, math.Inf(-1)))
 		}
+		return ph.enthalpy(t)
+	default:
+		return ph.enthalpy(steady)
 	}
-	for j := ib + 1; j < n; j++ {
-		r.H[j] = newH[j]
-		r.updateCell(j)
-	}
-	r.updateConductances()
-	r.nlTh, r.nlDirty, r.regOK = math.NaN(), n-1, false
-	return true
 }
 
 // isoMushy reports whether cell i is partly frozen at an isothermal
