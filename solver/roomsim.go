@@ -143,26 +143,8 @@ func RoomSimulate(p RoomProblem) (*RoomResult, error) {
 
 func newRoomRun(p *RoomProblem) (*roomRun, error) {
 	r := p.Room
-	if err := r.Validate(); err != nil {
+	if err := checkRoomProblem(p); err != nil {
 		return nil, err
-	}
-	if p.Outdoor == nil {
-		return nil, errors.New("solver: room problem has no outdoor temperature")
-	}
-	if p.Back != nil && len(p.Back) != len(r.Elements) {
-		return nil, fmt.Errorf("solver: %d back temperatures for %d elements", len(p.Back), len(r.Elements))
-	}
-	if !finite(p.Start) || !finite(p.Duration) || !finite(p.Step) || !(p.Duration > 0) || !(p.Step > 0) {
-		return nil, errors.New("solver: start, duration and step must be finite, duration and step positive")
-	}
-	if p.Duration/p.Step > 1e8 {
-		return nil, fmt.Errorf("solver: %g time steps are too many", math.Ceil(p.Duration/p.Step))
-	}
-	if p.Scheme != TRBDF2 && p.Scheme != BackwardEuler {
-		return nil, fmt.Errorf("solver: room simulation supports TR-BDF2 and backward Euler, not scheme %d", p.Scheme)
-	}
-	if !finite(p.InitialAir) {
-		return nil, errors.New("solver: initial air temperature is not finite")
 	}
 	meshes := p.Meshes
 	if meshes == nil {
@@ -193,58 +175,111 @@ func newRoomRun(p *RoomProblem) (*roomRun, error) {
 		if p.Back != nil && p.Back[k] != nil {
 			el.back = p.Back[k]
 		}
-		m := meshes[k]
-		if e.massless() {
-			if m != nil {
-				return nil, fmt.Errorf("solver: element %d (%s) is massless but has a mesh", k+1, e.Name)
-			}
-			if e.Back == BackOutside {
-				el.gIn = e.U()
-			}
+		if err := el.setUp(k, e, meshes[k]); err != nil {
+			return nil, err
+		}
+		if el.n == 0 {
 			continue
 		}
-		if m == nil {
-			return nil, fmt.Errorf("solver: element %d (%s) has no mesh", k+1, e.Name)
+		var init []float64
+		if p.Initial != nil {
+			init = p.Initial[k]
 		}
-		if err := fvCheckMesh(e.Column, m); err != nil {
-			return nil, fmt.Errorf("element %d (%s): %w", k+1, e.Name, err)
-		}
-		n := m.Cells()
-		el.n = n
-		alloc := func() []float64 { return make([]float64, n) }
-		el.capc, el.s, el.t, el.tn, el.ts, el.rhs, el.di, el.e = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
-		el.gg = make([]float64, n-1)
-		half := make([]float64, n)
-		for i := 0; i < n; i++ {
-			l := e.Column.Layers[m.Layer[i]]
-			h := m.Width(i)
-			el.capc[i] = h * l.HeatCapacity
-			half[i] = h / (2 * l.Conductivity)
-		}
-		for i := range el.gg {
-			el.gg[i] = 1 / (half[i] + m.FaceResistance[i+1] + half[i+1])
-		}
-		if e.Back == BackOutside {
-			el.gOut = 1 / (e.Column.OutsideResistance + m.FaceResistance[0] + half[0])
-		}
-		el.gIn = 1 / (e.Column.InsideResistance + m.FaceResistance[n] + half[n-1])
-		switch {
-		case p.Initial == nil || p.Initial[k] == nil:
-			for i := range el.t {
-				el.t[i] = p.InitialAir
-			}
-		case len(p.Initial[k]) != n:
-			return nil, fmt.Errorf("solver: element %d (%s): %d initial temperatures for %d cells", k+1, e.Name, len(p.Initial[k]), n)
-		default:
-			for i, v := range p.Initial[k] {
-				if !finite(v) {
-					return nil, fmt.Errorf("solver: element %d (%s): initial temperature of cell %d is not finite", k+1, e.Name, i)
-				}
-				el.t[i] = v
-			}
+		if err := el.setInitial(k, e, init, p.InitialAir); err != nil {
+			return nil, err
 		}
 	}
 	return rr, nil
+}
+
+// checkRoomProblem checks what p asks of a room run apart from the meshes
+// and the initial state of the elements.
+func checkRoomProblem(p *RoomProblem) error {
+	r := p.Room
+	if err := r.Validate(); err != nil {
+		return err
+	}
+	if p.Outdoor == nil {
+		return errors.New("solver: room problem has no outdoor temperature")
+	}
+	if p.Back != nil && len(p.Back) != len(r.Elements) {
+		return fmt.Errorf("solver: %d back temperatures for %d elements", len(p.Back), len(r.Elements))
+	}
+	if !finite(p.Start) || !finite(p.Duration) || !finite(p.Step) || !(p.Duration > 0) || !(p.Step > 0) {
+		return errors.New("solver: start, duration and step must be finite, duration and step positive")
+	}
+	if p.Duration/p.Step > 1e8 {
+		return fmt.Errorf("solver: %g time steps are too many", math.Ceil(p.Duration/p.Step))
+	}
+	if p.Scheme != TRBDF2 && p.Scheme != BackwardEuler {
+		return fmt.Errorf("solver: room simulation supports TR-BDF2 and backward Euler, not scheme %d", p.Scheme)
+	}
+	if !finite(p.InitialAir) {
+		return errors.New("solver: initial air temperature is not finite")
+	}
+	return nil
+}
+
+// setUp sets the cells and conductances of element k, e, on the mesh m
+// (nil for a massless element, which keeps n = 0 and, with the outdoor
+// air behind it, gIn = U).
+func (el *roomEl) setUp(k int, e RoomElement, m *Mesh) error {
+	if e.massless() {
+		if m != nil {
+			return fmt.Errorf("solver: element %d (%s) is massless but has a mesh", k+1, e.Name)
+		}
+		if e.Back == BackOutside {
+			el.gIn = e.U()
+		}
+		return nil
+	}
+	if m == nil {
+		return fmt.Errorf("solver: element %d (%s) has no mesh", k+1, e.Name)
+	}
+	if err := fvCheckMesh(e.Column, m); err != nil {
+		return fmt.Errorf("element %d (%s): %w", k+1, e.Name, err)
+	}
+	n := m.Cells()
+	el.n = n
+	alloc := func() []float64 { return make([]float64, n) }
+	el.capc, el.s, el.t, el.tn, el.ts, el.rhs, el.di, el.e = alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc(), alloc()
+	el.gg = make([]float64, n-1)
+	half := make([]float64, n)
+	for i := 0; i < n; i++ {
+		l := e.Column.Layers[m.Layer[i]]
+		h := m.Width(i)
+		el.capc[i] = h * l.HeatCapacity
+		half[i] = h / (2 * l.Conductivity)
+	}
+	for i := range el.gg {
+		el.gg[i] = 1 / (half[i] + m.FaceResistance[i+1] + half[i+1])
+	}
+	if e.Back == BackOutside {
+		el.gOut = 1 / (e.Column.OutsideResistance + m.FaceResistance[0] + half[0])
+	}
+	el.gIn = 1 / (e.Column.InsideResistance + m.FaceResistance[n] + half[n-1])
+	return nil
+}
+
+// setInitial sets the cell temperatures of massive element k, e, from
+// init (degC per cell; nil: every cell at air, degC).
+func (el *roomEl) setInitial(k int, e RoomElement, init []float64, air float64) error {
+	switch {
+	case init == nil:
+		for i := range el.t {
+			el.t[i] = air
+		}
+	case len(init) != el.n:
+		return fmt.Errorf("solver: element %d (%s): %d initial temperatures for %d cells", k+1, e.Name, len(init), el.n)
+	default:
+		for i, v := range init {
+			if !finite(v) {
+				return fmt.Errorf("solver: element %d (%s): initial temperature of cell %d is not finite", k+1, e.Name, i)
+			}
+			el.t[i] = v
+		}
+	}
+	return nil
 }
 
 // factor factorises D = M + th K of every massive element and computes
@@ -389,18 +424,35 @@ func (el *roomEl) explicitRHS(th, ta0, tb0, tb1 float64) {
 	el.rhs[0] += th * el.gOut * tb1
 }
 
-func (rr *roomRun) run() (*RoomResult, error) {
-	p := rr.p
-	ne := len(rr.els)
-	steps := max(int(math.Ceil(p.Duration/p.Step-1e-9)), 1)
-	every := 1
+// roomSteps returns the number of steps of p and the steps between
+// samples.
+func roomSteps(p *RoomProblem) (steps, every int, err error) {
+	steps = max(int(math.Ceil(p.Duration/p.Step-1e-9)), 1)
+	every = 1
 	if p.OutputStep != 0 {
 		k := math.Round(p.OutputStep / p.Step)
 		if !finite(p.OutputStep) || k < 1 || math.Abs(k*p.Step-p.OutputStep) > 1e-6*p.Step {
-			return nil, fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.OutputStep, p.Step)
+			return 0, 0, fmt.Errorf("solver: sample spacing %g s is not a whole multiple of the step %g s", p.OutputStep, p.Step)
 		}
 		every = int(math.Min(k, 1e9))
 	}
+	return steps, every, nil
+}
+
+// roomRecorder keeps the energy balance of a room run and the series it
+// samples.
+type roomRecorder struct {
+	res                *RoomResult
+	eOut, eBack, eGain fvKahan   // J, inflows since the start
+	eAbs               fvKahan   // J, absolute inflows since the start
+	accEl              []fvKahan // J, heat from each element into the air since the last sample
+	accOut, accGain    fvKahan   // J, heat from the outdoor air and the gains since the last sample
+	lastT              float64   // s, time of the last sample
+}
+
+// newRoomRecorder returns a recorder for ne elements, steps steps and a
+// sample every every steps, from the start time t0 (s).
+func newRoomRecorder(ne, steps, every int, t0 float64) roomRecorder {
 	nSamples := (steps+every-1)/every + 1
 	if steps%every == 0 {
 		nSamples = steps/every + 1
@@ -410,10 +462,103 @@ func (rr *roomRun) run() (*RoomResult, error) {
 		Surface: make([][]float64, ne), Flow: make([][]float64, ne), MeanFlow: make([][]float64, ne),
 		MeanOutdoor: make([]float64, 0, nSamples), MeanGains: make([]float64, 0, nSamples),
 	}
+	return roomRecorder{res: res, accEl: make([]fvKahan, ne), lastT: t0}
+}
+
+// sample records the state of rr at time t (s) with the conductance h
+// (W/K) and the sources s; f receives its flows. The first sample holds
+// the instantaneous flows in the mean series.
+func (rec *roomRecorder) sample(rr *roomRun, t, h float64, s *roomSources, f *roomFlows, first bool) {
+	res := rec.res
+	rr.flows(rr.ta, h, s, false, f)
+	res.Times = append(res.Times, t)
+	res.Air = append(res.Air, rr.ta)
+	dt := t - rec.lastT
+	for k := range rr.els {
+		el := &rr.els[k]
+		// heat into the element through Rsi, per m2
+		qin := -f.el[k] / el.a
+		res.Surface[k] = append(res.Surface[k], rr.ta-el.rsi*qin)
+		res.Flow[k] = append(res.Flow[k], f.el[k])
+		if first {
+			res.MeanFlow[k] = append(res.MeanFlow[k], f.el[k])
+		} else {
+			res.MeanFlow[k] = append(res.MeanFlow[k], rec.accEl[k].value()/dt)
+		}
+		rec.accEl[k] = fvKahan{}
+	}
+	if first {
+		res.MeanOutdoor = append(res.MeanOutdoor, f.outdoor)
+		res.MeanGains = append(res.MeanGains, f.gains)
+	} else {
+		res.MeanOutdoor = append(res.MeanOutdoor, rec.accOut.value()/dt)
+		res.MeanGains = append(res.MeanGains, rec.accGain.value()/dt)
+	}
+	rec.accOut, rec.accGain = fvKahan{}, fvKahan{}
+	rec.lastT = t
+}
+
+// account adds the flows f (W) with the quadrature weight w (s) to the
+// energy balance and the sums since the last sample.
+func (rec *roomRecorder) account(w float64, f *roomFlows) {
+	if w == 0 {
+		return
+	}
+	rec.eOut.add(w * f.outdoor)
+	rec.eBack.add(w * f.back)
+	rec.eGain.add(w * f.gains)
+	rec.eAbs.add(w * (math.Abs(f.outdoor) + math.Abs(f.back) + math.Abs(f.gains)))
+	rec.accOut.add(w * f.outdoor)
+	rec.accGain.add(w * f.gains)
+	for k := range rec.accEl {
+		rec.accEl[k].add(w * f.el[k])
+	}
+}
+
+// airSrc is the part of the air right-hand side from the sources s at
+// the end of a stage with the conductance h: Phi + H To + sum_m A U Tb.
+func (rr *roomRun) airSrc(h float64, s *roomSources) float64 {
+	v := s.phi + h*s.to
+	for k := range rr.els {
+		el := &rr.els[k]
+		if el.n == 0 {
+			v += el.a * el.gIn * s.tb[k]
+		}
+	}
+	return v
+}
+
+// airDiag is the air node's diagonal C_a + th (H + sum_k A_k g_k).
+func (rr *roomRun) airDiag(th, h float64) float64 {
+	d := rr.ca + th*h
+	for k := range rr.els {
+		d += th * rr.els[k].a * rr.els[k].gIn
+	}
+	return d
+}
+
+// roomStepWork are the sources and flows at the start (0), the stage
+// point (m) and the end (1) of a step, reused from step to step.
+type roomStepWork struct {
+	s0, sm, s1 roomSources
+	f0, fm, f1 roomFlows
+}
+
+func newRoomStepWork(ne int) roomStepWork {
 	newSrc := func() roomSources { return roomSources{tb: make([]float64, ne)} }
 	newFlows := func() roomFlows { return roomFlows{el: make([]float64, ne)} }
-	s0, sm, s1 := newSrc(), newSrc(), newSrc()
-	f0, fm, f1 := newFlows(), newFlows(), newFlows()
+	return roomStepWork{s0: newSrc(), sm: newSrc(), s1: newSrc(), f0: newFlows(), fm: newFlows(), f1: newFlows()}
+}
+
+func (rr *roomRun) run() (*RoomResult, error) {
+	p := rr.p
+	ne := len(rr.els)
+	steps, every, err := roomSteps(p)
+	if err != nil {
+		return nil, err
+	}
+	recV, wV := newRoomRecorder(ne, steps, every, p.Start), newRoomStepWork(ne)
+	rec, w := &recV, &wV
 
 	// State at the start, for the heat stored.
 	ta0 := rr.ta
@@ -421,82 +566,14 @@ func (rr *roomRun) run() (*RoomResult, error) {
 	for k := range rr.els {
 		t0[k] = append([]float64(nil), rr.els[k].t...)
 	}
-	var eOut, eBack, eGain, eAbs fvKahan
-	// running sums since the last sample, J
-	accEl := make([]fvKahan, ne)
-	var accOut, accGain fvKahan
-	lastT := p.Start
-
-	sample := func(t, h float64, s *roomSources, f *roomFlows, first bool) {
-		rr.flows(rr.ta, h, s, false, f)
-		res.Times = append(res.Times, t)
-		res.Air = append(res.Air, rr.ta)
-		dt := t - lastT
-		for k := range rr.els {
-			el := &rr.els[k]
-			// heat into the element through Rsi, per m2
-			qin := -f.el[k] / el.a
-			res.Surface[k] = append(res.Surface[k], rr.ta-el.rsi*qin)
-			res.Flow[k] = append(res.Flow[k], f.el[k])
-			if first {
-				res.MeanFlow[k] = append(res.MeanFlow[k], f.el[k])
-			} else {
-				res.MeanFlow[k] = append(res.MeanFlow[k], accEl[k].value()/dt)
-			}
-			accEl[k] = fvKahan{}
-		}
-		if first {
-			res.MeanOutdoor = append(res.MeanOutdoor, f.outdoor)
-			res.MeanGains = append(res.MeanGains, f.gains)
-		} else {
-			res.MeanOutdoor = append(res.MeanOutdoor, accOut.value()/dt)
-			res.MeanGains = append(res.MeanGains, accGain.value()/dt)
-		}
-		accOut, accGain = fvKahan{}, fvKahan{}
-		lastT = t
-	}
-	if err := rr.sources(p.Start, &s0); err != nil {
+	if err := rr.sources(p.Start, &w.s0); err != nil {
 		return nil, err
 	}
 	h0 := rr.cond(p.Start)
 	if !(h0 >= 0) || math.IsInf(h0, 0) {
 		return nil, fmt.Errorf("solver: outdoor conductance %g W/K at t = %g s is not finite and non-negative", h0, p.Start)
 	}
-	sample(p.Start, h0, &s0, &f0, true)
-
-	account := func(w float64, f *roomFlows) {
-		if w == 0 {
-			return
-		}
-		eOut.add(w * f.outdoor)
-		eBack.add(w * f.back)
-		eGain.add(w * f.gains)
-		eAbs.add(w * (math.Abs(f.outdoor) + math.Abs(f.back) + math.Abs(f.gains)))
-		accOut.add(w * f.outdoor)
-		accGain.add(w * f.gains)
-		for k := range accEl {
-			accEl[k].add(w * f.el[k])
-		}
-	}
-	// airRHS is the part of the air right-hand side from the sources at
-	// the end of a stage: Phi + H To + sum_m A U Tb.
-	airSrc := func(h float64, s *roomSources) float64 {
-		v := s.phi + h*s.to
-		for k := range rr.els {
-			el := &rr.els[k]
-			if el.n == 0 {
-				v += el.a * el.gIn * s.tb[k]
-			}
-		}
-		return v
-	}
-	airDiag := func(th, h float64) float64 {
-		d := rr.ca + th*h
-		for k := range rr.els {
-			d += th * rr.els[k].a * rr.els[k].gIn
-		}
-		return d
-	}
+	rec.sample(rr, p.Start, h0, &w.s0, &w.f0, true)
 
 	t := p.Start
 	for step := 1; step <= steps; step++ {
@@ -504,90 +581,127 @@ func (rr *roomRun) run() (*RoomResult, error) {
 		if step == steps {
 			t1 = p.Start + p.Duration
 		}
-		dt := t1 - t
-		h := rr.cond(t + dt/2)
-		if !(h >= 0) || math.IsInf(h, 0) {
-			return nil, fmt.Errorf("solver: outdoor conductance %g W/K at t = %g s is not finite and non-negative", h, t+dt/2)
-		}
-		if err := rr.sources(t, &s0); err != nil {
+		h, err := rr.step(t, t1, w, rec)
+		if err != nil {
 			return nil, err
-		}
-		if err := rr.sources(t1, &s1); err != nil {
-			return nil, err
-		}
-		for k := range rr.els {
-			copy(rr.els[k].tn, rr.els[k].t)
-		}
-		tan := rr.ta
-		switch p.Scheme {
-		case TRBDF2:
-			th := fvTheta * dt
-			if err := rr.factor(th); err != nil {
-				return nil, err
-			}
-			if err := rr.sources(t+fvGamma*dt, &sm); err != nil {
-				return nil, err
-			}
-			rr.flows(tan, h, &s0, false, &f0)
-			// stage 1: trapezoidal over gamma dt
-			for k := range rr.els {
-				el := &rr.els[k]
-				if el.n > 0 {
-					el.explicitRHS(th, tan, s0.tb[k], sm.tb[k])
-				}
-			}
-			tam := rr.solveStage(th, rr.ca*tan+th*f0.air+th*airSrc(h, &sm), airDiag(th, h))
-			for k := range rr.els {
-				el := &rr.els[k]
-				copy(el.ts, el.rhs)
-			}
-			rr.flows(tam, h, &sm, true, &fm)
-			// stage 2: BDF2
-			for k := range rr.els {
-				el := &rr.els[k]
-				for i := 0; i < el.n; i++ {
-					el.rhs[i] = el.capc[i] * (fvC1*el.ts[i] - fvC2*el.tn[i])
-				}
-				if el.n > 0 {
-					el.rhs[0] += th * el.gOut * s1.tb[k]
-				}
-			}
-			rr.ta = rr.solveStage(th, rr.ca*(fvC1*tam-fvC2*tan)+th*airSrc(h, &s1), airDiag(th, h))
-			for k := range rr.els {
-				copy(rr.els[k].t, rr.els[k].rhs)
-			}
-			rr.flows(rr.ta, h, &s1, false, &f1)
-			account(fvW0*dt, &f0)
-			account(fvW0*dt, &fm)
-			account(fvW1*dt, &f1)
-		case BackwardEuler:
-			if err := rr.factor(dt); err != nil {
-				return nil, err
-			}
-			for k := range rr.els {
-				el := &rr.els[k]
-				for i := 0; i < el.n; i++ {
-					el.rhs[i] = el.capc[i] * el.tn[i]
-				}
-				if el.n > 0 {
-					el.rhs[0] += dt * el.gOut * s1.tb[k]
-				}
-			}
-			rr.ta = rr.solveStage(dt, rr.ca*tan+dt*airSrc(h, &s1), airDiag(dt, h))
-			for k := range rr.els {
-				copy(rr.els[k].t, rr.els[k].rhs)
-			}
-			rr.flows(rr.ta, h, &s1, false, &f1)
-			account(dt, &f1)
-		}
-		if !finite(rr.ta) {
-			return nil, fmt.Errorf("solver: room air temperature not finite at t = %g s", t1)
 		}
 		t = t1
 		if step%every == 0 || step == steps {
-			sample(t, h, &s1, &f1, false)
+			rec.sample(rr, t, h, &w.s1, &w.f1, false)
 		}
 	}
+	return rr.finish(rec, ta0, t0, steps), nil
+}
+
+// step advances the room from t to t1 (s) and returns the conductance
+// (W/K) it held over the step. w.s1 and w.f1 hold the sources and flows
+// at t1.
+func (rr *roomRun) step(t, t1 float64, w *roomStepWork, rec *roomRecorder) (float64, error) {
+	dt := t1 - t
+	h := rr.cond(t + dt/2)
+	if !(h >= 0) || math.IsInf(h, 0) {
+		return 0, fmt.Errorf("solver: outdoor conductance %g W/K at t = %g s is not finite and non-negative", h, t+dt/2)
+	}
+	if err := rr.sources(t, &w.s0); err != nil {
+		return 0, err
+	}
+	if err := rr.sources(t1, &w.s1); err != nil {
+		return 0, err
+	}
+	for k := range rr.els {
+		copy(rr.els[k].tn, rr.els[k].t)
+	}
+	var err error
+	switch rr.p.Scheme {
+	case TRBDF2:
+		err = rr.stepTRBDF2(t, dt, h, w, rec)
+	case BackwardEuler:
+		err = rr.stepEuler(dt, h, w, rec)
+	}
+	if err != nil {
+		return 0, err
+	}
+	if !finite(rr.ta) {
+		return 0, fmt.Errorf("solver: room air temperature not finite at t = %g s", t1)
+	}
+	return h, nil
+}
+
+// stepTRBDF2 is step with TR-BDF2: the trapezoidal stage over gamma dt
+// from the state at t, then the BDF2 stage to t + dt.
+func (rr *roomRun) stepTRBDF2(t, dt, h float64, w *roomStepWork, rec *roomRecorder) error {
+	s0, sm, s1 := &w.s0, &w.sm, &w.s1
+	tan := rr.ta
+	th := fvTheta * dt
+	if err := rr.factor(th); err != nil {
+		return err
+	}
+	if err := rr.sources(t+fvGamma*dt, sm); err != nil {
+		return err
+	}
+	rr.flows(tan, h, s0, false, &w.f0)
+	// stage 1: trapezoidal over gamma dt
+	for k := range rr.els {
+		el := &rr.els[k]
+		if el.n > 0 {
+			el.explicitRHS(th, tan, s0.tb[k], sm.tb[k])
+		}
+	}
+	tam := rr.solveStage(th, rr.ca*tan+th*w.f0.air+th*rr.airSrc(h, sm), rr.airDiag(th, h))
+	for k := range rr.els {
+		el := &rr.els[k]
+		copy(el.ts, el.rhs)
+	}
+	rr.flows(tam, h, sm, true, &w.fm)
+	// stage 2: BDF2
+	for k := range rr.els {
+		el := &rr.els[k]
+		for i := 0; i < el.n; i++ {
+			el.rhs[i] = el.capc[i] * (fvC1*el.ts[i] - fvC2*el.tn[i])
+		}
+		if el.n > 0 {
+			el.rhs[0] += th * el.gOut * s1.tb[k]
+		}
+	}
+	rr.ta = rr.solveStage(th, rr.ca*(fvC1*tam-fvC2*tan)+th*rr.airSrc(h, s1), rr.airDiag(th, h))
+	for k := range rr.els {
+		copy(rr.els[k].t, rr.els[k].rhs)
+	}
+	rr.flows(rr.ta, h, s1, false, &w.f1)
+	rec.account(fvW0*dt, &w.f0)
+	rec.account(fvW0*dt, &w.fm)
+	rec.account(fvW1*dt, &w.f1)
+	return nil
+}
+
+// stepEuler is step with backward Euler.
+func (rr *roomRun) stepEuler(dt, h float64, w *roomStepWork, rec *roomRecorder) error {
+	s1 := &w.s1
+	tan := rr.ta
+	if err := rr.factor(dt); err != nil {
+		return err
+	}
+	for k := range rr.els {
+		el := &rr.els[k]
+		for i := 0; i < el.n; i++ {
+			el.rhs[i] = el.capc[i] * el.tn[i]
+		}
+		if el.n > 0 {
+			el.rhs[0] += dt * el.gOut * s1.tb[k]
+		}
+	}
+	rr.ta = rr.solveStage(dt, rr.ca*tan+dt*rr.airSrc(h, s1), rr.airDiag(dt, h))
+	for k := range rr.els {
+		copy(rr.els[k].t, rr.els[k].rhs)
+	}
+	rr.flows(rr.ta, h, s1, false, &w.f1)
+	rec.account(dt, &w.f1)
+	return nil
+}
+
+// finish closes the energy balance against the start state (air ta0,
+// cells t0) and completes the result of a run of steps steps.
+func (rr *roomRun) finish(rec *roomRecorder, ta0 float64, t0 [][]float64, steps int) *RoomResult {
 	var stored fvKahan
 	stored.add(rr.ca * (rr.ta - ta0))
 	for k := range rr.els {
@@ -596,18 +710,19 @@ func (rr *roomRun) run() (*RoomResult, error) {
 			stored.add(el.a * el.capc[i] * (el.t[i] - t0[k][i]))
 		}
 	}
-	en := RoomEnergy{Stored: stored.value(), Outdoor: eOut.value(), Back: eBack.value(), Gains: eGain.value(), Exchanged: eAbs.value()}
+	en := RoomEnergy{Stored: stored.value(), Outdoor: rec.eOut.value(), Back: rec.eBack.value(), Gains: rec.eGain.value(), Exchanged: rec.eAbs.value()}
 	if en.Exchanged > 0 {
 		en.RelativeError = math.Abs(en.Residual()) / en.Exchanged
 	}
+	res := rec.res
 	res.Energy = en
 	res.FinalAir = rr.ta
-	res.Final = make([][]float64, ne)
+	res.Final = make([][]float64, len(rr.els))
 	for k := range rr.els {
 		if rr.els[k].n > 0 {
 			res.Final[k] = append([]float64(nil), rr.els[k].t...)
 		}
 	}
 	res.Steps = steps
-	return res, nil
+	return res
 }

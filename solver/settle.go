@@ -100,42 +100,15 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 	if !(o.Period > 0) || math.IsInf(o.Period, 0) || !(o.Tolerance > 0) || !(o.FrontTolerance > 0) || o.MaxCycles < 1 {
 		return nil, errors.New("solver: settle needs Period > 0, Tolerance > 0, FrontTolerance > 0 and MaxCycles >= 1")
 	}
-	p.Duration = o.Period
-	p.Probes = nil
-	p.Progress = nil
-	p.Observe = nil
-	coarse := 0
-	if o.CoarseStep > p.Step && p.Step > 0 && !math.IsInf(o.CoarseStep, 0) {
-		// Coarse cycles first; the cycles below start from their state
-		// and, comparing fronts only between cycles of the fine step,
-		// run at least twice.
-		q, qo := p, o
-		q.Step, qo.CoarseStep = o.CoarseStep, 0
-		st, err := Settle(q, qo)
-		if err != nil {
-			return nil, err
-		}
-		p.InitialEnthalpy, p.Initial, p.InitialFunc = st.Enthalpy, nil, nil
-		coarse = st.Cycles
-	}
-	p.OutputStep = o.OutputStep
-	if p.OutputStep <= 0 {
-		p.OutputStep = o.Period / 365
-	}
-	if p.Step > 0 {
-		p.OutputStep = math.Max(p.Step, math.Round(p.OutputStep/p.Step)*p.Step)
+	p, coarse, err := settleProblem(p, o)
+	if err != nil {
+		return nil, err
 	}
 	r, err := newFvRun(&p, true)
 	if err != nil {
 		return nil, err
 	}
-	ceq := make([]float64, r.n)
-	for i := range ceq {
-		ceq[i] = r.cvol[i]
-		if k := r.pidx[i]; k >= 0 {
-			ceq[i] = math.Min(r.phases[k].cf, r.phases[k].cu) + r.phases[k].lat
-		}
-	}
+	ceq := r.settleCapacities()
 	out := &Settled{FrontChange: math.Inf(1), CoarseCycles: coarse}
 	prevH := make([]float64, r.n)
 	prevT := make([]float64, r.n)
@@ -146,37 +119,8 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 		if err != nil {
 			return nil, err
 		}
-		if !r.nonlinear {
-			// run leaves H = C T for a linear column; the start was set
-			// from T as well.
-			for i := range prevH {
-				prevH[i] = r.cvol[i] * prevT[i]
-			}
-		}
-		change := 0.0
-		for i := 0; i < r.n; i++ {
-			change = math.Max(change, math.Max(math.Abs(r.T[i]-prevT[i]), math.Abs(r.H[i]-prevH[i])/ceq[i]))
-		}
-		front, thaw, least := 0.0, 0.0, math.Inf(1)
-		for k, f := range res.FrostDepth {
-			front = math.Max(front, f)
-			thaw = math.Max(thaw, res.ThawDepth[k])
-			least = math.Min(least, f)
-		}
-		frozenAll := least > 0
-		if c > 1 {
-			if frozenAll && out.FrozenAllCycle[c-2] {
-				// Permafrost: the front that moves with the seasons is
-				// the thaw front (the active layer).
-				out.FrontChange = math.Abs(thaw - out.MaxThaw[c-2])
-			} else {
-				out.FrontChange = math.Abs(front - out.MaxFrost[c-2])
-			}
-		}
-		out.MaxFrost = append(out.MaxFrost, front)
-		out.MaxThaw = append(out.MaxThaw, thaw)
-		out.FrozenAllCycle = append(out.FrozenAllCycle, frozenAll)
-		out.Cycles, out.Change = c, change
+		change := r.cycleChange(prevT, prevH, ceq)
+		front := out.addCycle(c, change, res)
 		if o.Progress != nil {
 			o.Progress(c)
 		}
@@ -196,6 +140,100 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 	}
 	out.Enthalpy = append([]float64(nil), r.H...)
 	return out, nil
+}
+
+// settleProblem returns p set up for the cycles of Settle with the
+// problem's own step (one period, no probes, progress or observer, the
+// sample spacing of o), starting from the state the coarse cycles settled
+// to when o asks for them, and the number of coarse cycles run.
+func settleProblem(p Problem, o SettleOptions) (Problem, int, error) {
+	p.Duration = o.Period
+	p.Probes = nil
+	p.Progress = nil
+	p.Observe = nil
+	coarse := 0
+	if o.CoarseStep > p.Step && p.Step > 0 && !math.IsInf(o.CoarseStep, 0) {
+		// Coarse cycles first; the cycles below start from their state
+		// and, comparing fronts only between cycles of the fine step,
+		// run at least twice.
+		q, qo := p, o
+		q.Step, qo.CoarseStep = o.CoarseStep, 0
+		st, err := Settle(q, qo)
+		if err != nil {
+			return p, 0, err
+		}
+		p.InitialEnthalpy, p.Initial, p.InitialFunc = st.Enthalpy, nil, nil
+		coarse = st.Cycles
+	}
+	p.OutputStep = o.OutputStep
+	if p.OutputStep <= 0 {
+		p.OutputStep = o.Period / 365
+	}
+	if p.Step > 0 {
+		p.OutputStep = math.Max(p.Step, math.Round(p.OutputStep/p.Step)*p.Step)
+	}
+	return p, coarse, nil
+}
+
+// settleCapacities returns the heat capacity (J/(m3 K)) that turns an
+// enthalpy change of each cell into kelvin for Settle's change: the
+// sensible one, or for a freezing cell the smaller sensible one plus the
+// latent heat.
+func (r *fvRun) settleCapacities() []float64 {
+	ceq := make([]float64, r.n)
+	for i := range ceq {
+		ceq[i] = r.cvol[i]
+		if k := r.pidx[i]; k >= 0 {
+			ceq[i] = math.Min(r.phases[k].cf, r.phases[k].cu) + r.phases[k].lat
+		}
+	}
+	return ceq
+}
+
+// cycleChange returns the largest change (K) of a cell over the cycle
+// just run from the temperatures prevT and enthalpies prevH, the enthalpy
+// change in kelvin of ceq. For a linear column prevH is first set from
+// prevT (run leaves H = C T; the start was set from T as well).
+func (r *fvRun) cycleChange(prevT, prevH, ceq []float64) float64 {
+	if !r.nonlinear {
+		for i := range prevH {
+			prevH[i] = r.cvol[i] * prevT[i]
+		}
+	}
+	change := 0.0
+	for i := 0; i < r.n; i++ {
+		change = math.Max(change, math.Max(math.Abs(r.T[i]-prevT[i]), math.Abs(r.H[i]-prevH[i])/ceq[i]))
+	}
+	return change
+}
+
+// addCycle records cycle c, with the largest cell change change (K) and
+// the series res, in out: its deepest frost and thaw, whether ground
+// stayed frozen all through it, and the change of the front from the
+// cycle before (the thaw front under permafrost in both cycles). It
+// returns the cycle's deepest frost, m.
+func (out *Settled) addCycle(c int, change float64, res *Result) float64 {
+	front, thaw, least := 0.0, 0.0, math.Inf(1)
+	for k, f := range res.FrostDepth {
+		front = math.Max(front, f)
+		thaw = math.Max(thaw, res.ThawDepth[k])
+		least = math.Min(least, f)
+	}
+	frozenAll := least > 0
+	if c > 1 {
+		if frozenAll && out.FrozenAllCycle[c-2] {
+			// Permafrost: the front that moves with the seasons is
+			// the thaw front (the active layer).
+			out.FrontChange = math.Abs(thaw - out.MaxThaw[c-2])
+		} else {
+			out.FrontChange = math.Abs(front - out.MaxFrost[c-2])
+		}
+	}
+	out.MaxFrost = append(out.MaxFrost, front)
+	out.MaxThaw = append(out.MaxThaw, thaw)
+	out.FrozenAllCycle = append(out.FrozenAllCycle, frozenAll)
+	out.Cycles, out.Change = c, change
+	return front
 }
 
 // deepQuiet is the largest temperature range over a cycle, K, of a
@@ -225,31 +263,67 @@ func (r *fvRun) deepReset(res *Result) bool {
 	if n < 3 {
 		return false
 	}
-	linear := func(i int) bool {
-		k := r.pidx[i]
-		if k < 0 {
-			return true
-		}
-		ph := &r.phases[k]
-		return res.Min[i] > ph.tp || res.Max[i] < ph.tl
+	ib := r.deepAnchor(res)
+	if ib >= n-1 {
+		return false
 	}
+	f, ok := r.steadyFlux(res, ib)
+	if !ok {
+		return false
+	}
+	newH := r.steadyEnthalpies(res, ib, f)
+	for j := ib + 1; j < n; j++ {
+		if math.IsNaN(newH[j]) || math.IsInf(newH[j], 0) {
+			return false
+		}
+	}
+	for j := ib + 1; j < n; j++ {
+		r.H[j] = newH[j]
+		r.updateCell(j)
+	}
+	r.updateConductances()
+	r.nlTh, r.nlDirty, r.regOK = math.NaN(), n-1, false
+	return true
+}
+
+// stayedLinear reports whether cell i stayed frozen or unfrozen all
+// through the cycle whose per-cell range res holds.
+func (r *fvRun) stayedLinear(res *Result, i int) bool {
+	k := r.pidx[i]
+	if k < 0 {
+		return true
+	}
+	ph := &r.phases[k]
+	return res.Min[i] > ph.tp || res.Max[i] < ph.tl
+}
+
+// deepAnchor returns the anchor of the deep reset: the shallowest cell of
+// the deepest run of cells that stayed in one phase (a lone quiet front
+// under such a cell may lie in the run), or n-1 or more when there is
+// none to reset below it.
+func (r *fvRun) deepAnchor(res *Result) int {
+	n := r.n
 	ok := func(i int) bool {
-		if linear(i) {
+		if r.stayedLinear(res, i) {
 			return true
 		}
-		return r.isoMushy(i) && res.Max[i]-res.Min[i] < deepQuiet && i > 0 && linear(i-1)
+		return r.isoMushy(i) && res.Max[i]-res.Min[i] < deepQuiet && i > 0 && r.stayedLinear(res, i-1)
 	}
 	ib := n
 	for ib > 0 && ok(ib-1) {
 		ib--
 	}
-	for ib < n-1 && !linear(ib) {
+	for ib < n-1 && !r.stayedLinear(res, ib) {
 		ib++
 	}
-	if ib >= n-1 {
-		return false
-	}
-	// The mean flux in +x the inside boundary carries in steady state.
+	return ib
+}
+
+// steadyFlux returns the mean flux in +x (W/m2) the inside boundary
+// carries in steady state below the anchor ib, and false when it is not
+// known (or not finite).
+func (r *fvRun) steadyFlux(res *Result, ib int) (float64, bool) {
+	n := r.n
 	t0 := r.p.Start
 	var f float64
 	switch r.in.kind {
@@ -265,11 +339,19 @@ func (r *fvRun) deepReset(res *Result) bool {
 		}
 		f = (res.Mean[ib] - v) / rr
 	default:
-		return false
+		return 0, false
 	}
 	if math.IsNaN(f) || math.IsInf(f, 0) {
-		return false
+		return 0, false
 	}
+	return f, true
+}
+
+// steadyEnthalpies marches the steady profile carrying the flux f from
+// the cycle mean of the anchor ib down the column and returns the new
+// enthalpy (J/m3) of each cell below ib (entries up to ib are unused).
+func (r *fvRun) steadyEnthalpies(res *Result, ib int, f float64) []float64 {
+	n := r.n
 	newH := make([]float64, n)
 	T := res.Mean[ib]
 	T, _ = r.walk(ib, T, r.h[ib]/2, f)
@@ -278,42 +360,37 @@ func (r *fvRun) deepReset(res *Result) bool {
 		steady, frozenUp := r.walk(j, T, r.h[j]/2, f)
 		down, frozenDown := r.walk(j, steady, r.h[j]/2, f)
 		T = down
-		k := r.pidx[j]
-		if k < 0 {
-			newH[j] = r.cvol[j] * (r.T[j] + steady - res.Mean[j])
-			continue
-		}
-		ph := &r.phases[k]
-		ice := (frozenUp + frozenDown) / r.h[j]
-		switch {
-		case ph.isoTerm && ice > 1e-9 && ice < 1-1e-9:
-			newH[j] = (1 - ice) * ph.lat
-		case linear(j):
-			t := r.T[j] + steady - res.Mean[j]
-			// Keep the cell on the side of the freezing point the steady
-			// profile puts it.
-			if steady >= ph.tp {
-				t = math.Max(t, ph.tp)
-			} else {
-				t = math.Min(t, math.Nextafter(ph.tl, math.Inf(-1)))
-			}
-			newH[j] = ph.enthalpy(t)
-		default:
-			newH[j] = ph.enthalpy(steady)
-		}
+		newH[j] = r.steadyEnthalpy(res, j, steady, (frozenUp+frozenDown)/r.h[j])
 	}
-	for j := ib + 1; j < n; j++ {
-		if math.IsNaN(newH[j]) || math.IsInf(newH[j], 0) {
-			return false
+	return newH
+}
+
+// steadyEnthalpy returns the enthalpy (J/m3) of cell j whose centre lies
+// at the steady temperature steady (degC), ice the fraction of the cell
+// below an isothermal freezing point: the cell keeps its periodic part
+// and gets the steady mean.
+func (r *fvRun) steadyEnthalpy(res *Result, j int, steady, ice float64) float64 {
+	k := r.pidx[j]
+	if k < 0 {
+		return r.cvol[j] * (r.T[j] + steady - res.Mean[j])
+	}
+	ph := &r.phases[k]
+	switch {
+	case ph.isoTerm && ice > 1e-9 && ice < 1-1e-9:
+		return (1 - ice) * ph.lat
+	case r.stayedLinear(res, j):
+		t := r.T[j] + steady - res.Mean[j]
+		// Keep the cell on the side of the freezing point the steady
+		// profile puts it.
+		if steady >= ph.tp {
+			t = math.Max(t, ph.tp)
+		} else {
+			t = math.Min(t, math.Nextafter(ph.tl, math.Inf(-1)))
 		}
+		return ph.enthalpy(t)
+	default:
+		return ph.enthalpy(steady)
 	}
-	for j := ib + 1; j < n; j++ {
-		r.H[j] = newH[j]
-		r.updateCell(j)
-	}
-	r.updateConductances()
-	r.nlTh, r.nlDirty, r.regOK = math.NaN(), n-1, false
-	return true
 }
 
 // isoMushy reports whether cell i is partly frozen at an isothermal

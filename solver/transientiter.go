@@ -109,12 +109,15 @@ func (r *fvRun) beginStage(th float64, rhs *fvRHS) {
 		// around the cells in their freezing range.
 		r.regOK = true
 	}
-	clear(r.nclip)
+	// Only the phase cells are stopped on kinks, and sideUp reads only
+	// them and their neighbours.
+	lo, hi := r.pwLo, r.pwHi+1
+	clear(r.nclip[lo:hi])
 	// The side on which an isothermal cell freezes first is decided from
 	// the temperatures at the start of the stage (sideUp); a partly
 	// frozen cell whose side changed gets new resistances. The other cells
 	// take their side when they become partly frozen.
-	copy(r.tStart, r.T)
+	copy(r.tStart[lo:hi], r.T[lo:hi])
 	r.tStartOK = true
 	if th != r.nlTh {
 		r.nlTh = th
@@ -233,6 +236,17 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 			wNext, i = rows[lo].w, lo
 			continue
 		}
+		if i < dirty && i > 0 && i < n-1 {
+			// Interior rows factorised again, from i down to row 1.
+			var cutAt int
+			fBelow, yNext, wNext, aL, bL, cutAt = r.elimDirty(i, a, fBelow, yNext, wNext, aL, bL, rhs)
+			if cutAt >= 0 {
+				r.nlDirty = min(dirty, cutAt-1)
+				return cutAt + 1, start
+			}
+			i = 1
+			continue
+		}
 		fAbove := qo
 		if i > 0 {
 			fAbove = gg[i-1] * (T[i-1] - T[i])
@@ -275,6 +289,60 @@ func (r *fvRun) eliminate(vo, vi, ao, ai float64, a, b int, rhs fvRHS) (t, start
 	}
 	r.nlDirty = -1
 	return 0, start
+}
+
+// elimDirty is eliminate over the interior rows hi down to 1 (hi < n-1)
+// that are factorised again, from the flux fBelow through the face below
+// row hi, y_{hi+1} = yNext, w_{hi+1} = wNext and the derivatives aL, bL
+// of that face's flux. It forms hrhs as rhs says. It returns the same
+// quantities for row 1 (the face above it, y_1, w_1 and the derivatives
+// of the face above row 1), or, if it stopped at a row above a whose
+// eliminated residual is round-off, that row's flux, y and index (else
+// cut < 0). The arithmetic is that of the general loop of eliminate,
+// operation for operation.
+func (r *fvRun) elimDirty(hi, a int, fBelow, yNext, wNext, aL, bL float64, rhs fvRHS) (f, y, w, aU, bU float64, cut int) {
+	// Row j is index j of the windows (T, slope, dru, drd up to row hi+1).
+	T, s := r.T[:hi+2], r.slope[:hi+2]
+	dru, drd := r.dru[:hi+2], r.drd[:hi+2]
+	gg, rows := r.gg[:hi+1], r.rows[:hi+1]
+	H, hrhs, hn, cth := r.H[:hi+1], r.hrhs[:hi+1], r.hn[:hi+1], r.cth[:hi+1]
+	ys, cutH := r.rhs[:hi+1], r.cutH[:hi+1]
+	kind := rhs.kind
+	c1, c2 := fvC1, fvC2
+	for i := hi; i >= 1; i-- {
+		ti, tu := T[i], T[i-1]
+		g := gg[i-1]
+		fAbove := g * (tu - ti)
+		// faceSlopes(i-1).
+		gd := (tu - ti) * g * g
+		aU, bU = g*s[i-1]-gd*drd[i-1], -g*s[i]-gd*dru[i]
+		rows[i-1].fa, rows[i-1].fb = aU, bU
+		c := cth[i]
+		// piv_i = 1 - c_i dN_i - up_i w_{i+1}, dN_i = b_{i-1} - a_i.
+		dN := bU
+		dN -= aL
+		up := c * bL
+		ip := 1 / (1 - c*dN - up*wNext)
+		rw := &rows[i]
+		u := up * ip
+		wi := -c * aU * ip
+		rw.ip, rw.u, rw.w = ip, u, wi
+		switch kind {
+		case fvRHSExplicit:
+			hn[i] = H[i]
+			hrhs[i] = H[i] + cth[i]*(fAbove-fBelow)
+		case fvRHSBDF2:
+			hrhs[i] = c1*H[i] - c2*hn[i]
+		}
+		yi := (hrhs[i]-H[i]+c*(fAbove-fBelow))*ip - u*yNext
+		ys[i] = yi
+		if i < a && math.Abs(yi) <= cutH[i] {
+			return fAbove, yi, wi, aU, bU, i
+		}
+		aL, bL = aU, bU
+		yNext, wNext, fBelow = yi, wi, fAbove
+	}
+	return fBelow, yNext, wNext, aL, bL, -1
 }
 
 // faceSlopes returns a_j = dF_j/dH_j and b_j = dF_j/dH_{j+1} of the flux

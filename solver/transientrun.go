@@ -115,7 +115,9 @@ type fvConfig struct {
 	pidx      []int32   // phase index per cell, -1 for none
 	phases    []fvPhase // the freezing relations of the layers that freeze
 	pcells    []int     // cells with a phase change
-	spans     []fvSpan  // the column cut into runs of cells that can and cannot freeze
+	pwLo      int       // the cells pwLo..pwHi hold the phase cells and their neighbours (sideUp reads their start temperatures)
+	pwHi      int
+	spans     []fvSpan // the column cut into runs of cells that can and cannot freeze
 
 	nSteps, every int     // time steps, and steps between samples
 	dtLast        float64 // s, the last (shortened) step
@@ -146,7 +148,7 @@ type fvState struct {
 	vo, vi  float64 // boundary values at the current time
 
 	T0, H0   []float64 // state at the start of the run
-	tStart   []float64 // temperatures at the start of the current implicit stage, degC
+	tStart   []float64 // temperatures at the start of the current implicit stage, degC (cells pwLo..pwHi)
 	tStartOK bool      // tStart is set
 	reg      []int8    // region (0 frozen, 1 freezing range, 2 unfrozen) of each phase cell
 	regOK    bool      // reg holds the region of every phase cell's enthalpy
@@ -327,6 +329,10 @@ func (r *fvRun) setCells() {
 		if r.pidx[i] >= 0 {
 			r.pcells = append(r.pcells, i)
 		}
+	}
+	r.pwLo, r.pwHi = 0, -1
+	if k := len(r.pcells); k > 0 {
+		r.pwLo, r.pwHi = max(r.pcells[0]-1, 0), min(r.pcells[k-1]+1, n-1)
 	}
 
 }
