@@ -107,15 +107,23 @@ func TestSimulateAllocationsIndependentOfSteps(t *testing.T) {
 	for _, freeze := range []bool{false, true} {
 		p := fvtBenchProblem(freeze)
 		p.Probes = nil
+		// The least of three counts: testing.AllocsPerRun reads the
+		// process-wide malloc count, which a stray allocation of the
+		// runtime can raise but nothing can lower, while an allocation per
+		// step would show in every count.
 		count := func(steps int) float64 {
 			q := p
 			q.Duration = float64(steps) * q.Step
 			q.OutputStep = q.Duration
-			return testing.AllocsPerRun(3, func() {
-				if _, err := Simulate(q); err != nil {
-					t.Fatal(err)
-				}
-			})
+			least := math.Inf(1)
+			for range 3 {
+				least = math.Min(least, testing.AllocsPerRun(3, func() {
+					if _, err := Simulate(q); err != nil {
+						t.Fatal(err)
+					}
+				}))
+			}
+			return least
 		}
 		a, b := count(50), count(500)
 		if a != b {
