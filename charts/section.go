@@ -79,14 +79,16 @@ var familyOrderDrawn = []string{
 	layers.FamilyAir, "soil", layers.FamilyOther, "",
 }
 
-// family returns the material family of a layer: the library family of
-// its material key, "soil" for a ground layer that is not a library
-// material (soil blocks and ground presets), "" when not known (a
-// building layer given by inline properties).
-//
-// results.Layer carries no family yet (layers.Layer has one); until it
-// does, the family is looked up from the material key here.
+// family returns the material family of a layer: the family the run
+// reports (a library material's, a custom layer's family key, a mixed
+// layer's largest part's), else the library family of its material key,
+// "soil" for a ground layer that is not a library material (soil blocks
+// and ground presets), "" when not known (a building layer given by
+// inline properties without a family).
 func family(kind results.Kind, l results.Layer) string {
+	if _, ok := familyStyles[l.Family]; ok && l.Family != "" {
+		return l.Family
+	}
 	if m, ok := layers.Lookup(l.Material); ok && l.Material != "" {
 		return m.Family
 	}

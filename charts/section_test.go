@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"tempstack/layers"
 	"tempstack/scenarios/results"
 )
 
@@ -355,5 +356,28 @@ func TestCrossSectionGround(t *testing.T) {
 	_, of := usedFamilies(w.Kind, w.Layers)
 	if want := []string{"masonry", "insulation", "", ""}; strings.Join(of, ",") != strings.Join(want, ",") {
 		t.Errorf("families %q, want %q", of, want)
+	}
+}
+
+// TestFamilyOfLayer: the drawing takes the family the run reports (a mixed
+// layer's largest part, a custom layer's family key) before the library's,
+// and "soil" or "not known" only when the run gives none.
+func TestFamilyOfLayer(t *testing.T) {
+	tests := []struct {
+		kind results.Kind
+		l    results.Layer
+		want string
+	}{
+		{results.Wall, results.Layer{Name: "studs and wool", Family: layers.FamilyInsulation}, layers.FamilyInsulation},
+		{results.Wall, results.Layer{Material: "clay-brick"}, layers.FamilyMasonry},
+		{results.Wall, results.Layer{Material: "clay-brick", Family: layers.FamilyTimber}, layers.FamilyTimber},
+		{results.Wall, results.Layer{Name: "custom"}, ""},
+		{results.Wall, results.Layer{Name: "odd", Family: "no-such-family"}, ""},
+		{results.Ground, results.Layer{Name: "silt"}, "soil"},
+	}
+	for _, tc := range tests {
+		if got := family(tc.kind, tc.l); got != tc.want {
+			t.Errorf("family(%v, %+v) = %q, want %q", tc.kind, tc.l, got, tc.want)
+		}
 	}
 }
