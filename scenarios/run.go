@@ -174,7 +174,7 @@ func runWall(s *run, p *runPlan, progress Progress) (*results.Results, error) {
 
 // EquivalentLayerNote says how the periodic analysis and the simulation
 // treat a mixed layer (layers.Construction.Homogenised).
-const EquivalentLayerNote = "each mixed layer is replaced by an equivalent homogeneous layer: conductivity chosen so that the layers in series give the combined method's R_T (the layer's lower-limit resistance plus its share, in proportion to that resistance, of R_T − R''_T), density and volumetric heat capacity weighted by area fraction"
+const EquivalentLayerNote = "each mixed layer is replaced by an equivalent homogeneous layer: conductivity chosen so that the layers in series give the combined method's R_T (the layer's lower-limit resistance plus its share, in proportion to that resistance, of the difference between R_T and the lower limit), density and volumetric heat capacity weighted by area fraction"
 
 // combinedMethod is the combined method of ISO 6946 for construction c
 // with mixed layers, for results.json.
