@@ -70,7 +70,7 @@ func (p problems) err() error { return fileerr.List(p).Err() }
 // it). It changes nothing in s (the decoder resolved the defaults).
 func (s *Scenario) plan() (*runPlan, error) {
 	if s.Kind == Room {
-		_, err := s.roomPlan() // roomrun.go
+		err := s.checkRoom() // roomrun.go
 		return &runPlan{}, err
 	}
 	p := &runPlan{col: s.column()}

@@ -10,13 +10,17 @@ import (
 
 	"tempstack/climate"
 	"tempstack/layers"
+	"tempstack/scenarios/room"
 	"tempstack/solver"
 )
 
-// AirHeatCapacity is the volumetric heat capacity of air used for the air
-// node and the ventilation, 1200 J/(m3 K) (ISO 13789, rho c of air
-// [2nd-hand]).
-const AirHeatCapacity = 1200.0
+// AirHeatCapacity is the volumetric heat capacity of air, J/(m3 K), of
+// the air node and the ventilation (room.AirHeatCapacity).
+const AirHeatCapacity = room.AirHeatCapacity
+
+// RoomSettleTolerance is the largest change (K) of the air or any cell
+// over one cycle at which a room counts as settled (room.SettleTolerance).
+const RoomSettleTolerance = room.SettleTolerance
 
 // RoomSpec is a room scenario (kind: room): one air node, its layered
 // elements, windows, ventilation and gains, in SI units.
@@ -37,46 +41,8 @@ type RoomSpec struct {
 	Line       int // line of the room key
 }
 
-// Ventilation is the outdoor air supply of a room, in air changes per
-// hour: Day all day, or Night from NightFrom to NightTo (hours of the
-// day, wrapping past midnight) when Scheduled.
-type Ventilation struct {
-	Day, Night         float64 // 1/h
-	NightFrom, NightTo float64 // h of the day, 0 to 24
-	Scheduled          bool
-}
-
-// at returns the air changes per hour at time t (s).
-func (v Ventilation) at(t float64) float64 {
-	if !v.Scheduled {
-		return v.Day
-	}
-	h := t / 3600
-	h -= 24 * float64(int64(h/24))
-	if h < 0 {
-		h += 24
-	}
-	night := h >= v.NightFrom && h < v.NightTo
-	if v.NightFrom > v.NightTo {
-		night = h >= v.NightFrom || h < v.NightTo
-	}
-	if night {
-		return v.Night
-	}
-	return v.Day
-}
-
-// mean returns the daily mean air changes per hour.
-func (v Ventilation) mean() float64 {
-	if !v.Scheduled {
-		return v.Day
-	}
-	n := v.NightTo - v.NightFrom
-	if n < 0 {
-		n += 24
-	}
-	return (n*v.Night + (24-n)*v.Day) / 24
-}
+// Ventilation is the outdoor air supply of a room (room.Ventilation).
+type Ventilation = room.Ventilation
 
 // RoomElement is one layered element of a room.
 type RoomElement struct {

@@ -21,6 +21,7 @@ var (
 	pGround    = []string{"./ground/", "./scenarios/"}
 	pScenarios = []string{"./scenarios/"}
 	pSolverSc  = []string{"./solver/", "./scenarios/"}
+	pRoom      = []string{"./scenarios/room/", "./scenarios/"}
 )
 
 // mutants is the list the harness runs. Few mutants sit in files that are
@@ -379,7 +380,7 @@ var mutants = []Mutant{
 	{ID: "climate-fahrenheit-word", File: "climate/unitname.go",
 		Old: `if w == "f" || w == "degf"`, New: `if w == "degf"`,
 		Desc: "a column temp_F not taken for Fahrenheit", Pkgs: pClimate},
-	// --- room (solver/room.go, solver/roomsim.go, scenarios/room*.go) ---
+	// --- room (solver/room.go, solver/roomsim.go, scenarios/room.go, scenarios/room/) ---
 	{ID: "room-adiabatic-z11", File: "solver/room.go",
 		Old: "y[k] = -m[1][0] / m[1][1]", New: "y[k] = -m[1][0] / m[0][0]",
 		Desc: "adiabatic element's admittance from Z21/Z11 instead of Z21/Z22", Pkgs: pSolver},
@@ -401,22 +402,22 @@ var mutants = []Mutant{
 	{ID: "roomsim-gin-half-cell", File: "solver/roomsim.go",
 		Old: "el.gIn = 1 / (e.Column.InsideResistance + m.FaceResistance[n] + half[n-1])", New: "el.gIn = 1 / (e.Column.InsideResistance + m.FaceResistance[n])",
 		Desc: "element-to-air conductance without the half cell", Pkgs: pSolver},
-	{ID: "room-ventilation-60", File: "scenarios/roomrun.go",
-		Old: "hMean := AirHeatCapacity*vol*vent.mean()/3600 + p.windowsUA", New: "hMean := AirHeatCapacity*vol*vent.mean()/60 + p.windowsUA",
-		Desc: "ventilation conductance per minute instead of per hour (exact method)", Pkgs: pScenarios},
-	{ID: "room-operative-third", File: "scenarios/roomrun.go",
+	{ID: "room-ventilation-60", File: "scenarios/room/plan.go",
+		Old: "hMean := AirHeatCapacity*vol*vent.Mean()/3600 + p.windowsUA", New: "hMean := AirHeatCapacity*vol*vent.Mean()/60 + p.windowsUA",
+		Desc: "ventilation conductance per minute instead of per hour (exact method)", Pkgs: pRoom},
+	{ID: "room-operative-third", File: "scenarios/room/simulate.go",
 		Old: "sim.operative[j] = (res.Air[j] + sv/area) / 2", New: "sim.operative[j] = (res.Air[j] + sv/area) / 3",
-		Desc: "simulated operative temperature divided by 3", Pkgs: pScenarios},
-	{ID: "room-night-wrap", File: "scenarios/room.go",
+		Desc: "simulated operative temperature divided by 3", Pkgs: pRoom},
+	{ID: "room-night-wrap", File: "scenarios/room/spec.go",
 		Old: "night = h >= v.NightFrom || h < v.NightTo", New: "night = h >= v.NightFrom && h < v.NightTo",
-		Desc: "a night past midnight is never night", Pkgs: pScenarios},
-	{ID: "room-hours-crossing", File: "scenarios/roomrun.go",
+		Desc: "a night past midnight is never night", Pkgs: pRoom},
+	{ID: "room-hours-crossing", File: "scenarios/room/simulate.go",
 		Old: "sum += dt * math.Max(a, b) / math.Abs(b-a)", New: "sum += dt / 2",
-		Desc: "hours above counts half of every crossing interval", Pkgs: pScenarios},
+		Desc: "hours above counts half of every crossing interval", Pkgs: pRoom},
 	{ID: "room-solair-he", File: "scenarios/measured.go",
 		Old: "he := 1 / math.Max(sd.Resistance, 1e-3)", New: "he := math.Max(sd.Resistance, 1e-3)",
 		Desc: "sol-air (a wall's outside, a room element's back) with Rse in place of the outside coefficient", Pkgs: pScenarios},
-	{ID: "room-window-sun-clip", File: "scenarios/roomrun.go",
+	{ID: "room-window-sun-clip", File: "scenarios/room/plan.go",
 		Old: "v += sn.ga * math.Max(0, sn.irr.At(t))", New: "v += sn.ga * sn.irr.At(t)",
-		Desc: "the sun through a window is not clipped at night", Pkgs: pScenarios},
+		Desc: "the sun through a window is not clipped at night", Pkgs: pRoom},
 }
