@@ -488,3 +488,21 @@ func formatNumber(x float64) string {
 	}
 	return strconv.FormatFloat(r, 'g', -1, 64)
 }
+
+// FormatDuration writes a duration of sec seconds the way a scenario file
+// writes it, in the largest unit that keeps it readable: "2y", "7d" (whole
+// years and days only), "1.5h", "15min", "30s". ParseQuantity(s, Duration)
+// reads it back.
+func FormatDuration(sec float64) string {
+	switch {
+	case sec >= year && math.Mod(sec, year) == 0:
+		return fmt.Sprintf("%gy", sec/year)
+	case sec >= day && math.Mod(sec, day) == 0:
+		return fmt.Sprintf("%gd", sec/day)
+	case sec >= hour:
+		return fmt.Sprintf("%gh", sec/hour)
+	case sec >= 60:
+		return fmt.Sprintf("%gmin", sec/60)
+	}
+	return fmt.Sprintf("%gs", sec)
+}

@@ -392,3 +392,28 @@ func FuzzParseQuantity(f *testing.F) {
 		}
 	})
 }
+
+// TestFormatDuration: a duration is written in the largest unit that keeps
+// it readable, and ParseQuantity reads the text back to the same seconds.
+func TestFormatDuration(t *testing.T) {
+	tests := []struct {
+		sec  float64
+		want string
+	}{
+		{2 * 365 * 86400, "2y"},
+		{7 * 86400, "7d"},
+		{49 * 3600, "49h"},
+		{1.5 * 3600, "1.5h"},
+		{900, "15min"},
+		{30, "30s"},
+	}
+	for _, tc := range tests {
+		got := FormatDuration(tc.sec)
+		if got != tc.want {
+			t.Errorf("FormatDuration(%g) = %q, want %q", tc.sec, got, tc.want)
+		}
+		if back, err := ParseQuantity(got, Duration); err != nil || back != tc.sec {
+			t.Errorf("ParseQuantity(%q) = %g, %v; want %g", got, back, err, tc.sec)
+		}
+	}
+}

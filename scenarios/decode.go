@@ -6,14 +6,12 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
-	"math"
 	"os"
 	"path/filepath"
 	"strings"
 
 	"gopkg.in/yaml.v3"
 
-	"tempstack/climate"
 	"tempstack/layers"
 )
 
@@ -222,19 +220,4 @@ func (d *decoder) decodeOrientation(top *object, s *Scenario) {
 		top.fail("orientation", err)
 	}
 	s.Orientation = o
-}
-
-// fmtDuration prints a duration in s in the largest whole unit.
-func fmtDuration(sec float64) string {
-	switch {
-	case sec >= climate.Year && math.Mod(sec, climate.Year) == 0:
-		return fmt.Sprintf("%gy", sec/climate.Year)
-	case sec >= climate.Day && math.Mod(sec, climate.Day) == 0:
-		return fmt.Sprintf("%gd", sec/climate.Day)
-	case sec >= 3600:
-		return fmt.Sprintf("%gh", sec/3600)
-	case sec >= 60:
-		return fmt.Sprintf("%gmin", sec/60)
-	}
-	return fmt.Sprintf("%gs", sec)
 }

@@ -175,7 +175,7 @@ func (d *decoder) decodeSimulate(o *object, s *Scenario) {
 	so.positive("step", layers.Duration, &sim.Step)
 	so.positive("output_step", layers.Duration, &sim.OutputStep)
 	if so.clean() && sim.Duration > 0 && sim.Step > sim.Duration {
-		so.failf("step", "the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))
+		so.failf("step", "the time step (%s) is longer than the simulated duration (%s)", layers.FormatDuration(sim.Step), layers.FormatDuration(sim.Duration))
 	}
 	var initial float64
 	if so.quantity("initial_temperature", layers.Temperature, &initial) {

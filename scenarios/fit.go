@@ -43,7 +43,7 @@ func (d *decoder) decodeFit(parent *object, s *Scenario) {
 			key := fmt.Sprintf("analysis.fit.periods[%d]", i+1)
 			p, ok := d.scalarQuantity(n, key, layers.Period)
 			if ok && (!(p > 0) || p > t1-t0) {
-				d.failf(n, key, "the record (%s) must cover the period (%s) at least once", fmtDuration(t1-t0), fmtDuration(p))
+				d.failf(n, key, "the record (%s) must cover the period (%s) at least once", layers.FormatDuration(t1-t0), layers.FormatDuration(p))
 			} else if ok {
 				spec.Periods = append(spec.Periods, p)
 			}

@@ -286,7 +286,7 @@ func (f *Forcing) describe() string {
 	}
 	var parts []string
 	for _, h := range f.Harmonics {
-		parts = append(parts, fmt.Sprintf("%g K over %s", h.Amplitude, fmtDuration(h.Period)))
+		parts = append(parts, fmt.Sprintf("%g K over %s", h.Amplitude, layers.FormatDuration(h.Period)))
 	}
 	if len(parts) == 0 {
 		return fmt.Sprintf("constant %g", f.Mean)

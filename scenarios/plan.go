@@ -6,6 +6,7 @@ import (
 
 	"tempstack/fileerr"
 	"tempstack/ground"
+	"tempstack/layers"
 	"tempstack/solver"
 )
 
@@ -146,17 +147,17 @@ func planSimulation(s *Scenario, col solver.Column) (*solver.Mesh, []float64, er
 	var errs problems
 	if sim.Step > sim.Duration {
 		errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate.step",
-			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", fmtDuration(sim.Step), fmtDuration(sim.Duration))})
+			Msg: fmt.Sprintf("the time step (%s) is longer than the simulated duration (%s)", layers.FormatDuration(sim.Step), layers.FormatDuration(sim.Duration))})
 	}
 	if m := s.Outside.Temperature.Measured; m != nil {
 		if _, t1 := m.Span(); sim.Start+sim.Duration > t1+1 {
 			errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate.duration",
-				Msg: fmt.Sprintf("the series covers %s; the simulation cannot run for %s", fmtDuration(t1-sim.Start), fmtDuration(sim.Duration))})
+				Msg: fmt.Sprintf("the series covers %s; the simulation cannot run for %s", layers.FormatDuration(t1-sim.Start), layers.FormatDuration(sim.Duration))})
 		}
 	}
 	if st := s.Outside.Temperature.Step; st != nil && st.At >= sim.Start+sim.Duration {
 		errs.add(s, &Error{File: s.File, Line: s.Outside.Temperature.Line, Key: "step.at",
-			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", fmtDuration(st.At), fmtDuration(sim.Duration))})
+			Msg: fmt.Sprintf("the step comes at %s, after the end of the simulation (%s)", layers.FormatDuration(st.At), layers.FormatDuration(sim.Duration))})
 	}
 	if n := sim.Duration / sim.Step; n > maxSteps || math.IsNaN(n) {
 		errs.add(s, &Error{File: s.File, Line: line, Key: "analysis.simulate",

@@ -120,7 +120,7 @@ func newPlan(rs *Spec) (*plan, error) {
 	for _, h := range periods {
 		if n := p.period / h.Period; math.Abs(n-math.Round(n)) > 1e-6*n {
 			return nil, &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: fmt.Sprintf(
-				"a room needs forcing periods that divide the longest one (%s): %s does not", fmtDuration(p.period), fmtDuration(h.Period))}
+				"a room needs forcing periods that divide the longest one (%s): %s does not", layers.FormatDuration(p.period), layers.FormatDuration(h.Period))}
 		}
 	}
 	if p.period > 2*climate.Year {
@@ -149,20 +149,4 @@ func newPlan(rs *Spec) (*plan, error) {
 		}
 	}
 	return p, nil
-}
-
-// fmtDuration prints a duration in s in the largest whole unit, as the
-// scenario decoder's messages do.
-func fmtDuration(sec float64) string {
-	switch {
-	case sec >= climate.Year && math.Mod(sec, climate.Year) == 0:
-		return fmt.Sprintf("%gy", sec/climate.Year)
-	case sec >= climate.Day && math.Mod(sec, climate.Day) == 0:
-		return fmt.Sprintf("%gd", sec/climate.Day)
-	case sec >= 3600:
-		return fmt.Sprintf("%gh", sec/3600)
-	case sec >= 60:
-		return fmt.Sprintf("%gmin", sec/60)
-	}
-	return fmt.Sprintf("%gs", sec)
 }
