@@ -324,8 +324,17 @@ func ParseQuantity(s string, kind Kind) (float64, error) {
 	if math.IsInf(out, 0) || math.IsNaN(out) {
 		return 0, fmt.Errorf("%q is out of range for %s", s, info.noun)
 	}
+	// A temperature (degC inside the code) cannot lie below absolute zero,
+	// 0 K = -273.15 degC (the definition of the Celsius scale, SI Brochure),
+	// allowing for the rounding of a unit conversion.
+	if kind == Temperature && out < absoluteZero-1e-9 {
+		return 0, fmt.Errorf("%q is below absolute zero (-273.15 °C)", s)
+	}
 	return out, nil
 }
+
+// absoluteZero is 0 K in degC.
+const absoluteZero = -273.15
 
 // otherKindHint says which other kind of quantity unit text belongs to,
 // e.g. `; "m" is a unit of length`, or "" if none.

@@ -417,3 +417,21 @@ func TestFormatDuration(t *testing.T) {
 		}
 	}
 }
+
+// TestTemperatureAboveAbsoluteZero: 0 K (-273.15 degC, the definition of
+// the Celsius scale) is the lowest temperature read, in every unit.
+func TestTemperatureAboveAbsoluteZero(t *testing.T) {
+	for _, s := range []string{"-273.15", "0 K", "-459.67 °F"} {
+		if v, err := ParseQuantity(s, Temperature); err != nil || math.Abs(v-(-273.15)) > 1e-9 {
+			t.Errorf("%q: %g, %v; want -273.15 degC", s, v, err)
+		}
+	}
+	for _, s := range []string{"-300", "-1 K", "-500 °F"} {
+		if _, err := ParseQuantity(s, Temperature); err == nil || !strings.Contains(err.Error(), "below absolute zero") {
+			t.Errorf("%q: %v, want below absolute zero", s, err)
+		}
+	}
+	if v, err := ParseQuantity("-300", TemperatureDifference); err != nil || v != -300 {
+		t.Errorf("a temperature difference of -300 K: %g, %v; want it read", v, err)
+	}
+}

@@ -131,10 +131,34 @@ func Run(ctx context.Context, rs *Spec) (*results.RoomResult, []string, error) {
 	if !sim.summary.Settled {
 		warnings = append(warnings, fmt.Sprintf("the room did not settle within %d cycles (last change %.3f K); the reported cycle may still drift", sim.summary.SettleCycles, *sim.summary.SettleChange_K))
 	}
+	if w := implausibleAir(sim.summary, p.room.Conductance); w != "" {
+		warnings = append(warnings, w)
+	}
 	rm.MassRemoved = mr
 	rm.Notes = append(rm.Notes, "Comfort criteria (which temperature, which thresholds, how many hours) are set by local guidance; the thresholds here are inputs, not a verdict.")
 	roomSeries(rm, p, x, xb, sim, simb)
 	return rm, warnings, nil
+}
+
+// The range of room air temperatures a building can plausibly reach, degC:
+// beyond it an input is most likely wrong (gains in kW written as W, a
+// window area in cm2, a room sealed from the outdoor air). Common practice:
+// the hottest attics stay below about 70 degC, and outdoor air has not been
+// recorded below about -90 degC.
+const (
+	plausibleAirMax = 80.0
+	plausibleAirMin = -90.0
+)
+
+// implausibleAir returns a warning when the simulated room air leaves the
+// range a building can reach, naming the outdoor conductance h (W/K); ""
+// otherwise.
+func implausibleAir(s results.RoomSimulation, h float64) string {
+	if s.AirMax_C <= plausibleAirMax && s.AirMin_C >= plausibleAirMin {
+		return ""
+	}
+	return fmt.Sprintf("the room air ranges from %.3g to %.3g degC, outside what a building reaches: check the gains (W), the window areas and irradiance, the element areas and the ventilation (the room exchanges %.3g W/K with the outdoor air)",
+		s.AirMin_C, s.AirMax_C, h)
 }
 
 // periodicSummary reads the exact cycle.

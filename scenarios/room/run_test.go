@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"tempstack/fileerr"
@@ -85,5 +86,24 @@ func TestCheckNothingJoinsOutdoors(t *testing.T) {
 		if !errors.As(err, &fe) || fe.Key != "room" || fe.File != "room.yaml" {
 			t.Errorf("%s: %v, want a mistake at key room", name, err)
 		}
+	}
+}
+
+// A room whose air the steady balance puts far outside what a building
+// reaches (60 kW of gains, the kind of slip of kW written as W) is run but
+// warned about; the same room with 600 W is not (TestRunSteadyRoom). The
+// limit sits between: 5 + 60000/h degC is far above plausibleAirMax.
+func TestRunWarnsImplausibleAir(t *testing.T) {
+	s := steadySpec()
+	s.Gains = Forcing{At: func(float64) float64 { return 60000 }}
+	rm, warnings, err := Run(context.Background(), s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rm.Simulation.AirMax_C <= plausibleAirMax {
+		t.Fatalf("air max %.1f degC: the case does not test the limit", rm.Simulation.AirMax_C)
+	}
+	if len(warnings) != 1 || !strings.Contains(warnings[0], "outside what a building reaches") {
+		t.Errorf("warnings %q, want one about the implausible air temperature", warnings)
 	}
 }
