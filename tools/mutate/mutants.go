@@ -372,7 +372,7 @@ var mutants = []Mutant{
 		Old: "plausibleDensity = 10.0", New: "plausibleDensity = 1.0",
 		Desc: "a density of 1.7 kg/m3 passes without a warning", Pkgs: pScenarios},
 	{ID: "plaus-metal-family", File: "scenarios/plausible.go",
-		Old: `if n := mapValue(l, k); n != nil && family != "metal" {`, New: `if n := mapValue(l, k); n != nil {`,
+		Old: `if n := mapValue(l, k); n != nil && family != "metal" {`, New: `if n := mapValue(l, k); n != nil && (family != "metal" || family == "metal") {`,
 		Desc: "a metal layer's conductivity warned as a slip", Pkgs: pScenarios},
 	{ID: "layers-closest-words", File: "layers/suggest.go",
 		Old: "case shared > 0:", New: "case shared > 99:",
