@@ -263,6 +263,19 @@ func roomPathTable(rm *results.RoomResult) *table {
 	return t
 }
 
+// roomCycleChart opens a chart of temperatures over one cycle of span
+// hours: time in the cycle across, degC up. It returns the chart, the
+// factor from hours to the axis unit and that unit.
+func roomCycleChart(id, title string, span float64) (*ec.Line, float64, string) {
+	f, xu, xl := timeAxis(span)
+	c := newChart(id, title, "tipX", 56)
+	c.SetGlobalOptions(
+		ec.WithXAxisOpts(valueAxisX("Time in the cycle ("+xl+")", " "+xl, 0, num(span*f), false)),
+		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
+	)
+	return c, f, xu
+}
+
 // roomDayChart draws the room temperature over the cycle.
 func roomDayChart(rm *results.RoomResult) (*chartSpec, error) {
 	s := rm.Series
@@ -270,12 +283,7 @@ func roomDayChart(rm *results.RoomResult) (*chartSpec, error) {
 		return nil, nil
 	}
 	span := rm.Periodic.Period_h
-	f, xu, xl := timeAxis(span)
-	c := newChart(idRoomDay, "Room temperature over the cycle ("+periodLabel(span)+")", "tipX", 56)
-	c.SetGlobalOptions(
-		ec.WithXAxisOpts(valueAxisX("Time in the cycle ("+xl+")", " "+xl, 0, num(span*f), false)),
-		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
-	)
+	c, f, xu := roomCycleChart(idRoomDay, "Room temperature over the cycle ("+periodLabel(span)+")", span)
 	// The last simulated cycle.
 	var st, sa, so, sn []float64
 	for j, t := range s.Time_h {
@@ -339,12 +347,7 @@ func roomSurfaceChart(rm *results.RoomResult) (*chartSpec, error) {
 		return nil, nil
 	}
 	span := rm.Periodic.Period_h
-	f, xu, xl := timeAxis(span)
-	c := newChart(idRoomSurface, "Inside surface temperatures, simulated ("+periodLabel(span)+" cycle)", "tipX", 56)
-	c.SetGlobalOptions(
-		ec.WithXAxisOpts(valueAxisX("Time in the cycle ("+xl+")", " "+xl, 0, num(span*f), false)),
-		ec.WithYAxisOpts(valueAxisY("Temperature (°C)", " °C", false)),
-	)
+	c, f, xu := roomCycleChart(idRoomSurface, "Inside surface temperatures, simulated ("+periodLabel(span)+" cycle)", span)
 	var idx []int
 	var st []float64
 	for j, t := range s.Time_h {
