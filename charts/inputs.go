@@ -166,7 +166,11 @@ func simulationRows(t *table, sim *results.Simulation) {
 		t.row("Output interval", trimZeros(sig(sim.OutputStep_h, 3))+" h")
 	}
 	t.row("Finite-volume cells", fmt.Sprint(sim.Cells))
-	t.row("Spin-up before recording", spinUpText(sim))
+	if l := sim.SpinUpLastCycleSimulated; l != nil && *l {
+		t.row("Spin-up", spinUpText(sim))
+	} else {
+		t.row("Spin-up before recording", spinUpText(sim))
+	}
 }
 
 // spinUpText says how many cycles were run before recording and whether
@@ -176,6 +180,9 @@ func spinUpText(sim *results.Simulation) string {
 		return "none"
 	}
 	v := fmt.Sprintf("%d cycles; the last changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2))
+	if l := sim.SpinUpLastCycleSimulated; l != nil && *l {
+		v = fmt.Sprintf("%d cycles at the simulation's step, the last of them the simulation's own first cycle, which changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2))
+	}
 	if sim.SpinUpTolerance_K > 0 {
 		if sim.SpinUpConverged {
 			v += fmt.Sprintf(" (converged: within %s K)", sig(sim.SpinUpTolerance_K, 2))

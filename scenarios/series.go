@@ -3,6 +3,7 @@ package scenarios
 import (
 	"errors"
 	"fmt"
+	"io"
 	"math"
 	"time"
 
@@ -42,6 +43,7 @@ type seriesRecorder struct {
 	inEnv  func(t float64) float64 // the inside environment, nil when none
 
 	csv    *results.SeriesWriter // nil when not streaming
+	held   *heldWriter           // holds the CSV rows until the spin-up's last cycle is judged (hold); nil when not held
 	row    []float64
 	stamp  []byte // the sample's time stamp, reused
 	stride int    // keep every stride-th sample for the charts (and the last)
@@ -56,7 +58,14 @@ type seriesRecorder struct {
 	badSurface, badProbe bool // a non-finite surface value or probe temperature
 }
 
-func newSeriesRecorder(s *run, col solver.Column, r *results.Results) *seriesRecorder {
+// newSeriesRecorder returns the recorder of a simulation of s on col for
+// r. With holdUntil finite, the rows of series.csv wait in memory until a
+// sample after that time (s) arrives or the run finishes: the samples up
+// to it belong to a cycle that judges the spin-up
+// (solver.Problem.CheckCycle), and when that cycle does not settle, the
+// simulation stops there and the recorder is dropped with its rows
+// unwritten.
+func newSeriesRecorder(s *run, col solver.Column, r *results.Results, holdUntil float64) *seriesRecorder {
 	rec := &seriesRecorder{s: s, ser: &r.Series.Simulation, frost: s.Kind == Ground, wall: s.Kind == Wall,
 		inside: s.Inside.temperature() != nil, stride: 1}
 	// Built once: a side's env() makes new closures at every call.
@@ -78,16 +87,60 @@ func newSeriesRecorder(s *run, col solver.Column, r *results.Results) *seriesRec
 	}
 	rec.sums = make([]float64, len(rec.fz))
 	if s.opts.Series != nil {
-		rec.csv = results.NewSeriesWriter(s.opts.Series, results.SeriesLayout{Kind: s.Kind, ProbeDepth_m: s.Analysis.Probes,
-			InsideEnvironment: rec.inside, Frost: rec.frost, Stamp: !rec.origin.IsZero()})
+		var w io.Writer = s.opts.Series
+		if !math.IsInf(holdUntil, 0) && !math.IsNaN(holdUntil) {
+			rec.held = &heldWriter{w: w, until: holdUntil}
+			w = rec.held
+		}
+		rec.csv = results.NewSeriesWriter(w, rec.layout())
 		r.SeriesStreamed = true
 	}
 	return rec
 }
 
+// layout is the layout of the recorder's series.csv.
+func (rec *seriesRecorder) layout() results.SeriesLayout {
+	return results.SeriesLayout{Kind: rec.s.Kind, ProbeDepth_m: rec.s.Analysis.Probes,
+		InsideEnvironment: rec.inside, Frost: rec.frost, Stamp: !rec.origin.IsZero()}
+}
+
+// heldWriter keeps what is written to it in memory until release, then
+// writes that to w and passes later writes straight through.
+type heldWriter struct {
+	w        io.Writer
+	until    float64 // s, the end of the held samples (seriesRecorder.hold)
+	buf      []byte
+	released bool
+	err      error
+}
+
+func (h *heldWriter) Write(p []byte) (int, error) {
+	if h.err != nil {
+		return 0, h.err
+	}
+	if !h.released {
+		h.buf = append(h.buf, p...)
+		return len(p), nil
+	}
+	return h.w.Write(p)
+}
+
+// release writes the held bytes and lets later writes through.
+func (h *heldWriter) release() {
+	if h.released {
+		return
+	}
+	h.released = true
+	_, h.err = h.w.Write(h.buf)
+	h.buf = nil
+}
+
 // observe takes one sample.
 func (rec *seriesRecorder) observe(smp *solver.Sample) {
 	k, t := smp.Index, smp.Time
+	if rec.held != nil && t > rec.held.until {
+		rec.held.release()
+	}
 	if k == 0 {
 		rec.start(smp.Count, len(smp.Probe))
 	}
@@ -221,7 +274,12 @@ func (rec *seriesRecorder) finish(res *solver.Result) ([]results.Probe, error) {
 		return nil, errors.New("the simulation produced a non-finite probe temperature; check that every property is physically possible")
 	}
 	if rec.csv != nil {
-		if err := rec.csv.Flush(); err != nil {
+		err := rec.csv.Flush()
+		if h := rec.held; h != nil {
+			h.release()
+			err = errors.Join(err, h.err)
+		}
+		if err != nil {
 			return nil, fmt.Errorf("writing series.csv: %w", err)
 		}
 	}

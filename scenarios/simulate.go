@@ -252,6 +252,7 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 	spinConverged := true
 	spinChange := 0.0
 	var settled *solver.Settled
+	var so solver.SettleOptions
 	switch {
 	case sim.Initial != nil:
 		p.Initial = uniform(mesh.Cells(), *sim.Initial)
@@ -270,28 +271,29 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 				if progress != nil {
 					progress("spin-up", 0)
 				}
-				settled, err = spinUp(s, p, period, sim.MaxSpinUpCycles, progress)
+				so = spinUpOptions(s, p, period, sim.MaxSpinUpCycles, progress)
+				settled, err = s.opts.settled.settle(p, so)
 				if err != nil {
 					return nil, &Error{File: s.File, Msg: "spin-up", Err: err}
 				}
-				spin, spinChange, spinConverged = settled.Cycles, settled.Change, settled.Converged
 				p.Initial, p.InitialEnthalpy = nil, settled.Enthalpy
-				if !spinConverged {
-					r.Warnings = append(r.Warnings, fmt.Sprintf(
-						"not settled: after %d spin-up cycles the column still changed by %.3f K per cycle (target %g K) and the deepest frost by %s (target 1 mm); the simulated winters carry start-up error and none is used as the headline frost depth; raise analysis.simulate.spin_up_cycles",
-						spin, spinChange, spinUpTolerance, fmtMM(settled.FrontChange)))
-				}
 			}
 		}
 	}
 	if progress != nil {
 		p.Progress = func(f float64) { progress("simulation", f) }
 	}
-	rec := newSeriesRecorder(s, col, r)
-	p.Observe = rec.observe
-	res, err := solver.Simulate(p)
+	res, rec, settled, lastSimulated, err := simulateSettled(s, p, col, r, settled, so)
 	if err != nil {
-		return nil, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
+		return nil, err
+	}
+	if settled != nil {
+		spin, spinChange, spinConverged = settled.Cycles, settled.Change, settled.Converged
+		if !spinConverged {
+			r.Warnings = append(r.Warnings, fmt.Sprintf(
+				"not settled: after %d spin-up cycles the column still changed by %.3f K per cycle (target %g K) and the deepest frost by %s (target 1 mm); the simulated winters carry start-up error and none is used as the headline frost depth; raise analysis.simulate.spin_up_cycles",
+				spin, spinChange, spinUpTolerance, fmtMM(settled.FrontChange)))
+		}
 	}
 	probeStats, err := rec.finish(res)
 	if err != nil {
@@ -314,6 +316,9 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		StoredHeat_J_m2:            res.Energy.Stored,
 		HeatInOutside_J_m2:         res.Energy.InflowOutside,
 		HeatInInside_J_m2:          res.Energy.InflowInside,
+	}
+	if settled != nil {
+		out.SpinUpLastCycleSimulated = &lastSimulated
 	}
 	out.Probes = probeStats
 	r.Simulation = out
@@ -514,15 +519,20 @@ const (
 // frost from the cycle before that counts as settled.
 const spinUpFrontTolerance = 1e-3
 
-// spinUp repeats one period of p until the whole column and the deepest
-// frost of a cycle repeat the last cycle (solver.Settle: within
-// spinUpTolerance in every cell and spinUpFrontTolerance in the frost
-// depth), the quiet deep ground set to its steady profile between cycles
-// when the bottom condition is constant. It returns an error only for a
-// failed simulation. A state an earlier simulation of the same run (the
-// base scenario or another case of its study) settled to from the same
-// inputs is taken as it is (settleCache).
-func spinUp(s *run, p solver.Problem, period float64, max int, progress Progress) (*solver.Settled, error) {
+// spinUpOptions returns the options of the spin-up of p: repeat one
+// period until the whole column and the deepest frost of a cycle repeat
+// the last cycle (solver.Settle: within spinUpTolerance in every cell and
+// spinUpFrontTolerance in the frost depth), the quiet deep ground set to
+// its steady profile between cycles when the bottom condition is
+// constant, after coarse first cycles where the forcing allows them. The
+// cycle that confirms the state is left to the simulation (DeferCheck)
+// when the simulation covers a whole period in whole steps and, when it
+// streams series.csv, that period's samples can wait in memory for the
+// verdict (see simulateSettled). The spin-up runs through the run's
+// settleCache: a state an earlier simulation of the same run (the base
+// scenario or another case of its study) settled to from the same inputs
+// is taken as it is.
+func spinUpOptions(s *run, p solver.Problem, period float64, max int, progress Progress) solver.SettleOptions {
 	f := s.Inside.drive()
 	constInside := f == nil || (len(f.Harmonics) == 0 && f.Measured == nil && f.Step == nil)
 	o := solver.SettleOptions{
@@ -530,10 +540,79 @@ func spinUp(s *run, p solver.Problem, period float64, max int, progress Progress
 		ConstantInside: constInside,
 	}
 	o.CoarseStep = coarseStep(s.Scenario, p.Step, period)
+	steps := math.Round(period / p.Step)
+	samples := period / math.Max(p.OutputStep, p.Step)
+	o.DeferCheck = p.Duration >= period && steps*p.Step == period && (s.opts.Series == nil || samples <= chartSamples)
 	if progress != nil {
 		o.Progress = func(c int) { progress("spin-up", float64(c)/float64(max)) }
 	}
-	return s.opts.settled.settle(p, o)
+	return o
+}
+
+// simulateSettled runs p from the spin-up settled (nil when none, with its
+// options o), recording the samples for r. When the spin-up left its
+// confirming cycle to the simulation (solver.Settled.Pending), the
+// simulation's first period is that cycle (solver.Problem.CheckCycle) and
+// the rows of series.csv wait in memory until it has settled. When it
+// does not, the samples are dropped, the spin-up continues from where
+// that cycle ended (with the cycles left of o.MaxCycles, through the
+// cache), and the simulation runs again from the new state. It returns
+// the result, its recorder, the spin-up as judged, and whether its last
+// cycle is the simulation's first period.
+func simulateSettled(s *run, p solver.Problem, col solver.Column, r *results.Results, settled *solver.Settled, o solver.SettleOptions) (*solver.Result, *seriesRecorder, *solver.Settled, bool, error) {
+	sim := s.Analysis.Simulate
+	for {
+		p.CheckCycle = nil
+		hold := math.Inf(1)
+		if settled != nil && settled.Pending {
+			p.CheckCycle = settled
+			hold = p.Start + o.Period
+		}
+		rec := newSeriesRecorder(s, col, r, hold)
+		p.Observe = rec.observe
+		res, err := simulateFn(p)
+		if err != nil {
+			return nil, nil, nil, false, &Error{File: s.File, Line: sim.Line, Key: "analysis.simulate", Err: err}
+		}
+		if p.CheckCycle == nil {
+			return res, rec, settled, false, nil
+		}
+		judged := res.Settled
+		if judged.Converged {
+			return res, rec, judged, true, nil
+		}
+		// The first period did not settle: go on from its end.
+		r.Series.Simulation = results.SimulationSeries{}
+		settled = judged
+		if left := o.MaxCycles - judged.Cycles; left > 0 {
+			q, qo := p, o
+			q.InitialEnthalpy, q.Initial, q.InitialFunc, q.Observe, q.CheckCycle = judged.Enthalpy, nil, nil, nil, nil
+			qo.MaxCycles, qo.CoarseStep, qo.DeferCheck = left, 0, false
+			next, err := s.opts.settled.settle(q, qo)
+			if err != nil {
+				return nil, nil, nil, false, &Error{File: s.File, Msg: "spin-up", Err: err}
+			}
+			settled = continued(judged, next)
+		}
+		p.InitialEnthalpy, p.Initial, p.InitialFunc = settled.Enthalpy, nil, nil
+	}
+}
+
+// simulateFn is solver.Simulate; a test replaces it to see a spin-up's
+// checking cycle fail.
+var simulateFn = solver.Simulate
+
+// continued returns the spin-up a, continued by the cycles of b that
+// started where a ended.
+func continued(a, b *solver.Settled) *solver.Settled {
+	c := *b
+	c.Cycles = a.Cycles + b.Cycles
+	c.CoarseCycles = a.CoarseCycles
+	c.DeepResets = a.DeepResets + b.DeepResets
+	c.MaxFrost = append(append([]float64(nil), a.MaxFrost...), b.MaxFrost...)
+	c.MaxThaw = append(append([]float64(nil), a.MaxThaw...), b.MaxThaw...)
+	c.FrozenAllCycle = append(append([]bool(nil), a.FrozenAllCycle...), b.FrozenAllCycle...)
+	return &c
 }
 
 // fmtMM formats a length in metres as millimetres for a message.

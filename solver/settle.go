@@ -35,6 +35,20 @@ type SettleOptions struct {
 	// problem's own step (the fixed point is that of the problem's step;
 	// the coarse cycles only bring the slow deep state near it). 0: none.
 	CoarseStep float64
+	// DeferCheck leaves the cycle that would confirm the settled state to
+	// the simulation that follows. When the coarse phase (CoarseStep) has
+	// settled and MaxCycles is at least 2, Settle stops after the first
+	// cycle at the problem's step, which cannot settle alone (its deepest
+	// frost has no earlier cycle of that step to be compared with), applies
+	// the deep reset a further cycle would start from, and returns that
+	// state with Pending set. Simulate, given it as Problem.CheckCycle, runs
+	// the first Period of the simulation as that further cycle and judges
+	// it by the same rules (Result.Settled): the simulation then starts from
+	// the state the normal course of Settle would run its second cycle from,
+	// and when that cycle settles, the simulated first period is itself the
+	// cycle shown to repeat within the tolerances. Without a settled coarse
+	// phase Settle behaves as if DeferCheck were false.
+	DeferCheck bool
 	// Progress, when not nil, is called after each cycle with the number
 	// of cycles run (counted again from 1 after the coarse phase).
 	Progress func(cycle int)
@@ -66,6 +80,26 @@ type Settled struct {
 	// CoarseCycles is the number of cycles of the coarse phase
 	// (SettleOptions.CoarseStep), run before the Cycles above.
 	CoarseCycles int
+	// Pending reports that the cycle that would judge the state is left
+	// to the simulation that starts from it (SettleOptions.DeferCheck):
+	// Converged is false until Simulate, given this Settled as
+	// Problem.CheckCycle, has run that cycle (Result.Settled).
+	Pending bool
+
+	// check holds what Simulate needs to run the pending cycle as Settle
+	// would have (set when Pending).
+	check *cycleCheck
+}
+
+// cycleCheck describes the cycle a pending Settled leaves to Simulate:
+// the cycles' start, period and step, their number of steps and sample
+// spacing in steps (the samples from which a cycle's fronts are read),
+// and the settling rules.
+type cycleCheck struct {
+	start, period, step float64
+	steps, every        int
+	tol, ftol           float64
+	maxCycles           int
 }
 
 // Settle runs cycles of p.Period from p's initial state until the state
@@ -109,7 +143,11 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 		return nil, err
 	}
 	ceq := r.settleCapacities()
-	out := &Settled{FrontChange: math.Inf(1), CoarseCycles: coarse}
+	out := &Settled{FrontChange: math.Inf(1)}
+	if coarse != nil {
+		out.CoarseCycles = coarse.Cycles
+	}
+	deferCheck := o.DeferCheck && coarse != nil && coarse.Converged && o.MaxCycles >= 2
 	prevH := make([]float64, r.n)
 	prevT := make([]float64, r.n)
 	for c := 1; c <= o.MaxCycles; c++ {
@@ -119,18 +157,23 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 		if err != nil {
 			return nil, err
 		}
-		change := r.cycleChange(prevT, prevH, ceq)
-		front := out.addCycle(c, change, res)
+		change := r.cycleChange(prevT, prevH, r.H, ceq)
+		out.addCycle(c, change, resultFronts(res))
 		if o.Progress != nil {
 			o.Progress(c)
 		}
-		frontOK := out.FrontChange < o.FrontTolerance || (c > 1 && front == 0 && out.MaxFrost[c-2] == 0)
-		if change < o.Tolerance && frontOK {
+		if out.settles(o.Tolerance, o.FrontTolerance) {
 			out.Converged = true
 			break
 		}
 		if o.ConstantInside && c < o.MaxCycles && r.deepReset(res) {
 			out.DeepResets++
+		}
+		if deferCheck && c == 1 {
+			out.Pending = true
+			out.check = &cycleCheck{start: p.Start, period: o.Period, step: p.Step, steps: r.nSteps, every: r.every,
+				tol: o.Tolerance, ftol: o.FrontTolerance, maxCycles: o.MaxCycles}
+			break
 		}
 	}
 	if !r.nonlinear {
@@ -143,27 +186,29 @@ func Settle(p Problem, o SettleOptions) (*Settled, error) {
 }
 
 // settleProblem returns p set up for the cycles of Settle with the
-// problem's own step (one period, no probes, progress or observer, the
-// sample spacing of o), starting from the state the coarse cycles settled
-// to when o asks for them, and the number of coarse cycles run.
-func settleProblem(p Problem, o SettleOptions) (Problem, int, error) {
+// problem's own step (one period, no probes, progress, observer or
+// checking cycle, the sample spacing of o), starting from the state the
+// coarse cycles settled to when o asks for them, and the outcome of the
+// coarse phase (nil without one).
+func settleProblem(p Problem, o SettleOptions) (Problem, *Settled, error) {
 	p.Duration = o.Period
 	p.Probes = nil
 	p.Progress = nil
 	p.Observe = nil
-	coarse := 0
+	p.CheckCycle = nil
+	var coarse *Settled
 	if o.CoarseStep > p.Step && p.Step > 0 && !math.IsInf(o.CoarseStep, 0) {
 		// Coarse cycles first; the cycles below start from their state
 		// and, comparing fronts only between cycles of the fine step,
 		// run at least twice.
 		q, qo := p, o
-		q.Step, qo.CoarseStep = o.CoarseStep, 0
+		q.Step, qo.CoarseStep, qo.DeferCheck = o.CoarseStep, 0, false
 		st, err := Settle(q, qo)
 		if err != nil {
-			return p, 0, err
+			return p, nil, err
 		}
 		p.InitialEnthalpy, p.Initial, p.InitialFunc = st.Enthalpy, nil, nil
-		coarse = st.Cycles
+		coarse = st
 	}
 	p.OutputStep = o.OutputStep
 	if p.OutputStep <= 0 {
@@ -191,10 +236,11 @@ func (r *fvRun) settleCapacities() []float64 {
 }
 
 // cycleChange returns the largest change (K) of a cell over the cycle
-// just run from the temperatures prevT and enthalpies prevH, the enthalpy
-// change in kelvin of ceq. For a linear column prevH is first set from
-// prevT (run leaves H = C T; the start was set from T as well).
-func (r *fvRun) cycleChange(prevT, prevH, ceq []float64) float64 {
+// just run from the temperatures prevT and enthalpies prevH to the
+// present temperatures and the enthalpies H, the enthalpy change in
+// kelvin of ceq. For a linear column prevH is first set from prevT (run
+// leaves H = C T; the start was set from T as well).
+func (r *fvRun) cycleChange(prevT, prevH, H, ceq []float64) float64 {
 	if !r.nonlinear {
 		for i := range prevH {
 			prevH[i] = r.cvol[i] * prevT[i]
@@ -202,38 +248,63 @@ func (r *fvRun) cycleChange(prevT, prevH, ceq []float64) float64 {
 	}
 	change := 0.0
 	for i := 0; i < r.n; i++ {
-		change = math.Max(change, math.Max(math.Abs(r.T[i]-prevT[i]), math.Abs(r.H[i]-prevH[i])/ceq[i]))
+		change = math.Max(change, math.Max(math.Abs(r.T[i]-prevT[i]), math.Abs(H[i]-prevH[i])/ceq[i]))
 	}
 	return change
 }
 
-// addCycle records cycle c, with the largest cell change change (K) and
-// the series res, in out: its deepest frost and thaw, whether ground
-// stayed frozen all through it, and the change of the front from the
-// cycle before (the thaw front under permafrost in both cycles). It
-// returns the cycle's deepest frost, m.
-func (out *Settled) addCycle(c int, change float64, res *Result) float64 {
-	front, thaw, least := 0.0, 0.0, math.Inf(1)
-	for k, f := range res.FrostDepth {
-		front = math.Max(front, f)
-		thaw = math.Max(thaw, res.ThawDepth[k])
-		least = math.Min(least, f)
+// cycleFronts gathers the fronts of a cycle over its samples: the
+// deepest frost and thaw, m, and the least frost depth (above 0 when
+// ground stayed frozen through the whole cycle).
+type cycleFronts struct{ frost, thaw, least float64 }
+
+func newCycleFronts() cycleFronts { return cycleFronts{least: math.Inf(1)} }
+
+// add takes one sample's frost and thaw depth, m.
+func (f *cycleFronts) add(frost, thaw float64) {
+	f.frost = math.Max(f.frost, frost)
+	f.thaw = math.Max(f.thaw, thaw)
+	f.least = math.Min(f.least, frost)
+}
+
+// resultFronts returns the fronts of the cycle whose samples res holds.
+func resultFronts(res *Result) cycleFronts {
+	f := newCycleFronts()
+	for k, d := range res.FrostDepth {
+		f.add(d, res.ThawDepth[k])
 	}
-	frozenAll := least > 0
+	return f
+}
+
+// addCycle records cycle c, with the largest cell change change (K) and
+// the fronts f, in out: its deepest frost and thaw, whether ground
+// stayed frozen all through it, and the change of the front from the
+// cycle before (the thaw front under permafrost in both cycles).
+func (out *Settled) addCycle(c int, change float64, f cycleFronts) {
+	frozenAll := f.least > 0
 	if c > 1 {
 		if frozenAll && out.FrozenAllCycle[c-2] {
 			// Permafrost: the front that moves with the seasons is
 			// the thaw front (the active layer).
-			out.FrontChange = math.Abs(thaw - out.MaxThaw[c-2])
+			out.FrontChange = math.Abs(f.thaw - out.MaxThaw[c-2])
 		} else {
-			out.FrontChange = math.Abs(front - out.MaxFrost[c-2])
+			out.FrontChange = math.Abs(f.frost - out.MaxFrost[c-2])
 		}
 	}
-	out.MaxFrost = append(out.MaxFrost, front)
-	out.MaxThaw = append(out.MaxThaw, thaw)
+	out.MaxFrost = append(out.MaxFrost, f.frost)
+	out.MaxThaw = append(out.MaxThaw, f.thaw)
 	out.FrozenAllCycle = append(out.FrozenAllCycle, frozenAll)
 	out.Cycles, out.Change = c, change
-	return front
+}
+
+// settles reports whether the cycle addCycle recorded last meets the
+// rules of Settle: every cell changed by less than tol (K) and the
+// deepest frost (the thaw under permafrost) by less than ftol (m) from
+// the cycle before, or neither that cycle nor the one before froze.
+func (out *Settled) settles(tol, ftol float64) bool {
+	c := out.Cycles
+	frontOK := out.FrontChange < ftol || (c > 1 && out.MaxFrost[c-1] == 0 && out.MaxFrost[c-2] == 0)
+	return out.Change < tol && frontOK
 }
 
 // deepQuiet is the largest temperature range over a cycle, K, of a

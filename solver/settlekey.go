@@ -27,7 +27,8 @@ import (
 // Boundary that Settle reads must be added here; TestSettleKeySeesEveryInput
 // and TestSettleKeyCoversTheEvaluatedTimes hold it to that).
 //
-// Names (Layer.Name) and Duration, Probes, OutputStep and Progress of p,
+// Names (Layer.Name) and Duration, Probes, OutputStep, Progress, Observe
+// and CheckCycle of p,
 // which Settle replaces or ignores, do not enter the key.
 func SettleKey(p Problem, o SettleOptions) (string, error) {
 	if p.Mesh == nil {
@@ -68,6 +69,7 @@ func SettleKey(p Problem, o SettleOptions) (string, error) {
 	flag(o.ConstantInside)
 	num(o.OutputStep)
 	num(o.CoarseStep)
+	flag(o.DeferCheck)
 	// Timing and scheme.
 	num(p.Start)
 	num(p.Step)

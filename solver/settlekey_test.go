@@ -111,6 +111,7 @@ func TestSettleKeySeesEveryInput(t *testing.T) {
 		"ConstantInside":     func(_ *Problem, o *SettleOptions) { o.ConstantInside = false },
 		"OutputStep":         func(_ *Problem, o *SettleOptions) { o.OutputStep = 2 * 86400 },
 		"CoarseStep":         func(p *Problem, o *SettleOptions) { o.CoarseStep = 3 * p.Step },
+		"DeferCheck":         func(_ *Problem, o *SettleOptions) { o.DeferCheck = true },
 		"Start":              func(p *Problem, _ *SettleOptions) { p.Start = 86400 },
 		"Step":               func(p *Problem, _ *SettleOptions) { p.Step = 3600 },
 		"Scheme":             func(p *Problem, _ *SettleOptions) { p.Scheme = CrankNicolson },
@@ -161,6 +162,7 @@ func TestSettleKeySeesEveryInput(t *testing.T) {
 		"OutputStep": func(p *Problem, _ *SettleOptions) { p.OutputStep = 3600 },
 		"Progress":   func(p *Problem, _ *SettleOptions) { p.Progress = func(float64) {} },
 		"Observe":    func(p *Problem, _ *SettleOptions) { p.Observe = func(*Sample) {} },
+		"CheckCycle": func(p *Problem, _ *SettleOptions) { p.CheckCycle = &Settled{Pending: true} },
 		"Settle.Progress": func(_ *Problem, o *SettleOptions) {
 			o.Progress = func(int) {}
 		},

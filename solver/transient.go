@@ -141,6 +141,18 @@ type Problem struct {
 	// The Sample and its Probe slice are reused from call to call.
 	Observe func(*Sample)
 
+	// CheckCycle, when not nil, is a spin-up that Settle left pending
+	// (SettleOptions.DeferCheck), whose state this run starts from
+	// (InitialEnthalpy must equal CheckCycle.Enthalpy; Start, Step and
+	// Scheme must be those of the settled problem, and Duration at least
+	// its period). Simulate runs the first period of the run as the cycle
+	// that judges it, reading the fronts at the spin-up's sample times and
+	// the change of every cell as Settle does, and returns the spin-up
+	// with that cycle added in Result.Settled. When the cycle does not
+	// settle, Simulate stops at its end: the Result then covers only that
+	// cycle and serves to continue the spin-up from Result.Settled.
+	CheckCycle *Settled
+
 	// SpinUpDepth, when positive, limits the convergence test of SpinUp
 	// and SpinUpEnthalpy to the cells whose centre lies at most this deep
 	// (m): the periodic wave settles there long before the deep mean
@@ -208,6 +220,12 @@ type Result struct {
 
 	Final         []float64 // degC per cell at the end
 	FinalEnthalpy []float64 // J/m3 per cell at the end (for Problem.InitialEnthalpy)
+
+	// Settled is, for a run given Problem.CheckCycle, that spin-up with
+	// the run's first period added as its last cycle: Converged tells
+	// whether that cycle settled, and Enthalpy is the state at its end
+	// (where the spin-up would continue). Nil otherwise.
+	Settled *Settled
 
 	Steps       int // time steps taken
 	Iterations  int // enthalpy iterations (0 without freezing)

@@ -121,6 +121,8 @@ type fvConfig struct {
 
 	nSteps, every int     // time steps, and steps between samples
 	dtLast        float64 // s, the last (shortened) step
+
+	chk *checkRun // the judging of a pending spin-up (Problem.CheckCycle), nil without
 }
 
 // fvSpan is a run of neighbouring cells lo..hi-1 that all can freeze
@@ -234,6 +236,11 @@ func newFvRun(p *Problem, record bool) (*fvRun, error) {
 		r.updateCell(i)
 	}
 	r.updateConductances()
+	if p.CheckCycle != nil {
+		if r.chk, err = newCheckRun(r, p.CheckCycle); err != nil {
+			return nil, err
+		}
+	}
 	return r, nil
 }
 
@@ -566,6 +573,10 @@ func (r *fvRun) run() (*Result, error) {
 	every := max(r.nSteps/100, 1)
 	k := 1
 	t := p.Start
+	if r.chk != nil {
+		r.chk.begin(r)
+	}
+	steps := r.nSteps
 	for step := 1; step <= r.nSteps; step++ {
 		t1 := p.Start + float64(step)*p.Step
 		if step == r.nSteps {
@@ -590,6 +601,10 @@ func (r *fvRun) run() (*Result, error) {
 		}
 		if p.Progress != nil && (step%every == 0 || step == r.nSteps) {
 			p.Progress(float64(step) / float64(r.nSteps))
+		}
+		if r.chk != nil && !r.chk.after(r, step) {
+			steps = step // the spin-up goes on: stop here
+			break
 		}
 	}
 	if !r.nonlinear {
@@ -616,7 +631,10 @@ func (r *fvRun) run() (*Result, error) {
 	res.Energy = e
 	res.Final = append([]float64(nil), r.T...)
 	res.FinalEnthalpy = append([]float64(nil), r.H...)
-	res.Steps = r.nSteps
+	res.Steps = steps
+	if r.chk != nil {
+		res.Settled = r.chk.out
+	}
 	res.Iterations = r.iterations
 	res.Unconverged = r.unconverged
 	if r.record {

@@ -179,6 +179,13 @@ type Simulation struct {
 	HeatInInside_J_m2          float64         `json:"heat_in_inside_J_m2"`  // heat that entered through the inside surface
 	Probes                     []Probe         `json:"probes"`
 	PeriodicCheck              []PeriodicCheck `json:"periodic_check,omitempty"`
+
+	// SpinUpLastCycleSimulated, present when there was a spin-up, tells
+	// whether its last cycle (the one judged against SpinUpTolerance_K
+	// and counted in SpinUpCycles) is the first cycle of the simulation
+	// itself: the simulation then starts from the state the cycle before
+	// left, and its own first cycle is the one shown to repeat.
+	SpinUpLastCycleSimulated *bool `json:"spin_up_last_cycle_simulated,omitempty"`
 }
 
 // Probe summarises the simulated temperature at one depth.
