@@ -199,7 +199,7 @@ func TestConstructionWithAirLayer(t *testing.T) {
 			t.Errorf("SolverDepth(%g) = %g, want %g", tc.x, got, tc.want)
 		}
 	}
-	if k := c.ArealHeatCapacity(); math.Abs(k-(0.1025*1.7e6+0.0125*800*1050)) > 1e-6 {
+	if k := c.ArealHeatCapacity(); math.Abs(k-(0.1025*1.7e6+0.0125*900*1000)) > 1e-6 {
 		t.Errorf("ArealHeatCapacity = %g", k)
 	}
 }

@@ -93,7 +93,6 @@ const (
 	srcCIBSE336       = "CIBSE Guide A, Table 3.36 (impermeable materials) [read]"
 	srcCIBSE337       = "CIBSE Guide A, Table 3.37 (non-hygroscopic materials) [read]"
 	srcCIBSEBlock     = "CIBSE Guide A, typical UK values for brickwork and concrete blocks [memory]"
-	srcDataholz       = "dataholz.eu component catalogue, layer data of an external timber-frame wall [read]"
 	srcTypical        = "typical value, no single source [memory]; use the product's declared value"
 	srcISO6946Air     = "ISO 6946:2007 Table 2, unventilated air layer, high-emissivity faces [memory]"
 )
@@ -138,23 +137,23 @@ var library = []Material{
 	{Key: "cement-render", Name: "Cement-sand render", Family: FamilyPlaster, Conductivity: 1.0, Density: 1800, SpecificHeat: 1000, Source: srcISO10456},
 
 	// Boards.
-	{Key: "gypsum-board", Name: "Gypsum plasterboard", Family: FamilyBoard, Conductivity: 0.25, Density: 800, SpecificHeat: 1050, Source: srcDataholz},
-	{Key: "gypsum-fibre-board", Name: "Gypsum fibre board", Family: FamilyBoard, Conductivity: 0.32, Density: 1000, SpecificHeat: 1100, Source: srcDataholz},
-	{Key: "osb", Name: "Oriented strand board (OSB)", Family: FamilyBoard, Conductivity: 0.13, Density: 600, SpecificHeat: 1700, Source: srcDataholz},
+	{Key: "gypsum-board", Name: "Gypsum plasterboard (900 kg/m3)", Family: FamilyBoard, Conductivity: 0.25, Density: 900, SpecificHeat: 1000, Source: srcISO10456},
+	{Key: "gypsum-fibre-board", Name: "Gypsum fibre board", Family: FamilyBoard, Conductivity: 0.32, Density: 1000, SpecificHeat: 1100, Source: srcTypical},
+	{Key: "osb", Name: "Oriented strand board (OSB, 650 kg/m3)", Family: FamilyBoard, Conductivity: 0.13, Density: 650, SpecificHeat: 1700, Source: srcISO10456},
 	{Key: "plywood", Name: "Plywood (500 kg/m3)", Family: FamilyBoard, Conductivity: 0.13, Density: 500, SpecificHeat: 1600, Source: srcISO10456},
 	{Key: "particleboard", Name: "Particleboard (600 kg/m3)", Family: FamilyBoard, Conductivity: 0.14, Density: 600, SpecificHeat: 1700, Source: srcISO10456},
 	{Key: "fibreboard", Name: "Fibreboard incl. MDF (600 kg/m3)", Family: FamilyBoard, Conductivity: 0.14, Density: 600, SpecificHeat: 1700, Source: srcISO10456},
 
 	// Timber.
 	{Key: "softwood", Name: "Softwood timber (500 kg/m3)", Family: FamilyTimber, Conductivity: 0.13, Density: 500, SpecificHeat: 1600, Source: srcISO10456Quoted},
-	{Key: "softwood-light", Name: "Softwood construction timber (450 kg/m3)", Family: FamilyTimber, Conductivity: 0.12, Density: 450, SpecificHeat: 1600, Source: srcDataholz},
+	{Key: "softwood-light", Name: "Softwood construction timber (450 kg/m3)", Family: FamilyTimber, Conductivity: 0.12, Density: 450, SpecificHeat: 1600, Source: srcISO10456},
 	{Key: "hardwood", Name: "Hardwood timber (700 kg/m3)", Family: FamilyTimber, Conductivity: 0.18, Density: 700, SpecificHeat: 1600, Source: srcEN12524},
 
 	// Insulation. Declared values differ between products: the row is a
 	// starting point, the product's declared value governs.
 	{Key: "mineral-wool", Name: "Mineral wool (stone wool slab)", Family: FamilyInsulation, Conductivity: 0.036, Density: 40, SpecificHeat: 1030, Source: srcISO10456Ins},
 	{Key: "glass-wool", Name: "Glass wool (20 kg/m3)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1030, Source: srcISO10456Ins},
-	{Key: "mineral-wool-light", Name: "Mineral wool batt, declared 0.035 (20 kg/m3)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1030, Source: srcDataholz},
+	{Key: "mineral-wool-light", Name: "Mineral wool batt, declared 0.035 (20 kg/m3)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1030, Source: srcISO10456Ins},
 	{Key: "eps", Name: "Expanded polystyrene (EPS)", Family: FamilyInsulation, Conductivity: 0.035, Density: 20, SpecificHeat: 1450, Source: srcISO10456Ins},
 	{Key: "xps", Name: "Extruded polystyrene (XPS)", Family: FamilyInsulation, Conductivity: 0.034, Density: 35, SpecificHeat: 1450, Source: srcISO10456Ins},
 	{Key: "pur", Name: "Polyurethane foam board (PUR)", Family: FamilyInsulation, Conductivity: 0.028, Density: 30, SpecificHeat: 1470, Source: srcCIBSE337},
