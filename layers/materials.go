@@ -102,7 +102,8 @@ const (
 // To add a material, append one row: a unique kebab-case Key, a Name, one
 // of the Family constants, SI values (lambda W/(m K), rho kg/m3, c J/(kg K))
 // and a Source naming where the numbers come from with its tag ([read],
-// [2nd-hand] or [memory]); never leave Source empty or invent a citation.
+// [2nd-hand] or [memory]); never leave Source empty or invent a citation,
+// and never cite a web page, an online catalogue or another program.
 // An air layer gives Resistance (m2 K/W), ResistanceThickness (m) and
 // HeatFlow instead. TestLibrary checks every row.
 var library = []Material{
