@@ -153,7 +153,7 @@ func newPlan(rs *Spec) (*plan, error) {
 			p.surface[k] = func(t float64) float64 {
 				v := 0.0
 				for _, sn := range ss {
-					v += sn.ga * math.Max(0, sn.irr.At(t))
+					v += math.Max(0, sn.irr.At(t)) * sn.ga
 				}
 				return v
 			}
