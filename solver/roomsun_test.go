@@ -334,6 +334,9 @@ func TestRoomSunOnThinPlate(t *testing.T) {
 			t.Errorf("%s: air amplitude %v K, surface node analysis %v K (relative difference %g)", c.name, h.Air, c.wantAmp, d)
 		}
 		amps = append(amps, h.Air)
+		if d := cmplx.Abs(h.SurfaceToAir[0]-fHand) / cmplx.Abs(fHand); d > 2e-3 {
+			t.Errorf("%s: surface-to-air factor %v, 1/(1 + i w kappa Rsi) = %v", c.name, h.SurfaceToAir[0], fHand)
+		}
 
 		// The simulation from the exact state: peak and trough of the
 		// second day.
