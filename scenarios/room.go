@@ -82,7 +82,6 @@ type Window struct {
 type SunShare struct {
 	Element  int
 	Fraction float64
-	Line     int
 }
 
 // wallOnlyKeys are top keys of the wall and ground kinds that a room does
@@ -428,7 +427,7 @@ func (d *decoder) decodeSunTo(wo *object, rs *RoomSpec) []SunShare {
 		if so == nil {
 			continue
 		}
-		sh := SunShare{Element: -1, Line: n.Line}
+		sh := SunShare{Element: -1}
 		var name string
 		if so.str("element", &name) {
 			switch {

@@ -390,7 +390,8 @@ type roomFlows struct {
 // node between Rsi to the air and r_w to the element's last cell (the
 // face resistance and the half cell; for a massless element the rest of
 // its resistance to the back): the node balance Q/A + (T_w - T_s)/r_w =
-// (T_s - T_a)/Rsi gives the heat to the air A gIn (T_w - T_a) + (1 - gIn
+// (T_s - T_a)/Rsi, T_w the room-side cell (the back environment for a
+// massless element), gives the heat to the air A gIn (T_w - T_a) + (1 - gIn
 // Rsi) Q, gIn = 1/(Rsi + r_w), and the rest, gIn Rsi Q, to the element
 // [derived]. A massless element passes that rest on to its back.
 func (rr *roomRun) flows(ta, h float64, s *roomSources, stage bool, f *roomFlows) {
