@@ -182,6 +182,15 @@ func roomElementTable(rm *results.RoomResult) *table {
 	}
 	t.Notes = append(t.Notes, "U of an element with an adiabatic back is that of its layers between the two surface resistances; no steady heat crosses it. κ is the areal heat capacity of the layers. |Y| is the admittance seen from the room air (|Y₁₁| backed by the outside, |Z₂₁/Z₂₂| adiabatic, ISO 13786).",
 		"Heat to and from the air is summed over the simulated cycle (each 15-minute interval by its mean); the share is the element's part of all heat delivered to the air, gains and ventilation included.")
+	var sun []string
+	for _, e := range rm.Elements {
+		if e.WindowSunMean_W != nil {
+			sun = append(sun, fmt.Sprintf("%s %s W", e.Name, fixed(*e.WindowSunMean_W, 0)))
+		}
+	}
+	if len(sun) > 0 {
+		t.Notes = append(t.Notes, "Window sun absorbed at the inside surfaces (mean over the cycle): "+strings.Join(sun, ", ")+". An element's heat to the air includes it, given back at once through Rsi or later from its mass.")
+	}
 	return t
 }
 
@@ -193,8 +202,24 @@ func roomWindowTable(rm *results.RoomResult) *table {
 	t := newTable("Windows (massless: U·A to the outdoor air, g·A·I of sun to the room air)", []string{"Window", "Area (m²)", "U (W/(m²·K))", "g", "Mean solar gain (W)"}, "text")
 	for _, w := range rm.Windows {
 		t.row(w.Name, fixed(w.Area_m2, 1), sig(w.UValue_W_m2K, 3), fixed(w.GValue, 2), fixed(w.SolarMean_W, 0))
+		if len(w.SunTo) > 0 {
+			t.Notes = append(t.Notes, "Where the sun of "+w.Name+" goes: "+sunSplit(w)+" (sun_to).")
+		}
 	}
 	return t
+}
+
+// sunSplit says where a window's transmitted sun is absorbed, in words:
+// "60 % on floor slab, 15 % on partitions, 25 % to the air".
+func sunSplit(w results.RoomWindow) string {
+	var parts []string
+	for _, s := range w.SunTo {
+		parts = append(parts, percent(s.Fraction)+" on "+s.Element)
+	}
+	if a := w.SunToAirFraction; a != nil {
+		parts = append(parts, percent(*a)+" to the air")
+	}
+	return strings.Join(parts, ", ")
 }
 
 // roomPeakTable compares the peaks.
@@ -376,7 +401,7 @@ func roomSurfaceChart(rm *results.RoomResult) (*chartSpec, error) {
 
 // roomMethods lists the methods of a room run.
 func roomMethods(rm *results.RoomResult) []string {
-	return []string{
+	m := []string{
 		"One air node of heat capacity 1200 J/(m³·K) × volume (the volumetric heat capacity of air of ISO 13789); ventilation H = 1200 × volume × air changes per hour / 3600 W/K to the outdoor air; windows massless (U·A to the outdoor air, g·A·I of the sun to the air); internal gains to the air.",
 		"Each element is a layered construction of area A with the surface resistances of its orientation (ISO 6946); its room side joins the air node through Rsi, its back the outdoor air (or its sol-air temperature, as in the wall kind) or nothing (adiabatic: a neighbour at the same temperature).",
 		"Exact periodic solution per harmonic, exp(+iωt): iωC θᵢ = Φ + H (θₑ − θᵢ) + Σ A (Y₁₂ θ_back − Y₁₁ θᵢ) + Σ_adiabatic A (Z₂₁/Z₂₂) θᵢ with the ISO 13786 heat transfer matrices of every element (side 1 the room); the forcing is split into its Fourier series over the longest period (clipped sun included), and the ventilation enters with its daily mean.",
@@ -384,6 +409,13 @@ func roomMethods(rm *results.RoomResult) []string {
 		"Operative temperature: " + rm.OperativeTemperature + ".",
 		"Without the mass: the same room with every layer replaced by its thermal resistance (same U values, no heat capacity), the air keeping its own.",
 	}
+	for _, w := range rm.Windows {
+		if len(w.SunTo) > 0 {
+			m = append(m, "Window sun on the surfaces (sun_to): a heat source at the wall side of each element's inside surface resistance. The surface node's balance sends 1 − Rsi·Y of it (per harmonic, Y the element's admittance seen from the air; 1 − Rsi·U for the mean, all of it for an adiabatic element's mean) to the air and the rest into the element; the simulation splits it at the surface between Rsi and the half of the room-side cell. Without the mass the same sun lands on the massless surfaces.")
+			break
+		}
+	}
+	return m
 }
 
 // ptrFixed formats a value that may be absent.

@@ -217,6 +217,15 @@ var (
 			k("u_value", "", fQty(layers.HeatTransferCoefficient)),
 			k("g_value", "total solar energy transmittance, 0 to 1", fQty(layers.Fraction)),
 			k("irradiance", "solar irradiance on the window", fQty(layers.Irradiance), fObject(func() *keyTable { return forcingKeys })),
+			k("sun_to", "where the transmitted sun is absorbed: fractions on elements' inside surfaces (the rest heats the air; default: all to the air)", fList(fObject(func() *keyTable { return sunToKeys }))),
+		},
+	}
+	sunToKeys = &keyTable{
+		Name: "sunTo", Doc: "A part of a window's transmitted sun absorbed at the inside surface of one element.",
+		Required: []string{"element", "fraction"},
+		Keys: []keySpec{
+			k("element", "the name of a room element", fText),
+			k("fraction", "part of the window's transmitted sun, 0 to 1", fQty(layers.Fraction)),
 		},
 	}
 	roomOutsideKeys = &keyTable{

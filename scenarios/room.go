@@ -5,6 +5,7 @@ import (
 	"io/fs"
 	"path"
 	"strconv"
+	"strings"
 
 	"gopkg.in/yaml.v3"
 
@@ -39,6 +40,9 @@ type RoomSpec struct {
 	// RoomSettleTolerance before the reported cycle.
 	WarmUpAuto bool
 	Line       int // line of the room key
+	// elementsOK: every item of elements decoded to an element, so a
+	// name that matches none is a mistake of the name.
+	elementsOK bool
 }
 
 // Ventilation is the outdoor air supply of a room (room.Ventilation).
@@ -57,14 +61,27 @@ type RoomElement struct {
 }
 
 // Window is a massless glazed opening: U A between outdoor and room air,
-// g A I of transmitted sun to the air.
+// g A I of transmitted sun, to the air or, by SunTo, absorbed at the
+// elements' inside surfaces.
 type Window struct {
 	Name       string
 	Area       float64  // m2
 	U          float64  // W/(m2 K)
 	G          float64  // total solar energy transmittance, 0..1
 	Irradiance *Forcing // W/m2 on the window; nil: no sun
-	Line       int
+	// SunTo are the parts of the transmitted sun absorbed at elements'
+	// inside surfaces (key sun_to); the rest goes to the air. Empty: all
+	// to the air.
+	SunTo []SunShare
+	Line  int
+}
+
+// SunShare is the part Fraction (0..1) of a window's transmitted sun
+// absorbed at the inside surface of element Element (0-based index in
+// RoomSpec.Elements).
+type SunShare struct {
+	Element  int
+	Fraction float64
 }
 
 // wallOnlyKeys are top keys of the wall and ground kinds that a room does
@@ -227,9 +244,11 @@ func (d *decoder) decodeRoomElements(top *object, rs *RoomSpec) {
 		top.failf("elements", "%d elements is more than the limit of 100", len(items))
 		return
 	}
+	rs.elementsOK = true
 	for i, n := range items {
 		eo := d.object(n, fmt.Sprintf("elements[%d]", i+1), roomElementKeys)
 		if eo == nil {
+			rs.elementsOK = false
 			continue
 		}
 		e := RoomElement{Name: fmt.Sprintf("element %d", i+1), Line: n.Line, Orientation: layers.Wall}
@@ -378,6 +397,91 @@ func (d *decoder) decodeWindows(top *object, rs *RoomSpec) {
 				wo.missing("g_value", "the total solar energy transmittance of the glazing, 0 to 1")
 			}
 		}
+		if wo.has("sun_to") {
+			w.SunTo = d.decodeSunTo(wo, rs)
+		}
 		rs.Windows = append(rs.Windows, w)
 	}
+}
+
+// decodeSunTo reads a window's sun_to: a list of {element, fraction}, the
+// parts of its transmitted sun absorbed at the named elements' inside
+// surfaces. The fractions lie in [0, 1] and add up to at most 1 (the rest
+// heats the air); an element is named once per window.
+func (d *decoder) decodeSunTo(wo *object, rs *RoomSpec) []SunShare {
+	items, ok := wo.list("sun_to")
+	if !ok {
+		return nil
+	}
+	names := make([]string, len(rs.Elements))
+	count := map[string]int{}
+	for i, e := range rs.Elements {
+		names[i] = e.Name
+		count[e.Name]++
+	}
+	var out []SunShare
+	seen := map[int]int{} // element -> line
+	sum := 0.0
+	for i, n := range items {
+		so := d.object(n, fmt.Sprintf("%s.sun_to[%d]", wo.path, i+1), sunToKeys)
+		if so == nil {
+			continue
+		}
+		sh := SunShare{Element: -1}
+		var name string
+		if so.str("element", &name) {
+			switch {
+			case count[name] > 1:
+				so.failf("element", "%q names %d elements; give the elements distinct names", name, count[name])
+			case count[name] == 1:
+				for k, e := range names {
+					if e == name {
+						sh.Element = k
+					}
+				}
+				if prev, dup := seen[sh.Element]; dup {
+					so.failf("element", "%q is named twice in this window's sun_to (first on line %d); give its whole fraction once", name, prev)
+					sh.Element = -1
+				} else {
+					seen[sh.Element] = so.line("element")
+				}
+			case rs.elementsOK:
+				msg := fmt.Sprintf("no element is named %q", name)
+				if c := layers.Closest(name, names, 1); len(c) > 0 {
+					msg += fmt.Sprintf("; did you mean %q?", c[0])
+				} else if len(names) > 0 {
+					msg += "; the elements are " + quotedList(names)
+				}
+				so.failf("element", "%s", msg)
+			}
+		} else if !so.has("element") {
+			so.missing("element", "the name of the element whose inside surface absorbs this part of the sun")
+		}
+		if so.fraction("fraction", &sh.Fraction) {
+			if sh.Fraction > 1 {
+				so.failf("fraction", "a fraction of the window's sun lies between 0 and 1, got %g", sh.Fraction)
+				continue
+			}
+			sum += sh.Fraction
+		} else if !so.has("fraction") {
+			so.missing("fraction", "the part of the window's transmitted sun absorbed there, 0 to 1")
+		}
+		if sh.Element >= 0 && so.clean() {
+			out = append(out, sh)
+		}
+	}
+	if wo.clean() && sum > 1+1e-9 {
+		wo.failf("sun_to", "the fractions add up to %.4g; at most 1 (the rest of the sun heats the air)", sum)
+		return nil
+	}
+	return out
+}
+
+// quotedList writes names as "a", "b", "c".
+func quotedList(names []string) string {
+	q := make([]string, len(names))
+	for i, s := range names {
+		q[i] = strconv.Quote(s)
+	}
+	return strings.Join(q, ", ")
 }

@@ -81,6 +81,9 @@ func (s *Scenario) roomSpec() (*room.Spec, error) {
 	}
 	for _, w := range rs.Windows {
 		rw := room.Window{Name: w.Name, Area: w.Area, U: w.U, G: w.G}
+		for _, sh := range w.SunTo {
+			rw.SunTo = append(rw.SunTo, room.SunShare{Element: sh.Element, Fraction: sh.Fraction})
+		}
 		if w.Irradiance != nil {
 			rw.Sun = &room.Forcing{At: w.Irradiance.At, Harmonics: w.Irradiance.Harmonics}
 		}
@@ -114,6 +117,6 @@ func runRoom(ctx context.Context, sc *Scenario) (*results.Results, error) {
 	r.Room = rm
 	// The outdoor air; each element's sun is in room.elements.
 	r.Forcing = &results.ForcingInfo{Outside: results.SideForcing{Kind: "harmonic", Mean_C: sc.Room.Outdoor.Mean, Harmonics: harmonicsInfo(sc.Room.Outdoor.Harmonics)}}
-	r.Cautions = append(results.CautionsWith(r, nil), room.Cautions...)
+	r.Cautions = append(results.CautionsWith(r, nil), room.CautionsFor(sp)...)
 	return r, nil
 }

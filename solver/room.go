@@ -125,6 +125,10 @@ type RoomForcing struct {
 	Outdoor complex128   // outdoor air temperature, K (degC for the mean)
 	Gains   complex128   // heat delivered to the air: internal gains and transmitted sun, W
 	Back    []complex128 // environment temperature behind each element (sol-air where the sun falls), K; ignored for adiabatic backs; nil: Outdoor for every element
+	// Surface[k] is the heat released at the inside surface node of
+	// element k (the wall side of its Rsi), W, positive into the room
+	// (window sun absorbed by the floor, say); nil: none on any element.
+	Surface []complex128
 }
 
 // RoomResponse is the periodic response of a room to one harmonic
@@ -138,6 +142,10 @@ type RoomResponse struct {
 	// air per unit air temperature amplitude with its back held at zero
 	// amplitude (A Y11 backed by the outside, -A Z21/Z22 adiabatic).
 	Admittance []complex128
+	// SurfaceToAir[k] is F_k = 1 - Rsi Y_k, the part of a heat source at
+	// the inside surface of element k that reaches the air (the rest goes
+	// into the element); 1 for an adiabatic element's mean.
+	SurfaceToAir []complex128
 }
 
 // RoomHarmonic returns the exact periodic response of room r to the
@@ -158,6 +166,26 @@ type RoomResponse struct {
 // Y11 = Y12 = U and an adiabatic element carries no heat. The inside
 // surface temperature is theta_s = theta_i - Rsi q_i, q_i = Y11 theta_i -
 // Y12 theta_b the flux from the air into the element.
+//
+// A heat source Q_k (W, f.Surface) at the inside surface node s of element
+// k (the wall side of Rsi) enters the balance of that node, per m2 with
+// q_k = Q_k/A_k:
+//
+//	q_k + (theta_i - theta_s)/Rsi = Y'11 theta_s - Y'12 theta_b
+//
+// where the right side is the heat from the surface node into the wall,
+// with Y' of the element's matrix without Rsi, Z' = Z_se Z_layers (ISO
+// 13786 matrices; the surface node balance [derived]); an adiabatic back
+// gives -(Z'21/Z'22) theta_s. Eliminating theta_s, with Y11 = Y'11/(1 +
+// Rsi Y'11) and Y12 = Y'12/(1 + Rsi Y'11) (Z = Z' Z_si), the flux from the
+// air into the element becomes [derived]
+//
+//	q_i = Y11 theta_i - Y12 theta_b - F_k q_k,   F_k = 1 - Rsi Y11 = 1/(1 + Rsi Y'11)
+//
+// so the air receives F_k Q_k of the source (the surface factor F_k; for
+// the mean 1 - Rsi U backed by the outside, 1 adiabatic) and the element
+// the rest. A massless element takes the same formula with Y11 = U (its
+// source leaves partly through the element to its back).
 func RoomHarmonic(r Room, period float64, f RoomForcing) (RoomResponse, error) {
 	if err := r.Validate(); err != nil {
 		return RoomResponse{}, err
@@ -169,6 +197,9 @@ func RoomHarmonic(r Room, period float64, f RoomForcing) (RoomResponse, error) {
 	}
 	if f.Back != nil && len(f.Back) != len(r.Elements) {
 		return RoomResponse{}, fmt.Errorf("solver: %d back temperatures for %d elements", len(f.Back), len(r.Elements))
+	}
+	if f.Surface != nil && len(f.Surface) != len(r.Elements) {
+		return RoomResponse{}, fmt.Errorf("solver: %d surface sources for %d elements", len(f.Surface), len(r.Elements))
 	}
 	n := len(r.Elements)
 	y := make([]complex128, n) // flux density from the air into the element per unit theta_i, W/(m2 K)
@@ -202,21 +233,28 @@ func RoomHarmonic(r Room, period float64, f RoomForcing) (RoomResponse, error) {
 	h := complex(r.Conductance, 0)
 	num := f.Gains + h*f.Outdoor
 	den := complex(0, omega*r.AirCapacity) + h
+	src := make([]complex128, n) // F_k Q_k, W: the part of each surface source that reaches the air
 	for k, e := range r.Elements {
 		a := complex(e.Area, 0)
 		num += a * b[k] * back[k]
 		den += a * y[k]
+		if f.Surface != nil && f.Surface[k] != 0 {
+			src[k] = (1 - complex(e.Column.InsideResistance, 0)*y[k]) * f.Surface[k]
+			num += src[k]
+		}
 	}
 	if den == 0 {
 		return RoomResponse{}, errors.New("solver: the room air balance is singular (nothing holds the mean air temperature)")
 	}
-	res := RoomResponse{Air: num / den, Surface: make([]complex128, n), Flow: make([]complex128, n), Admittance: make([]complex128, n)}
+	res := RoomResponse{Air: num / den, Surface: make([]complex128, n), Flow: make([]complex128, n), Admittance: make([]complex128, n), SurfaceToAir: make([]complex128, n)}
 	for k, e := range r.Elements {
 		a := complex(e.Area, 0)
-		q := y[k]*res.Air - b[k]*back[k]
+		rsi := complex(e.Column.InsideResistance, 0)
+		q := y[k]*res.Air - b[k]*back[k] - src[k]/a // flux from the air into the element through Rsi, W/m2
 		res.Flow[k] = -a * q
-		res.Surface[k] = res.Air - complex(e.Column.InsideResistance, 0)*q
+		res.Surface[k] = res.Air - rsi*q
 		res.Admittance[k] = a * y[k]
+		res.SurfaceToAir[k] = 1 - rsi*y[k]
 	}
 	res.Outdoor = h * (f.Outdoor - res.Air)
 	return res, nil
@@ -226,7 +264,9 @@ func RoomHarmonic(r Room, period float64, f RoomForcing) (RoomResponse, error) {
 // for period 0) at the cell centres of every element's mesh (nil for a
 // massless element) for the periodic response resp of RoomHarmonic with
 // the forcing f: the state a simulation starts from. meshes are those of
-// RoomMeshes.
+// RoomMeshes. An element with a surface source (f.Surface) is solved
+// from its inside surface temperature resp.Surface (Rsi taken out), the
+// source having already set it.
 func RoomCellAmplitudes(r Room, meshes []*Mesh, period float64, f RoomForcing, resp RoomResponse) ([][]complex128, error) {
 	if len(meshes) != len(r.Elements) {
 		return nil, fmt.Errorf("solver: %d meshes for %d elements", len(meshes), len(r.Elements))
@@ -242,14 +282,21 @@ func RoomCellAmplitudes(r Room, meshes []*Mesh, period float64, f RoomForcing, r
 			back = f.Back[k]
 		}
 		c := e.Column
+		inside := resp.Air
+		if f.Surface != nil && f.Surface[k] != 0 {
+			// The profile behind the surface node: its temperature
+			// prescribed, no Rsi.
+			c.InsideResistance = 0
+			inside = resp.Surface[k]
+		}
 		out[k] = make([]complex128, m.Cells())
 		switch {
 		case e.Back == BackAdiabatic && period == 0:
 			for i := range out[k] {
-				out[k][i] = resp.Air
+				out[k][i] = inside
 			}
 		case period == 0:
-			t, _, err := Steady(c, real(back), real(resp.Air), m.Centers)
+			t, _, err := Steady(c, real(back), real(inside), m.Centers)
 			if err != nil {
 				return nil, err
 			}
@@ -257,7 +304,7 @@ func RoomCellAmplitudes(r Room, meshes []*Mesh, period float64, f RoomForcing, r
 				out[k][i] = complex(v, 0)
 			}
 		case e.Back == BackOutside:
-			t, _, err := Harmonic(c, period, back, resp.Air, m.Centers)
+			t, _, err := Harmonic(c, period, back, inside, m.Centers)
 			if err != nil {
 				return nil, err
 			}
@@ -274,7 +321,7 @@ func RoomCellAmplitudes(r Room, meshes []*Mesh, period float64, f RoomForcing, r
 			for i, v := range m.Centers {
 				x[i] = math.Max(0, math.Min(d, d-v))
 			}
-			t, _, err := HarmonicInsulated(rc, period, resp.Air, x)
+			t, _, err := HarmonicInsulated(rc, period, inside, x)
 			if err != nil {
 				return nil, err
 			}

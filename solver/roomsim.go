@@ -23,6 +23,12 @@ type RoomProblem struct {
 	// Gains is the heat delivered to the air node, W (internal gains and
 	// transmitted sun); nil: none.
 	Gains func(t float64) float64
+	// Surface[k] is the heat released at the inside surface of element k
+	// (the wall side of its Rsi), W, positive into the room (window sun
+	// absorbed there); a nil slice or entry means none. It splits between
+	// the air (through Rsi) and the element as the surface node's
+	// conductances say: see RoomSimulate.
+	Surface []func(t float64) float64
 	// Conductance is the heat transfer coefficient between the outdoor
 	// air and the room air, W/K (ventilation that changes from day to
 	// night, plus the windows' U A); nil: Room.Conductance. It is held
@@ -44,20 +50,23 @@ type RoomProblem struct {
 //
 // Stored is the change of the heat content of the elements and the air;
 // the inflows are integrated with the quadrature weights of the time
-// scheme, so that Stored = Outdoor + Back + Gains up to round-off.
-// RelativeError is |Stored - Outdoor - Back - Gains| / Exchanged, where
-// Exchanged integrates the absolute values of the three inflows.
+// scheme, so that Stored = Outdoor + Back + Gains + Surface up to
+// round-off. RelativeError is |Stored - Outdoor - Back - Gains - Surface|
+// / Exchanged, where Exchanged integrates the absolute values of the
+// four inflows.
 type RoomEnergy struct {
 	Stored        float64 // J
 	Outdoor       float64 // J from the outdoor air through the conductance (ventilation, windows)
 	Back          float64 // J through the back faces of the elements
 	Gains         float64 // J of gains
+	Surface       float64 // J of the sources at the elements' inside surfaces
 	Exchanged     float64 // J
 	RelativeError float64
 }
 
-// Residual is Stored - Outdoor - Back - Gains, J: the heat the scheme created.
-func (e RoomEnergy) Residual() float64 { return e.Stored - e.Outdoor - e.Back - e.Gains }
+// Residual is Stored - Outdoor - Back - Gains - Surface, J: the heat the
+// scheme created.
+func (e RoomEnergy) Residual() float64 { return e.Stored - e.Outdoor - e.Back - e.Gains - e.Surface }
 
 // RoomResult is the outcome of RoomSimulate. Series are sampled at Times;
 // index 0 is the initial state.
@@ -92,6 +101,8 @@ type roomEl struct {
 	gIn     float64   // last cell to air, W/(m2 K); for a massless element U (0 adiabatic)
 	rsi     float64
 	back    func(float64) float64
+	src     func(float64) float64 // W at the inside surface; nil: none
+	fIn     float64               // part of the surface source that goes into the element: gIn Rsi
 	fac     fvSymTridiag
 	s       []float64 // D^-1 e_last for the current factorisation
 	t, tn   []float64 // state and state at the start of the step
@@ -122,7 +133,12 @@ type roomRun struct {
 //	C_a dT_a/dt = Phi(t) + H(t) (T_o(t) - T_a) + sum_k A_k g_k (T_k,last - T_a)
 //	              + sum_m A_m U_m (T_b,m(t) - T_a)     (massless elements)
 //
-// with g_k = 1/(Rsi + R_face + h/(2k)) of the last cell. Time integration
+// with g_k = 1/(Rsi + R_face + h/(2k)) of the last cell. A source Q_k (W,
+// RoomProblem.Surface) at the inside surface node of element k, which
+// has no heat capacity, adds (1 - g_k Rsi) Q_k to the air node and
+// g_k Rsi Q_k / A_k (W/m2) to the last cell (the node balance, see flows;
+// for a massless element g_k = U_k, or 0 with an adiabatic back, and the
+// second part leaves through its back). Time integration
 // is TR-BDF2 (as Simulate; Bank et al. 1985, Hosea and Shampine 1996:
 // L-stable, second order) or backward Euler. In each implicit stage
 // every element's tridiagonal system is eliminated to an affine relation
@@ -175,9 +191,13 @@ func newRoomRun(p *RoomProblem) (*roomRun, error) {
 		if p.Back != nil && p.Back[k] != nil {
 			el.back = p.Back[k]
 		}
+		if p.Surface != nil {
+			el.src = p.Surface[k]
+		}
 		if err := el.setUp(k, e, meshes[k]); err != nil {
 			return nil, err
 		}
+		el.fIn = el.gIn * el.rsi
 		if el.n == 0 {
 			continue
 		}
@@ -204,6 +224,9 @@ func checkRoomProblem(p *RoomProblem) error {
 	}
 	if p.Back != nil && len(p.Back) != len(r.Elements) {
 		return fmt.Errorf("solver: %d back temperatures for %d elements", len(p.Back), len(r.Elements))
+	}
+	if p.Surface != nil && len(p.Surface) != len(r.Elements) {
+		return fmt.Errorf("solver: %d surface sources for %d elements", len(p.Surface), len(r.Elements))
 	}
 	if !finite(p.Start) || !finite(p.Duration) || !finite(p.Step) || !(p.Duration > 0) || !(p.Step > 0) {
 		return errors.New("solver: start, duration and step must be finite, duration and step positive")
@@ -324,6 +347,7 @@ func (rr *roomRun) factor(th float64) error {
 type roomSources struct {
 	to, phi float64
 	tb      []float64
+	qs      []float64 // W at each element's inside surface
 }
 
 func (rr *roomRun) sources(t float64, s *roomSources) error {
@@ -333,6 +357,12 @@ func (rr *roomRun) sources(t float64, s *roomSources) error {
 	}
 	for k := range rr.els {
 		el := &rr.els[k]
+		if el.src != nil {
+			s.qs[k] = el.src(t)
+			if !finite(s.qs[k]) {
+				return fmt.Errorf("solver: surface source of element %d not finite at t = %g s", k+1, t)
+			}
+		}
 		if el.gOut == 0 && !(el.n == 0 && el.gIn > 0) {
 			s.tb[k] = 0
 			continue
@@ -348,23 +378,41 @@ func (rr *roomRun) sources(t float64, s *roomSources) error {
 // roomFlows are the heat flows of one state, W.
 type roomFlows struct {
 	outdoor, back, gains float64
-	el                   []float64 // element k into the air
+	surface              float64   // released at the elements' inside surfaces
+	el                   []float64 // element k into the air (through Rsi)
 	air                  float64   // net into the air
 }
 
 // flows evaluates the flows of the current state (el.t or el.ts by
 // stage) and air temperature ta for sources s and conductance h.
+//
+// A surface source Q (W) of an element splits at its massless surface
+// node between Rsi to the air and r_w to the element's last cell (the
+// face resistance and the half cell; for a massless element the rest of
+// its resistance to the back): the node balance Q/A + (T_w - T_s)/r_w =
+// (T_s - T_a)/Rsi, T_w the room-side cell (the back environment for a
+// massless element), gives the heat to the air A gIn (T_w - T_a) + (1 - gIn
+// Rsi) Q, gIn = 1/(Rsi + r_w), and the rest, gIn Rsi Q, to the element
+// [derived]. A massless element passes that rest on to its back.
 func (rr *roomRun) flows(ta, h float64, s *roomSources, stage bool, f *roomFlows) {
 	f.outdoor = h * (s.to - ta)
 	f.gains = s.phi
 	f.back = 0
+	f.surface = 0
 	f.air = f.outdoor + f.gains
 	for k := range rr.els {
 		el := &rr.els[k]
 		if el.n == 0 {
 			q := el.a * el.gIn * (s.tb[k] - ta)
+			back := q
+			if el.src != nil {
+				// gIn Rsi Q leaves through the element to its back.
+				q += (1 - el.fIn) * s.qs[k]
+				back -= el.fIn * s.qs[k]
+				f.surface += s.qs[k]
+			}
 			f.el[k] = q
-			f.back += q
+			f.back += back
 			f.air += q
 			continue
 		}
@@ -373,6 +421,10 @@ func (rr *roomRun) flows(ta, h float64, s *roomSources, stage bool, f *roomFlows
 			t = el.ts
 		}
 		q := el.a * el.gIn * (t[el.n-1] - ta)
+		if el.src != nil {
+			q += (1 - el.fIn) * s.qs[k]
+			f.surface += s.qs[k]
+		}
 		f.el[k] = q
 		f.air += q
 		f.back += el.a * el.gOut * (s.tb[k] - t[0])
@@ -444,6 +496,7 @@ func roomSteps(p *RoomProblem) (steps, every int, err error) {
 type roomRecorder struct {
 	res                *RoomResult
 	eOut, eBack, eGain fvKahan   // J, inflows since the start
+	eSurf              fvKahan   // J, surface sources since the start
 	eAbs               fvKahan   // J, absolute inflows since the start
 	accEl              []fvKahan // J, heat from each element into the air since the last sample
 	accOut, accGain    fvKahan   // J, heat from the outdoor air and the gains since the last sample
@@ -507,7 +560,8 @@ func (rec *roomRecorder) account(w float64, f *roomFlows) {
 	rec.eOut.add(w * f.outdoor)
 	rec.eBack.add(w * f.back)
 	rec.eGain.add(w * f.gains)
-	rec.eAbs.add(w * (math.Abs(f.outdoor) + math.Abs(f.back) + math.Abs(f.gains)))
+	rec.eSurf.add(w * f.surface)
+	rec.eAbs.add(w * (math.Abs(f.outdoor) + math.Abs(f.back) + math.Abs(f.gains) + math.Abs(f.surface)))
 	rec.accOut.add(w * f.outdoor)
 	rec.accGain.add(w * f.gains)
 	for k := range rec.accEl {
@@ -516,7 +570,8 @@ func (rec *roomRecorder) account(w float64, f *roomFlows) {
 }
 
 // airSrc is the part of the air right-hand side from the sources s at
-// the end of a stage with the conductance h: Phi + H To + sum_m A U Tb.
+// the end of a stage with the conductance h: Phi + H To + sum_m A U Tb +
+// sum_k (1 - gIn Rsi) Q_k.
 func (rr *roomRun) airSrc(h float64, s *roomSources) float64 {
 	v := s.phi + h*s.to
 	for k := range rr.els {
@@ -524,8 +579,19 @@ func (rr *roomRun) airSrc(h float64, s *roomSources) float64 {
 		if el.n == 0 {
 			v += el.a * el.gIn * s.tb[k]
 		}
+		if el.src != nil {
+			v += (1 - el.fIn) * s.qs[k]
+		}
 	}
 	return v
+}
+
+// surfaceRHS adds the surface source's part into element k's last cell,
+// th gIn Rsi q/A (J/m2), q the source (W) to take implicitly.
+func (el *roomEl) surfaceRHS(th, q float64) {
+	if el.src != nil && el.n > 0 {
+		el.rhs[el.n-1] += th * el.fIn * q / el.a
+	}
 }
 
 // airDiag is the air node's diagonal C_a + th (H + sum_k A_k g_k).
@@ -545,7 +611,7 @@ type roomStepWork struct {
 }
 
 func newRoomStepWork(ne int) roomStepWork {
-	newSrc := func() roomSources { return roomSources{tb: make([]float64, ne)} }
+	newSrc := func() roomSources { return roomSources{tb: make([]float64, ne), qs: make([]float64, ne)} }
 	newFlows := func() roomFlows { return roomFlows{el: make([]float64, ne)} }
 	return roomStepWork{s0: newSrc(), sm: newSrc(), s1: newSrc(), f0: newFlows(), fm: newFlows(), f1: newFlows()}
 }
@@ -645,6 +711,7 @@ func (rr *roomRun) stepTRBDF2(t, dt, h float64, w *roomStepWork, rec *roomRecord
 		el := &rr.els[k]
 		if el.n > 0 {
 			el.explicitRHS(th, tan, s0.tb[k], sm.tb[k])
+			el.surfaceRHS(th, s0.qs[k]+sm.qs[k])
 		}
 	}
 	tam := rr.solveStage(th, rr.ca*tan+th*w.f0.air+th*rr.airSrc(h, sm), rr.airDiag(th, h))
@@ -661,6 +728,7 @@ func (rr *roomRun) stepTRBDF2(t, dt, h float64, w *roomStepWork, rec *roomRecord
 		}
 		if el.n > 0 {
 			el.rhs[0] += th * el.gOut * s1.tb[k]
+			el.surfaceRHS(th, s1.qs[k])
 		}
 	}
 	rr.ta = rr.solveStage(th, rr.ca*(fvC1*tam-fvC2*tan)+th*rr.airSrc(h, s1), rr.airDiag(th, h))
@@ -688,6 +756,7 @@ func (rr *roomRun) stepEuler(dt, h float64, w *roomStepWork, rec *roomRecorder) 
 		}
 		if el.n > 0 {
 			el.rhs[0] += dt * el.gOut * s1.tb[k]
+			el.surfaceRHS(dt, s1.qs[k])
 		}
 	}
 	rr.ta = rr.solveStage(dt, rr.ca*tan+dt*rr.airSrc(h, s1), rr.airDiag(dt, h))
@@ -710,7 +779,7 @@ func (rr *roomRun) finish(rec *roomRecorder, ta0 float64, t0 [][]float64, steps 
 			stored.add(el.a * el.capc[i] * (el.t[i] - t0[k][i]))
 		}
 	}
-	en := RoomEnergy{Stored: stored.value(), Outdoor: rec.eOut.value(), Back: rec.eBack.value(), Gains: rec.eGain.value(), Exchanged: rec.eAbs.value()}
+	en := RoomEnergy{Stored: stored.value(), Outdoor: rec.eOut.value(), Back: rec.eBack.value(), Gains: rec.eGain.value(), Surface: rec.eSurf.value(), Exchanged: rec.eAbs.value()}
 	if en.Exchanged > 0 {
 		en.RelativeError = math.Abs(en.Residual()) / en.Exchanged
 	}

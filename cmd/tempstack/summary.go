@@ -251,6 +251,19 @@ func printRoom(w io.Writer, rm *results.RoomResult) {
 	if rm.VentilationNight_ach != nil {
 		mean = ", ventilation at its daily mean"
 	}
+	for _, win := range rm.Windows {
+		if len(win.SunTo) == 0 {
+			continue
+		}
+		var parts []string
+		for _, s := range win.SunTo {
+			parts = append(parts, fmt.Sprintf("%.0f %% on %s", 100*s.Fraction, s.Element))
+		}
+		if a := win.SunToAirFraction; a != nil {
+			parts = append(parts, fmt.Sprintf("%.0f %% to the air", 100**a))
+		}
+		fmt.Fprintf(w, "  sun through %s: %s\n", win.Name, strings.Join(parts, ", "))
+	}
 	fmt.Fprintf(w, "  exact periodic (%g h cycle%s): air %.1f to %.1f degC (mean %.1f), operative %.1f to %.1f degC\n",
 		p.Period_h, mean, p.AirMin_C, p.AirMax_C, p.AirMean_C, p.OperativeMin_C, p.OperativeMax_C)
 	if s := rm.Simulation; s != nil {

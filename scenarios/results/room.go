@@ -18,7 +18,7 @@ type RoomResult struct {
 	NightFrom_h          *float64  `json:"night_from_h,omitempty"`
 	NightTo_h            *float64  `json:"night_to_h,omitempty"`
 	MeanConductance_W_K  float64   `json:"mean_conductance_W_K"`  // ventilation (daily mean) + windows' U A, to the outdoor air
-	GainsMean_W          float64   `json:"gains_mean_W"`          // internal gains and transmitted sun, daily mean
+	GainsMean_W          float64   `json:"gains_mean_W"`          // internal gains and transmitted sun (wherever it is absorbed), daily mean
 	OperativeTemperature string    `json:"operative_temperature"` // how it is defined
 	Thresholds_C         []float64 `json:"thresholds_C"`
 
@@ -58,6 +58,11 @@ type RoomElement struct {
 	HeatFromAir_kWh_day *float64 `json:"heat_from_air_kWh_day"`
 	ShareOfHeatToAir    *float64 `json:"share_of_heat_to_air"`
 	ShareOfHeatFromAir  *float64 `json:"share_of_heat_from_air"`
+	// WindowSunMean_W is the windows' transmitted sun absorbed at the
+	// element's inside surface (sun_to), mean over the cycle, W; absent
+	// when no window sends sun to it. That heat reaches the air through
+	// the element, so it is part of HeatToAir_kWh_day.
+	WindowSunMean_W *float64 `json:"window_sun_mean_W,omitempty"`
 }
 
 // RoomWindow describes one window.
@@ -67,6 +72,19 @@ type RoomWindow struct {
 	UValue_W_m2K float64 `json:"u_value_W_m2K"`
 	GValue       float64 `json:"g_value"`
 	SolarMean_W  float64 `json:"solar_gain_mean_W"` // g A I, daily mean of the clipped irradiance
+	// SunTo are the parts of the transmitted sun absorbed at elements'
+	// inside surfaces and SunToAirFraction the rest, delivered to the air;
+	// both absent when the scenario gives no sun_to: all of it goes to
+	// the air.
+	SunTo            []RoomSunShare `json:"sun_to,omitempty"`
+	SunToAirFraction *float64       `json:"sun_to_air_fraction,omitempty"`
+}
+
+// RoomSunShare is the part Fraction (0..1) of a window's transmitted sun
+// absorbed at the inside surface of the element named Element.
+type RoomSunShare struct {
+	Element  string  `json:"element"`
+	Fraction float64 `json:"fraction"`
 }
 
 // RoomPeriodic is the exact periodic solution over one cycle of the

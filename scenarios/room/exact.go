@@ -55,10 +55,27 @@ func (p *plan) exact(r solver.Room) (*cycle, error) {
 			mb[k], pb[k] = fourierOf(fft, p.back[k], p.period, n)
 		}
 	}
+	// The windows' sun absorbed at the elements' surfaces, W.
+	var ms []float64
+	var ps [][]complex128
+	if p.surface != nil {
+		ms, ps = make([]float64, ne), make([][]complex128, ne)
+		for k := range r.Elements {
+			if p.surface[k] != nil {
+				ms[k], ps[k] = fourierOf(fft, p.surface[k], p.period, n)
+			}
+		}
+	}
 	x := &cycle{}
 	x.meanF = solver.RoomForcing{Outdoor: complex(mo, 0), Gains: complex(mg, 0), Back: make([]complex128, ne)}
 	for k := range mb {
 		x.meanF.Back[k] = complex(mb[k], 0)
+	}
+	if ms != nil {
+		x.meanF.Surface = make([]complex128, ne)
+		for k := range ms {
+			x.meanF.Surface[k] = complex(ms[k], 0)
+		}
 	}
 	var err error
 	if x.mean, err = solver.RoomHarmonic(r, 0, x.meanF); err != nil {
@@ -68,6 +85,9 @@ func (p *plan) exact(r solver.Room) (*cycle, error) {
 	scale := 1e-9 * (1 + math.Abs(mo) + math.Abs(mg))
 	for k := range mb {
 		scale += 1e-9 * math.Abs(mb[k])
+	}
+	for k := range ms {
+		scale += 1e-9 * math.Abs(ms[k])
 	}
 	area := 0.0
 	for _, e := range r.Elements {
@@ -84,6 +104,15 @@ func (p *plan) exact(r solver.Room) (*cycle, error) {
 			if pb[e] != nil {
 				f.Back[e] = pb[e][k]
 				big = big || cmplx.Abs(pb[e][k]) > scale
+			}
+		}
+		if ps != nil {
+			f.Surface = make([]complex128, ne)
+			for e := range ps {
+				if ps[e] != nil {
+					f.Surface[e] = ps[e][k]
+					big = big || cmplx.Abs(ps[e][k]) > scale
+				}
 			}
 		}
 		if !big {

@@ -19,10 +19,40 @@ type plan struct {
 	samples    int     // samples of a cycle for the Fourier series of the forcing
 	outdoor    func(float64) float64
 	back       []func(float64) float64 // per element; nil for adiabatic backs
-	gains      func(float64) float64   // W to the air: gains and sun through the windows
-	cond       func(float64) float64   // W/K: ventilation and windows
-	windowsUA  float64                 // W/K
-	cells      int
+	gains      func(float64) float64   // W to the air: gains and the part of the windows' sun that heats the air
+	// surface[k] is the windows' sun absorbed at the inside surface of
+	// element k, W; a nil entry: none; nil when no window sends sun to a
+	// surface (sun_to absent everywhere).
+	surface   []func(float64) float64
+	cond      func(float64) float64 // W/K: ventilation and windows
+	windowsUA float64               // W/K
+	cells     int
+}
+
+// checkSunTo checks the sun_to of window i of rs: elements that exist,
+// fractions in [0, 1] adding up to at most 1, each element once.
+func checkSunTo(rs *Spec, i int) error {
+	w := rs.Windows[i]
+	key := fmt.Sprintf("windows[%d].sun_to", i+1)
+	sum := 0.0
+	seen := map[int]bool{}
+	for _, sh := range w.SunTo {
+		if sh.Element < 0 || sh.Element >= len(rs.Elements) {
+			return &fileerr.Error{File: rs.File, Key: key, Msg: fmt.Sprintf("no element %d (the room has %d)", sh.Element+1, len(rs.Elements))}
+		}
+		if seen[sh.Element] {
+			return &fileerr.Error{File: rs.File, Key: key, Msg: fmt.Sprintf("element %q is named twice", rs.Elements[sh.Element].Name)}
+		}
+		seen[sh.Element] = true
+		if !(sh.Fraction >= 0 && sh.Fraction <= 1) {
+			return &fileerr.Error{File: rs.File, Key: key, Msg: fmt.Sprintf("a fraction lies between 0 and 1, got %g", sh.Fraction)}
+		}
+		sum += sh.Fraction
+	}
+	if sum > 1+1e-9 {
+		return &fileerr.Error{File: rs.File, Key: key, Msg: fmt.Sprintf("the fractions add up to %.4g; at most 1", sum)}
+	}
+	return nil
 }
 
 // Check checks that room s can be solved: its elements, that something
@@ -83,14 +113,27 @@ func newPlan(rs *Spec) (*plan, error) {
 		p.back = append(p.back, env)
 	}
 	type sun struct {
-		ga  float64
+		ga  float64 // W per W/m2: g A, times the fraction it goes with
 		irr *Forcing
 	}
 	var suns []sun
-	for _, w := range rs.Windows {
+	onSurface := make([][]sun, len(rs.Elements))
+	anySurface := false
+	for i, w := range rs.Windows {
+		if err := checkSunTo(rs, i); err != nil {
+			return nil, err
+		}
 		if w.Sun != nil && w.G > 0 {
-			suns = append(suns, sun{w.G * w.Area, w.Sun})
+			// The air takes what sun_to leaves (all of it without sun_to:
+			// times 1, exactly).
+			suns = append(suns, sun{w.G * w.Area * w.AirFraction(), w.Sun})
 			periods = append(periods, w.Sun.Harmonics...)
+			for _, sh := range w.SunTo {
+				if sh.Fraction > 0 {
+					onSurface[sh.Element] = append(onSurface[sh.Element], sun{w.G * w.Area * sh.Fraction, w.Sun})
+					anySurface = true
+				}
+			}
 		}
 	}
 	gains := rs.Gains.At
@@ -100,6 +143,21 @@ func newPlan(rs *Spec) (*plan, error) {
 			v += sn.ga * math.Max(0, sn.irr.At(t))
 		}
 		return v
+	}
+	if anySurface {
+		p.surface = make([]func(float64) float64, len(rs.Elements))
+		for k, ss := range onSurface {
+			if len(ss) == 0 {
+				continue
+			}
+			p.surface[k] = func(t float64) float64 {
+				v := 0.0
+				for _, sn := range ss {
+					v += math.Max(0, sn.irr.At(t)) * sn.ga
+				}
+				return v
+			}
+		}
 	}
 	if err := p.room.Validate(); err != nil {
 		return nil, &fileerr.Error{File: rs.File, Key: "elements", Err: err}

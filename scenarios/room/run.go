@@ -15,10 +15,25 @@ import (
 	"tempstack/solver"
 )
 
-// Cautions are the room run's cautions, after the general ones.
+// Cautions are the room run's cautions, after the general ones, when the
+// windows' sun all goes to the air (CautionsFor says which apply).
 var Cautions = []string{
 	"One air node: the room is taken as well mixed; radiant exchange between surfaces is lumped into the inside surface resistances (ISO 6946), and the sun through the windows is delivered to the air.",
 	"Comfort criteria are set by local guidance; hours above a threshold here are a comparison between designs, not a compliance check.",
+}
+
+// sunToCaution replaces the first caution when a window sends its sun to
+// the elements' surfaces.
+const sunToCaution = "One air node: the room is taken as well mixed; radiant exchange between surfaces is lumped into the inside surface resistances (ISO 6946); the sun through the windows is absorbed where sun_to puts it (the fractions are inputs: where the sun patch falls moves through the day) and the rest is delivered to the air."
+
+// CautionsFor returns the room run's cautions for rs.
+func CautionsFor(rs *Spec) []string {
+	for _, w := range rs.Windows {
+		if len(w.SunTo) > 0 {
+			return append([]string{sunToCaution}, Cautions[1:]...)
+		}
+	}
+	return Cautions
 }
 
 // Run solves room rs: the exact periodic solution, the coupled simulation,
@@ -73,6 +88,9 @@ func Run(ctx context.Context, rs *Spec) (*results.RoomResult, []string, error) {
 		rm.Notes = append(rm.Notes, fmt.Sprintf("The exact periodic solution is linear: it takes the daily mean ventilation (%.2f air changes per hour); the simulation switches between the day and night rates.", v.Mean()))
 	}
 	rm.GainsMean_W = real(x.meanF.Gains)
+	for _, q := range x.meanF.Surface {
+		rm.GainsMean_W += real(q)
+	}
 	rm.Periodic = periodicSummary(p, x)
 	rm.Simulation = &sim.summary
 	ydaily, err := solver.RoomHarmonic(p.room, climate.Day, solver.RoomForcing{})
@@ -95,6 +113,10 @@ func Run(ctx context.Context, rs *Spec) (*results.RoomResult, []string, error) {
 			ArealHeatCapacity_kJ_m2K: c.ArealHeatCapacity() / 1000,
 			InsideAdmittance_W_m2K:   cmplx.Abs(ydaily.Admittance[e]) / el.Area,
 		}
+		if x.meanF.Surface != nil && p.surface[e] != nil {
+			v := real(x.meanF.Surface[e])
+			re.WindowSunMean_W = &v
+		}
 		ph := sim.summary.Paths[2+e]
 		to, from := ph.ToAir_kWh_day, ph.FromAir_kWh_day
 		re.HeatToAir_kWh_day, re.HeatFromAir_kWh_day = &to, &from
@@ -115,7 +137,17 @@ func Run(ctx context.Context, rs *Spec) (*results.RoomResult, []string, error) {
 			m, _ := fourierOf(fourier.NewFFT(p.samples), func(t float64) float64 { return math.Max(0, irr.At(t)) }, p.period, p.samples)
 			rw.SolarMean_W = w.G * w.Area * m
 		}
+		if len(w.SunTo) > 0 {
+			for _, sh := range w.SunTo {
+				rw.SunTo = append(rw.SunTo, results.RoomSunShare{Element: rs.Elements[sh.Element].Name, Fraction: sh.Fraction})
+			}
+			a := w.AirFraction()
+			rw.SunToAirFraction = &a
+		}
 		rm.Windows = append(rm.Windows, rw)
+	}
+	if p.surface != nil {
+		rm.Notes = append(rm.Notes, "Window sun on the surfaces (sun_to): it is absorbed at the wall side of each element's inside surface resistance; part reaches the air through Rsi at once, the rest enters the element and comes back later (its mass delays it). Each element's heat to the air includes what it gives back. Without the mass the same sun lands on the same, now massless, surfaces: it reaches the air through Rsi at once, save the part Rsi·U of it that leaves through an element backed by the outside.")
 	}
 	mr := &results.RoomMassRemoved{Periodic: periodicSummary(p, xb), Simulation: &simb.summary}
 	dp := simb.summary.OperativeMax_C - sim.summary.OperativeMax_C

@@ -31,7 +31,7 @@ func (p *plan) simulate(ctx context.Context, rs *Spec, r solver.Room, meshes []*
 		return nil, err
 	}
 	prob := solver.RoomProblem{
-		Room: r, Meshes: meshes, Outdoor: p.outdoor, Back: p.back, Gains: p.gains, Conductance: p.cond,
+		Room: r, Meshes: meshes, Outdoor: p.outdoor, Back: p.back, Gains: p.gains, Surface: p.surface, Conductance: p.cond,
 		InitialAir: air, Initial: init, Start: start, Duration: warm + p.period, Step: rs.Step, OutputStep: rs.Step,
 	}
 	cycles, settled, change := 0, !rs.WarmUpAuto, 0.0
@@ -133,7 +133,11 @@ func (p *plan) simulate(ctx context.Context, rs *Spec, r solver.Room, meshes []*
 		}
 		return results.RoomPath{Name: name, ToAir_kWh_day: to / perDay, FromAir_kWh_day: from / perDay}
 	}
-	sm.Paths = append(sm.Paths, path("ventilation and window conduction", res.MeanOutdoor), path("gains and sun through windows", res.MeanGains))
+	gainsPath := "gains and sun through windows"
+	if p.surface != nil {
+		gainsPath = "gains and the part of the windows' sun that heats the air"
+	}
+	sm.Paths = append(sm.Paths, path("ventilation and window conduction", res.MeanOutdoor), path(gainsPath, res.MeanGains))
 	for e, el := range r.Elements {
 		sm.Paths = append(sm.Paths, path(el.Name, res.MeanFlow[e]))
 	}

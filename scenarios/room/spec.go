@@ -74,13 +74,35 @@ type Element struct {
 }
 
 // Window is a massless glazed opening: U A between outdoor and room air,
-// g A I of transmitted sun to the air.
+// g A I of transmitted sun (the irradiance clipped at 0), absorbed at the
+// inside surfaces of the elements SunTo names and the rest delivered to
+// the air.
 type Window struct {
-	Name string
-	Area float64  // m2
-	U    float64  // W/(m2 K)
-	G    float64  // total solar energy transmittance, 0..1
-	Sun  *Forcing // irradiance on the window, W/m2; nil: no sun
+	Name  string
+	Area  float64  // m2
+	U     float64  // W/(m2 K)
+	G     float64  // total solar energy transmittance, 0..1
+	Sun   *Forcing // irradiance on the window, W/m2; nil: no sun
+	SunTo []SunShare
+}
+
+// SunShare is the part Fraction (0..1) of a window's transmitted sun
+// absorbed at the inside surface (the wall side of Rsi) of element
+// Element, an index in Spec.Elements. The fractions of a window add up to
+// at most 1; the rest goes to the air.
+type SunShare struct {
+	Element  int
+	Fraction float64
+}
+
+// AirFraction is the part of w's transmitted sun delivered to the air:
+// 1 less the fractions of SunTo (not below 0).
+func (w Window) AirFraction() float64 {
+	f := 1.0
+	for _, s := range w.SunTo {
+		f -= s.Fraction
+	}
+	return max(f, 0)
 }
 
 // Ventilation is the outdoor air supply of a room, in air changes per
