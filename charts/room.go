@@ -199,7 +199,7 @@ func roomWindowTable(rm *results.RoomResult) *table {
 	if len(rm.Windows) == 0 {
 		return nil
 	}
-	t := newTable("Windows (massless: U·A to the outdoor air, g·A·I of sun to the room air)", []string{"Window", "Area (m²)", "U (W/(m²·K))", "g", "Mean solar gain (W)"}, "text")
+	t := newTable("Windows (massless: U·A to the outdoor air, g·A·I of sun into the room)", []string{"Window", "Area (m²)", "U (W/(m²·K))", "g", "Mean solar gain (W)"}, "text")
 	for _, w := range rm.Windows {
 		t.row(w.Name, fixed(w.Area_m2, 1), sig(w.UValue_W_m2K, 3), fixed(w.GValue, 2), fixed(w.SolarMean_W, 0))
 		if len(w.SunTo) > 0 {

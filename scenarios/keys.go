@@ -209,7 +209,7 @@ var (
 		},
 	}
 	windowKeys = &keyTable{
-		Name: "window", Doc: "A massless window: U A to the outdoor air, g A I of sun to the room air.",
+		Name: "window", Doc: "A massless window: U A to the outdoor air, g A I of sun into the room (to the air, or in part to the surfaces sun_to names).",
 		Required: []string{"area", "u_value"},
 		Keys: []keySpec{
 			k("name", "label", fText),
