@@ -51,7 +51,7 @@ const (
 // read as metres, a density of 1.7 kg/m3, a specific heat of
 // 0.84 J/(kg K), a non-metal conducting 35 W/(m K), a thickness sweep or
 // uncertainty range from 50 to 200 m, a column named like Fahrenheit read
-// in degC). Each names the file, line and key, formatted like an error;
+// in degC, a window's sun_to with no sun to place). Each names the file, line and key, formatted like an error;
 // they are warnings, not errors: `check` prints them and Run puts them
 // first in Results.Warnings.
 func Warnings(s *Scenario) []*Error {
@@ -75,9 +75,32 @@ func Warnings(s *Scenario) []*Error {
 		}
 		w.studies(top)
 	}
+	if s.Kind == Room {
+		w.windowSun(mapValue(top, "windows"))
+	}
 	w.series(top, "")
 	sort.SliceStable(w.out, func(i, j int) bool { return w.out[i].Line < w.out[j].Line })
 	return w.out
+}
+
+// windowSun warns of a window whose sun_to places sun it never lets in:
+// no irradiance, or a g_value of 0.
+func (w *warner) windowSun(list *yaml.Node) {
+	if list == nil || list.Kind != yaml.SequenceNode {
+		return
+	}
+	for i, win := range list.Content {
+		to := mapValue(win, "sun_to")
+		if to == nil {
+			continue
+		}
+		key := fmt.Sprintf("windows[%d].sun_to", i+1)
+		if mapValue(win, "irradiance") == nil {
+			w.add(to, key, "has no effect: the window has no irradiance, so no sun comes through it; give irradiance or remove sun_to")
+		} else if g, ok := quantityIn(mapValue(win, "g_value"), layers.Fraction); ok && g == 0 {
+			w.add(to, key, "has no effect: the window's g_value is 0, so no sun comes through it")
+		}
+	}
 }
 
 // WarningTexts writes plausibility warnings as Results.Warnings holds

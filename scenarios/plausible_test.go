@@ -79,6 +79,12 @@ func TestPlausibilityWarnings(t *testing.T) {
 		{"Fahrenheit column read as degC", wallWith("  - material: clay-brick\n    thickness: 240 mm\n", "{file: rec.csv, column: temp_F}", ""),
 			wallWith("  - material: clay-brick\n    thickness: 240 mm\n", "{file: rec.csv, column: temp_F, unit: F}", ""),
 			7, "outside.temperature.column", `column "temp_F" is named like degrees Fahrenheit but is read in degC`},
+		{"window sun_to without irradiance", roomWindow("{name: w, area: 4, u_value: 1.2, sun_to: [{element: floor, fraction: 0.6}]}"),
+			roomWindow("{name: w, area: 4, u_value: 1.2, g_value: 0.5, irradiance: 100, sun_to: [{element: floor, fraction: 0.6}]}"),
+			29, "windows[1].sun_to", "the window has no irradiance"},
+		{"window sun_to with g 0", roomWindow("{name: w, area: 4, u_value: 1.2, g_value: 0, irradiance: 100, sun_to: [{element: floor, fraction: 0.6}]}"),
+			roomWindow("{name: w, area: 4, u_value: 1.2, g_value: 0, irradiance: 100}"),
+			29, "windows[1].sun_to", "g_value is 0"},
 	}
 	fsys := fstest.MapFS{"rec.csv": {Data: plausibleRecord("temp_F")}}
 	for _, tc := range tests {
@@ -185,4 +191,11 @@ func TestPlausibilityRealisticFilesQuiet(t *testing.T) {
 			t.Errorf("library material %s written inline warns: %v", m.Key, ws)
 		}
 	}
+}
+
+// roomWindow is roomYAML with its window written as win (one flow
+// mapping, on line 29).
+func roomWindow(win string) string {
+	i := strings.Index(roomYAML, "  - {name: window")
+	return roomYAML[:i] + "  - " + win + "\n"
 }
