@@ -183,6 +183,9 @@ func spinUpText(sim *results.Simulation) string {
 	if l := sim.SpinUpLastCycleSimulated; l != nil && *l {
 		v = fmt.Sprintf("%d cycles at the simulation's step, the last of them the simulation's own first cycle, which changed the temperatures by at most %s K", sim.SpinUpCycles, sig(sim.SpinUpChange_K, 2))
 	}
+	if c := sim.SpinUpCoarseCycles; c != nil && *c > 0 {
+		v = fmt.Sprintf("%d coarse cycles, then ", *c) + v
+	}
 	if sim.SpinUpTolerance_K > 0 {
 		if sim.SpinUpConverged {
 			v += fmt.Sprintf(" (converged: within %s K)", sig(sim.SpinUpTolerance_K, 2))

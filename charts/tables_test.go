@@ -112,13 +112,13 @@ func TestGroundSections(t *testing.T) {
 
 	// A spin-up whose last cycle is the simulation's own first cycle says
 	// so, under a label that does not claim it ran before recording.
-	yes := true
-	r.Simulation.SpinUpLastCycleSimulated = &yes
+	yes, coarse := true, 5
+	r.Simulation.SpinUpLastCycleSimulated, r.Simulation.SpinUpCoarseCycles = &yes, &coarse
 	in = tableRows(t, render(t, r, Options{}), "Assumptions and inputs of this run")
-	if got, want := rowOf(t, in, "Spin-up")[1], "3 cycles at the simulation's step, the last of them the simulation's own first cycle, which changed the temperatures by at most 0.0040 K"; !strings.HasPrefix(got, want) {
+	if got, want := rowOf(t, in, "Spin-up")[1], "5 coarse cycles, then 3 cycles at the simulation's step, the last of them the simulation's own first cycle, which changed the temperatures by at most 0.0040 K"; !strings.HasPrefix(got, want) {
 		t.Errorf("spin-up row %q, want it to start %q", got, want)
 	}
-	r.Simulation.SpinUpLastCycleSimulated = nil
+	r.Simulation.SpinUpLastCycleSimulated, r.Simulation.SpinUpCoarseCycles = nil, nil
 
 	// A design index: used by the closed forms, shown beside the forcing's.
 	// As scenarios fills it: the headline index is the design index, the

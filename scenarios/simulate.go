@@ -318,7 +318,8 @@ func simulate(s *run, col solver.Column, r *results.Results, progress Progress) 
 		HeatInInside_J_m2:          res.Energy.InflowInside,
 	}
 	if settled != nil {
-		out.SpinUpLastCycleSimulated = &lastSimulated
+		coarse := settled.CoarseCycles
+		out.SpinUpLastCycleSimulated, out.SpinUpCoarseCycles = &lastSimulated, &coarse
 	}
 	out.Probes = probeStats
 	r.Simulation = out

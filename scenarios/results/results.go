@@ -186,6 +186,10 @@ type Simulation struct {
 	// itself: the simulation then starts from the state the cycle before
 	// left, and its own first cycle is the one shown to repeat.
 	SpinUpLastCycleSimulated *bool `json:"spin_up_last_cycle_simulated,omitempty"`
+	// SpinUpCoarseCycles, present after a spin-up, is the number of its
+	// first, coarse cycles (steps of up to 6 h) run before the
+	// SpinUpCycles at the simulation's step; 0 when it had none.
+	SpinUpCoarseCycles *int `json:"spin_up_coarse_cycles,omitempty"`
 }
 
 // Probe summarises the simulated temperature at one depth.
