@@ -63,7 +63,9 @@ func Check(s *Spec) error {
 	return err
 }
 
-// newPlan checks the room and builds its plan.
+// newPlan checks the room and builds its plan: the room of solver
+// elements with its mass and without (addElements), where the windows' sun
+// goes (addSun), the cycle and its samples (setPeriod) and the meshes.
 func newPlan(rs *Spec) (*plan, error) {
 	if rs == nil || rs.Outdoor.At == nil {
 		file := ""
@@ -86,6 +88,44 @@ func newPlan(rs *Spec) (*plan, error) {
 	p.outdoor = rs.Outdoor.At
 	periods := append([]climate.Harmonic(nil), rs.Outdoor.Harmonics...)
 	periods = append(periods, rs.Gains.Harmonics...)
+	if err := p.addElements(rs, &periods); err != nil {
+		return nil, err
+	}
+	if err := p.addSun(rs, &periods); err != nil {
+		return nil, err
+	}
+	if err := p.room.Validate(); err != nil {
+		return nil, &fileerr.Error{File: rs.File, Key: "elements", Err: err}
+	}
+	hold := hMean
+	for _, e := range p.room.Elements {
+		if e.Back == solver.BackOutside {
+			hold += e.Area * e.U()
+		}
+	}
+	if !(hold > 0) {
+		return nil, &fileerr.Error{File: rs.File, Line: rs.Line, Key: "room", Msg: "nothing joins the room to the outdoors, so its mean temperature is not defined: give ventilation, a window or an element backed by the outside"}
+	}
+	if err := p.setPeriod(rs, periods); err != nil {
+		return nil, err
+	}
+	var err error
+	if p.meshes, err = solver.RoomMeshes(p.room, solver.MeshOptions{}); err != nil {
+		return nil, &fileerr.Error{File: rs.File, Key: "elements", Err: err}
+	}
+	for _, m := range p.meshes {
+		if m != nil {
+			p.cells += m.Cells()
+		}
+	}
+	return p, nil
+}
+
+// addElements adds the solver element of each element of rs to the room
+// and, with its layers reduced to their resistances, to the room without
+// mass; it records each element's back environment and appends the
+// periods of the sol-air forcing to periods.
+func (p *plan) addElements(rs *Spec, periods *[]climate.Harmonic) error {
 	for i, e := range rs.Elements {
 		rsi, rse := layers.SurfaceResistances(e.Orientation)
 		col := layers.Construction{Layers: e.Layers, Orientation: e.Orientation}.Column(rsi, rse)
@@ -93,7 +133,7 @@ func newPlan(rs *Spec) (*plan, error) {
 			col.OutsideResistance = rsi // the neighbour's inside surface; no heat crosses it
 		}
 		if err := col.Validate(); err != nil {
-			return nil, &fileerr.Error{File: rs.File, Line: e.Line, Key: fmt.Sprintf("elements[%d]", i+1), Err: err}
+			return &fileerr.Error{File: rs.File, Line: e.Line, Key: fmt.Sprintf("elements[%d]", i+1), Err: err}
 		}
 		el := solver.RoomElement{Name: e.Name, Area: e.Area, Column: col, Back: e.Back}
 		p.room.Elements = append(p.room.Elements, el)
@@ -108,10 +148,18 @@ func newPlan(rs *Spec) (*plan, error) {
 			// The back's environment is the wall kind's outside: the
 			// outdoor air, or its sol-air temperature in the sun.
 			env = e.Environment
-			periods = append(periods, e.BackHarmonics...)
+			*periods = append(*periods, e.BackHarmonics...)
 		}
 		p.back = append(p.back, env)
 	}
+	return nil
+}
+
+// addSun checks each window's sun_to and sets the heat to the air (the
+// gains and the part of the windows' sun that heats the air) and the sun
+// absorbed at each element's inside surface; it appends the periods of
+// the irradiance to periods.
+func (p *plan) addSun(rs *Spec, periods *[]climate.Harmonic) error {
 	type sun struct {
 		ga  float64 // W per W/m2: g A, times the fraction it goes with
 		irr *Forcing
@@ -121,13 +169,13 @@ func newPlan(rs *Spec) (*plan, error) {
 	anySurface := false
 	for i, w := range rs.Windows {
 		if err := checkSunTo(rs, i); err != nil {
-			return nil, err
+			return err
 		}
 		if w.Sun != nil && w.G > 0 {
 			// The air takes what sun_to leaves (all of it without sun_to:
 			// times 1, exactly).
 			suns = append(suns, sun{w.G * w.Area * w.AirFraction(), w.Sun})
-			periods = append(periods, w.Sun.Harmonics...)
+			*periods = append(*periods, w.Sun.Harmonics...)
 			for _, sh := range w.SunTo {
 				if sh.Fraction > 0 {
 					onSurface[sh.Element] = append(onSurface[sh.Element], sun{w.G * w.Area * sh.Fraction, w.Sun})
@@ -159,30 +207,26 @@ func newPlan(rs *Spec) (*plan, error) {
 			}
 		}
 	}
-	if err := p.room.Validate(); err != nil {
-		return nil, &fileerr.Error{File: rs.File, Key: "elements", Err: err}
-	}
-	hold := hMean
-	for _, e := range p.room.Elements {
-		if e.Back == solver.BackOutside {
-			hold += e.Area * e.U()
-		}
-	}
-	if !(hold > 0) {
-		return nil, &fileerr.Error{File: rs.File, Line: rs.Line, Key: "room", Msg: "nothing joins the room to the outdoors, so its mean temperature is not defined: give ventilation, a window or an element backed by the outside"}
-	}
+	return nil
+}
+
+// setPeriod sets the cycle (the longest forcing period, at least a day)
+// and its Fourier samples, and checks that every period divides it, that
+// it is at most two years and that the warm-up takes a sensible number of
+// steps.
+func (p *plan) setPeriod(rs *Spec, periods []climate.Harmonic) error {
 	p.period = climate.Day
 	for _, h := range periods {
 		p.period = math.Max(p.period, h.Period)
 	}
 	for _, h := range periods {
 		if n := p.period / h.Period; math.Abs(n-math.Round(n)) > 1e-6*n {
-			return nil, &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: fmt.Sprintf(
+			return &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: fmt.Sprintf(
 				"a room needs forcing periods that divide the longest one (%s): %s does not", layers.FormatDuration(p.period), layers.FormatDuration(h.Period))}
 		}
 	}
 	if p.period > 2*climate.Year {
-		return nil, &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: "a room's forcing periods must not exceed two years"}
+		return &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: "a room's forcing periods must not exceed two years"}
 	}
 	// Fourier samples of one cycle: every minute for a day or two, every
 	// 15 minutes beyond.
@@ -192,19 +236,10 @@ func newPlan(rs *Spec) (*plan, error) {
 	}
 	p.samples = int(math.Round(p.period / dtf))
 	if math.Abs(float64(p.samples)*dtf-p.period) > 1e-6*p.period {
-		return nil, &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: "the longest forcing period must be a whole number of minutes"}
+		return &fileerr.Error{File: rs.File, Key: "outside.temperature", Msg: "the longest forcing period must be a whole number of minutes"}
 	}
 	if steps := (rs.WarmUp + p.period) / rs.Step; steps > 2e6 {
-		return nil, &fileerr.Error{File: rs.File, Line: rs.Line, Key: "room.step", Msg: fmt.Sprintf("%.0f time steps are too many; lengthen the step or shorten warm_up", steps)}
+		return &fileerr.Error{File: rs.File, Line: rs.Line, Key: "room.step", Msg: fmt.Sprintf("%.0f time steps are too many; lengthen the step or shorten warm_up", steps)}
 	}
-	var err error
-	if p.meshes, err = solver.RoomMeshes(p.room, solver.MeshOptions{}); err != nil {
-		return nil, &fileerr.Error{File: rs.File, Key: "elements", Err: err}
-	}
-	for _, m := range p.meshes {
-		if m != nil {
-			p.cells += m.Cells()
-		}
-	}
-	return p, nil
+	return nil
 }
