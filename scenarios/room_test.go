@@ -83,6 +83,11 @@ func TestRoomScenarioExactMatchesSimulation(t *testing.T) {
 	if !(x.energy < 1e-9) {
 		t.Errorf("energy balance relative error %g", x.energy)
 	}
+	// The operative temperature, windows included, from both solutions.
+	pe, ps := x.r.Room.Periodic, x.r.Room.Simulation
+	if math.Abs(pe.OperativeMax_C-ps.OperativeMax_C) > 0.05 || math.Abs(pe.OperativeMin_C-ps.OperativeMin_C) > 0.05 {
+		t.Errorf("operative max/min: exact %.3f/%.3f, simulated %.3f/%.3f degC", pe.OperativeMax_C, pe.OperativeMin_C, ps.OperativeMax_C, ps.OperativeMin_C)
+	}
 	if !(x.peakCut > 0) {
 		t.Errorf("the mass should lower the peak, got %g K", x.peakCut)
 	}
@@ -115,11 +120,12 @@ windows:
 			t.Errorf("%s %.9f degC, by hand %.9f", name, v, want)
 		}
 	}
-	// Operative: the wall's surface is Rsi U (air - outdoor) below the
-	// air, the adiabatic floor's surface at the air; area-weighted, then
-	// averaged with the air.
+	// Operative: the wall's and the window's surfaces are Rsi U (air -
+	// outdoor) below the air (Rsi 0.13 for both), the adiabatic floor's
+	// surface at the air; area-weighted, then averaged with the air.
 	wallSurf := want - 0.13*u*(want-10)
-	op := (want + (20*wallSurf+16*want)/36) / 2
+	winSurf := want - 0.13*2.0*(want-10)
+	op := (want + (20*wallSurf+16*want+2*winSurf)/38) / 2
 	rm := x.r.Room
 	for name, v := range map[string]float64{"exact": rm.Periodic.OperativeMax_C, "simulated": rm.Simulation.OperativeMax_C} {
 		if math.Abs(v-op) > 1e-6 {

@@ -89,14 +89,10 @@ func (p *plan) exact(r solver.Room) (*cycle, error) {
 	for k := range ms {
 		scale += 1e-9 * math.Abs(ms[k])
 	}
-	area := 0.0
-	for _, e := range r.Elements {
-		area += e.Area
-	}
 	cAir := make([]complex128, n/2+1)
 	cOp := make([]complex128, n/2+1)
 	cAir[0] = complex(real(x.mean.Air)*float64(n), 0)
-	cOp[0] = complex(operative(x.mean, r)*float64(n), 0)
+	cOp[0] = complex(real(p.operative(r, x.mean.Air, x.meanF.Outdoor, x.mean.Surface))*float64(n), 0)
 	for k := 1; k < n/2; k++ {
 		big := cmplx.Abs(po[k]) > scale || cmplx.Abs(pg[k]) > scale
 		f := solver.RoomForcing{Outdoor: po[k], Gains: pg[k], Back: make([]complex128, ne)}
@@ -127,11 +123,7 @@ func (p *plan) exact(r solver.Room) (*cycle, error) {
 		x.forcing = append(x.forcing, f)
 		half := complex(float64(n)/2, 0)
 		cAir[k] = res.Air * half
-		op := res.Air / 2
-		for e, el := range r.Elements {
-			op += res.Surface[e] * complex(el.Area/area/2, 0)
-		}
-		cOp[k] = op * half
+		cOp[k] = p.operative(r, res.Air, f.Outdoor, res.Surface) * half
 	}
 	x.air = fft.Sequence(nil, cAir)
 	x.oper = fft.Sequence(nil, cOp)
@@ -142,17 +134,6 @@ func (p *plan) exact(r solver.Room) (*cycle, error) {
 		x.outdoor[j] = p.outdoor(p.period * float64(j) / float64(n))
 	}
 	return x, nil
-}
-
-// operative is the mean operative temperature of a mean response: the
-// mean of the air and the area-weighted inside surface temperature.
-func operative(m solver.RoomResponse, r solver.Room) float64 {
-	area, s := 0.0, 0.0
-	for e, el := range r.Elements {
-		area += el.Area
-		s += el.Area * real(m.Surface[e])
-	}
-	return (real(m.Air) + s/area) / 2
 }
 
 // cellsAt returns the exact cell temperatures of every element and the

@@ -26,7 +26,38 @@ type plan struct {
 	surface   []func(float64) float64
 	cond      func(float64) float64 // W/K: ventilation and windows
 	windowsUA float64               // W/K
-	cells     int
+	// windowsA is the windows' area, m2, and windowsK the sum of their
+	// A Rsi U, m2: the windows' area-weighted inside surface temperature
+	// is (windowsA theta_i - windowsK (theta_i - theta_o)) / windowsA
+	// (see operative).
+	windowsA, windowsK float64
+	cells              int
+}
+
+// operative returns the operative temperature of the room (degC, or a
+// complex amplitude of one harmonic, K) for the air temperature air, the
+// outdoor air outdoor and the inside surface temperature of each element
+// surf: the mean of the air temperature and the area-weighted mean
+// inside surface temperature of the elements and windows (the operative
+// temperature of ISO 7726:1998 taken as the simple mean of air and mean
+// radiant temperature where the air moves slowly, below about 0.2 m/s
+// [memory]; the surfaces' area-weighted mean stands for the mean radiant
+// temperature, common practice). A window is massless glazing: its inside surface lies at
+//
+//	theta_w = theta_i - Rsi U (theta_i - theta_o)
+//
+// with Rsi = 0.13 m2 K/W (ISO 6946:2017 Table 7, horizontal heat flow
+// [memory]) [derived: the steady flux U (theta_i - theta_o) through Rsi].
+// Sun absorbed in the glass is left out.
+func (p *plan) operative(r solver.Room, air, outdoor complex128, surf []complex128) complex128 {
+	area := complex(p.windowsA, 0)
+	s := area*air - complex(p.windowsK, 0)*(air-outdoor)
+	for e, el := range r.Elements {
+		a := complex(el.Area, 0)
+		area += a
+		s += a * surf[e]
+	}
+	return (air + s/area) / 2
 }
 
 // checkSunTo checks the sun_to of window i of rs: elements that exist,
@@ -78,6 +109,8 @@ func newPlan(rs *Spec) (*plan, error) {
 	ca := AirHeatCapacity * rs.Volume
 	for _, w := range rs.Windows {
 		p.windowsUA += w.U * w.Area
+		p.windowsA += w.Area
+		p.windowsK += w.Area * layers.RsiHorizontal * w.U
 	}
 	vent := rs.Ventilation
 	vol := rs.Volume

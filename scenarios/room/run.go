@@ -80,7 +80,7 @@ func Run(ctx context.Context, rs *Spec) (*results.RoomResult, []string, error) {
 	rm := &results.RoomResult{
 		Volume_m3: rs.Volume, AirHeatCapacity_kJ_K: p.room.AirCapacity / 1000,
 		VentilationDay_ach: rs.Ventilation.Day, MeanConductance_W_K: p.room.Conductance,
-		OperativeTemperature: "mean of the room air temperature and the area-weighted mean inside surface temperature of the elements (windows left out)",
+		OperativeTemperature: "mean of the room air temperature and the area-weighted mean inside surface temperature of the elements and windows (a window's inside surface from the steady flux through its U value and an Rsi of 0.13 m2 K/W)",
 		Thresholds_C:         rs.Thresholds,
 	}
 	if v := rs.Ventilation; v.Scheduled {

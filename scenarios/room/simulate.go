@@ -72,17 +72,13 @@ func (p *plan) simulate(ctx context.Context, rs *Spec, r solver.Room, meshes []*
 	if err != nil {
 		return nil, err
 	}
-	area := 0.0
-	for _, e := range r.Elements {
-		area += e.Area
-	}
 	sim := &simulation{res: res, operative: make([]float64, len(res.Times))}
-	for j := range res.Times {
-		sv := 0.0
-		for e, el := range r.Elements {
-			sv += el.Area * res.Surface[e][j]
+	surf := make([]complex128, len(r.Elements))
+	for j, t := range res.Times {
+		for e := range r.Elements {
+			surf[e] = complex(res.Surface[e][j], 0)
 		}
-		sim.operative[j] = (res.Air[j] + sv/area) / 2
+		sim.operative[j] = real(p.operative(r, complex(res.Air[j], 0), complex(p.outdoor(t), 0), surf))
 	}
 	sm := &sim.summary
 	sm.AirMax_C, sm.AirMin_C = math.Inf(-1), math.Inf(1)
