@@ -9,7 +9,8 @@ import "strconv"
 //
 // Temperatures in degC, heat in kWh per day, areas in m2. The operative
 // temperature is the mean of the air temperature and the area-weighted
-// mean inside surface temperature of the elements (windows left out).
+// mean inside surface temperature of the elements and windows (a window's
+// inside surface from the steady flux through its U value and Rsi 0.13).
 type RoomResult struct {
 	Volume_m3            float64   `json:"volume_m3"`
 	AirHeatCapacity_kJ_K float64   `json:"air_heat_capacity_kJ_K"`
