@@ -306,7 +306,7 @@ var mutants = []Mutant{
 		Old: "k, L := l.Freeze.ConductivityFrozen, l.Freeze.LatentHeat", New: "k, L := l.Conductivity, l.Freeze.LatentHeat",
 		Desc: "layered Stefan with the unfrozen conductivity", Pkgs: pGround},
 	{ID: "berggren-mu", File: "ground/frost.go",
-		Old: "mu = cAvg * vs / lAvg", New: "mu = cAvg / lAvg",
+		Old: "mu = cAvg * vs / lAvg", New: "mu, _ = cAvg/lAvg, vs",
 		Desc: "fusion parameter without the surface speed", Pkgs: pGround},
 
 	// --- scenarios: wiring of decode and runs ---
