@@ -1,35 +1,19 @@
 package solver
 
 import (
-	"math"
 	"slices"
 	"testing"
 )
 
-// checkProblem is a small freezing column under an annual wave and the
-// geothermal flux, stepping 6 h through whole years, with options for a
-// coarse phase of 1-day steps (the ground runs' shape, small).
+// checkProblem is settleKeyProblem (a small freezing column under an
+// annual wave and the geothermal flux) stepping 6 h through whole years,
+// sampled with probes, with options for a coarse phase of 1-day steps
+// (the ground runs' shape, small).
 func checkProblem() (Problem, SettleOptions) {
-	year := 365 * 86400.0
-	col := Column{Layers: []Layer{{Name: "silt", Thickness: 4, Conductivity: 1.5, HeatCapacity: 2.6e6,
-		Freeze: &Freezing{LatentHeat: 8e7, ConductivityFrozen: 2.1, HeatCapacityFrozen: 1.9e6}}}}
-	mesh, err := NewMesh(col, MeshOptions{SurfaceCell: 0.05, Growth: 1.2})
-	if err != nil {
-		panic(err)
-	}
-	p := Problem{
-		Column: col, Mesh: mesh,
-		Outside: Boundary{Kind: Environment, Resistance: 0.05,
-			Temperature: func(t float64) float64 { return 2 - 12*math.Cos(2*math.Pi*t/year) }},
-		Inside:      Boundary{Kind: PrescribedFlux, Flux: func(float64) float64 { return -0.06 }},
-		InitialFunc: func(x float64) float64 { return 2 + 0.03*x },
-		Step:        6 * 3600,
-		Duration:    2 * year,
-		Probes:      []float64{0.3, 1},
-		OutputStep:  6 * 3600,
-	}
-	o := SettleOptions{Period: year, MaxCycles: 10, Tolerance: 0.02, FrontTolerance: 1e-3,
-		ConstantInside: true, CoarseStep: 86400}
+	p, o := settleKeyProblem()
+	p.Step, p.Duration, p.OutputStep = 6*3600, 2*o.Period, 6*3600
+	p.Probes = []float64{0.3, 1}
+	o.MaxCycles, o.Tolerance, o.CoarseStep = 10, 0.02, 86400
 	return p, o
 }
 
